@@ -1,0 +1,35 @@
+package org.hullbound.cli;
+
+import picocli.CommandLine;
+import picocli.CommandLine.Command;
+
+/**
+ * The {@code hullbound} command: a thin picocli front over the library's packages.
+ *
+ * <p>It only parses arguments, calls the library and turns typed failures into messages and exit
+ * codes (0 success, 1 a sampling failure, 2 a usage, model or data error); no numerics live here.
+ */
+@Command(
+    name = "hullbound",
+    mixinStandardHelpOptions = true,
+    versionProvider = VersionProvider.class,
+    description = "Exact draws from log-concave densities, and Gibbs fits of small models.",
+    subcommands = {CommandLine.HelpCommand.class})
+public final class Main implements Runnable {
+
+  @CommandLine.Spec CommandLine.Model.CommandSpec spec;
+
+  public static void main(String[] args) {
+    System.exit(commandLine().execute(args));
+  }
+
+  /** The configured command line, shared by {@link #main} and the tests. */
+  public static CommandLine commandLine() {
+    return new CommandLine(new Main());
+  }
+
+  @Override
+  public void run() {
+    spec.commandLine().usage(spec.commandLine().getOut());
+  }
+}

@@ -1,0 +1,4 @@
+package org.hullbound.lang;
+
+/** One named argument of a family, as in {@code sd = spread}. */
+public record Argument(Identifier name, Expression value) {}

@@ -1,0 +1,61 @@
+package org.hullbound.lang;
+
+import java.util.List;
+
+/**
+ * One statement of a model file (one line, continued while a bracket is open).
+ *
+ * <p>Sealed so that binding handles every kind; the records keep exactly what was written, and
+ * meaning (sizes, families, the graph) is the job of the {@code model} package.
+ */
+public sealed interface Statement {
+
+  SourcePosition position();
+
+  /** {@code model <name>}: names the model in outputs. */
+  record ModelName(Identifier name, SourcePosition position) implements Statement {}
+
+  /**
+   * {@code index <set> = lo .. hi}, or {@code index <set>} with the size taken from the data;
+   * {@code lower} and {@code upper} are {@code null} in the second form.
+   */
+  record Index(Identifier name, Expression lower, Expression upper, SourcePosition position)
+      implements Statement {
+    public boolean sizedFromData() {
+      return lower == null;
+    }
+  }
+
+  /**
+   * Every {@code data} form. {@code targets} has several entries only in the bare form
+   * ({@code data a[tray], b[tray]}); {@code inlineValues} is {@code null} unless values are given
+   * inline ({@code = 5} or {@code = [1, 2, NA]}; NA is a NaN {@link InlineValue}); {@code
+   * likelihood} is {@code null} unless the data is modelled with {@code ~}.
+   */
+  record Data(
+      List<Declarator> targets,
+      List<InlineValue> inlineValues,
+      Distribution likelihood,
+      SourcePosition position)
+      implements Statement {
+    public Data {
+      targets = List.copyOf(targets);
+      inlineValues = inlineValues == null ? null : List.copyOf(inlineValues);
+    }
+
+    /** True for {@code data n = 5}: a scalar given without brackets. */
+    public boolean inlineScalar() {
+      return inlineValues != null && inlineValues.size() == 1 && targets.get(0).indexSets().isEmpty();
+    }
+  }
+
+  /** {@code param <target> ~ <prior>}; truncation, if any, is on the distribution. */
+  record Param(Declarator target, Distribution prior, SourcePosition position)
+      implements Statement {}
+
+  /** {@code let <target> = <value>}. */
+  record Let(Declarator target, Expression value, SourcePosition position) implements Statement {}
+
+  /** One value of an inline data vector; {@code NA} (missing) is held as NaN with missing set. */
+  record InlineValue(double value, boolean missing, SourcePosition position) {}
+}
