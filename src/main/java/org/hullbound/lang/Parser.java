@@ -629,7 +629,7 @@ public final class Parser {
   private Identifier name(String wanted, String hint) {
     Token token = peek();
     if (token.kind() != Token.Kind.NAME) {
-      throw expected(wanted, token, hint != null ? hint : continuationHint(token));
+      throw expected(wanted, token, hint != null ? hint : continuationHint(token), true);
     }
     take();
     return new Identifier(token.text(), token.position());
@@ -705,8 +705,20 @@ public final class Parser {
   }
 
   private ModelException expected(String wanted, Token found, String hint) {
+    return expected(wanted, found, hint, false);
+  }
+
+  private ModelException expected(
+      String wanted, Token found, String hint, boolean wantedAName) {
     String described = found.describe();
-    if (Lexer.RESERVED_WORDS.contains(found.text())) {
+    if (hint == null
+        && previous != null
+        && previous.kind() == Token.Kind.NUMBER
+        && found.kind() == Token.Kind.NAME
+        && found.position().line() == previous.position().line()) {
+      hint = "to multiply, write '" + previous.text() + " * " + found.text() + "'";
+    }
+    if (wantedAName && Lexer.RESERVED_WORDS.contains(found.text())) {
       described += ", a reserved word";
     }
     return error(found.position(), "expected " + wanted + ", found " + described, hint);
