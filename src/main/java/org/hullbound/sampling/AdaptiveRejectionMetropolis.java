@@ -14,7 +14,9 @@ import java.util.random.RandomGenerator;
  * target is log-concave the envelope is a true hull and every Metropolis-Hastings step accepts, so
  * ARMS costs little more than adaptive rejection; where it is not, the chain stays exact. Random
  * numbers per try of the rejection step: two uniforms (piece, position) and one for the test; one
- * more uniform for the Metropolis-Hastings step.
+ * more uniform for the Metropolis-Hastings step. The comments number the steps in the order the
+ * paper describes them (initialisation, sampling, rejection step, Metropolis step, return); the
+ * numbers are ours.
  *
  * <p>The envelope through abscissae {@code x_1 < ... < x_n} on {@code [x_i, x_{i+1}]} is {@code
  * max(L_{i,i+1}, min(L_{i-1,i}, L_{i+1,i+2}))}, where {@code L_{jk}} is the line through
