@@ -127,7 +127,12 @@ public final class EffectiveSampleSize {
     }
     requireSplittable(draws);
     Draws split = draws.requireFinite().split();
-    double q = Quantiles.of(split.sorted(), p);
+    return quantileOfSplit(split, split.sorted(), p);
+  }
+
+  /** {@link #quantile} given the split chains and their sorted pooled draws. */
+  static double quantileOfSplit(Draws split, double[] splitSorted, double p) {
+    double q = Quantiles.of(splitSorted, p);
     Draws indicator = split.map(x -> x <= q ? 1 : 0);
     return indicator.isConstant() ? Double.NaN : of(indicator);
   }
