@@ -49,17 +49,19 @@ public final class EffectiveSampleSize {
       }
       chainMeans[c] = Moments.mean(standard[c]);
     }
-    // mean_m(s_m^2 rho_t,m): the chains' mean biased autocovariance rescaled to the divisor
+    // Step 1. mean_m(s_m^2 rho_t,m): the chains' mean biased autocovariance rescaled to the divisor
     // n - 1 of s_m^2; at lag 0 it is W, the mean within-chain variance.
     double[] meanAutocovariance = Autocorrelation.meanAutocovariance(standard);
     for (int t = 0; t < n; t++) {
       meanAutocovariance[t] *= n / (n - 1.0);
     }
+    // Step 2. W, and var+ = (N - 1)/N W + B/N (Vehtari et al. 2021, equations 3-4).
     double within = meanAutocovariance[0];
     double between = m > 1 ? Moments.variance(chainMeans) : 0;
     double varPlus = (n - 1.0) / n * within + between;
 
-    // Geyer (1992): initial positive sequence of pair sums, made monotone, summed.
+    // Step 3. Geyer (1992): pair sums P_k of the combined autocorrelations, stopped before the
+    // first negative one (initial positive sequence) and made non-increasing (initial monotone).
     double pairSum = 0;
     double previousPair = Double.POSITIVE_INFINITY;
     for (int k = 0; 2 * k + 1 < n; k++) {
@@ -73,6 +75,7 @@ public final class EffectiveSampleSize {
       pairSum += pair;
       previousPair = pair;
     }
+    // Step 4. tau = -1 + 2 sum P_k and ESS = S / tau.
     double tau = -1 + 2 * pairSum;
     double s = (double) m * n;
     // Safeguard against tau near 0 or below it for strongly antithetic chains: cap the effective
