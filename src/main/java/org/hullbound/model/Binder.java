@@ -1062,7 +1062,7 @@ final class Binder {
       if (!(lower < upper)) {
         throw error(
             node.distribution.truncation().position(),
-            "within " + lower + " .. " + upper + " is empty; the lower bound must be below the"
+            "within " + number(lower) + " .. " + number(upper) + " is empty; the lower bound must be below the"
                 + " upper",
             null);
       }
@@ -1076,7 +1076,7 @@ final class Binder {
       value = new Formula.Constant(y, node.cells[e]);
       String problem = outsideSupport(y, p, known, allKnown);
       if (problem == null && truncated && !(y >= lower && y <= upper)) {
-        problem = "it lies outside within " + lower + " .. " + upper;
+        problem = "it lies outside within " + number(lower) + " .. " + number(upper);
       }
       if (problem != null) {
         SourcePosition at = node.cells[e] != null ? node.cells[e] : node.position();
@@ -1125,6 +1125,9 @@ final class Binder {
   }
 
   static String number(double v) {
+    if (Double.isInfinite(v)) {
+      return v > 0 ? "inf" : "-inf";
+    }
     return v == Math.rint(v) && Math.abs(v) < 1e15 ? Long.toString((long) v) : Double.toString(v);
   }
 
