@@ -392,6 +392,7 @@ final class Binder {
         }
         node.present[0] = true;
         node.cells[0] = v.position();
+        summaries.add(new DataSummary("inline", "(scalar)", 1, List.of(node.name()), 0));
       }
     }
   }
@@ -636,7 +637,6 @@ final class Binder {
       if (nodeSets.size() == 1 && !sets.containsKey(nodeSets.get(0).text())) {
         String set = nodeSets.get(0).text();
         sets.put(set, new IndexSet(set, 1, node.inline.size(), "inline data of " + node.name()));
-        summaries.add(new DataSummary("inline", set, node.inline.size(), List.of(node.name()), 0));
       }
     }
   }
@@ -659,6 +659,9 @@ final class Binder {
           Statement.InlineValue v = node.inline.get(e);
           store(node, e, v.missing(), v.value(), v.position(), "NA");
         }
+        summaries.add(
+            new DataSummary(
+                "inline", setList(node.target.indexSets()), node.size, List.of(node.name()), 0));
         continue;
       }
       List<ColumnBinding> bindings = columns.getOrDefault(node, List.of());
@@ -918,7 +921,7 @@ final class Binder {
         throw error(
             blame,
             "index value " + (long) v + " is outside index set '" + expected.name() + "' ("
-                + expected.range() + ")" + " used to index '" + name + "'",
+                + expected.range() + "), which indexes '" + name + "'",
             null);
       }
       index[i] = (int) v;
