@@ -7,6 +7,7 @@ import java.util.Set;
 import net.jqwik.api.Arbitraries;
 import net.jqwik.api.Arbitrary;
 import net.jqwik.api.Combinators;
+import net.jqwik.api.RandomDistribution;
 import org.apache.commons.math3.distribution.BetaDistribution;
 import org.apache.commons.math3.distribution.BinomialDistribution;
 import org.apache.commons.math3.distribution.CauchyDistribution;
@@ -77,7 +78,8 @@ final class FamilyCases {
   }
 
   static Arbitrary<Double> uniform(double lo, double hi) {
-    return Arbitraries.doubles().between(0, 1).ofScale(15).map(u -> lo + u * (hi - lo));
+    return Arbitraries.doubles().between(0, 1).ofScale(15).withDistribution(RandomDistribution.uniform())
+        .map(u -> lo + u * (hi - lo));
   }
 
   static Arbitrary<Double> logUniform(double lo, double hi) {
@@ -105,6 +107,15 @@ final class FamilyCases {
     return points().filter(p -> !p.p().discrete());
   }
 
+  /**
+   * A standardised value in {@code [-range, range]}, dense near 0 (where several curvature facts
+   * change sign) and still reaching the tails: {@code range (2q - 1)^3}.
+   */
+  private static double spread(double q, double range) {
+    double c = 2 * q - 1;
+    return range * c * c * c;
+  }
+
   private static double floorCount(double q, double span) {
     return Math.floor(q * span);
   }
@@ -116,25 +127,25 @@ final class FamilyCases {
     Arbitrary<Double> positive = logUniform(0.01, 100);
 
     cases.add(new Case("normal(mean, sd)", parametrisation("normal", "mean", "sd"), args(mean, positive),
-        (a, q) -> a[0] + a[1] * (16 * q - 8),
+        (a, q) -> a[0] + a[1] * spread(q, 8),
         (x, a) -> new NormalDistribution(null, a[0], a[1]).logDensity(x),
         (x, a) -> new NormalDistribution(null, a[0], a[1]).cumulativeProbability(x),
         (x, a) -> a[1], cm + "NormalDistribution"));
     cases.add(new Case("normal(mean, var)", parametrisation("normal", "mean", "var"),
         args(mean, logUniform(1e-4, 1e4)),
-        (a, q) -> a[0] + Math.sqrt(a[1]) * (16 * q - 8),
+        (a, q) -> a[0] + Math.sqrt(a[1]) * spread(q, 8),
         (x, a) -> new NormalDistribution(null, a[0], Math.sqrt(a[1])).logDensity(x),
         (x, a) -> new NormalDistribution(null, a[0], Math.sqrt(a[1])).cumulativeProbability(x),
         (x, a) -> Math.sqrt(a[1]), cm + "NormalDistribution with sd = sqrt(var)"));
     cases.add(new Case("normal(mean, precision)", parametrisation("normal", "mean", "precision"),
         args(mean, logUniform(1e-4, 1e4)),
-        (a, q) -> a[0] + (16 * q - 8) / Math.sqrt(a[1]),
+        (a, q) -> a[0] + spread(q, 8) / Math.sqrt(a[1]),
         (x, a) -> new NormalDistribution(null, a[0], 1 / Math.sqrt(a[1])).logDensity(x),
         (x, a) -> new NormalDistribution(null, a[0], 1 / Math.sqrt(a[1])).cumulativeProbability(x),
         (x, a) -> 1 / Math.sqrt(a[1]), cm + "NormalDistribution with sd = 1/sqrt(precision)"));
     cases.add(new Case("lognormal", parametrisation("lognormal", "meanlog", "sdlog"),
         args(uniform(-5, 5), logUniform(0.05, 3)),
-        (a, q) -> Math.exp(a[0] + a[1] * (16 * q - 8)),
+        (a, q) -> Math.exp(a[0] + a[1] * spread(q, 8)),
         (x, a) -> new LogNormalDistribution(null, a[0], a[1]).logDensity(x),
         (x, a) -> new LogNormalDistribution(null, a[0], a[1]).cumulativeProbability(x),
         (x, a) -> x * a[1], cm + "LogNormalDistribution(scale = meanlog, shape = sdlog)"));
@@ -146,12 +157,12 @@ final class FamilyCases {
         (x, a) -> Math.min(a[0], x), "folded " + cm + "NormalDistribution (JKB 1994, 13.10)"));
     cases.add(new Case("student_t", parametrisation("student_t", "df", "location", "scale"),
         args(logUniform(0.5, 200), mean, positive),
-        (a, q) -> a[1] + a[2] * 40 * (q - 0.5),
+        (a, q) -> a[1] + a[2] * spread(q, 20),
         (x, a) -> new TDistribution(null, a[0]).logDensity((x - a[1]) / a[2]) - Math.log(a[2]),
         (x, a) -> new TDistribution(null, a[0]).cumulativeProbability((x - a[1]) / a[2]),
         (x, a) -> a[2], cm + "TDistribution, location-scale transformed"));
     cases.add(new Case("cauchy", parametrisation("cauchy", "location", "scale"), args(mean, positive),
-        (a, q) -> a[0] + a[1] * 40 * (q - 0.5),
+        (a, q) -> a[0] + a[1] * spread(q, 20),
         (x, a) -> Math.log(new CauchyDistribution(null, a[0], a[1]).density(x)),
         (x, a) -> new CauchyDistribution(null, a[0], a[1]).cumulativeProbability(x),
         (x, a) -> a[1], cm + "CauchyDistribution"));
@@ -162,12 +173,12 @@ final class FamilyCases {
         (x, a) -> 2 * new CauchyDistribution(null, 0, a[0]).cumulativeProbability(x) - 1,
         (x, a) -> Math.min(a[0], x), "folded " + cm + "CauchyDistribution (JKB 1994, ch. 16)"));
     cases.add(new Case("logistic", parametrisation("logistic", "location", "scale"), args(mean, positive),
-        (a, q) -> a[0] + a[1] * 60 * (q - 0.5),
+        (a, q) -> a[0] + a[1] * spread(q, 30),
         (x, a) -> Math.log(new LogisticDistribution(null, a[0], a[1]).density(x)),
         (x, a) -> new LogisticDistribution(null, a[0], a[1]).cumulativeProbability(x),
         (x, a) -> a[1], cm + "LogisticDistribution"));
     cases.add(new Case("laplace", parametrisation("laplace", "location", "scale"), args(mean, positive),
-        (a, q) -> a[0] + a[1] * (40 * (q - 0.5) + 0.0123),
+        (a, q) -> a[0] + a[1] * (spread(q, 20) + 0.0123),
         (x, a) -> new LaplaceDistribution(null, a[0], a[1]).logDensity(x),
         (x, a) -> new LaplaceDistribution(null, a[0], a[1]).cumulativeProbability(x),
         (x, a) -> Math.min(a[1], Math.abs(x - a[0])), cm + "LaplaceDistribution"));
