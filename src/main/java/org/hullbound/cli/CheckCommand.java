@@ -35,10 +35,9 @@ import picocli.CommandLine.Parameters;
 @Command(
     name = "check",
     mixinStandardHelpOptions = true,
-    description = {
-      "Parse and bind a model with its data, and print its graph: every unknown with its",
-      "sampling scale, the update it will get and why, and the data that was read."
-    })
+    description =
+        "Parse and bind a model with its data, and print its graph: every unknown with its"
+            + " sampling scale, the update it will get and why, and the data that was read.")
 public final class CheckCommand implements Callable<Integer> {
 
   @Parameters(index = "0", paramLabel = "MODEL", description = "The model file (.hbm).")
