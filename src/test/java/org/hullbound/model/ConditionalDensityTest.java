@@ -342,4 +342,32 @@ class ConditionalDensityTest {
       assertTrue(v < c.logDensity(0, state, null), "u = " + u);
     }
   }
+
+  @Test
+  void aMissingCovariateValueThatIsModelledIsImputedFromItsDependantsToo() {
+    BoundModel model =
+        bind(
+            String.join(
+                "\n",
+                "index t = 1 .. 3",
+                "data x[t] = [1.0, NA, 2.0] ~ normal(mean = 0, sd = 2)",
+                "data y[t] = [0.5, 1.5, 1.0] ~ normal(mean = b * x[t], sd = 1)",
+                "param b ~ normal(mean = 0, sd = 1)"));
+    Unknown x2 = model.unknown("x[2]");
+    assertEquals(java.util.List.of("y[2]"), model.dependentLabels(x2.index()));
+    double b = 0.6;
+    double[] state = {b, 0.9};
+    agrees(
+        model.conditional(x2.index()),
+        state,
+        x -> new NormalDistribution(0, 2).logDensity(x)
+            + new NormalDistribution(b * x, 1).logDensity(1.5),
+        POINTS);
+    assertTrue(model.update(x2.index()) instanceof Update.AdaptiveRejection,
+        model.update(x2.index()).reason());
+    // The coefficient's conjugate posterior reads the imputed x[2] from the state:
+    // precision 1 + (1 + 0.81 + 4), weighted sum 0.5 + 0.9 * 1.5 + 2 * 1.0 (BDA3 section 2.5).
+    Posterior p = ((Update.Conjugate) model.update(0)).posterior(state);
+    assertEquals((0.5 + 0.9 * 1.5 + 2.0) / 6.81, p.argument("mean"), 1e-12);
+  }
 }
