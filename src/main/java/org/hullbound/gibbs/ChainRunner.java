@@ -152,11 +152,13 @@ public final class ChainRunner {
 
   private ChainProgress progress(int chain, long sweeps, int draws, long elapsedNanos, boolean done) {
     long total = settings.totalSweeps();
-    double perSecond = elapsedNanos > 0 ? sweeps * 1e9 / elapsedNanos : 0.0;
+    double sweepsPerSecond = elapsedNanos > 0 ? sweeps * 1e9 / elapsedNanos : 0.0;
     Duration left =
-        done || perSecond <= 0
+        done || sweepsPerSecond <= 0
             ? Duration.ZERO
-            : Duration.ofMillis((long) Math.ceil((total - sweeps) / perSecond * 1000.0));
-    return new ChainProgress(chain, sweeps, total, draws, settings.draws(), perSecond, left, done);
+            : Duration.ofMillis((long) Math.ceil((total - sweeps) / sweepsPerSecond * 1000.0));
+    return new ChainProgress(
+        chain, sweeps, settings.burnIn(), total, draws, settings.draws(),
+        sweepsPerSecond / settings.thin(), left, done);
   }
 }
