@@ -1,0 +1,156 @@
+package org.hullbound.diagnostics;
+
+import java.util.ArrayList;
+import java.util.List;
+
+/**
+ * Builds the {@link VariableSummary} of one unknown from its draws: moments, quantiles,
+ * rank-normalised split R-hat, bulk and tail effective sample size, Monte Carlo standard errors.
+ *
+ * <p>One call gives everything a report needs, and never throws for draws that are merely
+ * awkward: constant draws, too few draws and non-finite draws each give a summary whose {@link
+ * VariableSummary#state()} and notes say what could not be computed. Methods: Vehtari, Gelman,
+ * Simpson, Carpenter and Buerkner (2021), Bayesian Analysis 16(2).
+ */
+public final class PosteriorSummary {
+  /** Fewest draws per chain for split-chain diagnostics: 2 per half. */
+  public static final int MINIMUM_DRAWS_PER_CHAIN = 4;
+
+  private PosteriorSummary() {}
+
+  /**
+   * Summarises draws held chain x iteration.
+   *
+   * @param name the unknown's name, non-blank
+   * @param draws {@code draws[c][i]}, iteration {@code i} of chain {@code c}; chains of equal
+   *     length
+   * @throws IllegalArgumentException if the name is blank or the array is null, empty or ragged
+   */
+  public static VariableSummary of(String name, double[][] draws) {
+    return of(name, Draws.of(draws));
+  }
+
+  /** Summarises validated draws; see {@link #of(String, double[][])}. */
+  public static VariableSummary of(String name, Draws draws) {
+    int m = draws.chainCount();
+    int n = draws.length();
+    List<String> notes = new ArrayList<>();
+    double nan = Double.NaN;
+    try {
+      draws.requireFinite();
+    } catch (NonFiniteDrawException e) {
+      notes.add(
+          "draw "
+              + e.iteration()
+              + " of chain "
+              + e.chain()
+              + " (0-based) is "
+              + e.value()
+              + ", one of "
+              + nonFiniteCount(draws)
+              + " non-finite draws; nothing was computed");
+      return new VariableSummary(
+          name, m, n, nan, nan, nan, nan, nan, nan, nan, nan, nan, nan, nan, nan, nan, nan, nan,
+          VariableSummary.State.NON_FINITE, notes);
+    }
+
+    double[] sorted = draws.sorted();
+    double mean = Moments.mean(sorted);
+    double sd = Moments.standardDeviation(sorted, 0, sorted.length);
+    double q025 = Quantiles.of(sorted, 0.025);
+    double q50 = Quantiles.of(sorted, 0.5);
+    double q975 = Quantiles.of(sorted, 0.975);
+
+    if (draws.isConstant()) {
+      notes.add(
+          "all "
+              + sorted.length
+              + " draws equal "
+              + sorted[0]
+              + ", so R-hat, effective sample size and Monte Carlo error are undefined");
+      return new VariableSummary(
+          name, m, n, mean, 0, q025, q50, q975, nan, nan, nan, nan, nan, nan, nan, nan, nan, nan,
+          VariableSummary.State.CONSTANT, notes);
+    }
+    if (n < MINIMUM_DRAWS_PER_CHAIN) {
+      notes.add(
+          n
+              + " draw"
+              + (n == 1 ? "" : "s")
+              + " per chain are too few for split-chain diagnostics (at least "
+              + MINIMUM_DRAWS_PER_CHAIN
+              + " needed), so R-hat, effective sample size and Monte Carlo error are undefined");
+      return new VariableSummary(
+          name, m, n, mean, sd, q025, q50, q975, nan, nan, nan, nan, nan, nan, nan, nan, nan, nan,
+          VariableSummary.State.TOO_SHORT, notes);
+    }
+
+    if (draws.splitDropsMiddle()) {
+      notes.add(
+          "chains have odd length "
+              + n
+              + ": the middle draw (0-based iteration "
+              + n / 2
+              + ") of each chain is left out of the split-chain diagnostics");
+    }
+    RankNormalizedRhat rhat = Rhat.rankNormalized(draws);
+    if (rhat.bulk() == Double.POSITIVE_INFINITY) {
+      notes.add("every half-chain is constant but they differ: the chains are stuck apart");
+    }
+    if (Double.isNaN(rhat.tail())) {
+      notes.add(
+          "the draws folded around their median are all equal, so tail R-hat and hence R-hat"
+              + " are undefined");
+    }
+    double essBulk = EffectiveSampleSize.bulk(draws);
+    double essTail = EffectiveSampleSize.tail(draws);
+    if (Double.isNaN(essTail)) {
+      notes.add(
+          "the 5% or the 95% quantile lies in a run of tied draws at an end, so tail effective"
+              + " sample size is undefined");
+    }
+    double essMean = EffectiveSampleSize.mean(draws);
+    double mcseMean = MonteCarloStandardError.mean(draws);
+    double mcseQ025 = MonteCarloStandardError.quantile(draws, 0.025);
+    double mcseQ50 = MonteCarloStandardError.quantile(draws, 0.5);
+    double mcseQ975 = MonteCarloStandardError.quantile(draws, 0.975);
+    if (Double.isNaN(mcseQ025) || Double.isNaN(mcseQ50) || Double.isNaN(mcseQ975)) {
+      notes.add(
+          "a quantile lies in a run of tied draws at an end, so its Monte Carlo error is"
+              + " undefined");
+    }
+    return new VariableSummary(
+        name,
+        m,
+        n,
+        mean,
+        sd,
+        q025,
+        q50,
+        q975,
+        rhat.max(),
+        rhat.bulk(),
+        rhat.tail(),
+        essBulk,
+        essTail,
+        essMean,
+        mcseMean,
+        mcseQ025,
+        mcseQ50,
+        mcseQ975,
+        VariableSummary.State.COMPLETE,
+        notes);
+  }
+
+  private static long nonFiniteCount(Draws draws) {
+    long count = 0;
+    for (double[] chain : draws.values()) {
+      for (double x : chain) {
+        if (!Double.isFinite(x)) {
+          count++;
+        }
+      }
+    }
+    return count;
+  }
+}

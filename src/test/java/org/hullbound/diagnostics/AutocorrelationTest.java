@@ -1,0 +1,112 @@
+package org.hullbound.diagnostics;
+
+import static org.junit.jupiter.api.Assertions.assertArrayEquals;
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertThrows;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.util.random.RandomGenerator;
+import org.junit.jupiter.params.ParameterizedTest;
+import org.junit.jupiter.params.provider.ValueSource;
+import org.junit.jupiter.api.Test;
+
+class AutocorrelationTest {
+
+  /** The textbook O(N^2) definition, divisor N at every lag (Geyer 1992, section 3.1). */
+  private static double[] directAutocovariance(double[] x) {
+    int n = x.length;
+    double mean = 0;
+    for (double v : x) {
+      mean += v / n;
+    }
+    double[] gamma = new double[n];
+    for (int t = 0; t < n; t++) {
+      double sum = 0;
+      for (int i = 0; i + t < n; i++) {
+        sum += (x[i] - mean) * (x[i + t] - mean);
+      }
+      gamma[t] = sum / n;
+    }
+    return gamma;
+  }
+
+  @ParameterizedTest
+  @ValueSource(ints = {1, 2, 3, 7, 64, 100, 1000, 1025})
+  void fftAutocovarianceEqualsTheDirectSumAtEveryLag(int n) {
+    RandomGenerator random = SimulatedChains.random(20_260_001L + n);
+    double[] x = new double[n];
+    for (int i = 0; i < n; i++) {
+      x[i] = 3 + 2 * random.nextGaussian() + (i % 5 == 0 ? 1 : 0);
+    }
+    double[] direct = directAutocovariance(x);
+    double[] fft = Autocorrelation.autocovariance(x);
+    assertEquals(n, fft.length);
+    for (int t = 0; t < n; t++) {
+      // Rounding of an FFT of size 2^k grows like log2(size) ulps of gamma(0).
+      assertEquals(direct[t], fft[t], 1e-12 * direct[0], "lag " + t);
+    }
+  }
+
+  @Test
+  void handExampleOneTwoThreeFour() {
+    // Worked by hand: mean 2.5, deviations -1.5 -0.5 0.5 1.5;
+    // gamma = (5, 1.25, -1.5, -2.25) / 4, so rho = 1, 0.25, -0.3, -0.45.
+    double[] x = {1, 2, 3, 4};
+    assertArrayEquals(
+        new double[] {1.25, 0.3125, -0.375, -0.5625}, Autocorrelation.autocovariance(x), 1e-15);
+    assertArrayEquals(new double[] {1, 0.25, -0.3, -0.45}, Autocorrelation.of(x), 1e-15);
+    assertArrayEquals(new double[] {1, 0.25}, Autocorrelation.of(x, 1), 1e-15);
+  }
+
+  @Test
+  void ar1AutocorrelationDecaysGeometrically() {
+    // Stationary AR(1) has rho_t = rho^t (any time-series text, e.g. Box and Jenkins).
+    // 200000 draws: the standard error of rho_hat(t) is about sqrt((1+rho^2)/(1-rho^2)/N) < 0.006
+    // (Bartlett's formula), so 0.03 is a 5-sigma band.
+    double[] x = SimulatedChains.ar1(7, 1, 200_000, 0.6)[0];
+    double[] rho = Autocorrelation.of(x, 5);
+    for (int t = 0; t <= 5; t++) {
+      assertEquals(Math.pow(0.6, t), rho[t], 0.03, "lag " + t);
+    }
+  }
+
+  @Test
+  void hugeAndTinyScalesGiveTheSameAutocorrelation() {
+    double[] x = SimulatedChains.normal(11, 1, 500, 0, 1)[0];
+    double[] reference = Autocorrelation.of(x);
+    for (double scale : new double[] {1e300, 1e-300}) {
+      double[] scaled = java.util.Arrays.stream(x).map(v -> v * scale).toArray();
+      assertArrayEquals(reference, Autocorrelation.of(scaled), 1e-12, "scale " + scale);
+    }
+  }
+
+  @Test
+  void constantChainHasUndefinedAutocorrelationAndZeroAutocovariance() {
+    double[] rho = Autocorrelation.of(new double[] {4, 4, 4});
+    for (double r : rho) {
+      assertTrue(Double.isNaN(r));
+    }
+    assertArrayEquals(new double[] {0, 0, 0}, Autocorrelation.autocovariance(new double[] {4, 4, 4}));
+  }
+
+  @Test
+  void averagedLeavesConstantChainsOut() {
+    Draws draws = Draws.of(new double[][] {{1, 2, 3, 4}, {5, 5, 5, 5}, {4, 3, 2, 1}});
+    double[][] perChain = Autocorrelation.perChain(draws, 3);
+    assertTrue(Double.isNaN(perChain[1][0]));
+    // Chains 0 and 2 are reversals of each other, so both have rho = 1, 0.25, -0.3, -0.45.
+    assertArrayEquals(new double[] {1, 0.25, -0.3, -0.45}, Autocorrelation.averaged(draws, 3), 1e-15);
+  }
+
+  @Test
+  void rejectsBadArguments() {
+    assertThrows(IllegalArgumentException.class, () -> Autocorrelation.of(null));
+    assertThrows(IllegalArgumentException.class, () -> Autocorrelation.of(new double[0]));
+    assertThrows(IllegalArgumentException.class, () -> Autocorrelation.of(new double[] {1, 2}, 2));
+    assertThrows(IllegalArgumentException.class, () -> Autocorrelation.of(new double[] {1, 2}, -1));
+    NonFiniteDrawException e =
+        assertThrows(
+            NonFiniteDrawException.class, () -> Autocorrelation.of(new double[] {1, Double.NaN}));
+    assertEquals(1, e.iteration());
+  }
+}

@@ -1,0 +1,112 @@
+package org.hullbound.diagnostics;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertThrows;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.util.Arrays;
+import org.apache.commons.math3.distribution.NormalDistribution;
+import org.junit.jupiter.api.Test;
+
+class PosteriorSummaryTest {
+
+  @Test
+  void summarisesIidNormalDraws() {
+    // 4 x 2500 draws from N(1, 2^2). Reference quantiles from commons-math3 NormalDistribution;
+    // the sample 2.5% quantile has sd about sqrt(0.025 0.975 / 10000) / (0.0584 / 2) = 0.053,
+    // so 0.2 is a 4-sd band; the mean has sd 0.02.
+    VariableSummary s = PosteriorSummary.of("mu", SimulatedChains.normal(21, 4, 2500, 1, 2));
+    NormalDistribution reference = new NormalDistribution(null, 1, 2);
+    assertEquals("mu", s.name());
+    assertEquals(4, s.chains());
+    assertEquals(2500, s.drawsPerChain());
+    assertEquals(VariableSummary.State.COMPLETE, s.state());
+    assertTrue(s.notes().isEmpty(), s.notes().toString());
+    assertEquals(1, s.mean(), 0.08);
+    assertEquals(2, s.sd(), 0.06);
+    assertEquals(reference.inverseCumulativeProbability(0.025), s.q025(), 0.2);
+    assertEquals(1, s.q50(), 0.1);
+    assertEquals(reference.inverseCumulativeProbability(0.975), s.q975(), 0.2);
+    assertTrue(s.rhat() < 1.01 && s.rhat() == Math.max(s.rhatBulk(), s.rhatTail()));
+    assertEquals(1, s.essBulk() / 10_000, 0.1);
+    assertEquals(1, s.essTail() / 10_000, 0.15);
+    assertEquals(s.sd() / Math.sqrt(s.essMean()), s.mcseMean(), 1e-15);
+    assertTrue(s.mcseQ025() > s.mcseQ50() && s.mcseQ975() > s.mcseQ50());
+  }
+
+  @Test
+  void matchesTheLowLevelFunctions() {
+    double[][] raw = SimulatedChains.ar1(22, 3, 301, 0.4);
+    Draws draws = Draws.of(raw);
+    VariableSummary s = PosteriorSummary.of("theta", raw);
+    RankNormalizedRhat rhat = Rhat.rankNormalized(draws);
+    assertEquals(rhat.bulk(), s.rhatBulk());
+    assertEquals(rhat.tail(), s.rhatTail());
+    assertEquals(EffectiveSampleSize.bulk(draws), s.essBulk());
+    assertEquals(EffectiveSampleSize.tail(draws), s.essTail());
+    assertEquals(Quantiles.of(draws, 0.975), s.q975());
+    assertEquals(MonteCarloStandardError.quantile(draws, 0.025), s.mcseQ025());
+    assertEquals(1, s.notes().size());
+    assertTrue(s.notes().get(0).contains("odd length 301"), s.notes().get(0));
+    assertTrue(s.notes().get(0).contains("iteration 150"), s.notes().get(0));
+  }
+
+  @Test
+  void nonFiniteDrawsGiveANaNSummarySayingWhere() {
+    double[][] raw = SimulatedChains.normal(23, 2, 50, 0, 1);
+    raw[1][17] = Double.NaN;
+    raw[1][30] = Double.POSITIVE_INFINITY;
+    VariableSummary s = PosteriorSummary.of("sigma", raw);
+    assertEquals(VariableSummary.State.NON_FINITE, s.state());
+    assertTrue(Double.isNaN(s.mean()) && Double.isNaN(s.rhat()) && Double.isNaN(s.essBulk()));
+    String note = s.notes().get(0);
+    assertTrue(note.contains("draw 17 of chain 1") && note.contains("2 non-finite"), note);
+  }
+
+  @Test
+  void constantDrawsKeepTheirValueAndExplainTheUndefinedDiagnostics() {
+    double[][] raw = new double[2][20];
+    for (double[] chain : raw) {
+      Arrays.fill(chain, 3.5);
+    }
+    VariableSummary s = PosteriorSummary.of("fixed", raw);
+    assertEquals(VariableSummary.State.CONSTANT, s.state());
+    assertEquals(3.5, s.mean());
+    assertEquals(0, s.sd());
+    assertEquals(3.5, s.q025());
+    assertEquals(3.5, s.q975());
+    assertTrue(Double.isNaN(s.rhat()) && Double.isNaN(s.essTail()) && Double.isNaN(s.mcseMean()));
+    assertTrue(s.notes().get(0).contains("all 40 draws equal 3.5"), s.notes().get(0));
+  }
+
+  @Test
+  void tooShortChainsGiveMomentsButNoDiagnostics() {
+    VariableSummary s = PosteriorSummary.of("x", new double[][] {{1, 2, 3}, {4, 5, 6}});
+    assertEquals(VariableSummary.State.TOO_SHORT, s.state());
+    assertEquals(3.5, s.mean());
+    assertEquals(3.5, s.q50());
+    assertTrue(Double.isNaN(s.rhat()) && Double.isNaN(s.essBulk()));
+    assertTrue(s.notes().get(0).contains("3 draws per chain"), s.notes().get(0));
+  }
+
+  @Test
+  void stuckChainsGiveInfiniteRhatAndSaySo() {
+    double[][] raw = new double[3][10];
+    for (int c = 0; c < 3; c++) {
+      Arrays.fill(raw[c], c);
+    }
+    VariableSummary s = PosteriorSummary.of("tau", raw);
+    assertEquals(VariableSummary.State.COMPLETE, s.state());
+    assertEquals(Double.POSITIVE_INFINITY, s.rhat());
+    assertTrue(s.notes().stream().anyMatch(n -> n.contains("stuck apart")), s.notes().toString());
+  }
+
+  @Test
+  void rejectsABlankNameAndRaggedDraws() {
+    assertThrows(
+        IllegalArgumentException.class, () -> PosteriorSummary.of(" ", new double[][] {{1}}));
+    assertThrows(
+        IllegalArgumentException.class,
+        () -> PosteriorSummary.of("x", new double[][] {{1, 2, 3, 4}, {1, 2, 3}}));
+  }
+}
