@@ -32,7 +32,7 @@ final class Arguments {
     return Objects.requireNonNull(value, name + " must not be null");
   }
 
-  /** Checks a support interval {@code [lower, upper]}; infinite ends are allowed. */
+  /** Checks a support interval {@code (lower, upper)}; infinite ends are allowed. */
   static void support(double lower, double upper) {
     if (Double.isNaN(lower) || lower == Double.POSITIVE_INFINITY) {
       throw new IllegalArgumentException("lower must be a number below +Infinity, got " + lower);
@@ -46,11 +46,14 @@ final class Arguments {
     }
   }
 
-  /** Checks that {@code point} lies in the support. */
+  /**
+   * Checks that {@code point} lies inside the open support {@code (lower, upper)}: a density may
+   * be infinite at a finite end (a beta with {@code a < 1}), so the ends are never evaluated.
+   */
   static double inSupport(String name, double point, double lower, double upper) {
-    if (!(point >= lower && point <= upper)) {
+    if (!(point > lower && point < upper)) {
       throw new IllegalArgumentException(
-          name + " must lie in [" + lower + ", " + upper + "], got " + point);
+          name + " must lie inside (" + lower + ", " + upper + "), got " + point);
     }
     return point;
   }

@@ -22,7 +22,9 @@ import java.util.random.RandomGenerator;
  *
  * <p>Every proposal is checked against the bound: if {@code log f - log g} exceeds {@code log M}
  * (beyond rounding), {@link EnvelopeViolationException} is thrown rather than a wrong draw
- * returned. The configuration is immutable; the counters behind {@link #statistics()} are not
+ * returned. The support is the open interval {@code (lower, upper)}: draws never land on a finite
+ * end (where a density may be infinite); the bound search does look at the ends, as limits. The
+ * configuration is immutable; the counters behind {@link #statistics()} are not
  * synchronised, so use one instance per thread.
  */
 public final class FixedEnvelopeRejection {
@@ -94,8 +96,8 @@ public final class FixedEnvelopeRejection {
       proposals++;
       // Step 1: x ~ g.
       double x = proposal.draw(rng);
-      if (!(x >= lower && x <= upper)) {
-        continue; // f = 0 outside the support: rejected with certainty.
+      if (!(x > lower && x < upper)) {
+        continue; // f = 0 outside the open support: rejected with certainty.
       }
       // Step 2: accept with probability f(x) / (M g(x)).
       evaluations++;
