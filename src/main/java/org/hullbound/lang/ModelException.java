@@ -60,12 +60,21 @@ public class ModelException extends RuntimeException {
     return text.toString();
   }
 
+  /**
+   * Spaces up to the column, counted in code points as the lexer counts them; a tab in the line
+   * is copied as a tab, so the caret lines up whatever width the terminal gives tabs.
+   */
   private String caretPadding() {
     StringBuilder pad = new StringBuilder();
-    for (int i = 0; i < position.column() - 1 && i < sourceLine.length(); i++) {
-      pad.append(sourceLine.charAt(i) == '\t' ? '\t' : ' ');
+    int column = 1;
+    int offset = 0;
+    while (column < position.column() && offset < sourceLine.length()) {
+      int codePoint = sourceLine.codePointAt(offset);
+      pad.append(codePoint == '\t' ? '\t' : ' ');
+      offset += Character.charCount(codePoint);
+      column++;
     }
-    for (int i = sourceLine.length(); i < position.column() - 1; i++) {
+    for (; column < position.column(); column++) {
       pad.append(' ');
     }
     return pad.toString();

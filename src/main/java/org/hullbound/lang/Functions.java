@@ -1,0 +1,59 @@
+package org.hullbound.lang;
+
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+
+/**
+ * The functions that expressions of the model language may call, with the number of arguments
+ * each takes.
+ *
+ * <p>One table shared by the parser (which rejects unknown functions and wrong argument counts)
+ * and the compiler (which implements each of them), so the two can never disagree. The reduction
+ * {@code sum(set: body)} is syntax of its own and not in this table.
+ */
+public final class Functions {
+
+  private static final Map<String, Integer> ARITY = table();
+
+  private Functions() {}
+
+  private static Map<String, Integer> table() {
+    Map<String, Integer> arity = new LinkedHashMap<>();
+    for (String unary :
+        List.of(
+            "exp", "log", "log1p", "expm1", "sqrt", "square", "abs", "logit", "inv_logit",
+            "log_inv_logit", "lgamma")) {
+      arity.put(unary, 1);
+    }
+    arity.put("min", 2);
+    arity.put("max", 2);
+    return Map.copyOf(arity);
+  }
+
+  /** Every function name, in the order the language documentation lists them. */
+  public static List<String> names() {
+    return List.of(
+        "exp", "log", "log1p", "expm1", "sqrt", "square", "abs", "logit", "inv_logit",
+        "log_inv_logit", "lgamma", "min", "max");
+  }
+
+  /** True when {@code name} is one of the language's functions. */
+  public static boolean isFunction(String name) {
+    return name != null && ARITY.containsKey(name);
+  }
+
+  /**
+   * The number of arguments {@code name} takes.
+   *
+   * @throws IllegalArgumentException when {@code name} is not a function of the language
+   */
+  public static int arity(String name) {
+    Integer arity = name == null ? null : ARITY.get(name);
+    if (arity == null) {
+      throw new IllegalArgumentException(
+          "name must be one of the functions " + names() + ", got " + name);
+    }
+    return arity;
+  }
+}
