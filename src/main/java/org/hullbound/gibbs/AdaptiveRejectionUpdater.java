@@ -40,6 +40,7 @@ final class AdaptiveRejectionUpdater implements Updater {
   private long sweeps;
   private FallbackUpdater fallback;
   private String switchNote;
+  private long switchSweep;
 
   AdaptiveRejectionUpdater(UpdateRule.AdaptiveRejection rule) {
     this.index = rule.index();
@@ -66,10 +67,15 @@ final class AdaptiveRejectionUpdater implements Updater {
     double u;
     try {
       Support support = new Support(lower, upper);
+      double[] start = startingAbscissae(guess, spread, lower, upper);
+      if (smooth) {
+        start = steepen(start, lower, upper);
+      }
       HullOptions options =
           HullOptions.defaults()
+              .withAutomaticStart(guess, spread)
               .withMaximumHullSize(HULL_CAP)
-              .withStartingAbscissae(startingAbscissae(guess, spread, lower, upper));
+              .withStartingAbscissae(start);
       AdaptiveRejectionSampler sampler =
           smooth
               ? AdaptiveRejectionSampler.withDerivatives(recorder, support, options)
@@ -77,6 +83,7 @@ final class AdaptiveRejectionUpdater implements Updater {
       u = sampler.sample(rng);
     } catch (NotLogConcaveException notConcave) {
       evaluations += recorder.count;
+      switchSweep = sweeps;
       switchNote =
           "switched to adaptive rejection Metropolis at sweep " + sweeps + ": "
               + notConcave.getMessage();
@@ -90,6 +97,42 @@ final class AdaptiveRejectionUpdater implements Updater {
     draws++;
     state[index] = conditional.toNatural(u);
     learn(u);
+  }
+
+  /**
+   * Moves an outer starting point outward, by the spread, while its tangent is nearly flat (less
+   * than a quarter of the slope one standard deviation from the mode of a normal) or points the
+   * wrong way: a flat outer tangent would give the hull a heavy tail, costly to sample from. The
+   * evaluations are cached, so the hull does not repeat them.
+   */
+  private double[] steepen(double[] start, double lower, double upper) {
+    double left = start[0];
+    double right = start[start.length - 1];
+    double step = spread;
+    for (int k = 0; k < 8 && lower == Double.NEGATIVE_INFINITY; k++) {
+      double slope = recorder.slopeAt(left);
+      if (!(slope * spread < 0.25) || !Double.isFinite(slope)) {
+        break;
+      }
+      left -= step;
+      step *= 2;
+    }
+    step = spread;
+    for (int k = 0; k < 8 && upper == Double.POSITIVE_INFINITY; k++) {
+      double slope = recorder.slopeAt(right);
+      if (!(slope * spread > -0.25) || !Double.isFinite(slope)) {
+        break;
+      }
+      right += step;
+      step *= 2;
+    }
+    if (left == start[0] && right == start[start.length - 1]) {
+      return start;
+    }
+    double[] moved = start.clone();
+    moved[0] = left;
+    moved[moved.length - 1] = right;
+    return moved;
   }
 
   /** Two points (three without derivatives) around the guess, strictly inside the support. */
@@ -212,6 +255,11 @@ final class AdaptiveRejectionUpdater implements Updater {
     return switchNote;
   }
 
+  @Override
+  public long switchSweep() {
+    return switchSweep;
+  }
+
   /** The conditional at the current state, recording each evaluation for the warm start. */
   private final class Recorder implements DifferentiableLogDensity {
     private final double[] slope = new double[1];
@@ -228,10 +276,29 @@ final class AdaptiveRejectionUpdater implements Updater {
 
     @Override
     public Evaluation evaluate(double u) {
+      int seen = find(u);
+      if (seen >= 0) {
+        return new Evaluation(h[seen], s[seen]);
+      }
       slope[0] = Double.NaN;
       double value = conditional.logDensity(u, state, slope);
       record(u, value, slope[0]);
       return new Evaluation(value, slope[0]);
+    }
+
+    /** The slope at {@code u}, evaluating (once) if needed. */
+    double slopeAt(double u) {
+      return evaluate(u).slope();
+    }
+
+    /** Where {@code u} was already evaluated in this update, else -1 (the state is unchanged). */
+    private int find(double u) {
+      for (int k = count - 1; k >= 0; k--) {
+        if (x[k] == u) {
+          return k;
+        }
+      }
+      return -1;
     }
 
     double value(double u) {

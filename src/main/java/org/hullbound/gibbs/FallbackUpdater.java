@@ -27,6 +27,10 @@ final class FallbackUpdater implements Updater {
 
   @Override
   public void update(double[] state, RandomGenerator rng) {
+    if (conditional.discrete()) {
+      wholeStep(state, rng);
+      return;
+    }
     double lower = conditional.lowerBound(state);
     double upper = conditional.upperBound(state);
     double x0 = conditional.toSamplingScale(state[index]);
@@ -62,6 +66,27 @@ final class FallbackUpdater implements Updater {
     draws++;
   }
 
+  /**
+   * A whole-valued unknown: Metropolis (Metropolis et al. 1953) with the symmetric proposal
+   * x +- 1, rejected outside the support.
+   */
+  private void wholeStep(double[] state, RandomGenerator rng) {
+    double lower = conditional.lowerBound(state);
+    double upper = conditional.upperBound(state);
+    double x0 = state[index];
+    double x1 = x0 + (rng.nextBoolean() ? 1 : -1);
+    double u = rng.nextDouble();
+    if (x1 >= lower && x1 <= upper) {
+      evaluations += 2;
+      double h0 = conditional.logDensity(conditional.toSamplingScale(x0), state, null);
+      double h1 = conditional.logDensity(conditional.toSamplingScale(x1), state, null);
+      if (Math.log(u) < h1 - h0) {
+        state[index] = x1;
+      }
+    }
+    draws++;
+  }
+
   private double log(double u, double[] state, double lower, double upper) {
     if (!(u > lower && u < upper)) {
       return Double.NEGATIVE_INFINITY;
@@ -77,7 +102,7 @@ final class FallbackUpdater implements Updater {
 
   @Override
   public String method() {
-    return "slice (fallback)";
+    return conditional.discrete() ? "whole-step Metropolis (fallback)" : "slice (fallback)";
   }
 
   @Override

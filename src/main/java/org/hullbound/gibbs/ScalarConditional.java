@@ -42,4 +42,9 @@ public interface ScalarConditional {
   default boolean smooth() {
     return true;
   }
+
+  /** Whether the unknown takes whole values only (a missing count): no hull, no derivative. */
+  default boolean discrete() {
+    return false;
+  }
 }

@@ -14,8 +14,10 @@ import java.util.Set;
  * @param evaluationsPerDraw density evaluations per conditional draw, over all chains (0 for
  *     exact conjugate and block draws)
  * @param switches one note per chain that switched, else empty
+ * @param firstSwitchSweep the earliest sweep at which a chain switched, 0 when none did
  */
-public record UpdateReport(int index, String method, double evaluationsPerDraw, List<String> switches) {
+public record UpdateReport(
+    int index, String method, double evaluationsPerDraw, List<String> switches, long firstSwitchSweep) {
 
   public UpdateReport {
     switches = List.copyOf(switches);
@@ -27,6 +29,7 @@ public record UpdateReport(int index, String method, double evaluationsPerDraw, 
     long[] evaluations = new long[dimension];
     long[] draws = new long[dimension];
     List<List<String>> notes = new ArrayList<>();
+    long[] firstSwitch = new long[dimension];
     for (int i = 0; i < dimension; i++) {
       methods.add(new LinkedHashSet<>());
       notes.add(new ArrayList<>());
@@ -43,6 +46,8 @@ public record UpdateReport(int index, String method, double evaluationsPerDraw, 
           draws[index] += updater.draws() / indices.length;
           if (updater.switchNote() != null) {
             notes.get(index).add("chain " + (chain + 1) + " " + updater.switchNote());
+            long sweep = updater.switchSweep();
+            firstSwitch[index] = firstSwitch[index] == 0 ? sweep : Math.min(firstSwitch[index], sweep);
           }
         }
       }
@@ -50,7 +55,9 @@ public record UpdateReport(int index, String method, double evaluationsPerDraw, 
     List<UpdateReport> reports = new ArrayList<>();
     for (int i = 0; i < dimension; i++) {
       double perDraw = draws[i] == 0 ? 0.0 : (double) evaluations[i] / draws[i];
-      reports.add(new UpdateReport(i, String.join(" / ", methods.get(i)), perDraw, notes.get(i)));
+      reports.add(
+          new UpdateReport(
+              i, String.join(" / ", methods.get(i)), perDraw, notes.get(i), firstSwitch[i]));
     }
     return reports;
   }

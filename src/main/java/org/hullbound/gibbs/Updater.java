@@ -31,4 +31,9 @@ public sealed interface Updater
   default String switchNote() {
     return null;
   }
+
+  /** The 1-based sweep of this chain at which the updater changed method, 0 when it did not. */
+  default long switchSweep() {
+    return 0;
+  }
 }
