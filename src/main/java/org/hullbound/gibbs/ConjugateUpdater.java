@@ -34,7 +34,7 @@ final class ConjugateUpdater implements Updater {
 
   @Override
   public String method() {
-    return "conjugate " + family;
+    return family.startsWith("predictive") ? family : "conjugate " + family;
   }
 
   @Override
