@@ -10,8 +10,9 @@ import java.util.random.RandomGenerator;
  * static, allocation-free methods that validate their arguments on every call, rather than sampler
  * objects. Sources: gamma by Marsaglia and Tsang (2000), "A simple method for generating gamma
  * variables", ACM TOMS 26(3), including their boost {@code Gamma(a) = Gamma(a + 1) U^(1/a)} for
- * {@code a < 1}; beta as {@code X / (X + Y)} of two gammas (Devroye 1986, section IX.4); normal by
- * the generator's own {@link RandomGenerator#nextGaussian()} (a ziggurat in the JDK, McFarland 2016).
+ * {@code a < 1}; beta as {@code X / (X + Y)} of two gammas (Devroye 1986, chapter IX); normal
+ * by the generator's own {@link RandomGenerator#nextGaussian()} (a ziggurat in the JDK,
+ * McFarland 2016).
  *
  * <table>
  *   <caption>Draws and the random numbers they use</caption>

@@ -37,13 +37,16 @@ public interface Proposal {
 
   /**
    * The shifted exponential {@code shift + Exp(rate)}, density {@code rate exp(-rate (x - shift))}
-   * on {@code [shift, inf)}. With {@code rate = shift} it is the proposal Marsaglia (1964) and
-   * Devroye (1986, section IX.1.2) use for a normal tail beyond {@code shift}.
+   * on {@code [shift, inf)}: the proposal Robert (1995, "Simulation of truncated normal
+   * variables", Statistics and Computing 5) uses for a normal tail beyond {@code shift}, there
+   * with rate {@code (shift + sqrt(shift^2 + 4)) / 2} (recalled from memory); rate 1 is the
+   * simplest choice.
    *
    * @param shift the left end of the support, finite
    * @param rate the exponential rate, finite and {@code > 0}
    */
   static Proposal exponentialTail(double shift, double rate) {
-    return new ExponentialTailProposal(Arguments.finite("shift", shift), Arguments.positive("rate", rate));
+    return new ExponentialTailProposal(
+        Arguments.finite("shift", shift), Arguments.positive("rate", rate));
   }
 }

@@ -169,6 +169,26 @@ class FixedEnvelopeRejectionTest {
   }
 
   @Test
+  void aSingularityAtAFiniteEndIsAnUnboundedRatio() {
+    // beta(0.5, 1) under a uniform proposal on (0, 1): f/g = x^(-1/2) / 2 is unbounded at 0.
+    Proposal uniform = new Proposal() {
+      @Override
+      public double draw(RandomGenerator rng) {
+        return rng.nextDouble();
+      }
+
+      @Override
+      public double logDensity(double x) {
+        return x >= 0 && x <= 1 ? 0 : Double.NEGATIVE_INFINITY;
+      }
+    };
+    IllegalArgumentException e = assertThrows(IllegalArgumentException.class,
+        () -> FixedEnvelopeRejection.withComputedBound(
+            x -> -0.5 * Math.log(x) - Math.log(2), 0, 1, uniform));
+    assertTrue(e.getMessage().contains("unbounded"), e.getMessage());
+  }
+
+  @Test
   void aBoundThatIsTooSmallIsDetected() {
     FixedEnvelopeRejection sampler = FixedEnvelopeRejection.of(
         TRUNCATED_NORMAL, TAIL, Double.POSITIVE_INFINITY, Proposal.exponentialTail(TAIL, 1),
