@@ -160,7 +160,9 @@ public final class FitCommand implements Callable<Integer> {
         stderr.flush();
       }
       try {
-        outcome = ChainRunner.of(settings, listener, stop).run(sampler.sampler(), both);
+        outcome =
+            ChainRunner.of(settings, listener, stop)
+                .run(sampler.sampler().withAdaptation(settings.burnIn()), both);
       } catch (ChainFailedException failed) {
         display.finish();
         stderr.println("hullbound fit: sampling failed: " + failed.getMessage());

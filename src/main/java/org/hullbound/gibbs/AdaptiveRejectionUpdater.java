@@ -42,7 +42,10 @@ final class AdaptiveRejectionUpdater implements Updater {
   private String switchNote;
   private long switchSweep;
 
-  AdaptiveRejectionUpdater(UpdateRule.AdaptiveRejection rule) {
+  private final long adaptationSweeps;
+
+  AdaptiveRejectionUpdater(UpdateRule.AdaptiveRejection rule, long adaptationSweeps) {
+    this.adaptationSweeps = adaptationSweeps;
     this.index = rule.index();
     this.conditional = rule.conditional();
     this.smooth = rule.conditional().smooth();
@@ -89,7 +92,9 @@ final class AdaptiveRejectionUpdater implements Updater {
               + notConcave.getMessage();
       fallback =
           new FallbackUpdater(
-              new UpdateRule.Fallback(index, conditional, "not log-concave at run time"));
+              new UpdateRule.Fallback(index, conditional, "not log-concave at run time"),
+              Math.max(0, adaptationSweeps - sweeps), Double.isFinite(centre) ? centre : current,
+              spread);
       fallback.update(state, rng);
       return;
     }

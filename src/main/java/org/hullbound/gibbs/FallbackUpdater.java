@@ -1,69 +1,98 @@
 package org.hullbound.gibbs;
 
 import java.util.random.RandomGenerator;
+import org.hullbound.sampling.AdaptiveRejectionMetropolis;
 
 /**
  * A Markov transition that leaves the full conditional invariant where log-concavity is not
- * established, so that exact adaptive rejection cannot be used.
+ * established: adaptive rejection Metropolis (Gilks, Best and Tan 1995), or for a whole-valued
+ * unknown a +-1 Metropolis step.
  *
- * <p>Interim: slice sampling with stepping out and shrinkage (Neal 2003, Annals of Statistics 31,
- * figures 3 and 5) until the sampling package's adaptive rejection Metropolis is merged.
+ * <p>ARMS needs initial abscissae that do not depend on the unknown's current value. They are set
+ * from the chain's own draws during burn-in (mean and sd of the visited values on the sampling
+ * scale, points at mean - sd, mean, mean + sd; adapting during burn-in only, then fixed, is
+ * common practice), and are fixed from then on, so that every kept draw comes from one fixed
+ * reversible kernel. A fallback that starts after burn-in (a run-time switch) fixes its points at
+ * once, from what the adaptive rejection updater had learnt.
  */
 final class FallbackUpdater implements Updater {
-  private static final int MAX_STEPS = 32;
+  private static final int MAX_POINTS = 24;
 
   private final int index;
   private final ScalarConditional conditional;
-  /** A fixed step (changing it from the chain's own history would break invariance). */
-  private static final double WIDTH = 1.0;
-
+  private final long adaptationSweeps;
+  private double[] state;
+  private double centre;
+  private double spread;
+  private long sweeps;
   private long draws;
   private long evaluations;
+  private double mean;
+  private double sumSquares;
+  private long seen;
 
-  FallbackUpdater(UpdateRule.Fallback rule) {
+  FallbackUpdater(UpdateRule.Fallback rule, long adaptationSweeps, double centre, double spread) {
     this.index = rule.index();
     this.conditional = rule.conditional();
+    this.adaptationSweeps = adaptationSweeps;
+    this.centre = centre;
+    this.spread = spread > 0 && Double.isFinite(spread) ? spread : 1.0;
   }
 
   @Override
   public void update(double[] state, RandomGenerator rng) {
+    sweeps++;
     if (conditional.discrete()) {
       wholeStep(state, rng);
       return;
     }
+    this.state = state;
     double lower = conditional.lowerBound(state);
     double upper = conditional.upperBound(state);
-    double x0 = conditional.toSamplingScale(state[index]);
-    double h0 = log(x0, state, lower, upper);
-    // Neal 2003, figure 3: the slice level, then an interval stepped out around x0.
-    double level = h0 - (-Math.log1p(-rng.nextDouble()));
-    double left = x0 - WIDTH * rng.nextDouble();
-    double right = left + WIDTH;
-    int j = (int) Math.floor(MAX_STEPS * rng.nextDouble());
-    int k = MAX_STEPS - 1 - j;
-    while (j-- > 0 && left > lower && log(left, state, lower, upper) > level) {
-      left -= WIDTH;
+    double current = conditional.toSamplingScale(state[index]);
+    if (!Double.isFinite(centre)) {
+      centre = current;
     }
-    while (k-- > 0 && right < upper && log(right, state, lower, upper) > level) {
-      right += WIDTH;
-    }
-    left = Math.max(left, lower);
-    right = Math.min(right, upper);
-    // Figure 5: shrink towards x0 until a point in the slice is drawn.
-    double x1;
-    while (true) {
-      x1 = left + rng.nextDouble() * (right - left);
-      if (x1 > lower && x1 < upper && log(x1, state, lower, upper) >= level) {
-        break;
-      }
-      if (x1 < x0) {
-        left = x1;
-      } else {
-        right = x1;
-      }
-    }
-    state[index] = conditional.toNatural(x1);
+    AdaptiveRejectionMetropolis arms =
+        AdaptiveRejectionMetropolis.of(
+            this::logDensity, lower, upper, initialPoints(lower, upper), MAX_POINTS);
+    double next = arms.next(current, rng);
+    state[index] = conditional.toNatural(next);
     draws++;
+    if (sweeps <= adaptationSweeps) {
+      learn(next);
+    }
+  }
+
+  /** Welford's running mean and variance of the visited values (Welford 1962). */
+  private void learn(double value) {
+    seen++;
+    double delta = value - mean;
+    mean += delta / seen;
+    sumSquares += delta * (value - mean);
+    if (seen >= 10) {
+      centre = mean;
+      double sd = Math.sqrt(sumSquares / (seen - 1));
+      if (sd > 0 && Double.isFinite(sd)) {
+        spread = sd;
+      }
+    }
+  }
+
+  private double[] initialPoints(double lower, double upper) {
+    double[] points = {centre - spread, centre, centre + spread};
+    if (points[0] > lower && points[2] < upper && points[0] < points[1] && points[1] < points[2]) {
+      return points;
+    }
+    double lo = Double.isFinite(lower) ? lower : Math.min(centre, upper) - 3 * spread;
+    double hi = Double.isFinite(upper) ? upper : Math.max(centre, lower) + 3 * spread;
+    double width = hi - lo;
+    return new double[] {lo + width / 4, lo + width / 2, lo + 3 * width / 4};
+  }
+
+  private double logDensity(double u) {
+    evaluations++;
+    return conditional.logDensity(u, state, null);
   }
 
   /**
@@ -87,14 +116,6 @@ final class FallbackUpdater implements Updater {
     draws++;
   }
 
-  private double log(double u, double[] state, double lower, double upper) {
-    if (!(u > lower && u < upper)) {
-      return Double.NEGATIVE_INFINITY;
-    }
-    evaluations++;
-    return conditional.logDensity(u, state, null);
-  }
-
   @Override
   public int[] indices() {
     return new int[] {index};
@@ -102,7 +123,7 @@ final class FallbackUpdater implements Updater {
 
   @Override
   public String method() {
-    return conditional.discrete() ? "whole-step Metropolis (fallback)" : "slice (fallback)";
+    return conditional.discrete() ? "whole-step Metropolis" : "ARMS fallback";
   }
 
   @Override

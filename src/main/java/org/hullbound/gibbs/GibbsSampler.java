@@ -15,11 +15,14 @@ public final class GibbsSampler implements KernelFactory {
   private final int dimension;
   private final List<UpdateRule> rules;
   private final StartingValues starts;
+  private final long adaptationSweeps;
 
-  private GibbsSampler(int dimension, List<UpdateRule> rules, StartingValues starts) {
+  private GibbsSampler(
+      int dimension, List<UpdateRule> rules, StartingValues starts, long adaptationSweeps) {
     this.dimension = dimension;
     this.rules = rules;
     this.starts = starts;
+    this.adaptationSweeps = adaptationSweeps;
   }
 
   /**
@@ -50,7 +53,18 @@ public final class GibbsSampler implements KernelFactory {
             "state entry " + index + " must be updated by exactly one rule, got " + covered[index]);
       }
     }
-    return new GibbsSampler(dimension, List.copyOf(rules), starts);
+    return new GibbsSampler(dimension, List.copyOf(rules), starts, 0);
+  }
+
+  /**
+   * The same sampler whose fallback updaters tune themselves during the first {@code sweeps}
+   * sweeps of each chain (pass the burn-in) and stay fixed afterwards.
+   */
+  public GibbsSampler withAdaptation(long sweeps) {
+    if (sweeps < 0) {
+      throw new IllegalArgumentException("sweeps must be >= 0, got " + sweeps);
+    }
+    return new GibbsSampler(dimension, rules, starts, sweeps);
   }
 
   public int dimension() {
@@ -72,7 +86,7 @@ public final class GibbsSampler implements KernelFactory {
     return new GibbsKernel(state, updaters.toArray(new Updater[0]));
   }
 
-  private static Updater updaterFor(UpdateRule rule) {
+  private Updater updaterFor(UpdateRule rule) {
     if (rule instanceof UpdateRule.Conjugate conjugate) {
       return new ConjugateUpdater(conjugate);
     }
@@ -80,8 +94,8 @@ public final class GibbsSampler implements KernelFactory {
       return new BlockNormalUpdater(block);
     }
     if (rule instanceof UpdateRule.AdaptiveRejection rejection) {
-      return new AdaptiveRejectionUpdater(rejection);
+      return new AdaptiveRejectionUpdater(rejection, adaptationSweeps);
     }
-    return new FallbackUpdater((UpdateRule.Fallback) rule);
+    return new FallbackUpdater((UpdateRule.Fallback) rule, adaptationSweeps, Double.NaN, 1.0);
   }
 }

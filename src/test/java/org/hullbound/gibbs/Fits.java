@@ -17,7 +17,8 @@ final class Fits {
   static Fit run(GibbsSampler sampler, RunSettings settings) {
     DrawStore store = DrawStore.create(settings.chains(), settings.draws(), sampler.dimension());
     RunOutcome outcome =
-        ChainRunner.of(settings, ProgressListener.none(), StopSignal.create()).run(sampler, store);
+        ChainRunner.of(settings, ProgressListener.none(), StopSignal.create())
+            .run(sampler.withAdaptation(settings.burnIn()), store);
     return new Fit(store, outcome, UpdateReport.of(sampler.dimension(), outcome.kernels()));
   }
 }
