@@ -270,6 +270,17 @@ public final class BoundModel {
     return total;
   }
 
+  /** Every element-level term, in binding order (for {@link PriorSimulation}). */
+  List<Term> terms() {
+    return terms;
+  }
+
+  /** The own term (prior, or a missing observation's likelihood) of slot {@code index}. */
+  Term ownTerm(int index) {
+    checkIndex(index);
+    return terms.get(ownTerm[index]);
+  }
+
   private List<Term> dependentTerms(int index) {
     List<Term> list = new ArrayList<>();
     for (int t : dependents[index]) {
