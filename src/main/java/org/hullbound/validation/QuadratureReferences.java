@@ -31,17 +31,30 @@ final class QuadratureReferences {
 
   /** The reference of the case called {@code name}, if it has one. */
   static Optional<CaseReference> forCase(String name) {
+    if (!NAMES.contains(name)) {
+      return Optional.empty();
+    }
+    return Optional.of(folder -> compute(name, folder, POINTS_1D, POINTS_2D));
+  }
+
+  /** The same values on grids with twice the resolution: to check the grid error in tests. */
+  static Map<String, Double> refined(String name, Path folder) {
+    return compute(name, folder, 2 * POINTS_1D - 1, 2 * POINTS_2D - 1);
+  }
+
+  private static final List<String> NAMES =
+      List.of("eight_schools", "bliss_beetles", "darwin_student_t", "sleep_normal");
+
+  private static Map<String, Double> compute(String name, Path folder, int points1, int points2) {
     switch (name) {
       case "eight_schools":
-        return Optional.of(QuadratureReferences::eightSchools);
+        return eightSchools(folder, points2);
       case "bliss_beetles":
-        return Optional.of(QuadratureReferences::blissBeetles);
+        return blissBeetles(folder, points2);
       case "darwin_student_t":
-        return Optional.of(QuadratureReferences::darwinStudentT);
-      case "sleep_normal":
-        return Optional.of(QuadratureReferences::sleepNormal);
+        return darwinStudentT(folder, points1);
       default:
-        return Optional.empty();
+        return sleepNormal(folder, points2);
     }
   }
 
@@ -52,7 +65,7 @@ final class QuadratureReferences {
    * et al., BDA3, 5.4); {@code theta[1] | mu, tau, y} is normal with precision-weighted mean,
    * which gives {@code E theta[1]} as an expectation over the (mu, tau) grid.
    */
-  private static Map<String, Double> eightSchools(Path folder) {
+  private static Map<String, Double> eightSchools(Path folder, int points) {
     DataTable table = CsvData.read(folder.resolve("schools.csv"));
     double[] y = column(table, "y");
     double[] sigma = column(table, "sigma");
@@ -71,7 +84,7 @@ final class QuadratureReferences {
           }
           return total;
         };
-    Quadrature.Grid2 grid = Quadrature.posterior2(logPosterior, -150, 150, 0, 400, POINTS_2D);
+    Quadrature.Grid2 grid = Quadrature.posterior2(logPosterior, -150, 150, 0, 400, points);
     double theta1 =
         grid.expectation(
             (mu, tau) -> {
@@ -95,7 +108,7 @@ final class QuadratureReferences {
    * Bliss (1935) beetles: {@code killed[g] ~ binomial(exposed[g], inv_logit(alpha + beta (dose[g]
    * - 1.8)))}, {@code alpha ~ normal(0, 10)}, {@code beta ~ normal(0, 100)}.
    */
-  private static Map<String, Double> blissBeetles(Path folder) {
+  private static Map<String, Double> blissBeetles(Path folder, int points) {
     DataTable table = CsvData.read(folder.resolve("beetles.csv"));
     double[] dose = column(table, "dose");
     double[] exposed = column(table, "exposed");
@@ -112,7 +125,7 @@ final class QuadratureReferences {
           }
           return total;
         };
-    Quadrature.Grid2 grid = Quadrature.posterior2(logPosterior, -5, 5, 0, 80, POINTS_2D);
+    Quadrature.Grid2 grid = Quadrature.posterior2(logPosterior, -5, 5, 0, 80, points);
     return Map.of(
         "mean(alpha)", grid.meanX(), "sd(alpha)", grid.sdX(),
         "mean(beta)", grid.meanY(), "sd(beta)", grid.sdY());
@@ -122,7 +135,7 @@ final class QuadratureReferences {
    * Darwin's Zea mays differences (Fisher 1935): {@code y[i] ~ student_t(df = 4, location = mu,
    * scale = 30)}, {@code mu ~ normal(0, 100)}.
    */
-  private static Map<String, Double> darwinStudentT(Path folder) {
+  private static Map<String, Double> darwinStudentT(Path folder, int points) {
     double[] y = column(CsvData.read(folder.resolve("differences.csv")), "difference");
     NormalDistribution prior = new NormalDistribution(null, 0, 100);
     TDistribution t = new TDistribution(null, 4);
@@ -136,7 +149,7 @@ final class QuadratureReferences {
               }
               return total;
             },
-            -500, 500, POINTS_1D);
+            -500, 500, points);
     return Map.of("mean(mu)", grid.mean(), "sd(mu)", grid.sd());
   }
 
@@ -144,7 +157,7 @@ final class QuadratureReferences {
    * The sleep data of Cushny and Peebles (1905) as given by Student (1908): {@code y[i] ~
    * normal(mu, sigma)}, {@code mu ~ normal(0, 10)}, {@code sigma ~ half_normal(5)}.
    */
-  private static Map<String, Double> sleepNormal(Path folder) {
+  private static Map<String, Double> sleepNormal(Path folder, int points) {
     double[] y = column(CsvData.read(folder.resolve("sleep.csv")), "difference");
     NormalDistribution muPrior = new NormalDistribution(null, 0, 10);
     NormalDistribution sigmaPrior = new NormalDistribution(null, 0, 5);
@@ -160,7 +173,7 @@ final class QuadratureReferences {
           }
           return total;
         };
-    Quadrature.Grid2 grid = Quadrature.posterior2(logPosterior, -20, 20, 0, 30, POINTS_2D);
+    Quadrature.Grid2 grid = Quadrature.posterior2(logPosterior, -20, 20, 0, 30, points);
     return Map.of(
         "mean(mu)", grid.meanX(), "sd(mu)", grid.sdX(),
         "mean(sigma)", grid.meanY(), "sd(sigma)", grid.sdY());
