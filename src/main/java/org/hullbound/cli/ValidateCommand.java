@@ -1,0 +1,88 @@
+package org.hullbound.cli;
+
+import java.io.PrintWriter;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.concurrent.Callable;
+import org.hullbound.validation.CaseOutcome;
+import org.hullbound.validation.InvalidCaseException;
+import org.hullbound.validation.ValidationSettings;
+import org.hullbound.validation.ValidationText;
+import org.hullbound.validation.Validator;
+import picocli.CommandLine;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Option;
+
+/**
+ * {@code hullbound validate}: fits every case of the validation suite and compares posterior means
+ * and sds with published closed forms and quadrature; exit 0 when every quantity passes, 1 when
+ * one fails, 2 for a usage error.
+ *
+ * <p>Thin: the cases, fits and verdicts live in {@code org.hullbound.validation}.
+ */
+@Command(
+    name = "validate",
+    mixinStandardHelpOptions = true,
+    sortOptions = false,
+    description = {
+      "Check the sampler against known posteriors: fit each case of the validation suite",
+      "and compare means and sds with closed forms or quadrature (pass: |error| <= k x MCSE + floor)."
+    })
+public final class ValidateCommand implements Callable<Integer> {
+
+  @Option(names = "--case", paramLabel = "NAME", description = "Run only this case; repeat for several (default: all).")
+  List<String> cases = new ArrayList<>();
+
+  @Option(names = "--draws", paramLabel = "N", description = "Kept draws per chain, at least 100 (default: ${DEFAULT-VALUE}).")
+  int draws = ValidationSettings.DEFAULT_DRAWS;
+
+  @Option(names = "--burn-in", paramLabel = "N", description = "Sweeps discarded per chain (default: ${DEFAULT-VALUE}).")
+  int burnIn = ValidationSettings.DEFAULT_BURN_IN;
+
+  @Option(names = "--seed", paramLabel = "S", description = "Seed of the suite's runs (default: ${DEFAULT-VALUE}).")
+  long seed = ValidationSettings.DEFAULT_SEED;
+
+  @Option(names = "--suite", paramLabel = "DIR", description = "The folder of cases (default: ${DEFAULT-VALUE}).")
+  Path suite = Path.of("validation");
+
+  @Option(names = "--list", description = "List the cases and exit.")
+  boolean list;
+
+  @CommandLine.Spec CommandLine.Model.CommandSpec spec;
+
+  @Override
+  public Integer call() {
+    PrintWriter out = spec.commandLine().getOut();
+    PrintWriter err = spec.commandLine().getErr();
+    if (draws < 100) {
+      err.println("hullbound validate: --draws must be at least 100, got " + draws);
+      err.flush();
+      return ErrorReporting.USER_ERROR;
+    }
+    if (burnIn < 0) {
+      err.println("hullbound validate: --burn-in must be at least 0, got " + burnIn);
+      err.flush();
+      return ErrorReporting.USER_ERROR;
+    }
+    ValidationSettings settings =
+        ValidationSettings.defaults().withDraws(draws).withBurnIn(burnIn).withSeed(seed);
+    List<CaseOutcome> outcomes;
+    try {
+      Validator validator = Validator.of(suite, settings);
+      if (list) {
+        validator.caseNames().forEach(out::println);
+        out.flush();
+        return 0;
+      }
+      outcomes = validator.run(cases);
+    } catch (InvalidCaseException invalid) {
+      err.println("hullbound validate: " + invalid.getMessage());
+      err.flush();
+      return ErrorReporting.USER_ERROR;
+    }
+    out.print(ValidationText.of(outcomes, settings));
+    out.flush();
+    return outcomes.stream().allMatch(CaseOutcome::pass) ? 0 : ErrorReporting.FAILURE;
+  }
+}
