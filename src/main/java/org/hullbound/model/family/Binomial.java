@@ -84,6 +84,24 @@ final class Binomial {
       return IncompleteBeta.logRegularized(probability(args), complement(args), n + 1.0, trials - n);
     }
 
+    /** d p / d (probability argument). */
+    abstract double probabilitySlope(double[] args);
+
+    @Override
+    final double cdfDerivative(int k, double n, double[] args, double logScale) {
+      if (k != probabilityIndex()) {
+        return Double.NaN;
+      }
+      // d/dp P(X <= n; trials, p) = -trials pmf(n; trials - 1, p) (differentiating the incomplete
+      // beta I_{1-p}(trials - n, n + 1) in its argument, A&S 26.5.24 and 6.6.1).
+      double trials = trials(args);
+      double below = trials - 1.0;
+      double logChoose = -Math.log1p(below) - Beta.logBeta(n + 1.0, below - n + 1.0);
+      double successes = n == 0 ? 0.0 : n * logProbability(args);
+      double failures = n == below ? 0.0 : (below - n) * logComplement(args);
+      return -trials * Math.exp(logChoose + successes + failures - logScale) * probabilitySlope(args);
+    }
+
     final Curvature trialsFact() {
       return Curvature.notEstablished("binomial trials is a whole number: concavity in a continuous argument does not apply");
     }
@@ -112,6 +130,11 @@ final class Binomial {
     @Override
     double logComplement(double[] args) {
       return Math.log1p(-args[probabilityIndex()]);
+    }
+
+    @Override
+    double probabilitySlope(double[] args) {
+      return 1.0;
     }
 
     @Override
@@ -163,6 +186,11 @@ final class Binomial {
     @Override
     double logComplement(double[] args) {
       return LogSpace.logInvLogit(-args[probabilityIndex()]);
+    }
+
+    @Override
+    double probabilitySlope(double[] args) {
+      return probability(args) * complement(args);
     }
 
     @Override
