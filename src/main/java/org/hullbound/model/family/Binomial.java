@@ -75,13 +75,15 @@ final class Binomial {
     @Override
     final double logLowerTail(double n, double[] args) {
       double trials = trials(args);
-      return IncompleteBeta.logRegularized(complement(args), probability(args), trials - n, n + 1.0);
+      return IncompleteBeta.logRegularized(complement(args), probability(args),
+          logComplement(args), logProbability(args), trials - n, n + 1.0);
     }
 
     @Override
     final double logUpperTail(double n, double[] args) {
       double trials = trials(args);
-      return IncompleteBeta.logRegularized(probability(args), complement(args), n + 1.0, trials - n);
+      return IncompleteBeta.logRegularized(probability(args), complement(args),
+          logProbability(args), logComplement(args), n + 1.0, trials - n);
     }
 
     /** d p / d (probability argument). */

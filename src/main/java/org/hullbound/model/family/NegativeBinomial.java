@@ -46,14 +46,16 @@ final class NegativeBinomial {
     double logLowerTail(double n, double[] args) {
       double mean = args[0];
       double size = args[1];
-      return IncompleteBeta.logRegularized(size / (size + mean), mean / (size + mean), size, n + 1.0);
+      return IncompleteBeta.logRegularized(size / (size + mean), mean / (size + mean),
+          -Math.log1p(mean / size), -Math.log1p(size / mean), size, n + 1.0);
     }
 
     @Override
     double logUpperTail(double n, double[] args) {
       double mean = args[0];
       double size = args[1];
-      return IncompleteBeta.logRegularized(mean / (size + mean), size / (size + mean), n + 1.0, size);
+      return IncompleteBeta.logRegularized(mean / (size + mean), size / (size + mean),
+          -Math.log1p(size / mean), -Math.log1p(mean / size), n + 1.0, size);
     }
 
     @Override
