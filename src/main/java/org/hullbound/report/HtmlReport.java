@@ -352,6 +352,9 @@ public final class HtmlReport {
     if (draws.isConstant()) {
       return SvgPlot.note(labels, "not drawn: every draw is the same");
     }
+    if (everyChainConstant(draws)) {
+      return SvgPlot.note(labels, "not drawn: every chain is constant");
+    }
     int maxLag = Math.min(options.maxLag(), draws.length() - 1);
     double[] rho = Autocorrelation.averaged(draws, maxLag);
     double[] lags = new double[rho.length];
@@ -412,6 +415,18 @@ public final class HtmlReport {
                   binomial.inverseCumulativeProbability(0.975)));
     }
     return SvgPlot.steps(labels, edges, counts, List.of(), band);
+  }
+
+  private static boolean everyChainConstant(Draws draws) {
+    for (int c = 0; c < draws.chainCount(); c++) {
+      double[] chain = draws.chain(c);
+      for (double v : chain) {
+        if (v != chain[0]) {
+          return false;
+        }
+      }
+    }
+    return true;
   }
 
   private static double[] finiteValues(double[] chain) {

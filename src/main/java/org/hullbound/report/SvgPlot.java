@@ -190,7 +190,7 @@ public final class SvgPlot {
   private static String lines(
       PanelLabels labels, List<Series> series, boolean fromZero, boolean legend, boolean dashed) {
     requireLabels(labels);
-    if (series == null || series.contains(null)) {
+    if (series == null || series.stream().anyMatch(java.util.Objects::isNull)) {
       throw new IllegalArgumentException("series must be a list without null entries");
     }
     Range xs = Range.empty();

@@ -7,6 +7,8 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.random.RandomGenerator;
 import java.util.random.RandomGeneratorFactory;
+import org.hullbound.diagnostics.Draws;
+import org.hullbound.diagnostics.VariableSummary;
 
 /**
  * Invented report inputs for the tests: autoregressive chains of known shape, a fixed seed, and a
@@ -47,6 +49,24 @@ final class SampleReports {
       unknowns.add(UnknownReport.of("theta[" + (k + 1) + "]", d, "adaptive rejection", 4.2));
     }
     return new ReportInput(header("invented dose-response model", chains, draws), List.of(), unknowns, options);
+  }
+
+  /**
+   * {@code count} unknowns with real draws but a made-up summary (the plots do not read it), so
+   * large reports can be rendered in tests without the cost of the diagnostics.
+   */
+  static ReportInput cheap(int count, int chains, int draws, ReportOptions options) {
+    List<UnknownReport> unknowns = new ArrayList<>();
+    for (int k = 0; k < count; k++) {
+      double[][] d = ar1(5000 + k, chains, draws, 0, 1, 0.6);
+      VariableSummary summary =
+          new VariableSummary(
+              "beta[" + (k + 1) + "]", chains, draws, 0.01, 1.0, -1.96, 0.0, 1.96, 1.001, 1.001,
+              1.0, 900, 850, 950, 0.03, 0.05, 0.04, 0.05, VariableSummary.State.COMPLETE,
+              List.of());
+      unknowns.add(new UnknownReport(summary, Draws.of(d), "adaptive rejection", 4.0));
+    }
+    return new ReportInput(header("invented growth curves", chains, draws), List.of(), unknowns, options);
   }
 
   /** A showcase with one of each awkward case, for looking at and for the browser. */
