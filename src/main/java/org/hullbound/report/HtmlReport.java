@@ -24,17 +24,6 @@ import org.hullbound.diagnostics.VariableSummary;
  * Simpson, Carpenter and Buerkner (2021) for rank plots, Heckbert (1990) for axis ticks.
  */
 public final class HtmlReport {
-  /**
-   * R-hat above this is flagged in the table (Vehtari et al. 2021, section 4.3, recommend 1.01).
-   */
-  static final double RHAT_FLAG = 1.01;
-
-  /**
-   * Bulk or tail ESS below this many per chain is flagged (Vehtari et al. 2021, section 4.3: 400
-   * for four chains, i.e. 100 per chain).
-   */
-  static final double ESS_PER_CHAIN_FLAG = 100;
-
   private static final DateTimeFormatter STARTED =
       DateTimeFormatter.ofPattern("yyyy-MM-dd HH:mm:ss", Locale.ROOT);
 
@@ -59,7 +48,7 @@ public final class HtmlReport {
         .append(Style.CSS)
         .append("</style></head>\n<body><main>\n");
     header(html, input, model);
-    warnings(html, input.warnings());
+    warnings(html, input.warnings(), input.conclusion());
     table(html, input);
     plots(html, input);
     footer(html, input.options());
@@ -91,10 +80,14 @@ public final class HtmlReport {
         .append("</dd></div>");
   }
 
-  private static void warnings(StringBuilder html, List<String> warnings) {
+  private static void warnings(StringBuilder html, List<String> warnings, String conclusion) {
     if (warnings.isEmpty()) {
       html.append("<section class=\"warnings none\" id=\"warnings\"><p>")
-          .append("No warnings were raised for this run.</p></section>\n");
+          .append(
+              conclusion.isEmpty()
+                  ? "No warnings were raised for this run."
+                  : Markup.escape(conclusion))
+          .append("</p></section>\n");
       return;
     }
     html.append("<section class=\"warnings\" id=\"warnings\"><h2>")
@@ -103,7 +96,11 @@ public final class HtmlReport {
     for (String w : warnings) {
       html.append("<li>").append(Markup.escape(w)).append("</li>");
     }
-    html.append("</ul></section>\n");
+    html.append("</ul>");
+    if (!conclusion.isEmpty()) {
+      html.append("<p>").append(Markup.escape(conclusion)).append("</p>");
+    }
+    html.append("</section>\n");
   }
 
   private static void table(StringBuilder html, ReportInput input) {
@@ -113,10 +110,10 @@ public final class HtmlReport {
         .append("rank-normalised split R-hat and bulk and tail effective sample sizes ")
         .append("(Vehtari et al. 2021); mcse is the Monte Carlo standard error of the mean. ")
         .append("Marked values (&#9652;) have R-hat above ")
-        .append(RHAT_FLAG)
-        .append(" or fewer than ")
-        .append((int) ESS_PER_CHAIN_FLAG)
-        .append(" effective draws per chain.</p>")
+        .append(Markup.escape(plain(input.options().maxRhat())))
+        .append(" or an effective sample size below ")
+        .append(Markup.escape(plain(input.options().minEss())))
+        .append("; n/a means not defined for these draws.</p>")
         .append("<div class=\"scroll\"><table><thead><tr>");
     String[] headings = {
       "unknown", "mean", "sd", "2.5%", "median", "97.5%", "R-hat", "ess bulk", "ess tail", "mcse",
@@ -142,18 +139,20 @@ public final class HtmlReport {
         html.append(Markup.escape(u.name()));
       }
       html.append("</td>");
-      cell(html, Markup.significant(s.mean(), 4), false, s.mean());
-      cell(html, Markup.significant(s.sd(), 3), false, s.sd());
-      cell(html, Markup.significant(s.q025(), 4), false, s.q025());
-      cell(html, Markup.significant(s.q50(), 4), false, s.q50());
-      cell(html, Markup.significant(s.q975(), 4), false, s.q975());
-      cell(html, fixed(s.rhat(), 3), s.rhat() > RHAT_FLAG, s.rhat());
-      double essFlag = ESS_PER_CHAIN_FLAG * s.chains();
-      cell(html, fixed(s.essBulk(), 0), s.essBulk() < essFlag, s.essBulk());
-      cell(html, fixed(s.essTail(), 0), s.essTail() < essFlag, s.essTail());
-      cell(html, Markup.significant(s.mcseMean(), 2), false, s.mcseMean());
-      html.append("<td class=\"text\">").append(Markup.escape(u.update())).append("</td>");
-      cell(html, fixed(u.evaluationsPerDraw(), 1), false, u.evaluationsPerDraw());
+      ReportOptions o = input.options();
+      cell(html, NumberText.significant(s.mean(), 4), false);
+      cell(html, NumberText.significant(s.sd(), 4), false);
+      cell(html, NumberText.significant(s.q025(), 4), false);
+      cell(html, NumberText.significant(s.q50(), 4), false);
+      cell(html, NumberText.significant(s.q975(), 4), false);
+      cell(html, NumberText.fixed(s.rhat(), 3), s.rhat() > o.maxRhat());
+      cell(html, NumberText.count(s.essBulk()), s.essBulk() < o.minEss());
+      cell(html, NumberText.count(s.essTail()), s.essTail() < o.minEss());
+      cell(html, NumberText.significant(s.mcseMean(), 2), false);
+      html.append("<td class=\"text\">")
+          .append(Markup.escape(u.update().map(UpdateFacts::update).orElse(NumberText.NOT_AVAILABLE)))
+          .append("</td>");
+      cell(html, u.update().map(HtmlReport::evaluations).orElse(NumberText.NOT_AVAILABLE), false);
       html.append("</tr>");
     }
     html.append("</tbody></table></div>");
@@ -165,12 +164,23 @@ public final class HtmlReport {
     html.append("</section>\n");
   }
 
-  private static void cell(StringBuilder html, String text, boolean flag, double value) {
-    if (Double.isNaN(value)) {
-      html.append("<td class=\"undefined\" title=\"not defined for these draws\">&#8211;</td>");
+  private static void cell(StringBuilder html, String text, boolean flag) {
+    if (text.equals(NumberText.NOT_AVAILABLE)) {
+      html.append("<td class=\"undefined\">").append(text).append("</td>");
       return;
     }
     html.append(flag ? "<td class=\"flag\">" : "<td>").append(Markup.escape(text)).append("</td>");
+  }
+
+  /** Evaluations per draw as the terminal table writes them. */
+  private static String evaluations(UpdateFacts facts) {
+    double e = facts.evaluationsPerDraw();
+    return e == 0 ? "0" : NumberText.significant(e, 3);
+  }
+
+  /** A threshold as typed: 1.01, 400. */
+  private static String plain(double x) {
+    return new java.math.BigDecimal(Double.toString(x)).stripTrailingZeros().toPlainString();
   }
 
   private static String capSentence(int total, int cap) {
@@ -229,19 +239,18 @@ public final class HtmlReport {
       html.append("no summary: the draws are not all finite");
     } else {
       html.append("mean ")
-          .append(Markup.escape(Markup.significant(s.mean(), 4)))
+          .append(Markup.escape(NumberText.significant(s.mean(), 4)))
           .append(" &#183; 95% interval ")
-          .append(Markup.escape(Markup.significant(s.q025(), 4)))
+          .append(Markup.escape(NumberText.significant(s.q025(), 4)))
           .append(" to ")
-          .append(Markup.escape(Markup.significant(s.q975(), 4)))
+          .append(Markup.escape(NumberText.significant(s.q975(), 4)))
           .append(" &#183; R-hat ")
-          .append(Double.isNaN(s.rhat()) ? "&#8211;" : fixed(s.rhat(), 3))
+          .append(Markup.escape(NumberText.fixed(s.rhat(), 3)))
           .append(" &#183; ess bulk ")
-          .append(Double.isNaN(s.essBulk()) ? "&#8211;" : fixed(s.essBulk(), 0));
+          .append(Markup.escape(NumberText.count(s.essBulk())));
     }
-    if (!u.update().isEmpty()) {
-      html.append(" &#183; ").append(Markup.escape(u.update()));
-    }
+    u.update()
+        .ifPresent(f -> html.append(" &#183; ").append(Markup.escape(f.update())));
     html.append("</p>");
     if (!notes.isEmpty()) {
       html.append("<ul class=\"notes\">");
@@ -301,15 +310,15 @@ public final class HtmlReport {
             finite.length == 0
                 ? "chain " + (c + 1) + " has no finite draws"
                 : finite.length == 1
-                    ? "chain " + (c + 1) + " has one finite draw, " + Markup.significant(finite[0], 4)
-                    : "chain " + (c + 1) + " is constant at " + Markup.significant(finite[0], 4));
+                    ? "chain " + (c + 1) + " has one finite draw, " + NumberText.significant(finite[0], 4)
+                    : "chain " + (c + 1) + " is constant at " + NumberText.significant(finite[0], 4));
       }
     }
     if (flat.size() == draws.chainCount()) {
       if (draws.isConstant()) {
         return SvgPlot.note(
             labels,
-            "no density: every draw equals " + Markup.significant(draws.chain(0)[0], 6));
+            "no density: every draw equals " + NumberText.significant(draws.chain(0)[0], 6));
       }
       return SvgPlot.note(labels, "no density: " + String.join("; ", flat));
     }
@@ -444,13 +453,6 @@ public final class HtmlReport {
       }
     }
     return finite;
-  }
-
-  private static String fixed(double v, int decimals) {
-    if (!Double.isFinite(v)) {
-      return Markup.significant(v, 1);
-    }
-    return String.format(Locale.ROOT, "%." + decimals + "f", v);
   }
 
   static String duration(Duration d) {

@@ -1,7 +1,5 @@
 package org.hullbound.report;
 
-import java.util.Locale;
-
 /**
  * Escaping and compact number writing shared by the SVG and HTML writers.
  *
@@ -66,26 +64,6 @@ final class Markup {
       out.append('.').append(rest);
     }
     return out;
-  }
-
-  /** {@code v} with {@code significant} significant digits, plain or in e-notation, or "–". */
-  static String significant(double v, int significant) {
-    if (Double.isNaN(v)) {
-      return "NaN";
-    }
-    if (Double.isInfinite(v)) {
-      return v > 0 ? "inf" : "-inf";
-    }
-    if (v == 0) {
-      return "0";
-    }
-    double magnitude = Math.abs(v);
-    int exponent = (int) Math.floor(Math.log10(magnitude));
-    if (exponent >= 6 || exponent <= -4) {
-      return tidyExponent(String.format(Locale.ROOT, "%." + (significant - 1) + "e", v));
-    }
-    int decimals = Math.max(0, significant - 1 - exponent);
-    return String.format(Locale.ROOT, "%." + decimals + "f", v);
   }
 
   /** Rewrites Java's {@code 1.50e+06} as {@code 1.50e6} and {@code 2.0e-05} as {@code 2.0e-5}. */

@@ -1,5 +1,6 @@
 package org.hullbound.report;
 
+import java.util.Optional;
 import org.hullbound.diagnostics.Draws;
 import org.hullbound.diagnostics.PosteriorSummary;
 import org.hullbound.diagnostics.VariableSummary;
@@ -8,20 +9,20 @@ import org.hullbound.diagnostics.VariableSummary;
  * Everything the report shows about one unknown: its draws, its summary, and how it was updated.
  *
  * <p>The draws are held as a validated copy ({@link Draws}) so the plots and the table row cannot
- * disagree; the update and evaluations per draw come from the Gibbs driver, which alone knows them.
+ * disagree; the update facts come from the Gibbs driver, which alone knows them, and are the same
+ * {@link UpdateFacts} the terminal {@link SummaryTable} shows.
  *
  * @param summary the posterior summary and diagnostics of the draws
  * @param draws the draws, chain by iteration
- * @param update the name of the updater, e.g. "adaptive rejection"
- * @param evaluationsPerDraw mean log-density evaluations per draw, NaN when not applicable
+ * @param update which update drew the unknown and at what cost, when known
  */
-public record UnknownReport(
-    VariableSummary summary, Draws draws, String update, double evaluationsPerDraw) {
+public record UnknownReport(VariableSummary summary, Draws draws, Optional<UpdateFacts> update) {
 
   /** Checks that nothing is null and that the summary describes draws of this shape. */
   public UnknownReport {
-    if (summary == null || draws == null) {
-      throw new IllegalArgumentException("summary and draws must not be null");
+    if (summary == null || draws == null || update == null) {
+      throw new IllegalArgumentException(
+          "summary, draws and update must not be null (use Optional.empty() for no update facts)");
     }
     if (summary.chains() != draws.chainCount() || summary.drawsPerChain() != draws.length()) {
       throw new IllegalArgumentException(
@@ -32,26 +33,27 @@ public record UnknownReport(
               + " draws does not match draws of "
               + draws.chainCount()
               + " x "
-              + draws.length());
+              + draws.length()
+              + " for '"
+              + summary.name()
+              + "'");
     }
-    update = update == null ? "" : update;
-    if (evaluationsPerDraw < 0) {
-      throw new IllegalArgumentException(
-          "evaluationsPerDraw must be >= 0 or NaN, got " + evaluationsPerDraw);
-    }
+  }
+
+  /** The entry for a summary already computed from {@code draws}; {@code facts} may be null. */
+  public static UnknownReport of(VariableSummary summary, Draws draws, UpdateFacts facts) {
+    return new UnknownReport(summary, draws, Optional.ofNullable(facts));
   }
 
   /**
    * Summarises {@code draws} ({@code draws[c][i]}, chains of equal length) with {@link
-   * PosteriorSummary} and keeps them for the plots.
+   * PosteriorSummary} and keeps them for the plots; {@code facts} may be null when not known.
    *
    * @throws IllegalArgumentException if the name is blank or the draws are empty or ragged
    */
-  public static UnknownReport of(
-      String name, double[][] draws, String update, double evaluationsPerDraw) {
+  public static UnknownReport of(String name, double[][] draws, UpdateFacts facts) {
     Draws checked = Draws.of(draws);
-    return new UnknownReport(
-        PosteriorSummary.of(name, checked), checked, update, evaluationsPerDraw);
+    return of(PosteriorSummary.of(name, checked), checked, facts);
   }
 
   /** The unknown's name, as in the summary. */

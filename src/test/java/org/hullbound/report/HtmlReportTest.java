@@ -8,8 +8,11 @@ import java.nio.charset.StandardCharsets;
 import java.time.Duration;
 import java.util.ArrayList;
 import java.util.List;
+import java.util.Map;
 import java.util.regex.Matcher;
 import java.util.regex.Pattern;
+import org.hullbound.diagnostics.Draws;
+import org.hullbound.diagnostics.PosteriorSummary;
 import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.Test;
 import org.w3c.dom.Document;
@@ -116,13 +119,13 @@ class HtmlReportTest {
   void aSingleChainOfOneDrawAndChainsStuckApartStillRender() {
     List<UnknownReport> unknowns =
         List.of(
-            UnknownReport.of("alone", SampleReports.ar1(9, 1, 300, 0, 1, 0.4), "slice", 8.0),
-            UnknownReport.of("one", new double[][] {{1.5}, {2.5}}, "slice", 8.0),
-            UnknownReport.of("stuck", new double[][] {{1, 1, 1, 1, 1}, {2, 2, 2, 2, 2}}, "slice", 1),
-            UnknownReport.of("all NaN", new double[][] {{Double.NaN, Double.NaN}}, "slice", 1));
+            UnknownReport.of("alone", SampleReports.ar1(9, 1, 300, 0, 1, 0.4), UpdateFacts.fallback("slice", 8.0)),
+            UnknownReport.of("one", new double[][] {{1.5}, {2.5}}, UpdateFacts.fallback("slice", 8.0)),
+            UnknownReport.of("stuck", new double[][] {{1, 1, 1, 1, 1}, {2, 2, 2, 2, 2}}, UpdateFacts.fallback("slice", 1)),
+            UnknownReport.of("all NaN", new double[][] {{Double.NaN, Double.NaN}}, UpdateFacts.fallback("slice", 1)));
     String html =
         HtmlReport.render(
-            new ReportInput(SampleReports.header("", 2, 5), List.of(), unknowns, ReportOptions.defaults()));
+            new ReportInput(SampleReports.header("", 2, 5), List.of(), "", unknowns, ReportOptions.defaults()));
     for (String svg : Xml.inlineSvgs(html)) {
       Xml.parse(svg);
     }
@@ -162,9 +165,42 @@ class HtmlReportTest {
   void aRunWithoutUnknownsStillRenders() {
     String html =
         HtmlReport.render(
-            new ReportInput(SampleReports.header("empty", 1, 0), List.of(), List.of(), ReportOptions.defaults()));
+            new ReportInput(SampleReports.header("empty", 1, 0), List.of(), "", List.of(), ReportOptions.defaults()));
     Xml.parse(html);
     assertTrue(html.contains("This run has no unknowns."));
+  }
+
+  @Test
+  void theTerminalSummaryObjectsMakeTheReportInput() {
+    double[][] good = SampleReports.ar1(31, 4, 400, 0, 1, 0.0);
+    double[][] apart = SampleReports.ar1(32, 4, 400, 0, 1, 0.0);
+    for (int i = 0; i < apart[0].length; i++) {
+      apart[0][i] += 5; // chain 1 sits far from the others
+    }
+    Draws goodDraws = Draws.of(good);
+    Draws apartDraws = Draws.of(apart);
+    SummaryTable table =
+        SummaryTable.of(
+            List.of(PosteriorSummary.of("good", goodDraws), PosteriorSummary.of("apart<1>", apartDraws)),
+            Map.of("good", UpdateFacts.exact("conjugate", 0)));
+    Verdicts verdicts = Verdicts.of(table);
+    ReportInput input =
+        ReportInput.of(
+            SampleReports.header("m", 4, 400),
+            table,
+            verdicts,
+            List.of(goodDraws, apartDraws),
+            ReportOptions.defaults());
+    String html = HtmlReport.render(input);
+    assertFalse(verdicts.allWell());
+    for (Verdict v : verdicts.verdicts()) {
+      assertTrue(html.contains(Markup.escape(v.text())), v.text());
+    }
+    List<String> lines = verdicts.lines();
+    assertTrue(html.contains(Markup.escape(lines.get(lines.size() - 1))), "closing line");
+    assertTrue(html.contains("<td class=\"flag\">"), "the far chain's R-hat is marked");
+    assertTrue(html.contains("<td class=\"text\">conjugate</td>"));
+    assertTrue(html.contains("<td class=\"text\">n/a</td>"), "no update facts for 'apart'");
   }
 
   @Test

@@ -25,14 +25,4 @@ class MarkupTest {
     assertEquals("-0.5", Markup.coordinate(new StringBuilder(), -0.46).toString());
     assertEquals("7", Markup.coordinate(new StringBuilder(), 7.01).toString());
   }
-
-  @Test
-  void significantDigitsSwitchToENotationForExtremeMagnitudes() {
-    assertEquals("2.513", Markup.significant(2.51312, 4));
-    assertEquals("0.001235", Markup.significant(0.0012345, 4));
-    assertEquals("1.235e7", Markup.significant(12_345_678, 4));
-    assertEquals("-4.0e-5", Markup.significant(-0.00004, 2));
-    assertEquals("NaN", Markup.significant(Double.NaN, 3));
-    assertEquals("-inf", Markup.significant(Double.NEGATIVE_INFINITY, 3));
-  }
 }
