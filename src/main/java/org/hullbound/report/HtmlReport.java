@@ -39,7 +39,8 @@ public final class HtmlReport {
       throw new IllegalArgumentException("input must not be null");
     }
     StringBuilder html = new StringBuilder(64 * 1024);
-    String model = input.header().modelName().isBlank() ? "unnamed model" : input.header().modelName();
+    String model =
+        input.header().modelName().isBlank() ? "unnamed model" : input.header().modelName();
     html.append("<!DOCTYPE html>\n<html lang=\"en\"><head><meta charset=\"utf-8\"/>")
         .append("<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\"/>")
         .append("<title>hullbound report: ")
@@ -61,7 +62,10 @@ public final class HtmlReport {
     html.append("<header class=\"run\"><p class=\"kicker\">hullbound fit report</p><h1>")
         .append(Markup.escape(model))
         .append("</h1><dl class=\"facts\">");
-    String offset = h.startedAt().getOffset().getTotalSeconds() == 0 ? "UTC" : h.startedAt().getOffset().getId();
+    String offset =
+        h.startedAt().getOffset().getTotalSeconds() == 0
+            ? "UTC"
+            : h.startedAt().getOffset().getId();
     fact(html, "started", h.startedAt().format(STARTED) + " " + offset);
     fact(html, "run time", duration(h.runTime()));
     fact(html, "chains", Integer.toString(h.chains()));
@@ -116,8 +120,18 @@ public final class HtmlReport {
         .append("; n/a means not defined for these draws.</p>")
         .append("<div class=\"scroll\"><table><thead><tr>");
     String[] headings = {
-      "unknown", "mean", "sd", "2.5%", "median", "97.5%", "R-hat", "ess bulk", "ess tail", "mcse",
-      "update", "evals/draw"
+      "unknown",
+      "mean",
+      "sd",
+      "2.5%",
+      "median",
+      "97.5%",
+      "R-hat",
+      "ess bulk",
+      "ess tail",
+      "mcse",
+      "update",
+      "evals/draw"
     };
     for (String heading : headings) {
       html.append(heading.equals("update") ? "<th class=\"text\">" : "<th>")
@@ -150,7 +164,8 @@ public final class HtmlReport {
       cell(html, NumberText.count(s.essTail()), s.essTail() < o.minEss());
       cell(html, NumberText.significant(s.mcseMean(), 2), false);
       html.append("<td class=\"text\">")
-          .append(Markup.escape(u.update().map(UpdateFacts::update).orElse(NumberText.NOT_AVAILABLE)))
+          .append(
+              Markup.escape(u.update().map(UpdateFacts::update).orElse(NumberText.NOT_AVAILABLE)))
           .append("</td>");
       cell(html, u.update().map(HtmlReport::evaluations).orElse(NumberText.NOT_AVAILABLE), false);
       html.append("</tr>");
@@ -249,8 +264,7 @@ public final class HtmlReport {
           .append(" &#183; ess bulk ")
           .append(Markup.escape(NumberText.count(s.essBulk())));
     }
-    u.update()
-        .ifPresent(f -> html.append(" &#183; ").append(Markup.escape(f.update())));
+    u.update().ifPresent(f -> html.append(" &#183; ").append(Markup.escape(f.update())));
     html.append("</p>");
     if (!notes.isEmpty()) {
       html.append("<ul class=\"notes\">");
@@ -310,8 +324,14 @@ public final class HtmlReport {
             finite.length == 0
                 ? "chain " + (c + 1) + " has no finite draws"
                 : finite.length == 1
-                    ? "chain " + (c + 1) + " has one finite draw, " + NumberText.significant(finite[0], 4)
-                    : "chain " + (c + 1) + " is constant at " + NumberText.significant(finite[0], 4));
+                    ? "chain "
+                        + (c + 1)
+                        + " has one finite draw, "
+                        + NumberText.significant(finite[0], 4)
+                    : "chain "
+                        + (c + 1)
+                        + " is constant at "
+                        + NumberText.significant(finite[0], 4));
       }
     }
     if (flat.size() == draws.chainCount()) {
@@ -377,7 +397,8 @@ public final class HtmlReport {
 
   private static String rankPanel(UnknownReport u, ReportOptions options) {
     Draws draws = u.draws();
-    PanelLabels labels = new PanelLabels("ranks", "rank histogram per chain", "rank among all draws", "");
+    PanelLabels labels =
+        new PanelLabels("ranks", "rank histogram per chain", "rank among all draws", "");
     if (draws.chainCount() == 1) {
       return SvgPlot.note(labels, "one chain: rank plots compare chains");
     }
@@ -480,60 +501,60 @@ public final class HtmlReport {
   /** The page's style sheet: our own calm palette, print and narrow-window rules. */
   private static final class Style {
     static final String CSS =
-        ":root{--ink:#1e2329;--muted:#5d6670;--rule:#d9d6cf;--paper:#fcfbf8;--card:#ffffff;"
-            + "--accent:#1f6f8b;--warn:#9a540f;--warn-bg:#fbf1e1;--ok:#3f7a5c;--ok-bg:#edf4ef}"
-            + "*{box-sizing:border-box}"
-            + "body{margin:0;background:var(--paper);color:var(--ink);"
-            + "font:15px/1.5 system-ui,-apple-system,'Segoe UI',Roboto,'Helvetica Neue',Arial,"
-            + "sans-serif}"
-            + "main{max-width:1200px;margin:0 auto;padding:24px 20px 48px}"
-            + "a{color:var(--accent)}"
-            + "header.run{border-bottom:2px solid var(--ink);padding-bottom:14px;margin-bottom:18px}"
-            + ".kicker{text-transform:uppercase;letter-spacing:.09em;font-size:12px;"
-            + "color:var(--muted);margin:0}"
-            + "h1{font-size:26px;margin:2px 0 12px;font-weight:650;overflow-wrap:anywhere}"
-            + "dl.facts{display:grid;grid-template-columns:repeat(auto-fill,minmax(120px,1fr));"
-            + "gap:8px 18px;margin:0}"
-            + "dl.facts div{border-left:3px solid var(--rule);padding-left:9px}"
-            + "dl.facts dt{font-size:12px;color:var(--muted)}"
-            + "dl.facts dd{margin:0;font-variant-numeric:tabular-nums}"
-            + "dl.facts div:first-child{grid-column:span 2}"
-            + "section.warnings{background:var(--warn-bg);border-left:4px solid var(--warn);"
-            + "padding:8px 16px;margin:0 0 20px}"
-            + "section.warnings h2{margin:4px 0;font-size:16px;color:var(--warn)}"
-            + "section.warnings ul{margin:4px 0 6px;padding-left:20px}"
-            + "section.warnings.none{background:var(--ok-bg);border-left-color:var(--ok)}"
-            + "section.warnings.none p{margin:2px 0}"
-            + "h2{font-size:19px;margin:26px 0 6px}"
-            + ".lead{color:var(--muted);font-size:13.5px;margin:0 0 10px;max-width:70em}"
-            + ".scroll{overflow-x:auto}"
-            + "table{border-collapse:collapse;font-variant-numeric:tabular-nums;font-size:13.5px;"
-            + "min-width:100%}"
-            + "th,td{padding:4px 10px;text-align:right;white-space:nowrap;"
-            + "border-bottom:1px solid var(--rule)}"
-            + "th{font-weight:600;font-size:12.5px;color:var(--muted);"
-            + "border-bottom:1.5px solid var(--ink)}"
-            + "th:first-child,td.name,.text{text-align:left}"
-            + "td.name{font-family:ui-monospace,'SF Mono',Menlo,Consolas,monospace;font-size:13px}"
-            + "tbody tr:nth-child(even){background:#f4f2ec}"
-            + "td.flag{color:var(--warn);font-weight:650}"
-            + "td.flag::after{content:'\\2009\\25B4'}"
-            + "td.undefined{color:var(--muted)}"
-            + "section.unknown{background:var(--card);border:1px solid var(--rule);"
-            + "border-radius:4px;padding:12px 14px 10px;margin:14px 0;break-inside:avoid}"
-            + "section.unknown h3{margin:0;font-size:16px;overflow-wrap:anywhere;"
-            + "font-family:ui-monospace,'SF Mono',Menlo,Consolas,monospace}"
-            + ".keyline{color:var(--muted);font-size:13px;margin:0 0 6px}"
-            + "ul.notes{font-size:13px;color:var(--warn);margin:2px 0 8px;padding-left:20px}"
-            + ".panels{display:grid;grid-template-columns:repeat(auto-fit,minmax(250px,1fr));"
-            + "gap:8px 16px}"
-            + ".panels svg{width:100%;height:auto;display:block}"
-            + "footer{margin-top:30px;border-top:1px solid var(--rule);padding-top:8px;"
-            + "font-size:12.5px;color:var(--muted)}"
-            + "@media (max-width:560px){main{padding:14px 10px 32px}h1{font-size:21px}"
-            + "section.unknown{padding:10px 8px}}"
-            + "@media print{body{background:#fff;font-size:10.5pt}main{max-width:none;padding:0}"
-            + "tbody tr:nth-child(even){background:none}section.unknown{border-color:#bbb}"
-            + ".panels{grid-template-columns:repeat(2,1fr)}a{color:inherit;text-decoration:none}}";
+        """
+        :root{--ink:#1e2329;--muted:#5d6670;--rule:#d9d6cf;--paper:#fcfbf8;--card:#ffffff;
+          --accent:#1f6f8b;--warn:#9a540f;--warn-bg:#fbf1e1;--ok:#3f7a5c;--ok-bg:#edf4ef}
+        *{box-sizing:border-box}
+        body{margin:0;background:var(--paper);color:var(--ink);
+          font:15px/1.5 system-ui,-apple-system,'Segoe UI',Roboto,'Helvetica Neue',Arial,sans-serif}
+        main{max-width:1200px;margin:0 auto;padding:24px 20px 48px}
+        a{color:var(--accent)}
+        header.run{border-bottom:2px solid var(--ink);padding-bottom:14px;margin-bottom:18px}
+        .kicker{text-transform:uppercase;letter-spacing:.09em;font-size:12px;color:var(--muted);
+          margin:0}
+        h1{font-size:26px;margin:2px 0 12px;font-weight:650;overflow-wrap:anywhere}
+        dl.facts{display:grid;grid-template-columns:repeat(auto-fill,minmax(120px,1fr));
+          gap:8px 18px;margin:0}
+        dl.facts div{border-left:3px solid var(--rule);padding-left:9px}
+        dl.facts div:first-child{grid-column:span 2}
+        dl.facts dt{font-size:12px;color:var(--muted)}
+        dl.facts dd{margin:0;font-variant-numeric:tabular-nums}
+        section.warnings{background:var(--warn-bg);border-left:4px solid var(--warn);
+          padding:8px 16px;margin:0 0 20px}
+        section.warnings h2{margin:4px 0;font-size:16px;color:var(--warn)}
+        section.warnings ul{margin:4px 0 6px;padding-left:20px}
+        section.warnings.none{background:var(--ok-bg);border-left-color:var(--ok)}
+        section.warnings p{margin:4px 0}
+        h2{font-size:19px;margin:26px 0 6px}
+        .lead{color:var(--muted);font-size:13.5px;margin:0 0 10px;max-width:70em}
+        .scroll{overflow-x:auto}
+        table{border-collapse:collapse;font-variant-numeric:tabular-nums;font-size:13.5px;
+          min-width:100%}
+        th,td{padding:4px 10px;text-align:right;white-space:nowrap;
+          border-bottom:1px solid var(--rule)}
+        th{font-weight:600;font-size:12.5px;color:var(--muted);border-bottom:1.5px solid var(--ink)}
+        th:first-child,td.name,.text{text-align:left}
+        td.name{font-family:ui-monospace,'SF Mono',Menlo,Consolas,monospace;font-size:13px}
+        tbody tr:nth-child(even){background:#f4f2ec}
+        td.flag{color:var(--warn);font-weight:650}
+        td.flag::after{content:'\\2009\\25B4'}
+        td.undefined{color:var(--muted)}
+        section.unknown{background:var(--card);border:1px solid var(--rule);border-radius:4px;
+          padding:12px 14px 10px;margin:14px 0;break-inside:avoid}
+        section.unknown h3{margin:0;font-size:16px;overflow-wrap:anywhere;
+          font-family:ui-monospace,'SF Mono',Menlo,Consolas,monospace}
+        .keyline{color:var(--muted);font-size:13px;margin:0 0 6px}
+        ul.notes{font-size:13px;color:var(--warn);margin:2px 0 8px;padding-left:20px}
+        .panels{display:grid;grid-template-columns:repeat(auto-fit,minmax(250px,1fr));
+          gap:8px 16px}
+        .panels svg{width:100%;height:auto;display:block}
+        footer{margin-top:30px;border-top:1px solid var(--rule);padding-top:8px;font-size:12.5px;
+          color:var(--muted)}
+        @media (max-width:560px){main{padding:14px 10px 32px}h1{font-size:21px}
+          section.unknown{padding:10px 8px}}
+        @media print{body{background:#fff;font-size:10.5pt}main{max-width:none;padding:0}
+          tbody tr:nth-child(even){background:none}section.unknown{border-color:#bbb}
+          .panels{grid-template-columns:repeat(2,1fr)}a{color:inherit;text-decoration:none}}
+        """;
   }
 }

@@ -7,8 +7,8 @@ import java.util.Arrays;
  * "Density Estimation for Statistics and Data Analysis", eq. 3.31).
  *
  * <p>It draws the smooth marginal curves of the report; the rule {@code h = 0.9 A n^(-1/5)}, {@code
- * A = min(sd, IQR / 1.34)}, is robust to heavy tails and needs no tuning. Evaluation sums only
- * over draws within eight bandwidths of the point (the kernel beyond is below 1.3e-14 of its peak).
+ * A = min(sd, IQR / 1.34)}, is robust to heavy tails and needs no tuning. Evaluation sums only over
+ * draws within eight bandwidths of the point (the kernel beyond is below 1.3e-14 of its peak).
  */
 public final class KernelDensity {
   /** Kernel terms beyond this many bandwidths are below exp(-32) and left out. */
@@ -61,9 +61,9 @@ public final class KernelDensity {
   }
 
   /**
-   * Silverman's rule-of-thumb bandwidth {@code 0.9 min(sd, IQR/1.34) n^(-1/5)} (Silverman 1986,
-   * eq. 3.31); the IQR uses linearly interpolated quantiles (Hyndman and Fan 1996, type 7). When
-   * the IQR is zero but the sd is not (many ties), the sd alone is used.
+   * Silverman's rule-of-thumb bandwidth {@code 0.9 min(sd, IQR/1.34) n^(-1/5)} (Silverman 1986, eq.
+   * 3.31); the IQR uses linearly interpolated quantiles (Hyndman and Fan 1996, type 7). When the
+   * IQR is zero but the sd is not (many ties), the sd alone is used.
    *
    * @throws IllegalArgumentException as {@link #of(double[])}
    */

@@ -51,7 +51,9 @@ final class Markup {
     return c >= 0x20 && c <= 0xFFFD && !Character.isSurrogate(c) && c != 0xFFFE;
   }
 
-  /** Appends {@code v} rounded to one decimal, without a trailing ".0"; used for SVG coordinates. */
+  /**
+   * Appends {@code v} rounded to one decimal, without a trailing ".0"; used for SVG coordinates.
+   */
   static StringBuilder coordinate(StringBuilder out, double v) {
     long tenths = Math.round(v * 10.0);
     if (tenths < 0) {

@@ -77,8 +77,8 @@ public record NiceScale(double low, double high, double step) {
   }
 
   /**
-   * Heckbert's {@code nicenum}: a number of the form 1, 2, 5 or 10 times a power of ten near
-   * {@code x}; rounded to the nearest when {@code round}, else the smallest not below {@code x}.
+   * Heckbert's {@code nicenum}: a number of the form 1, 2, 5 or 10 times a power of ten near {@code
+   * x}; rounded to the nearest when {@code round}, else the smallest not below {@code x}.
    */
   static double niceNumber(double x, boolean round) {
     int exponent = (int) Math.floor(Math.log10(x));

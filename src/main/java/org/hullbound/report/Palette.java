@@ -3,8 +3,8 @@ package org.hullbound.report;
 /**
  * The report's own colours and dash patterns, one pair per chain, cycling after eight.
  *
- * <p>The hues are spaced apart and differ in lightness too; dashes tell the lines apart again on
- * a grey-scale print.
+ * <p>The hues are spaced apart and differ in lightness too; dashes tell the lines apart again on a
+ * grey-scale print.
  */
 final class Palette {
   private Palette() {}

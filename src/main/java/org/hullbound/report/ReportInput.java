@@ -6,13 +6,13 @@ import org.hullbound.diagnostics.Draws;
 import org.hullbound.diagnostics.VariableSummary;
 
 /**
- * All a report is made from: the run's header, the warnings in plain words and a closing line,
- * one entry per unknown in table order, and the drawing options.
+ * All a report is made from: the run's header, the warnings in plain words and a closing line, one
+ * entry per unknown in table order, and the drawing options.
  *
  * <p>The warnings are sentences such as the {@link Verdict} texts of {@link Verdicts}; the report
- * shows them first, as given, and the conclusion under them (e.g. "All 6 unknowns look
- * converged ..."). {@link #of(RunHeader, SummaryTable, Verdicts, List, ReportOptions)} builds the
- * whole input from the objects the terminal summary is made of.
+ * shows them first, as given, and the conclusion under them (e.g. "All 6 unknowns look converged
+ * ..."). {@link #of(RunHeader, SummaryTable, Verdicts, List, ReportOptions)} builds the whole input
+ * from the objects the terminal summary is made of.
  *
  * @param header the facts of the run
  * @param warnings plain-language warnings, possibly none
@@ -48,8 +48,8 @@ public record ReportInput(
    * verdicts' closing line as the conclusion, and {@code draws.get(k)} as the draws of the table's
    * k-th unknown.
    *
-   * @throws IllegalArgumentException if an argument is null, or the draws do not match the table
-   *     in number or shape
+   * @throws IllegalArgumentException if an argument is null, or the draws do not match the table in
+   *     number or shape
    */
   public static ReportInput of(
       RunHeader header,

@@ -1,8 +1,8 @@
 package org.hullbound.report;
 
 /**
- * How much the report draws and what it marks: how many unknowns get plots, how fine each plot
- * is, and the thresholds above or below which table cells are marked.
+ * How much the report draws and what it marks: how many unknowns get plots, how fine each plot is,
+ * and the thresholds above or below which table cells are marked.
  *
  * <p>The defaults keep a report of hundreds of unknowns to a few megabytes while every plot still
  * shows what matters; a caller may raise the plot cap to see more. The marking thresholds default
@@ -65,14 +65,12 @@ public record ReportOptions(
 
   /** These options with another plot cap. */
   public ReportOptions withPlotCap(int cap) {
-    return new ReportOptions(
-        cap, maxTracePoints, maxLag, rankBins, densityPoints, maxRhat, minEss);
+    return new ReportOptions(cap, maxTracePoints, maxLag, rankBins, densityPoints, maxRhat, minEss);
   }
 
   /** These options with another trace point budget. */
   public ReportOptions withMaxTracePoints(int points) {
-    return new ReportOptions(
-        plotCap, points, maxLag, rankBins, densityPoints, maxRhat, minEss);
+    return new ReportOptions(plotCap, points, maxLag, rankBins, densityPoints, maxRhat, minEss);
   }
 
   /** These options with other marking thresholds, e.g. those given to {@link Verdicts#of}. */

@@ -17,9 +17,9 @@ import java.nio.file.StandardOpenOption;
 import java.util.UUID;
 
 /**
- * Writes a text file so that readers see either the old file or the complete new one, never a
- * part: the text goes to a temporary file in the same folder, is forced to disk, then moved over
- * the target in one atomic step.
+ * Writes a text file so that readers see either the old file or the complete new one, never a part:
+ * the text goes to a temporary file in the same folder, is forced to disk, then moved over the
+ * target in one atomic step.
  *
  * <p>A report is often opened while a long run is still being written; a half-written page would
  * look like a broken run. On any failure the temporary file is deleted and the old target, if any,
@@ -45,7 +45,8 @@ public final class ReportWriter {
     if (folder == null || absolute.getFileName() == null) {
       throw new IllegalArgumentException("target must name a file in a folder, got " + target);
     }
-    Path temporary = folder.resolve("." + absolute.getFileName() + "." + UUID.randomUUID() + ".part");
+    Path temporary =
+        folder.resolve("." + absolute.getFileName() + "." + UUID.randomUUID() + ".part");
     // CREATE_NEW gives the default permissions (the umask's), unlike createTempFile's owner-only;
     // if it fails nothing was created, so nothing needs cleaning up.
     FileChannel channel =

@@ -9,10 +9,10 @@ import java.util.Optional;
  * round axis ticks ({@link NiceScale}, after Heckbert 1990) and a quiet frame.
  *
  * <p>Every factory returns one complete {@code <svg>} element as a string, well-formed XML with
- * presentation attributes only, so a panel reads the same inline in the report or saved alone.
- * When the data cannot be drawn (nothing finite, a range beyond double precision) the panel is a
- * framed note saying why; a factory never throws for the data's values, only for null arguments
- * or mismatched lengths.
+ * presentation attributes only, so a panel reads the same inline in the report or saved alone. When
+ * the data cannot be drawn (nothing finite, a range beyond double precision) the panel is a framed
+ * note saying why; a factory never throws for the data's values, only for null arguments or
+ * mismatched lengths.
  *
  * <table>
  *   <caption>Factories</caption>
@@ -252,7 +252,8 @@ public final class SvgPlot {
     if (lines.size() > maxLines) {
       List<String> kept = new ArrayList<>(lines.subList(0, maxLines));
       String last = kept.get(maxLines - 1);
-      kept.set(maxLines - 1, (last.length() > width - 3 ? last.substring(0, width - 3) : last) + "...");
+      kept.set(
+          maxLines - 1, (last.length() > width - 3 ? last.substring(0, width - 3) : last) + "...");
       return kept;
     }
     return lines;
@@ -375,8 +376,8 @@ public final class SvgPlot {
 
     /**
      * Opens the panel, or returns null when the ranges cannot be given round ticks. The axes span
-     * the data (y with a little room above and below); the ticks are Heckbert's loose labelling
-     * of that span, keeping those that fall inside it.
+     * the data (y with a little room above and below); the ticks are Heckbert's loose labelling of
+     * that span, keeping those that fall inside it.
      */
     static Canvas open(PanelLabels labels, Range xs, Range ys, List<String> legend) {
       Axis xAxis = Axis.of(xs.min, xs.max, 0.0);
@@ -479,8 +480,10 @@ public final class SvgPlot {
             .append("</text>");
       }
       for (double t : xAxis.ticks) {
+        // Keep the last label inside the panel rather than cut at its edge.
+        double half = xAxis.scale.label(t).length() * CHAR_WIDTH / 2;
         svg.append("<text x=\"");
-        Markup.coordinate(svg, sx(t)).append("\" y=\"");
+        Markup.coordinate(svg, Math.min(sx(t), WIDTH - 2 - half)).append("\" y=\"");
         Markup.coordinate(svg, bottom + 12)
             .append("\" text-anchor=\"middle\">")
             .append(Markup.escape(xAxis.scale.label(t)))

@@ -25,8 +25,8 @@ import org.junit.jupiter.api.io.TempDir;
  * A real browser opens a generated report: headless Chromium's DOM after parsing must hold every
  * SVG panel and every table row, and a screenshot must come out at the asked size.
  *
- * <p>Chromium is required, not optional: without it this test fails and says how to install it,
- * so a machine that cannot run it never reports the check as passed.
+ * <p>Chromium is required, not optional: without it this test fails and says how to install it, so
+ * a machine that cannot run it never reports the check as passed.
  */
 class BrowserRenderingTest {
   private static final long TIMEOUT_SECONDS = 120;
@@ -56,9 +56,10 @@ class BrowserRenderingTest {
     return found.orElseGet(
         () ->
             fail(
-                "BrowserRenderingTest needs a 'chromium' binary on the PATH (e.g. /usr/bin/chromium) "
-                    + "to render the HTML report in a real browser. Install it with "
-                    + "'apt-get update && apt-get install -y chromium' (Debian/Ubuntu) and run again."));
+                "BrowserRenderingTest needs a 'chromium' binary on the PATH (e.g."
+                    + " /usr/bin/chromium) to render the HTML report in a real browser. Install it"
+                    + " with 'apt-get update && apt-get install -y chromium' (Debian/Ubuntu) and"
+                    + " run again."));
   }
 
   /** Runs headless Chromium on {@code page} with the extra arguments; returns its stdout. */

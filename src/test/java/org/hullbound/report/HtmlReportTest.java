@@ -54,15 +54,26 @@ class HtmlReportTest {
     }
     assertEquals(
         List.of(
-            "unknown", "mean", "sd", "2.5%", "median", "97.5%", "R-hat", "ess bulk", "ess tail",
-            "mcse", "update", "evals/draw"),
+            "unknown",
+            "mean",
+            "sd",
+            "2.5%",
+            "median",
+            "97.5%",
+            "R-hat",
+            "ess bulk",
+            "ess tail",
+            "mcse",
+            "update",
+            "evals/draw"),
         texts);
     assertEquals(1 + 6, doc.getElementsByTagName("tr").getLength());
   }
 
   @Test
   void oneTracePlotPerUnknownUpToTheCap() {
-    String html = HtmlReport.render(SampleReports.cheap(8, 3, 200, ReportOptions.defaults().withPlotCap(5)));
+    String html =
+        HtmlReport.render(SampleReports.cheap(8, 3, 200, ReportOptions.defaults().withPlotCap(5)));
     assertEquals(5, Xml.count(html, "class=\"plot plot-trace\""));
     assertEquals(5, Xml.count(html, "class=\"plot plot-density\""));
     assertEquals(5, Xml.count(html, "class=\"unknown\""));
@@ -91,7 +102,8 @@ class HtmlReportTest {
   void namesAreEscapedEverywhere() {
     assertTrue(showcase.contains("tau &lt;&amp;&gt; &quot;odd&quot;"));
     assertFalse(showcase.contains("tau <&>"));
-    assertTrue(showcase.contains("<title>hullbound report: invented reef survey &lt;&amp;&gt;</title>"));
+    assertTrue(
+        showcase.contains("<title>hullbound report: invented reef survey &lt;&amp;&gt;</title>"));
     assertFalse(showcase.contains("survey <&>"));
   }
 
@@ -101,7 +113,8 @@ class HtmlReportTest {
     while (url.find()) {
       assertEquals("http://www.w3.org/2000/svg", url.group(), "only the SVG namespace is a URL");
     }
-    for (String fetching : List.of("<script", "<link", "@import", "url(", "src=", "<img", "<iframe")) {
+    for (String fetching :
+        List.of("<script", "<link", "@import", "url(", "src=", "<img", "<iframe")) {
       assertFalse(showcase.toLowerCase().contains(fetching), fetching);
     }
   }
@@ -119,13 +132,24 @@ class HtmlReportTest {
   void aSingleChainOfOneDrawAndChainsStuckApartStillRender() {
     List<UnknownReport> unknowns =
         List.of(
-            UnknownReport.of("alone", SampleReports.ar1(9, 1, 300, 0, 1, 0.4), UpdateFacts.fallback("slice", 8.0)),
-            UnknownReport.of("one", new double[][] {{1.5}, {2.5}}, UpdateFacts.fallback("slice", 8.0)),
-            UnknownReport.of("stuck", new double[][] {{1, 1, 1, 1, 1}, {2, 2, 2, 2, 2}}, UpdateFacts.fallback("slice", 1)),
-            UnknownReport.of("all NaN", new double[][] {{Double.NaN, Double.NaN}}, UpdateFacts.fallback("slice", 1)));
+            UnknownReport.of(
+                "alone",
+                SampleReports.ar1(9, 1, 300, 0, 1, 0.4),
+                UpdateFacts.fallback("slice", 8.0)),
+            UnknownReport.of(
+                "one", new double[][] {{1.5}, {2.5}}, UpdateFacts.fallback("slice", 8.0)),
+            UnknownReport.of(
+                "stuck",
+                new double[][] {{1, 1, 1, 1, 1}, {2, 2, 2, 2, 2}},
+                UpdateFacts.fallback("slice", 1)),
+            UnknownReport.of(
+                "all NaN",
+                new double[][] {{Double.NaN, Double.NaN}},
+                UpdateFacts.fallback("slice", 1)));
     String html =
         HtmlReport.render(
-            new ReportInput(SampleReports.header("", 2, 5), List.of(), "", unknowns, ReportOptions.defaults()));
+            new ReportInput(
+                SampleReports.header("", 2, 5), List.of(), "", unknowns, ReportOptions.defaults()));
     for (String svg : Xml.inlineSvgs(html)) {
       Xml.parse(svg);
     }
@@ -156,7 +180,8 @@ class HtmlReportTest {
 
   @Test
   void aPlotCapOfZeroDrawsNoPlotsAndSaysSo() {
-    String html = HtmlReport.render(SampleReports.cheap(3, 2, 50, ReportOptions.defaults().withPlotCap(0)));
+    String html =
+        HtmlReport.render(SampleReports.cheap(3, 2, 50, ReportOptions.defaults().withPlotCap(0)));
     assertEquals(0, Xml.inlineSvgs(html).size());
     assertTrue(html.contains("No plots are drawn: the plot cap is 0."));
   }
@@ -165,7 +190,12 @@ class HtmlReportTest {
   void aRunWithoutUnknownsStillRenders() {
     String html =
         HtmlReport.render(
-            new ReportInput(SampleReports.header("empty", 1, 0), List.of(), "", List.of(), ReportOptions.defaults()));
+            new ReportInput(
+                SampleReports.header("empty", 1, 0),
+                List.of(),
+                "",
+                List.of(),
+                ReportOptions.defaults()));
     Xml.parse(html);
     assertTrue(html.contains("This run has no unknowns."));
   }
@@ -181,7 +211,9 @@ class HtmlReportTest {
     Draws apartDraws = Draws.of(apart);
     SummaryTable table =
         SummaryTable.of(
-            List.of(PosteriorSummary.of("good", goodDraws), PosteriorSummary.of("apart<1>", apartDraws)),
+            List.of(
+                PosteriorSummary.of("good", goodDraws),
+                PosteriorSummary.of("apart<1>", apartDraws)),
             Map.of("good", UpdateFacts.exact("conjugate", 0)));
     Verdicts verdicts = Verdicts.of(table);
     ReportInput input =

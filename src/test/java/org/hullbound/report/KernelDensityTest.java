@@ -67,8 +67,7 @@ class KernelDensityTest {
     NormalDistribution squared = new NormalDistribution(null, 0, Math.sqrt(1 + h * h / 2));
     for (double point : new double[] {-2, -1, 0, 0.5, 1.5}) {
       double mean = smoothed.density(point);
-      double variance =
-          (squared.density(point) / (2 * Math.sqrt(Math.PI) * h) - mean * mean) / n;
+      double variance = (squared.density(point) / (2 * Math.sqrt(Math.PI) * h) - mean * mean) / n;
       double bias = mean - standard.density(point);
       double tolerance = Math.abs(bias) + 4.5 * Math.sqrt(variance);
       double estimate = kde.density(point);

@@ -103,7 +103,8 @@ class NiceScaleTest {
     assertTrue(e.getMessage().contains("targetTicks"), e.getMessage());
     e =
         assertThrows(
-            IllegalArgumentException.class, () -> NiceScale.of(-Double.MAX_VALUE, Double.MAX_VALUE, 5));
+            IllegalArgumentException.class,
+            () -> NiceScale.of(-Double.MAX_VALUE, Double.MAX_VALUE, 5));
     assertTrue(e.getMessage().contains("cannot be labelled"), e.getMessage());
   }
 
@@ -119,7 +120,9 @@ class NiceScaleTest {
     assertTrue(scale.low() <= min && scale.high() >= max, scale + " for " + min + ".." + max);
     double mantissa = scale.step() / Math.pow(10, Math.floor(Math.log10(scale.step()) + 1e-9));
     assertTrue(
-        Math.abs(mantissa - 1) < 1e-9 || Math.abs(mantissa - 2) < 1e-9 || Math.abs(mantissa - 5) < 1e-9,
+        Math.abs(mantissa - 1) < 1e-9
+            || Math.abs(mantissa - 2) < 1e-9
+            || Math.abs(mantissa - 5) < 1e-9,
         "step " + scale.step());
     int ticks = scale.ticks().length;
     // Loose labelling gives between about half and about twice the target (Heckbert 1990).

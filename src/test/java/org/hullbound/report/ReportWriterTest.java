@@ -51,7 +51,8 @@ class ReportWriterTest {
     Path target = folder.resolve("report.html");
     Files.writeString(target, "the previous, complete report");
     String broken = "x".repeat(1 << 20) + "\uD800" + "y".repeat(1000);
-    assertThrows(CharacterCodingException.class, () -> ReportWriter.writeAtomically(target, broken));
+    assertThrows(
+        CharacterCodingException.class, () -> ReportWriter.writeAtomically(target, broken));
     assertEquals("the previous, complete report", Files.readString(target));
     assertEquals(List.of(target), listing(folder));
   }

@@ -17,7 +17,8 @@ import org.hullbound.diagnostics.VariableSummary;
 final class SampleReports {
   private SampleReports() {}
 
-  static final OffsetDateTime STARTED = OffsetDateTime.of(2026, 3, 14, 9, 26, 53, 0, ZoneOffset.UTC);
+  static final OffsetDateTime STARTED =
+      OffsetDateTime.of(2026, 3, 14, 9, 26, 53, 0, ZoneOffset.UTC);
 
   /** {@code chains} AR(1) chains with stationary mean, sd and lag-one correlation {@code phi}. */
   static double[][] ar1(long seed, int chains, int n, double mean, double sd, double phi) {
@@ -46,9 +47,12 @@ final class SampleReports {
     List<UnknownReport> unknowns = new ArrayList<>();
     for (int k = 0; k < count; k++) {
       double[][] d = ar1(1000 + k, chains, draws, k * 0.5, 1 + 0.1 * k, 0.5);
-      unknowns.add(UnknownReport.of("theta[" + (k + 1) + "]", d, UpdateFacts.exact("adaptive rejection", 4.2)));
+      unknowns.add(
+          UnknownReport.of(
+              "theta[" + (k + 1) + "]", d, UpdateFacts.exact("adaptive rejection", 4.2)));
     }
-    return new ReportInput(header("invented dose-response model", chains, draws), List.of(), "", unknowns, options);
+    return new ReportInput(
+        header("invented dose-response model", chains, draws), List.of(), "", unknowns, options);
   }
 
   /**
@@ -61,24 +65,48 @@ final class SampleReports {
       double[][] d = ar1(5000 + k, chains, draws, 0, 1, 0.6);
       VariableSummary summary =
           new VariableSummary(
-              "beta[" + (k + 1) + "]", chains, draws, 0.01, 1.0, -1.96, 0.0, 1.96, 1.001, 1.001,
-              1.0, 900, 850, 950, 0.03, 0.05, 0.04, 0.05, VariableSummary.State.COMPLETE,
+              "beta[" + (k + 1) + "]",
+              chains,
+              draws,
+              0.01,
+              1.0,
+              -1.96,
+              0.0,
+              1.96,
+              1.001,
+              1.001,
+              1.0,
+              900,
+              850,
+              950,
+              0.03,
+              0.05,
+              0.04,
+              0.05,
+              VariableSummary.State.COMPLETE,
               List.of());
-      unknowns.add(UnknownReport.of(summary, Draws.of(d), UpdateFacts.exact("adaptive rejection", 4.0)));
+      unknowns.add(
+          UnknownReport.of(summary, Draws.of(d), UpdateFacts.exact("adaptive rejection", 4.0)));
     }
-    return new ReportInput(header("invented growth curves", chains, draws), List.of(), "", unknowns, options);
+    return new ReportInput(
+        header("invented growth curves", chains, draws), List.of(), "", unknowns, options);
   }
 
   /** A showcase with one of each awkward case, for looking at and for the browser. */
   static ReportInput showcase() {
     List<UnknownReport> unknowns = new ArrayList<>();
-    unknowns.add(UnknownReport.of("mu", ar1(1, 4, 2000, 2.5, 0.4, 0.3), UpdateFacts.exact("conjugate normal", 0)));
-    unknowns.add(UnknownReport.of("sigma", ar1(2, 4, 2000, 1.2, 0.1, 0.9), UpdateFacts.exact("adaptive rejection", 5.7)));
+    unknowns.add(
+        UnknownReport.of(
+            "mu", ar1(1, 4, 2000, 2.5, 0.4, 0.3), UpdateFacts.exact("conjugate normal", 0)));
+    unknowns.add(
+        UnknownReport.of(
+            "sigma", ar1(2, 4, 2000, 1.2, 0.1, 0.9), UpdateFacts.exact("adaptive rejection", 5.7)));
     double[][] stuck = ar1(3, 4, 2000, 0, 1, 0.95);
     for (int i = 0; i < stuck[2].length; i++) {
       stuck[2][i] += 3;
     }
-    unknowns.add(UnknownReport.of("tau <&> \"odd\"", stuck, UpdateFacts.exact("adaptive rejection", 6.1)));
+    unknowns.add(
+        UnknownReport.of("tau <&> \"odd\"", stuck, UpdateFacts.exact("adaptive rejection", 6.1)));
     double[][] constant = new double[4][50];
     for (double[] chain : constant) {
       java.util.Arrays.fill(chain, 3.0);
@@ -88,10 +116,13 @@ final class SampleReports {
     gaps[1][17] = Double.NaN;
     gaps[3][200] = Double.POSITIVE_INFINITY;
     unknowns.add(UnknownReport.of("broken", gaps, UpdateFacts.fallback("slice", 12.5)));
-    unknowns.add(UnknownReport.of("one draw", new double[][] {{0.7}}, UpdateFacts.exact("adaptive rejection", 3.0)));
+    unknowns.add(
+        UnknownReport.of(
+            "one draw", new double[][] {{0.7}}, UpdateFacts.exact("adaptive rejection", 3.0)));
     List<String> warnings =
         List.of(
-            "tau <&> \"odd\": R-hat is 1.41, above 1.01: chain 3 sits apart from the others; run longer or check the model.",
+            "tau <&> \"odd\": R-hat is 1.41, above 1.01: chain 3 sits apart from the others; run"
+                + " longer or check the model.",
             "broken: 2 draws are NaN or infinite; no diagnostics for it.");
     return new ReportInput(
         header("invented reef survey <&>", 4, 2000),

@@ -35,7 +35,9 @@ class SvgPlotTest {
 
   @Test
   void nonFiniteValuesBreakTheLineAndALonePointIsADot() {
-    Series s = Series.ofValues("chain 1", new double[] {1, 2, Double.NaN, 3, 4, Double.POSITIVE_INFINITY, 5});
+    Series s =
+        Series.ofValues(
+            "chain 1", new double[] {1, 2, Double.NaN, 3, 4, Double.POSITIVE_INFINITY, 5});
     Document doc = parsed(SvgPlot.trace(TRACE, List.of(s)));
     assertEquals(2, doc.getElementsByTagNameNS(SVG_NAMESPACE, "polyline").getLength());
     assertEquals(1, doc.getElementsByTagNameNS(SVG_NAMESPACE, "circle").getLength());
@@ -47,8 +49,11 @@ class SvgPlotTest {
     Document doc = parsed(SvgPlot.trace(TRACE, List.of(s)));
     assertEquals(0, doc.getElementsByTagNameNS(SVG_NAMESPACE, "polyline").getLength());
     assertTrue(doc.getDocumentElement().getTextContent().contains("no finite values"));
-    assertTrue(parsed(SvgPlot.trace(TRACE, List.of())).getDocumentElement().getTextContent()
-        .contains("no finite values"));
+    assertTrue(
+        parsed(SvgPlot.trace(TRACE, List.of()))
+            .getDocumentElement()
+            .getTextContent()
+            .contains("no finite values"));
   }
 
   @Test
@@ -94,7 +99,8 @@ class SvgPlotTest {
                 Optional.empty()));
     assertEquals(2, steps.getElementsByTagNameNS(SVG_NAMESPACE, "polyline").getLength());
 
-    Document note = parsed(SvgPlot.note(new PanelLabels("density", "density", "", ""), "why <not>"));
+    Document note =
+        parsed(SvgPlot.note(new PanelLabels("density", "density", "", ""), "why <not>"));
     assertTrue(note.getDocumentElement().getTextContent().contains("why <not>"));
   }
 
@@ -112,10 +118,11 @@ class SvgPlotTest {
     assertTrue(e.getMessage().contains("equal length"), e.getMessage());
     e =
         assertThrows(
-            IllegalArgumentException.class,
-            () -> new Series("s", new double[2], new double[1]));
+            IllegalArgumentException.class, () -> new Series("s", new double[2], new double[1]));
     assertTrue(e.getMessage().contains("equal lengths"), e.getMessage());
-    e = assertThrows(IllegalArgumentException.class, () -> new PanelLabels("Not A Word", "", "", ""));
+    e =
+        assertThrows(
+            IllegalArgumentException.class, () -> new PanelLabels("Not A Word", "", "", ""));
     assertTrue(e.getMessage().contains("kind"), e.getMessage());
   }
 

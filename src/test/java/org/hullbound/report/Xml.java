@@ -21,7 +21,9 @@ final class Xml {
 
   private static final Pattern SVG = Pattern.compile("<svg\\b.*?</svg>", Pattern.DOTALL);
 
-  /** Parses {@code text} as a namespace-aware XML document; fails the test with the parser's words. */
+  /**
+   * Parses {@code text} as a namespace-aware XML document; fails the test with the parser's words.
+   */
   static Document parse(String text) {
     try {
       DocumentBuilderFactory factory = DocumentBuilderFactory.newInstance();
