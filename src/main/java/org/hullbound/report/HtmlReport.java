@@ -345,12 +345,15 @@ public final class HtmlReport {
     if (!flat.isEmpty()) {
       notes.add("No density is drawn for " + String.join("; ", flat) + ".");
     }
-    low -= 3 * widest;
-    high += 3 * widest;
+    // Clamped and interpolated as a weighted sum, so draws near the largest doubles cannot
+    // overflow the grid; such a range then ends as a note from the plot itself.
+    low = Math.max(-Double.MAX_VALUE, low - 3 * widest);
+    high = Math.min(Double.MAX_VALUE, high + 3 * widest);
     int points = options.densityPoints();
     double[] grid = new double[points];
     for (int i = 0; i < points; i++) {
-      grid[i] = low + (high - low) * i / (points - 1);
+      double t = (double) i / (points - 1);
+      grid[i] = (1 - t) * low + t * high;
     }
     List<Series> series = new ArrayList<>();
     for (int c = 0; c < perChain.length; c++) {

@@ -161,6 +161,37 @@ class HtmlReportTest {
   }
 
   @Test
+  void hugeAndTinyScalesRenderWithoutOverflow() {
+    double[][] huge = SampleReports.ar1(41, 2, 300, 0, 1, 0.3);
+    double[][] tiny = SampleReports.ar1(42, 2, 300, 0, 1, 0.3);
+    for (int c = 0; c < 2; c++) {
+      for (int i = 0; i < 300; i++) {
+        huge[c][i] *= 4e307;
+        tiny[c][i] *= 1e-300;
+      }
+    }
+    huge[0][7] = Double.MAX_VALUE;
+    huge[1][9] = -Double.MAX_VALUE;
+    // Summaries made up: the plots are under test here, not the diagnostics.
+    List<UnknownReport> unknowns =
+        List.of(SampleReports.madeUp("huge", huge), SampleReports.madeUp("tiny", tiny));
+    String html =
+        HtmlReport.render(
+            new ReportInput(
+                SampleReports.header("scales", 2, 300),
+                List.of(),
+                "",
+                unknowns,
+                ReportOptions.defaults()));
+    Xml.parse(html);
+    assertEquals(8, Xml.inlineSvgs(html).size());
+    assertFalse(html.contains("NaN,") || html.contains(",NaN") || html.contains("Infinity"));
+    assertTrue(html.contains("values span more than double precision can label"), "huge: note");
+    // tiny: trace, density and ranks of both chains; huge: only its ranks (the rest are notes).
+    assertEquals(8, Xml.count(html, "<polyline"), "lines drawn");
+  }
+
+  @Test
   void warningsComeFirstInTheGivenOrderAndNoneIsSaidPlainly() {
     int first = showcase.indexOf("R-hat is 1.41");
     int second = showcase.indexOf("2 draws are NaN or infinite; no diagnostics");

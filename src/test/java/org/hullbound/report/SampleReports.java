@@ -92,6 +92,16 @@ final class SampleReports {
         header("invented growth curves", chains, draws), List.of(), "", unknowns, options);
   }
 
+  /** An entry whose summary is made up, to test the plots alone on draws of any kind. */
+  static UnknownReport madeUp(String name, double[][] draws) {
+    double nan = Double.NaN;
+    VariableSummary summary =
+        new VariableSummary(
+            name, draws.length, draws[0].length, nan, nan, nan, nan, nan, nan, nan, nan, nan, nan,
+            nan, nan, nan, nan, nan, VariableSummary.State.COMPLETE, List.of());
+    return UnknownReport.of(summary, Draws.of(draws), null);
+  }
+
   /** A showcase with one of each awkward case, for looking at and for the browser. */
   static ReportInput showcase() {
     List<UnknownReport> unknowns = new ArrayList<>();
