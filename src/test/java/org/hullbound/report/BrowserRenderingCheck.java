@@ -28,7 +28,7 @@ import org.junit.jupiter.api.io.TempDir;
  * <p>Chromium is required, not optional: without it this test fails and says how to install it, so
  * a machine that cannot run it never reports the check as passed.
  */
-class BrowserRenderingTest {
+class BrowserRenderingCheck {
   private static final long TIMEOUT_SECONDS = 120;
 
   private static String report;
@@ -56,7 +56,7 @@ class BrowserRenderingTest {
     return found.orElseGet(
         () ->
             fail(
-                "BrowserRenderingTest needs a 'chromium' binary on the PATH (e.g."
+                "BrowserRenderingCheck needs a 'chromium' binary on the PATH (e.g."
                     + " /usr/bin/chromium) to render the HTML report in a real browser. Install it"
                     + " with 'apt-get update && apt-get install -y chromium' (Debian/Ubuntu) and"
                     + " run again."));
