@@ -113,4 +113,30 @@ class PosteriorSummaryTest {
         IllegalArgumentException.class,
         () -> PosteriorSummary.of("x", new double[][] {{1, 2, 3, 4}, {1, 2, 3}}));
   }
+  @Test
+  void drawsNearTheLargestDoubleAreFoldedWithoutOverflow() {
+    // Folding |x - median| of draws of both signs near Double.MAX_VALUE overflows at full scale;
+    // the rank-based R-hat must still come out, equal to that of the same draws scaled down.
+    // Both scales are powers of two, so every rounding scales exactly and near-ties keep their
+    // order (a factor such as 0.2 would reorder draws tied to within rounding).
+    double[][] raw = SimulatedChains.normal(24, 4, 200, 0, 1);
+    double[][] huge = new double[raw.length][];
+    double[][] small = new double[raw.length][];
+    for (int c = 0; c < raw.length; c++) {
+      huge[c] = Arrays.stream(raw[c]).map(x -> x * 0x1p1022).toArray();
+      small[c] = Arrays.stream(raw[c]).map(x -> x * 0x1p-2).toArray();
+    }
+    VariableSummary atScale = PosteriorSummary.of("x", huge);
+    VariableSummary reference = PosteriorSummary.of("x", small);
+    assertEquals(reference.rhatBulk(), atScale.rhatBulk(), 1e-12, "bulk");
+    assertEquals(reference.rhat(), atScale.rhat(), 1e-12);
+    assertEquals(reference.rhatTail(), atScale.rhatTail(), 1e-12);
+    assertEquals(reference.essTail(), atScale.essTail(), 1e-9 * reference.essTail());
+  }
+
+  @Test
+  void aSingleDrawIsDescribedInTheSingular() {
+    VariableSummary s = PosteriorSummary.of("x", new double[][] {{0.7}});
+    assertTrue(s.notes().get(0).startsWith("the only draw is 0.7"), s.notes().toString());
+  }
 }
