@@ -63,9 +63,7 @@ public final class PosteriorSummary {
 
     if (draws.isConstant()) {
       notes.add(
-          "all "
-              + sorted.length
-              + " draws equal "
+          (sorted.length == 1 ? "the only draw is " : "all " + sorted.length + " draws equal ")
               + sorted[0]
               + ", so R-hat, effective sample size and Monte Carlo error are undefined");
       return new VariableSummary(

@@ -107,11 +107,18 @@ public final class RankNormalization {
    * Folded draws {@code |x - median|}, median of all draws pooled (Vehtari et al. 2021, section
    * 4.2), so that chains differing in scale differ in location.
    *
+   * <p>Only the ranks of folded draws are used, so when a draw is beyond half the largest double
+   * (where {@code x - median} could overflow) every distance is taken at half scale: a monotone
+   * change that leaves the ranks as they are.
+   *
    * @throws NonFiniteDrawException if a draw is NaN or infinite
    */
   public static Draws folded(Draws draws) {
     draws.requireFinite();
-    double median = Quantiles.of(draws.sorted(), 0.5);
-    return draws.map(x -> Math.abs(x - median));
+    double[] sorted = draws.sorted();
+    double largest = Math.max(Math.abs(sorted[0]), Math.abs(sorted[sorted.length - 1]));
+    double scale = largest > Double.MAX_VALUE / 2 ? 0.5 : 1.0;
+    double median = Quantiles.of(sorted, 0.5) * scale;
+    return draws.map(x -> Math.abs(x * scale - median));
   }
 }

@@ -113,4 +113,32 @@ class PosteriorSummaryTest {
         IllegalArgumentException.class,
         () -> PosteriorSummary.of("x", new double[][] {{1, 2, 3, 4}, {1, 2, 3}}));
   }
+  @Test
+  void drawsNearTheLargestDoubleAreFoldedWithoutOverflow() {
+    // Two clusters, around +2.5 and -2.5 (the second holding about a sixth of the draws), at
+    // scale 2^1022: every draw is finite, but a draw of the lower cluster minus the median
+    // (about 5.6 * 2^1022) is beyond Double.MAX_VALUE. The rank-based R-hat must still come out,
+    // equal to that of the same draws at scale 2^-2. Both scales are powers of two, so every
+    // rounding scales exactly and near-ties keep their order.
+    double[][] raw = SimulatedChains.normal(24, 4, 200, 0, 1);
+    double[][] huge = new double[raw.length][];
+    double[][] small = new double[raw.length][];
+    for (int c = 0; c < raw.length; c++) {
+      double[] clustered = Arrays.stream(raw[c]).map(z -> (z > -1 ? 2.5 : -2.5) + 0.2 * z).toArray();
+      huge[c] = Arrays.stream(clustered).map(x -> x * 0x1p1022).toArray();
+      small[c] = Arrays.stream(clustered).map(x -> x * 0x1p-2).toArray();
+    }
+    VariableSummary atScale = PosteriorSummary.of("x", huge);
+    VariableSummary reference = PosteriorSummary.of("x", small);
+    assertEquals(VariableSummary.State.COMPLETE, atScale.state(), atScale.notes().toString());
+    assertEquals(reference.rhatBulk(), atScale.rhatBulk(), 1e-12, "bulk");
+    assertEquals(reference.rhatTail(), atScale.rhatTail(), 1e-12, "tail");
+    assertEquals(reference.essTail(), atScale.essTail(), 1e-9 * reference.essTail());
+  }
+
+  @Test
+  void aSingleDrawIsDescribedInTheSingular() {
+    VariableSummary s = PosteriorSummary.of("x", new double[][] {{0.7}});
+    assertTrue(s.notes().get(0).startsWith("the only draw is 0.7"), s.notes().toString());
+  }
 }

@@ -1,0 +1,563 @@
+package org.hullbound.report;
+
+import java.time.Duration;
+import java.time.format.DateTimeFormatter;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Locale;
+import java.util.Optional;
+import org.apache.commons.math3.distribution.BinomialDistribution;
+import org.hullbound.diagnostics.Autocorrelation;
+import org.hullbound.diagnostics.Draws;
+import org.hullbound.diagnostics.PosteriorSummary;
+import org.hullbound.diagnostics.RankNormalization;
+import org.hullbound.diagnostics.VariableSummary;
+
+/**
+ * Renders the HTML report of a fit: run header, warnings, the summary table and, per unknown, a
+ * trace, a density, an autocorrelation and a rank plot, all in one self-contained file.
+ *
+ * <p>The page has inline CSS and inline SVG only: no scripts, fonts or links to fetch, so it opens
+ * offline and archives as one file. It is also well-formed XML. Awkward draws (NaN, infinities,
+ * constant chains, one chain, one draw) give a note in place of the plot that cannot be drawn;
+ * rendering never throws for them. Methods: Silverman (1986) for densities, Vehtari, Gelman,
+ * Simpson, Carpenter and Buerkner (2021) for rank plots, Heckbert (1990) for axis ticks.
+ */
+public final class HtmlReport {
+  private static final DateTimeFormatter STARTED =
+      DateTimeFormatter.ofPattern("yyyy-MM-dd HH:mm:ss", Locale.ROOT);
+
+  private HtmlReport() {}
+
+  /**
+   * The complete report page.
+   *
+   * @throws IllegalArgumentException if {@code input} is null
+   */
+  public static String render(ReportInput input) {
+    if (input == null) {
+      throw new IllegalArgumentException("input must not be null");
+    }
+    StringBuilder html = new StringBuilder(64 * 1024);
+    String model =
+        input.header().modelName().isBlank() ? "unnamed model" : input.header().modelName();
+    html.append("<!DOCTYPE html>\n<html lang=\"en\"><head><meta charset=\"utf-8\"/>")
+        .append("<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\"/>")
+        .append("<title>hullbound report: ")
+        .append(Markup.escape(model))
+        .append("</title><style>")
+        .append(Style.CSS)
+        .append("</style></head>\n<body><main>\n");
+    header(html, input, model);
+    warnings(html, input.warnings(), input.conclusion());
+    table(html, input);
+    plots(html, input);
+    footer(html, input.options());
+    html.append("</main></body></html>\n");
+    return html.toString();
+  }
+
+  private static void header(StringBuilder html, ReportInput input, String model) {
+    RunHeader h = input.header();
+    html.append("<header class=\"run\"><p class=\"kicker\">hullbound fit report</p><h1>")
+        .append(Markup.escape(model))
+        .append("</h1><dl class=\"facts\">");
+    String offset =
+        h.startedAt().getOffset().getTotalSeconds() == 0
+            ? "UTC"
+            : h.startedAt().getOffset().getId();
+    fact(html, "started", h.startedAt().format(STARTED) + " " + offset);
+    fact(html, "run time", duration(h.runTime()));
+    fact(html, "chains", Integer.toString(h.chains()));
+    fact(html, "draws per chain", h.drawsPerChain() + " kept");
+    fact(html, "burn-in per chain", Integer.toString(h.burnIn()));
+    fact(html, "seed", Long.toString(h.seed()));
+    fact(html, "unknowns", Integer.toString(input.unknowns().size()));
+    html.append("</dl></header>\n");
+  }
+
+  private static void fact(StringBuilder html, String term, String value) {
+    html.append("<div><dt>")
+        .append(Markup.escape(term))
+        .append("</dt><dd>")
+        .append(Markup.escape(value))
+        .append("</dd></div>");
+  }
+
+  private static void warnings(StringBuilder html, List<String> warnings, String conclusion) {
+    if (warnings.isEmpty()) {
+      html.append("<section class=\"warnings none\" id=\"warnings\"><p>")
+          .append(
+              conclusion.isEmpty()
+                  ? "No warnings were raised for this run."
+                  : Markup.escape(conclusion))
+          .append("</p></section>\n");
+      return;
+    }
+    html.append("<section class=\"warnings\" id=\"warnings\"><h2>")
+        .append(warnings.size() == 1 ? "1 warning" : warnings.size() + " warnings")
+        .append("</h2><ul>");
+    for (String w : warnings) {
+      html.append("<li>").append(Markup.escape(w)).append("</li>");
+    }
+    html.append("</ul>");
+    if (!conclusion.isEmpty()) {
+      html.append("<p>").append(Markup.escape(conclusion)).append("</p>");
+    }
+    html.append("</section>\n");
+  }
+
+  private static void table(StringBuilder html, ReportInput input) {
+    int cap = input.options().plotCap();
+    html.append("<section id=\"summary\"><h2>Summary</h2>")
+        .append("<p class=\"lead\">Posterior mean, sd and quantiles of all draws pooled; ")
+        .append("rank-normalised split R-hat and bulk and tail effective sample sizes ")
+        .append("(Vehtari et al. 2021); mcse is the Monte Carlo standard error of the mean. ")
+        .append("Marked values (&#9652;) have R-hat above ")
+        .append(Markup.escape(plain(input.options().maxRhat())))
+        .append(" or an effective sample size below ")
+        .append(Markup.escape(plain(input.options().minEss())))
+        .append("; n/a means not defined for these draws.</p>")
+        .append("<div class=\"scroll\"><table><thead><tr>");
+    String[] headings = {
+      "unknown",
+      "mean",
+      "sd",
+      "2.5%",
+      "median",
+      "97.5%",
+      "R-hat",
+      "ess bulk",
+      "ess tail",
+      "mcse",
+      "update",
+      "evals/draw"
+    };
+    for (String heading : headings) {
+      html.append(heading.equals("update") ? "<th class=\"text\">" : "<th>")
+          .append(Markup.escape(heading))
+          .append("</th>");
+    }
+    html.append("</tr></thead><tbody>");
+    if (input.unknowns().isEmpty()) {
+      html.append("<tr><td colspan=\"12\">This run has no unknowns.</td></tr>");
+    }
+    for (int i = 0; i < input.unknowns().size(); i++) {
+      UnknownReport u = input.unknowns().get(i);
+      VariableSummary s = u.summary();
+      html.append("<tr><td class=\"name\">");
+      if (i < cap) {
+        html.append("<a href=\"#u").append(i).append("\">").append(Markup.escape(u.name()));
+        html.append("</a>");
+      } else {
+        html.append(Markup.escape(u.name()));
+      }
+      html.append("</td>");
+      ReportOptions o = input.options();
+      cell(html, NumberText.significant(s.mean(), 4), false);
+      cell(html, NumberText.significant(s.sd(), 4), false);
+      cell(html, NumberText.significant(s.q025(), 4), false);
+      cell(html, NumberText.significant(s.q50(), 4), false);
+      cell(html, NumberText.significant(s.q975(), 4), false);
+      cell(html, NumberText.fixed(s.rhat(), 3), s.rhat() > o.maxRhat());
+      cell(html, NumberText.count(s.essBulk()), s.essBulk() < o.minEss());
+      cell(html, NumberText.count(s.essTail()), s.essTail() < o.minEss());
+      cell(html, NumberText.significant(s.mcseMean(), 2), false);
+      html.append("<td class=\"text\">")
+          .append(
+              Markup.escape(u.update().map(UpdateFacts::update).orElse(NumberText.NOT_AVAILABLE)))
+          .append("</td>");
+      cell(html, u.update().map(HtmlReport::evaluations).orElse(NumberText.NOT_AVAILABLE), false);
+      html.append("</tr>");
+    }
+    html.append("</tbody></table></div>");
+    if (input.unknowns().size() > cap) {
+      html.append("<p class=\"lead\">")
+          .append(capSentence(input.unknowns().size(), cap))
+          .append("</p>");
+    }
+    html.append("</section>\n");
+  }
+
+  private static void cell(StringBuilder html, String text, boolean flag) {
+    if (text.equals(NumberText.NOT_AVAILABLE)) {
+      html.append("<td class=\"undefined\">").append(text).append("</td>");
+      return;
+    }
+    html.append(flag ? "<td class=\"flag\">" : "<td>").append(Markup.escape(text)).append("</td>");
+  }
+
+  /** Evaluations per draw as the terminal table writes them. */
+  private static String evaluations(UpdateFacts facts) {
+    double e = facts.evaluationsPerDraw();
+    return e == 0 ? "0" : NumberText.significant(e, 3);
+  }
+
+  /** A threshold as typed: 1.01, 400. */
+  private static String plain(double x) {
+    return new java.math.BigDecimal(Double.toString(x)).stripTrailingZeros().toPlainString();
+  }
+
+  private static String capSentence(int total, int cap) {
+    if (cap == 0) {
+      return "No plots are drawn: the plot cap is 0. All " + total + " unknowns are in the table.";
+    }
+    return "Plots are drawn for the first "
+        + cap
+        + " of "
+        + total
+        + " unknowns (the plot cap, a report option); the other "
+        + (total - cap)
+        + " appear in the table only.";
+  }
+
+  private static void plots(StringBuilder html, ReportInput input) {
+    List<UnknownReport> unknowns = input.unknowns();
+    int cap = Math.min(input.options().plotCap(), unknowns.size());
+    if (unknowns.isEmpty()) {
+      return;
+    }
+    html.append("<section id=\"plots\"><h2>Plots</h2><p class=\"lead\">")
+        .append("Per unknown: every chain&#8217;s trace, a kernel density per chain, the ")
+        .append("autocorrelation averaged over chains, and a histogram per chain of the ranks ")
+        .append("of its draws among all draws. Colours and dash patterns follow the trace legend. ")
+        .append("Shaded bands show what independent draws would give: for ranks the middle 95% ")
+        .append("of a bin&#8217;s count, for autocorrelation &#177;1.96/&#8730;n. ")
+        .append("Traces longer than ")
+        .append(input.options().maxTracePoints())
+        .append(" draws are thinned to that many points per chain, keeping the lowest and ")
+        .append("highest draw of every stretch, so no spike is hidden.");
+    if (unknowns.size() > cap) {
+      html.append(' ').append(capSentence(unknowns.size(), input.options().plotCap()));
+    }
+    html.append("</p>\n");
+    for (int i = 0; i < cap; i++) {
+      unknownSection(html, i, unknowns.get(i), input.options());
+    }
+    html.append("</section>\n");
+  }
+
+  private static void unknownSection(
+      StringBuilder html, int index, UnknownReport u, ReportOptions options) {
+    VariableSummary s = u.summary();
+    List<String> notes = new ArrayList<>(s.notes());
+    String trace = tracePanel(u, options, notes);
+    String density = densityPanel(u, options, notes);
+    String acf = autocorrelationPanel(u, options);
+    String ranks = rankPanel(u, options);
+    html.append("<section class=\"unknown\" id=\"u")
+        .append(index)
+        .append("\"><h3>")
+        .append(Markup.escape(u.name()))
+        .append("</h3><p class=\"keyline\">");
+    if (Double.isNaN(s.mean())) {
+      html.append("no summary: the draws are not all finite");
+    } else {
+      html.append("mean ")
+          .append(Markup.escape(NumberText.significant(s.mean(), 4)))
+          .append(" &#183; 95% interval ")
+          .append(Markup.escape(NumberText.significant(s.q025(), 4)))
+          .append(" to ")
+          .append(Markup.escape(NumberText.significant(s.q975(), 4)))
+          .append(" &#183; R-hat ")
+          .append(Markup.escape(NumberText.fixed(s.rhat(), 3)))
+          .append(" &#183; ess bulk ")
+          .append(Markup.escape(NumberText.count(s.essBulk())));
+    }
+    u.update().ifPresent(f -> html.append(" &#183; ").append(Markup.escape(f.update())));
+    html.append("</p>");
+    if (!notes.isEmpty()) {
+      html.append("<ul class=\"notes\">");
+      for (String note : notes) {
+        html.append("<li>").append(Markup.escape(note)).append("</li>");
+      }
+      html.append("</ul>");
+    }
+    html.append("<div class=\"panels\">")
+        .append(trace)
+        .append(density)
+        .append(acf)
+        .append(ranks)
+        .append("</div></section>\n");
+  }
+
+  private static String tracePanel(UnknownReport u, ReportOptions options, List<String> notes) {
+    Draws draws = u.draws();
+    List<Series> series = new ArrayList<>();
+    long nonFinite = 0;
+    for (int c = 0; c < draws.chainCount(); c++) {
+      double[] chain = draws.chain(c);
+      for (double v : chain) {
+        if (!Double.isFinite(v)) {
+          nonFinite++;
+        }
+      }
+      series.add(TraceDownsampler.minMax("chain " + (c + 1), chain, options.maxTracePoints()));
+    }
+    if (nonFinite > 0) {
+      notes.add(
+          nonFinite
+              + " of "
+              + draws.totalCount()
+              + " draws are NaN or infinite; the plots leave them out (gaps in the trace).");
+    }
+    return SvgPlot.trace(new PanelLabels("trace", "trace", "draw after burn-in", ""), series);
+  }
+
+  private static String densityPanel(UnknownReport u, ReportOptions options, List<String> notes) {
+    PanelLabels labels = new PanelLabels("density", "density per chain", u.name(), "");
+    Draws draws = u.draws();
+    KernelDensity[] perChain = new KernelDensity[draws.chainCount()];
+    double low = Double.POSITIVE_INFINITY;
+    double high = Double.NEGATIVE_INFINITY;
+    double widest = 0;
+    List<String> flat = new ArrayList<>();
+    for (int c = 0; c < draws.chainCount(); c++) {
+      double[] finite = finiteValues(draws.chain(c));
+      try {
+        perChain[c] = KernelDensity.of(finite);
+        low = Math.min(low, perChain[c].min());
+        high = Math.max(high, perChain[c].max());
+        widest = Math.max(widest, perChain[c].bandwidth());
+      } catch (IllegalArgumentException e) {
+        flat.add(
+            finite.length == 0
+                ? "chain " + (c + 1) + " has no finite draws"
+                : finite.length == 1
+                    ? "chain "
+                        + (c + 1)
+                        + " has one finite draw, "
+                        + NumberText.significant(finite[0], 4)
+                    : "chain "
+                        + (c + 1)
+                        + " is constant at "
+                        + NumberText.significant(finite[0], 4));
+      }
+    }
+    if (flat.size() == draws.chainCount()) {
+      if (draws.isConstant()) {
+        return SvgPlot.note(
+            labels,
+            "no density: every draw equals " + NumberText.significant(draws.chain(0)[0], 6));
+      }
+      return SvgPlot.note(labels, "no density: " + String.join("; ", flat));
+    }
+    if (!flat.isEmpty()) {
+      notes.add("No density is drawn for " + String.join("; ", flat) + ".");
+    }
+    // Clamped and interpolated as a weighted sum, so draws near the largest doubles cannot
+    // overflow the grid; such a range then ends as a note from the plot itself.
+    low = Math.max(-Double.MAX_VALUE, low - 3 * widest);
+    high = Math.min(Double.MAX_VALUE, high + 3 * widest);
+    int points = options.densityPoints();
+    double[] grid = new double[points];
+    for (int i = 0; i < points; i++) {
+      double t = (double) i / (points - 1);
+      grid[i] = (1 - t) * low + t * high;
+    }
+    List<Series> series = new ArrayList<>();
+    for (int c = 0; c < perChain.length; c++) {
+      String name = "chain " + (c + 1);
+      series.add(
+          perChain[c] == null
+              ? new Series(name, new double[0], new double[0])
+              : new Series(name, grid, perChain[c].density(grid)));
+    }
+    return SvgPlot.curves(labels, series, false);
+  }
+
+  private static String autocorrelationPanel(UnknownReport u, ReportOptions options) {
+    Draws draws = u.draws();
+    String title = draws.chainCount() == 1 ? "autocorrelation" : "autocorrelation, mean of chains";
+    PanelLabels labels = new PanelLabels("autocorrelation", title, "lag", "");
+    if (!draws.isFinite()) {
+      return SvgPlot.note(labels, "not drawn: some draws are NaN or infinite");
+    }
+    if (draws.length() < PosteriorSummary.MINIMUM_DRAWS_PER_CHAIN) {
+      return SvgPlot.note(
+          labels,
+          "not drawn: needs "
+              + PosteriorSummary.MINIMUM_DRAWS_PER_CHAIN
+              + " draws per chain, has "
+              + draws.length());
+    }
+    if (draws.isConstant()) {
+      return SvgPlot.note(labels, "not drawn: every draw is the same");
+    }
+    if (everyChainConstant(draws)) {
+      return SvgPlot.note(labels, "not drawn: every chain is constant");
+    }
+    int maxLag = Math.min(options.maxLag(), draws.length() - 1);
+    double[] rho = Autocorrelation.averaged(draws, maxLag);
+    double[] lags = new double[rho.length];
+    for (int t = 0; t < lags.length; t++) {
+      lags[t] = t;
+    }
+    // White-noise band +-1.96/sqrt(n) for one independent chain (common practice).
+    double half = 1.96 / Math.sqrt(draws.length());
+    return SvgPlot.bars(labels, lags, rho, Optional.of(new ReferenceBand(-half, 0, half)));
+  }
+
+  private static String rankPanel(UnknownReport u, ReportOptions options) {
+    Draws draws = u.draws();
+    PanelLabels labels =
+        new PanelLabels("ranks", "rank histogram per chain", "rank among all draws", "");
+    if (draws.chainCount() == 1) {
+      return SvgPlot.note(labels, "one chain: rank plots compare chains");
+    }
+    if (!draws.isFinite()) {
+      return SvgPlot.note(labels, "not drawn: some draws are NaN or infinite");
+    }
+    if (draws.length() < 2) {
+      return SvgPlot.note(labels, "not drawn: one draw per chain");
+    }
+    if (draws.isConstant()) {
+      return SvgPlot.note(labels, "not drawn: every draw is the same");
+    }
+    int n = draws.length();
+    long total = draws.totalCount();
+    // At least about five draws per bin and chain, so that a flat histogram can be told from noise.
+    int bins = Math.max(1, Math.min(options.rankBins(), n / 5));
+    double[] ranks = RankNormalization.fractionalRanks(draws.pooled());
+    double[] edges = new double[bins + 1];
+    for (int b = 0; b <= bins; b++) {
+      edges[b] = 0.5 + (double) b * total / bins;
+    }
+    List<double[]> counts = new ArrayList<>();
+    List<String> names = new ArrayList<>();
+    for (int c = 0; c < draws.chainCount(); c++) {
+      double[] count = new double[bins];
+      for (int i = 0; i < n; i++) {
+        double r = ranks[c * n + i];
+        int b = (int) Math.floor((r - 0.5) * bins / total);
+        count[Math.max(0, Math.min(bins - 1, b))]++;
+      }
+      counts.add(count);
+      names.add("chain " + (c + 1));
+    }
+    Optional<ReferenceBand> band = Optional.empty();
+    if (bins > 1) {
+      // Under perfect mixing a chain's count in a bin is hypergeometric; the binomial with
+      // p = 1/bins is slightly wider, so the band errs on the side of fewer false alarms.
+      BinomialDistribution binomial = new BinomialDistribution(null, n, 1.0 / bins);
+      band =
+          Optional.of(
+              new ReferenceBand(
+                  binomial.inverseCumulativeProbability(0.025),
+                  (double) n / bins,
+                  binomial.inverseCumulativeProbability(0.975)));
+    }
+    return SvgPlot.steps(labels, edges, counts, List.of(), band);
+  }
+
+  private static boolean everyChainConstant(Draws draws) {
+    for (int c = 0; c < draws.chainCount(); c++) {
+      double[] chain = draws.chain(c);
+      for (double v : chain) {
+        if (v != chain[0]) {
+          return false;
+        }
+      }
+    }
+    return true;
+  }
+
+  private static double[] finiteValues(double[] chain) {
+    int count = 0;
+    for (double v : chain) {
+      if (Double.isFinite(v)) {
+        count++;
+      }
+    }
+    double[] finite = new double[count];
+    int k = 0;
+    for (double v : chain) {
+      if (Double.isFinite(v)) {
+        finite[k++] = v;
+      }
+    }
+    return finite;
+  }
+
+  static String duration(Duration d) {
+    long millis = d.toMillis();
+    if (millis < 60_000) {
+      return String.format(Locale.ROOT, millis < 10_000 ? "%.2f s" : "%.1f s", millis / 1000.0);
+    }
+    long seconds = d.toSeconds();
+    if (seconds < 3600) {
+      return String.format(Locale.ROOT, "%d min %02d s", seconds / 60, seconds % 60);
+    }
+    return String.format(Locale.ROOT, "%d h %02d min", seconds / 3600, (seconds % 3600) / 60);
+  }
+
+  private static void footer(StringBuilder html, ReportOptions options) {
+    html.append("<footer><p>Written by hullbound. Densities: Gaussian kernel, Silverman&#8217;s ")
+        .append("rule-of-thumb bandwidth (Silverman 1986), per chain. Rank histograms: pooled ")
+        .append("ranks split by chain (Vehtari et al. 2021). Traces keep at most ")
+        .append(options.maxTracePoints())
+        .append(" points per chain; autocorrelation to lag ")
+        .append(options.maxLag())
+        .append(". This file is self-contained and works offline.</p></footer>\n");
+  }
+
+  /** The page's style sheet: our own calm palette, print and narrow-window rules. */
+  private static final class Style {
+    static final String CSS =
+        """
+        :root{--ink:#1e2329;--muted:#5d6670;--rule:#d9d6cf;--paper:#fcfbf8;--card:#ffffff;
+          --accent:#1f6f8b;--warn:#9a540f;--warn-bg:#fbf1e1;--ok:#3f7a5c;--ok-bg:#edf4ef}
+        *{box-sizing:border-box}
+        body{margin:0;background:var(--paper);color:var(--ink);
+          font:15px/1.5 system-ui,-apple-system,'Segoe UI',Roboto,'Helvetica Neue',Arial,sans-serif}
+        main{max-width:1200px;margin:0 auto;padding:24px 20px 48px}
+        a{color:var(--accent)}
+        header.run{border-bottom:2px solid var(--ink);padding-bottom:14px;margin-bottom:18px}
+        .kicker{text-transform:uppercase;letter-spacing:.09em;font-size:12px;color:var(--muted);
+          margin:0}
+        h1{font-size:26px;margin:2px 0 12px;font-weight:650;overflow-wrap:anywhere}
+        dl.facts{display:grid;grid-template-columns:repeat(auto-fill,minmax(120px,1fr));
+          gap:8px 18px;margin:0}
+        dl.facts div{border-left:3px solid var(--rule);padding-left:9px}
+        dl.facts div:first-child{grid-column:span 2}
+        dl.facts dt{font-size:12px;color:var(--muted)}
+        dl.facts dd{margin:0;font-variant-numeric:tabular-nums}
+        section.warnings{background:var(--warn-bg);border-left:4px solid var(--warn);
+          padding:8px 16px;margin:0 0 20px}
+        section.warnings h2{margin:4px 0;font-size:16px;color:var(--warn)}
+        section.warnings ul{margin:4px 0 6px;padding-left:20px}
+        section.warnings.none{background:var(--ok-bg);border-left-color:var(--ok)}
+        section.warnings p{margin:4px 0}
+        h2{font-size:19px;margin:26px 0 6px}
+        .lead{color:var(--muted);font-size:13.5px;margin:0 0 10px;max-width:70em}
+        .scroll{overflow-x:auto}
+        table{border-collapse:collapse;font-variant-numeric:tabular-nums;font-size:13.5px;
+          min-width:100%}
+        th,td{padding:4px 10px;text-align:right;white-space:nowrap;
+          border-bottom:1px solid var(--rule)}
+        th{font-weight:600;font-size:12.5px;color:var(--muted);border-bottom:1.5px solid var(--ink)}
+        th:first-child,td.name,.text{text-align:left}
+        td.name{font-family:ui-monospace,'SF Mono',Menlo,Consolas,monospace;font-size:13px}
+        tbody tr:nth-child(even){background:#f4f2ec}
+        td.flag{color:var(--warn);font-weight:650}
+        td.flag::after{content:'\\2009\\25B4'}
+        td.undefined{color:var(--muted)}
+        section.unknown{background:var(--card);border:1px solid var(--rule);border-radius:4px;
+          padding:12px 14px 10px;margin:14px 0;break-inside:avoid}
+        section.unknown h3{margin:0;font-size:16px;overflow-wrap:anywhere;
+          font-family:ui-monospace,'SF Mono',Menlo,Consolas,monospace}
+        .keyline{color:var(--muted);font-size:13px;margin:0 0 6px}
+        ul.notes{font-size:13px;color:var(--warn);margin:2px 0 8px;padding-left:20px}
+        .panels{display:grid;grid-template-columns:repeat(auto-fit,minmax(250px,1fr));
+          gap:8px 16px}
+        .panels svg{width:100%;height:auto;display:block}
+        footer{margin-top:30px;border-top:1px solid var(--rule);padding-top:8px;font-size:12.5px;
+          color:var(--muted)}
+        @media (max-width:560px){main{padding:14px 10px 32px}h1{font-size:21px}
+          section.unknown{padding:10px 8px}}
+        @media print{body{background:#fff;font-size:10.5pt}main{max-width:none;padding:0}
+          tbody tr:nth-child(even){background:none}section.unknown{border-color:#bbb}
+          .panels{grid-template-columns:repeat(2,1fr)}a{color:inherit;text-decoration:none}}
+        """;
+  }
+}
