@@ -36,8 +36,9 @@ import picocli.CommandLine.Parameters;
     mixinStandardHelpOptions = true,
     sortOptions = false,
     description = {
-      "Simulation-based calibration: draw the unknowns from the prior, simulate data, fit,",
-      "and test the ranks of the prior draws among the posterior draws for uniformity."
+      "Simulation-based calibration of a model (Talts et al. 2018).",
+      "Draws the unknowns from the prior, simulates the data, fits, and tests the ranks",
+      "of the prior draws among the posterior draws for uniformity."
     })
 public final class CalibrateCommand implements Callable<Integer> {
 

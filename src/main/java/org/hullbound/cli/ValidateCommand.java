@@ -26,8 +26,9 @@ import picocli.CommandLine.Option;
     mixinStandardHelpOptions = true,
     sortOptions = false,
     description = {
-      "Check the sampler against known posteriors: fit each case of the validation suite",
-      "and compare means and sds with closed forms or quadrature (pass: |error| <= k x MCSE + floor)."
+      "Check the sampler against known posteriors (the validation suite).",
+      "Fits each case and compares means and sds with closed forms or quadrature;",
+      "a quantity passes when |estimate - reference| <= 4 x MCSE + floor."
     })
 public final class ValidateCommand implements Callable<Integer> {
 

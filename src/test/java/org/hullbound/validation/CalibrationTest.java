@@ -93,6 +93,15 @@ final class CalibrationTest {
   }
 
   @Test
+  void anInlineScalarObservationIsSimulatedToo() {
+    String text = "data k = 3 ~ poisson(rate = r)\nparam r ~ gamma(shape = 2, rate = 1)\n";
+    CalibrationResult result =
+        Calibration.of(parse(text), List.of(), PosteriorFitter.gibbs())
+            .run(new CalibrationSettings(100, 19, 1, 20, 0, 4), n -> { });
+    assertTrue(result.tests().get(0).pValue() > 0.01, "p-value " + result.tests().get(0).pValue());
+  }
+
+  @Test
   void theSameSeedGivesTheSameRanks() {
     CalibrationSettings few = new CalibrationSettings(5, 9, 1, 5, 2, 9);
     Calibration calibration = Calibration.of(parse(NORMAL_MEAN), List.of(), PosteriorFitter.gibbs());
