@@ -1,0 +1,209 @@
+package org.hullbound.sampling;
+
+import static org.junit.jupiter.api.Assertions.assertArrayEquals;
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertThrows;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.util.function.DoubleSupplier;
+import java.util.function.DoubleUnaryOperator;
+import java.util.stream.Stream;
+import org.apache.commons.math3.distribution.NormalDistribution;
+import org.apache.commons.math3.distribution.TDistribution;
+import org.apache.commons.math3.random.Well19937c;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.params.ParameterizedTest;
+import org.junit.jupiter.params.provider.MethodSource;
+
+/**
+ * ARMS (Gilks, Best and Tan 1995) on targets with exact draws: the exact one-transition KS test
+ * and the reversibility sign test (levels and power in {@link MarkovChecks}: n = 20000 exact
+ * starts, KS at level 0.001, power 0.99 against a CDF error of 0.022).
+ */
+class AdaptiveRejectionMetropolisTest {
+  private static final double INF = Double.POSITIVE_INFINITY;
+
+  /** A target with its log-density, support, exact sampler, CDF and initial points. */
+  record Target(String name, DoubleUnaryOperator logDensity, double lower, double upper,
+      DoubleSupplier exact, DoubleUnaryOperator cdf, double[] initialPoints) {
+    @Override
+    public String toString() {
+      return name;
+    }
+  }
+
+  /**
+   * 0.3 N(-3, 1) + 0.7 N(2, 0.5^2): bimodal, not log-concave. Exact draws: a uniform picks the
+   * component, commons-math3 draws from it; the CDF is the weighted sum of commons-math3 CDFs.
+   */
+  static Target mixture(String name, double[] initialPoints, long seed) {
+    NormalDistribution first = new NormalDistribution(new Well19937c(seed), -3, 1);
+    NormalDistribution second = new NormalDistribution(new Well19937c(seed + 1), 2, 0.5);
+    Well19937c pick = new Well19937c(seed + 2);
+    DoubleUnaryOperator logDensity = x -> Math.log(0.3 * first.density(x)
+        + 0.7 * second.density(x));
+    return new Target(name, logDensity, -INF, INF,
+        () -> pick.nextDouble() < 0.3 ? first.sample() : second.sample(),
+        x -> 0.3 * first.cumulativeProbability(x) + 0.7 * second.cumulativeProbability(x),
+        initialPoints);
+  }
+
+  /**
+   * Student-t with 3 degrees of freedom truncated to (-2, 6): heavy-tailed, not log-concave
+   * (log f = -2 log(1 + x^2/3) is convex beyond |x| = sqrt 3). Exact draws by inversion of
+   * commons-math3's t CDF between F(-2) and F(6).
+   */
+  static Target truncatedStudent() {
+    TDistribution t = new TDistribution(new Well19937c(41), 3);
+    double low = t.cumulativeProbability(-2);
+    double high = t.cumulativeProbability(6);
+    Well19937c uniform = new Well19937c(42);
+    return new Target("student-t(3) on (-2, 6)", x -> -2 * Math.log1p(x * x / 3), -2, 6,
+        () -> t.inverseCumulativeProbability(low + uniform.nextDouble() * (high - low)),
+        x -> (t.cumulativeProbability(x) - low) / (high - low),
+        new double[] {-1.5, 0, 1.5, 4});
+  }
+
+  static Target normal() {
+    NormalDistribution reference = new NormalDistribution(new Well19937c(51), 1, 2);
+    return new Target("normal(1, 2), log-concave", x -> -0.125 * (x - 1) * (x - 1), -INF, INF,
+        reference::sample, reference::cumulativeProbability, new double[] {-2, 1, 4});
+  }
+
+  /**
+   * N(0, 1) beyond 5 (far tail, finite lower end). Exact draws by inversion through the lower
+   * tail, x = -Phi^-1(U Q(5)), commons-math3; CDF (Q(5) - Q(x)) / Q(5) via its erfc-based CDF.
+   */
+  static Target normalTail() {
+    NormalDistribution standard = new NormalDistribution(0, 1);
+    double q5 = standard.cumulativeProbability(-5);
+    Well19937c uniform = new Well19937c(91);
+    return new Target("normal beyond 5", x -> -0.5 * x * x, 5, INF,
+        () -> -standard.inverseCumulativeProbability(uniform.nextDouble() * q5),
+        x -> (q5 - standard.cumulativeProbability(-x)) / q5, new double[] {5.05, 5.2, 5.6});
+  }
+
+  static Stream<Target> targets() {
+    NormalDistribution narrow = new NormalDistribution(new Well19937c(92), 1e6, 1e-3);
+    Well19937c uniform = new Well19937c(93);
+    return Stream.of(
+        normalTail(),
+        new Target("uniform(0, 1), flat log-density", x -> 0.0, 0, 1, uniform::nextDouble,
+            x -> x, new double[] {0.2, 0.5, 0.8}),
+        new Target("normal(1e6, 1e-3), huge location, tiny scale",
+            x -> -0.5 * Math.pow((x - 1e6) / 1e-3, 2), -INF, INF, narrow::sample,
+            narrow::cumulativeProbability, new double[] {1e6 - 1e-3, 1e6, 1e6 + 2e-3}),
+        mixture("mixture, points over both modes", new double[] {-4, -2, 0, 1.5, 2.5}, 31),
+        mixture("mixture, points near one mode only", new double[] {1.5, 2, 2.5}, 35),
+        truncatedStudent(),
+        normal(),
+        new Target("normal(0, 1), points all right of the mode", x -> -0.5 * x * x, -INF, INF,
+            new NormalDistribution(new Well19937c(61), 0, 1)::sample,
+            new NormalDistribution(0, 1)::cumulativeProbability, new double[] {1, 2, 3}));
+  }
+
+  @ParameterizedTest(name = "{0}")
+  @MethodSource("targets")
+  void oneTransitionFromExactDrawsKeepsTheTarget(Target target) {
+    AdaptiveRejectionMetropolis arms = AdaptiveRejectionMetropolis.of(target.logDensity(),
+        target.lower(), target.upper(), target.initialPoints(), 30);
+    MarkovChecks.Pairs pairs = MarkovChecks.oneStepFromExactStarts(
+        arms, target.exact(), 20_000, MarkovChecks.rng(target.name().hashCode()));
+    double p = MarkovChecks.pValue(pairs, target.cdf());
+    assertTrue(p > GoodnessOfFit.LEVEL, "KS p-value " + p + ", " + arms.statistics());
+    assertTrue(pairs.moves() > 10_000, "moves " + pairs.moves());
+    assertTrue(pairs.signTestPasses(), "up " + pairs.movesUp() + " of " + pairs.moves());
+    ArmsStatistics statistics = arms.statistics();
+    assertEquals(20_000, statistics.transitions());
+    assertTrue(statistics.largestEnvelope() <= 30, statistics.toString());
+    if (!target.name().startsWith("uniform")) {
+      // A flat target is its own envelope: nothing is ever rejected.
+      assertTrue(statistics.adaptiveRejections() > 0, statistics.toString());
+    }
+  }
+
+  @Test
+  void onALogConcaveTargetTheEnvelopeIsAHullAndNoMetropolisStepRejects() {
+    // Gilks, Best and Tan (1995): for log-concave f the envelope lies above log f, so ARMS
+    // reduces to adaptive rejection sampling and the Metropolis-Hastings step always accepts.
+    Target target = normal();
+    AdaptiveRejectionMetropolis arms = AdaptiveRejectionMetropolis.of(target.logDensity(),
+        target.lower(), target.upper(), target.initialPoints(), 30);
+    MarkovChecks.oneStepFromExactStarts(arms, target.exact(), 5000, MarkovChecks.rng(3));
+    assertEquals(0, arms.statistics().metropolisRejections());
+  }
+
+  @Test
+  void onTheMixtureTheMetropolisStepCorrects() {
+    Target target = mixture("mixture", new double[] {1.5, 2, 2.5}, 71);
+    AdaptiveRejectionMetropolis arms = AdaptiveRejectionMetropolis.of(target.logDensity(),
+        target.lower(), target.upper(), target.initialPoints(), 10);
+    MarkovChecks.oneStepFromExactStarts(arms, target.exact(), 5000, MarkovChecks.rng(4));
+    assertTrue(arms.statistics().metropolisRejections() > 0, arms.statistics().toString());
+  }
+
+  @Test
+  void longChainFromAFixedStartMatchesTheMixture() {
+    // One chain from x = 10, seed 81: 200 transitions of burn-in, 5000 draws kept at thinning 5;
+    // the kept draws' lag-one autocorrelation must be below 0.05 (see SliceSamplerTest for what
+    // that does to the KS level). Power 0.99 against a CDF error of 0.044.
+    Target target = mixture("mixture", new double[] {-4, -2, 0, 1.5, 2.5}, 81);
+    AdaptiveRejectionMetropolis arms = AdaptiveRejectionMetropolis.of(target.logDensity(),
+        target.lower(), target.upper(), target.initialPoints(), 30);
+    double[] draws = MarkovChecks.thinnedChain(arms, 10, 200, 5, 5000, MarkovChecks.rng(81));
+    double rho = MarkovChecks.lagOneAutocorrelation(draws);
+    assertTrue(Math.abs(rho) < 0.05, "lag-one autocorrelation " + rho);
+    double p = GoodnessOfFit.ksPValue(draws, target.cdf());
+    assertTrue(p > GoodnessOfFit.LEVEL, "KS p-value " + p);
+  }
+
+  @Test
+  void sameSeedSameSequence() {
+    Target target = truncatedStudent();
+    AdaptiveRejectionMetropolis a = AdaptiveRejectionMetropolis.of(target.logDensity(),
+        target.lower(), target.upper(), target.initialPoints(), 20);
+    AdaptiveRejectionMetropolis b = AdaptiveRejectionMetropolis.of(target.logDensity(),
+        target.lower(), target.upper(), target.initialPoints(), 20);
+    assertArrayEquals(MarkovChecks.thinnedChain(a, 0, 0, 1, 500, MarkovChecks.rng(5)),
+        MarkovChecks.thinnedChain(b, 0, 0, 1, 500, MarkovChecks.rng(5)));
+    assertEquals(a.statistics(), b.statistics());
+  }
+
+  @Test
+  void improperTargetsAndBadPointsAreClearErrors() {
+    var rng = MarkovChecks.rng(6);
+    double[] points = {-1, 0, 1};
+    // log f rising toward +infinity: no finite envelope.
+    AdaptiveRejectionMetropolis rising =
+        AdaptiveRejectionMetropolis.of(x -> x, -INF, INF, points, 10);
+    SliceSamplerTest.assertMessage("does not fall toward +Infinity", () -> rising.next(0, rng));
+    AdaptiveRejectionMetropolis zeroAtPoint = AdaptiveRejectionMetropolis.of(
+        x -> x < -0.5 ? Double.NEGATIVE_INFINITY : -x * x, -INF, INF, points, 10);
+    SliceSamplerTest.assertMessage("initialPoints[0]", () -> zeroAtPoint.next(0, rng));
+    AdaptiveRejectionMetropolis nan =
+        AdaptiveRejectionMetropolis.of(x -> x > 0.5 ? Double.NaN : -x * x, -INF, INF, points, 10);
+    assertThrows(DensityEvaluationException.class, () -> nan.next(0, rng));
+    AdaptiveRejectionMetropolis normal =
+        AdaptiveRejectionMetropolis.of(x -> -x * x, -5, 5, points, 10);
+    SliceSamplerTest.assertMessage("current", () -> normal.next(7, rng));
+  }
+
+  @Test
+  void invalidArgumentsNameTheArgument() {
+    DoubleUnaryOperator f = x -> -x * x;
+    SliceSamplerTest.assertMessage("initialPoints must hold at least 3",
+        () -> AdaptiveRejectionMetropolis.of(f, -INF, INF, new double[] {0, 1}, 10));
+    SliceSamplerTest.assertMessage("strictly increasing",
+        () -> AdaptiveRejectionMetropolis.of(f, -INF, INF, new double[] {0, 1, 1}, 10));
+    SliceSamplerTest.assertMessage("initialPoints[2]",
+        () -> AdaptiveRejectionMetropolis.of(f, 0, 2, new double[] {0.5, 1, 2}, 10));
+    SliceSamplerTest.assertMessage("initialPoints[1]",
+        () -> AdaptiveRejectionMetropolis.of(f, -INF, INF, new double[] {0, Double.NaN, 1}, 10));
+    SliceSamplerTest.assertMessage("maxPoints",
+        () -> AdaptiveRejectionMetropolis.of(f, -INF, INF, new double[] {0, 1, 2}, 2));
+    SliceSamplerTest.assertMessage("lower",
+        () -> AdaptiveRejectionMetropolis.of(f, INF, INF, new double[] {0, 1, 2}, 5));
+    assertThrows(NullPointerException.class,
+        () -> AdaptiveRejectionMetropolis.of(f, -INF, INF, null, 5));
+  }
+}
