@@ -122,6 +122,52 @@ public final class Autocorrelation {
     return mean;
   }
 
+  /**
+   * The mean over chains of each chain's autocovariance (about its own mean, divisor N) at lags
+   * 0 to N - 1, with about M/2 + 1 transforms instead of 2M: the inverse transform is linear, so
+   * the chains' power spectra are summed before one inverse; and two real chains share one
+   * complex forward transform, {@code z = a + ib}, their power spectra summing to {@code
+   * (|Z(k)|^2 + |Z(-k)|^2) / 2} (the two-for-one trick; Press et al., Numerical Recipes, section
+   * 12.3, recalled from memory). Chains must be finite and of moderate magnitude.
+   */
+  static double[] meanAutocovariance(double[][] chains) {
+    int m = chains.length;
+    int n = chains[0].length;
+    int size = Integer.highestOneBit(Math.max(1, 2 * n - 1)) << 1;
+    double[] power = new double[size];
+    double[][] data = new double[2][size];
+    for (int c = 0; c < m; c += 2) {
+      java.util.Arrays.fill(data[0], 0);
+      java.util.Arrays.fill(data[1], 0);
+      double meanA = Moments.mean(chains[c]);
+      for (int i = 0; i < n; i++) {
+        data[0][i] = chains[c][i] - meanA;
+      }
+      if (c + 1 < m) {
+        double meanB = Moments.mean(chains[c + 1]);
+        for (int i = 0; i < n; i++) {
+          data[1][i] = chains[c + 1][i] - meanB;
+        }
+      }
+      FastFourierTransformer.transformInPlace(
+          data, DftNormalization.STANDARD, TransformType.FORWARD);
+      for (int k = 0; k < size; k++) {
+        int mirror = (size - k) % size;
+        double here = data[0][k] * data[0][k] + data[1][k] * data[1][k];
+        double there = data[0][mirror] * data[0][mirror] + data[1][mirror] * data[1][mirror];
+        power[k] += (here + there) / 2;
+      }
+    }
+    double[][] spectrum = {power, new double[size]};
+    FastFourierTransformer.transformInPlace(
+        spectrum, DftNormalization.STANDARD, TransformType.INVERSE);
+    double[] gamma = new double[n];
+    for (int t = 0; t < n; t++) {
+      gamma[t] = spectrum[0][t] / n / m;
+    }
+    return gamma;
+  }
+
   /** Autocovariance of {@code (x - mean) / scale} by FFT, divisor N. */
   private static double[] scaledAutocovariance(double[] chain, double mean, double scale) {
     int n = chain.length;

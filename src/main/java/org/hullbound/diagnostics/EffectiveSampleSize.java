@@ -41,33 +41,33 @@ public final class EffectiveSampleSize {
     }
     double[] centreAndScale = Moments.centreAndScale(draws);
     double[][] x = draws.values();
+    double[][] standard = new double[m][n];
     double[] chainMeans = new double[m];
-    double[][] acovariance = new double[m][];
-    double within = 0;
     for (int c = 0; c < m; c++) {
-      double[] standard = new double[n];
       for (int i = 0; i < n; i++) {
-        standard[i] = (x[c][i] - centreAndScale[0]) / centreAndScale[1];
+        standard[c][i] = (x[c][i] - centreAndScale[0]) / centreAndScale[1];
       }
-      chainMeans[c] = Moments.mean(standard);
-      double[] gamma = Autocorrelation.autocovariance(standard);
-      // s_m^2 rho_t,m: the biased autocovariance rescaled to the divisor n - 1 of s_m^2.
-      for (int t = 0; t < n; t++) {
-        gamma[t] *= n / (n - 1.0);
-      }
-      acovariance[c] = gamma;
-      within += gamma[0] / m;
+      chainMeans[c] = Moments.mean(standard[c]);
     }
+    // Step 1. mean_m(s_m^2 rho_t,m): the chains' mean biased autocovariance rescaled to the divisor
+    // n - 1 of s_m^2; at lag 0 it is W, the mean within-chain variance.
+    double[] meanAutocovariance = Autocorrelation.meanAutocovariance(standard);
+    for (int t = 0; t < n; t++) {
+      meanAutocovariance[t] *= n / (n - 1.0);
+    }
+    // Step 2. W, and var+ = (N - 1)/N W + B/N (Vehtari et al. 2021, equations 3-4).
+    double within = meanAutocovariance[0];
     double between = m > 1 ? Moments.variance(chainMeans) : 0;
     double varPlus = (n - 1.0) / n * within + between;
 
-    // Geyer (1992): initial positive sequence of pair sums, made monotone, summed.
+    // Step 3. Geyer (1992): pair sums P_k of the combined autocorrelations, stopped before the
+    // first negative one (initial positive sequence) and made non-increasing (initial monotone).
     double pairSum = 0;
     double previousPair = Double.POSITIVE_INFINITY;
     for (int k = 0; 2 * k + 1 < n; k++) {
+      // Vehtari et al. (2021), equation 10: rho_t = 1 - (W - mean_m(s_m^2 rho_t,m)) / var+.
       double pair =
-          combinedAutocorrelation(acovariance, 2 * k, within, varPlus)
-              + combinedAutocorrelation(acovariance, 2 * k + 1, within, varPlus);
+          2 - (2 * within - meanAutocovariance[2 * k] - meanAutocovariance[2 * k + 1]) / varPlus;
       if (pair < 0) {
         break;
       }
@@ -75,6 +75,7 @@ public final class EffectiveSampleSize {
       pairSum += pair;
       previousPair = pair;
     }
+    // Step 4. tau = -1 + 2 sum P_k and ESS = S / tau.
     double tau = -1 + 2 * pairSum;
     double s = (double) m * n;
     // Safeguard against tau near 0 or below it for strongly antithetic chains: cap the effective
@@ -127,7 +128,12 @@ public final class EffectiveSampleSize {
     }
     requireSplittable(draws);
     Draws split = draws.requireFinite().split();
-    double q = Quantiles.of(split.sorted(), p);
+    return quantileOfSplit(split, split.sorted(), p);
+  }
+
+  /** {@link #quantile} given the split chains and their sorted pooled draws. */
+  static double quantileOfSplit(Draws split, double[] splitSorted, double p) {
+    double q = Quantiles.of(splitSorted, p);
     Draws indicator = split.map(x -> x <= q ? 1 : 0);
     return indicator.isConstant() ? Double.NaN : of(indicator);
   }
@@ -142,16 +148,6 @@ public final class EffectiveSampleSize {
   public static double mean(Draws draws) {
     requireSplittable(draws);
     return of(draws.requireFinite().split());
-  }
-
-  private static double combinedAutocorrelation(
-      double[][] acovariance, int lag, double within, double varPlus) {
-    double mean = 0;
-    for (double[] chain : acovariance) {
-      mean += chain[lag];
-    }
-    mean /= acovariance.length;
-    return 1 - (within - mean) / varPlus;
   }
 
   static void requireSplittable(Draws draws) {

@@ -46,6 +46,11 @@ public final class MonteCarloStandardError {
    */
   public static double quantile(Draws draws, double p) {
     double ess = EffectiveSampleSize.quantile(draws, p);
+    return quantileGivenEss(draws.sorted(), p, ess);
+  }
+
+  /** {@link #quantile} given all draws sorted and the quantile effective sample size. */
+  static double quantileGivenEss(double[] sorted, double p, double ess) {
     if (Double.isNaN(ess)) {
       return Double.NaN;
     }
@@ -55,7 +60,6 @@ public final class MonteCarloStandardError {
     double lowerProbability = beta.inverseCumulativeProbability(BELOW_ONE_SD);
     double upperProbability = beta.inverseCumulativeProbability(ABOVE_ONE_SD);
     // (2) The draws at those cumulative probabilities.
-    double[] sorted = draws.sorted();
     int s = sorted.length;
     int lowerRank = (int) Math.max(Math.floor(lowerProbability * s), 1);
     int upperRank = (int) Math.min(Math.ceil(upperProbability * s), s);

@@ -93,7 +93,12 @@ public final class PosteriorSummary {
               + n / 2
               + ") of each chain is left out of the split-chain diagnostics");
     }
-    RankNormalizedRhat rhat = Rhat.rankNormalized(draws);
+    // Each transform is made once and shared by the diagnostics that use it; the public
+    // functions of this package compute the same values one by one.
+    Draws split = draws.split();
+    double[] splitSorted = split.sorted();
+    Draws scores = RankNormalization.normalScores(split);
+    RankNormalizedRhat rhat = Rhat.ofNormalScores(scores, Rhat.foldedNormalScores(split));
     if (rhat.bulk() == Double.POSITIVE_INFINITY) {
       notes.add("every half-chain is constant but they differ: the chains are stuck apart");
     }
@@ -102,18 +107,21 @@ public final class PosteriorSummary {
           "the draws folded around their median are all equal, so tail R-hat and hence R-hat"
               + " are undefined");
     }
-    double essBulk = EffectiveSampleSize.bulk(draws);
-    double essTail = EffectiveSampleSize.tail(draws);
+    double essBulk = EffectiveSampleSize.of(scores);
+    double essLower = EffectiveSampleSize.quantileOfSplit(split, splitSorted, 0.05);
+    double essUpper = EffectiveSampleSize.quantileOfSplit(split, splitSorted, 0.95);
+    double essTail =
+        Double.isNaN(essLower) || Double.isNaN(essUpper) ? nan : Math.min(essLower, essUpper);
     if (Double.isNaN(essTail)) {
       notes.add(
           "the 5% or the 95% quantile lies in a run of tied draws at an end, so tail effective"
               + " sample size is undefined");
     }
-    double essMean = EffectiveSampleSize.mean(draws);
-    double mcseMean = MonteCarloStandardError.mean(draws);
-    double mcseQ025 = MonteCarloStandardError.quantile(draws, 0.025);
-    double mcseQ50 = MonteCarloStandardError.quantile(draws, 0.5);
-    double mcseQ975 = MonteCarloStandardError.quantile(draws, 0.975);
+    double essMean = EffectiveSampleSize.of(split);
+    double mcseMean = sd / Math.sqrt(essMean);
+    double mcseQ025 = quantileError(split, splitSorted, sorted, 0.025);
+    double mcseQ50 = quantileError(split, splitSorted, sorted, 0.5);
+    double mcseQ975 = quantileError(split, splitSorted, sorted, 0.975);
     if (Double.isNaN(mcseQ025) || Double.isNaN(mcseQ50) || Double.isNaN(mcseQ975)) {
       notes.add(
           "a quantile lies in a run of tied draws at an end, so its Monte Carlo error is"
@@ -140,6 +148,12 @@ public final class PosteriorSummary {
         mcseQ975,
         VariableSummary.State.COMPLETE,
         notes);
+  }
+
+  private static double quantileError(
+      Draws split, double[] splitSorted, double[] sorted, double p) {
+    double ess = EffectiveSampleSize.quantileOfSplit(split, splitSorted, p);
+    return MonteCarloStandardError.quantileGivenEss(sorted, p, ess);
   }
 
   private static long nonFiniteCount(Draws draws) {

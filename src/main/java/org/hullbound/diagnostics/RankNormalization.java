@@ -1,7 +1,6 @@
 package org.hullbound.diagnostics;
 
 import java.util.Arrays;
-import java.util.Comparator;
 import org.apache.commons.math3.special.Erf;
 
 /**
@@ -30,27 +29,46 @@ public final class RankNormalization {
         throw new IllegalArgumentException("values must not hold NaN, got NaN at index " + i);
       }
     }
-    Integer[] order = new Integer[values.length];
-    for (int i = 0; i < order.length; i++) {
-      order[i] = i;
-    }
-    Arrays.sort(order, Comparator.comparingDouble(i -> values[i]));
+    double[] sorted = values.clone();
+    Arrays.sort(sorted);
     double[] ranks = new double[values.length];
-    int start = 0;
-    while (start < order.length) {
-      int end = start + 1;
-      // == rather than compare(): -0.0 and 0.0 are tied draws.
-      while (end < order.length && values[order[end]] == values[order[start]]) {
-        end++;
-      }
-      // Positions start..end-1 hold equal values; 1-based ranks start+1..end, average below.
-      double average = (start + 1 + end) / 2.0;
-      for (int k = start; k < end; k++) {
-        ranks[order[k]] = average;
-      }
-      start = end;
+    for (int i = 0; i < values.length; i++) {
+      // Equal values occupy 0-based positions [first, last) of the sorted copy, that is 1-based
+      // ranks first+1 .. last, whose average is (first + 1 + last) / 2. Comparisons use < and >,
+      // so -0.0 and 0.0 are tied draws.
+      int first = firstNotBelow(sorted, values[i]);
+      int last = firstAbove(sorted, values[i]);
+      ranks[i] = (first + 1 + last) / 2.0;
     }
     return ranks;
+  }
+
+  private static int firstNotBelow(double[] sorted, double x) {
+    int low = 0;
+    int high = sorted.length;
+    while (low < high) {
+      int middle = (low + high) >>> 1;
+      if (sorted[middle] < x) {
+        low = middle + 1;
+      } else {
+        high = middle;
+      }
+    }
+    return low;
+  }
+
+  private static int firstAbove(double[] sorted, double x) {
+    int low = 0;
+    int high = sorted.length;
+    while (low < high) {
+      int middle = (low + high) >>> 1;
+      if (sorted[middle] > x) {
+        high = middle;
+      } else {
+        low = middle + 1;
+      }
+    }
+    return low;
   }
 
   /**

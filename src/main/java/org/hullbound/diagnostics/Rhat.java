@@ -78,9 +78,19 @@ public final class Rhat {
     if (split.isConstant()) {
       return new RankNormalizedRhat(Double.NaN, Double.NaN);
     }
-    double bulk = basic(RankNormalization.normalScores(split));
+    return ofNormalScores(RankNormalization.normalScores(split), foldedNormalScores(split));
+  }
+
+  /** Normal scores of the folded split draws, or null when the folded draws are all equal. */
+  static Draws foldedNormalScores(Draws split) {
     Draws folded = RankNormalization.folded(split);
-    double tail = folded.isConstant() ? Double.NaN : basic(RankNormalization.normalScores(folded));
+    return folded.isConstant() ? null : RankNormalization.normalScores(folded);
+  }
+
+  /** Bulk and tail R-hat from the normal scores of split draws and of folded split draws. */
+  static RankNormalizedRhat ofNormalScores(Draws scores, Draws foldedScores) {
+    double bulk = basic(scores);
+    double tail = foldedScores == null ? Double.NaN : basic(foldedScores);
     return new RankNormalizedRhat(bulk, tail);
   }
 }

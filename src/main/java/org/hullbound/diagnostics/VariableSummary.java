@@ -74,6 +74,9 @@ public record VariableSummary(
     if (state == null) {
       throw new IllegalArgumentException("state must not be null");
     }
+    if (notes == null) {
+      throw new IllegalArgumentException("notes must not be null (use an empty list)");
+    }
     notes = List.copyOf(notes);
   }
 }

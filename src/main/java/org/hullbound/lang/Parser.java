@@ -83,6 +83,33 @@ public final class Parser {
     return parse(SourceText.of(fileName, text));
   }
 
+  /**
+   * Parses {@code text} as one expression (the right-hand side of a {@code let}), for tools and
+   * tests that work on expressions alone.
+   *
+   * @throws ModelException at the first syntax error, or when anything follows the expression
+   */
+  public static Expression parseExpression(String fileName, String text) {
+    if (fileName == null) {
+      throw new IllegalArgumentException("fileName must not be null");
+    }
+    if (text == null) {
+      throw new IllegalArgumentException("text must not be null");
+    }
+    Parser parser = new Parser(SourceText.of(fileName, text));
+    while (parser.accept(Token.Kind.NEWLINE)) {
+      // leading blank lines
+    }
+    Expression expression = parser.expression();
+    while (parser.accept(Token.Kind.NEWLINE)) {
+      // trailing blank lines
+    }
+    if (!parser.at(Token.Kind.END)) {
+      throw parser.expected("an operator or the end of the expression", parser.peek(), null);
+    }
+    return expression;
+  }
+
   /** An expression computed from intermediate results, with the height of its tree. */
   private record Parsed(Expression expression, int height) {}
 

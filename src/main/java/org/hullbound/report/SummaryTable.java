@@ -181,11 +181,19 @@ public final class SummaryTable {
     return out.toString();
   }
 
-  /** Writes {@link #csv()} to {@code out}; I/O failures of {@code out} are rethrown unchecked. */
+  /**
+   * Writes {@link #csv()} to {@code out} and flushes it, leaving it open; I/O failures of {@code
+   * out} are rethrown unchecked.
+   */
   public void writeCsv(Appendable out) {
-    try (CSVPrinter printer =
-        new CSVPrinter(
-            out, CSVFormat.RFC4180.builder().setHeader(CSV_HEADER.toArray(String[]::new)).get())) {
+    if (out == null) {
+      throw new IllegalArgumentException("out must not be null");
+    }
+    try {
+      // Not closed: closing a CSVPrinter would close the caller's writer.
+      CSVPrinter printer =
+          new CSVPrinter(
+              out, CSVFormat.RFC4180.builder().setHeader(CSV_HEADER.toArray(String[]::new)).get());
       for (VariableSummary s : summaries) {
         UpdateFacts facts = updates.get(s.name());
         printer.printRecord(

@@ -34,9 +34,11 @@ public record UpdateFacts(
     if (update == null || update.isBlank()) {
       throw new IllegalArgumentException("update must be a non-blank name, got '" + update + "'");
     }
-    if (!(evaluationsPerDraw >= 0) && !Double.isNaN(evaluationsPerDraw)) {
+    if (!Double.isNaN(evaluationsPerDraw)
+        && !(evaluationsPerDraw >= 0 && evaluationsPerDraw < Double.POSITIVE_INFINITY)) {
       throw new IllegalArgumentException(
-          "evaluationsPerDraw must be >= 0 or NaN (unknown), got " + evaluationsPerDraw);
+          "evaluationsPerDraw must be finite and >= 0, or NaN (unknown), got "
+              + evaluationsPerDraw);
     }
     if (fallback == null) {
       throw new IllegalArgumentException("fallback must not be null");

@@ -47,6 +47,22 @@ class AutocorrelationTest {
     }
   }
 
+  @ParameterizedTest
+  @ValueSource(ints = {1, 2, 3, 4, 5})
+  void meanAutocovarianceOverChainsEqualsTheMeanOfDirectSums(int chains) {
+    // The two-chains-per-transform path must agree with chain-by-chain direct sums, for odd and
+    // even chain counts (an odd count leaves one chain alone in its transform).
+    double[][] draws = SimulatedChains.ar1(900 + chains, chains, 37, 0.5);
+    double[] expected = new double[37];
+    for (double[] chain : draws) {
+      double[] direct = directAutocovariance(chain);
+      for (int t = 0; t < expected.length; t++) {
+        expected[t] += direct[t] / chains;
+      }
+    }
+    assertArrayEquals(expected, Autocorrelation.meanAutocovariance(draws), 1e-12 * expected[0]);
+  }
+
   @Test
   void handExampleOneTwoThreeFour() {
     // Worked by hand: mean 2.5, deviations -1.5 -0.5 0.5 1.5;

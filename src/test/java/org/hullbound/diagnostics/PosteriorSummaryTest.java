@@ -46,6 +46,10 @@ class PosteriorSummaryTest {
     assertEquals(EffectiveSampleSize.tail(draws), s.essTail());
     assertEquals(Quantiles.of(draws, 0.975), s.q975());
     assertEquals(MonteCarloStandardError.quantile(draws, 0.025), s.mcseQ025());
+    assertEquals(MonteCarloStandardError.quantile(draws, 0.5), s.mcseQ50());
+    assertEquals(EffectiveSampleSize.mean(draws), s.essMean());
+    // Same formula, but the sd is summed in sorted rather than chain order: equal to rounding.
+    assertEquals(MonteCarloStandardError.mean(draws), s.mcseMean(), 1e-14 * s.mcseMean());
     assertEquals(1, s.notes().size());
     assertTrue(s.notes().get(0).contains("odd length 301"), s.notes().get(0));
     assertTrue(s.notes().get(0).contains("iteration 150"), s.notes().get(0));

@@ -342,6 +342,26 @@ class ParserTest {
       assertThrows(ModelException.class, () -> parse(text));
     }
 
+    @ParameterizedTest(name = "{0}")
+    @CsvSource(
+        delimiter = '|',
+        value = {"a[ | ]", "log( | )", "sum(k: | )", "max(1, | )", "-( | )", "2^( | )"})
+    void everyKindOfNestingIsBounded(String open, String close) {
+      String text = "let x = " + open.repeat(50_000) + "1" + close.repeat(50_000);
+      ModelException e = assertThrows(ModelException.class, () -> parse(text));
+      assertTrue(e.problem().contains("nested"), e.problem());
+    }
+
+    @Test
+    void anExpressionAloneParses() {
+      assertEquals(
+          "(+ a (* 2 b))", Trees.show(Parser.parseExpression("e", "\n a + 2 * b\n\n")));
+      ModelException e =
+          assertThrows(ModelException.class, () -> Parser.parseExpression("e", "a + b c"));
+      assertEquals(new SourcePosition("e", 1, 7), e.position());
+      assertThrows(ModelException.class, () -> Parser.parseExpression("e", "a\nb"));
+    }
+
     @Test
     void longPowerTowersAreBounded() {
       String text = "let x = 2" + " ^ 2".repeat(100_000);

@@ -156,6 +156,31 @@ class SummaryTableTest {
   }
 
   @Test
+  void writeCsvLeavesTheCallersWriterOpen() throws IOException {
+    boolean[] closed = {false};
+    StringBuilder target = new StringBuilder();
+    java.io.Writer writer =
+        new java.io.Writer() {
+          @Override
+          public void write(char[] buffer, int offset, int length) {
+            target.append(buffer, offset, length);
+          }
+
+          @Override
+          public void flush() {}
+
+          @Override
+          public void close() {
+            closed[0] = true;
+          }
+        };
+    SummaryTable table = SummaryTable.of(List.of(Summaries.fine("a")));
+    table.writeCsv(writer);
+    assertTrue(!closed[0], "writeCsv closed the caller's writer");
+    assertEquals(table.csv(), target.toString());
+  }
+
+  @Test
   void rejectsDuplicateNamesAndFactsForUnknownsNotInTheTable() {
     assertThrows(
         IllegalArgumentException.class,
@@ -175,6 +200,9 @@ class SummaryTableTest {
   void updateFactsAreValidated() {
     assertThrows(IllegalArgumentException.class, () -> UpdateFacts.exact(" ", 1));
     assertThrows(IllegalArgumentException.class, () -> UpdateFacts.exact("conjugate", -1));
+    assertThrows(
+        IllegalArgumentException.class,
+        () -> UpdateFacts.exact("conjugate", Double.POSITIVE_INFINITY));
     assertThrows(
         IllegalArgumentException.class,
         () -> new UpdateFacts("slice", 2, UpdateFacts.Fallback.NONE, 5));
