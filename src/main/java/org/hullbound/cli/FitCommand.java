@@ -155,7 +155,7 @@ public final class FitCommand implements Callable<Integer> {
             };
         if (!quiet) {
           stderr.printf(
-              "hullbound fit: %s, %d unknowns, %d chains x (%d burn-in + %d draws%s), seed %d%n",
+              "fit %s: %d unknowns, %d chains of %d burn-in + %d draws%s, seed %d%n",
               model.name(), sampler.labels().size(), settings.chains(), settings.burnIn(),
               settings.draws(), settings.thin() > 1 ? " thinned by " + settings.thin() : "",
               runSeed);

@@ -12,8 +12,8 @@ import java.time.Duration;
  * @param sweepsTotal sweeps the chain makes in all
  * @param drawsDone kept draws so far
  * @param drawsTotal kept draws the chain makes in all
- * @param drawsPerSecond kept draws per second at the speed since the chain started (sweeps per
- *     second over the thinning)
+ * @param sweepsPerSecond sweeps per second since the chain started
+ * @param drawsPerSecond kept draws per second at that speed (sweeps per second over the thinning)
  * @param timeLeft the time the remaining sweeps take at that speed
  * @param finished whether the chain has stopped (done, interrupted or failed)
  */
@@ -24,6 +24,7 @@ public record ChainProgress(
     long sweepsTotal,
     long drawsDone,
     long drawsTotal,
+    double sweepsPerSecond,
     double drawsPerSecond,
     Duration timeLeft,
     boolean finished) {

@@ -158,7 +158,7 @@ public final class ChainRunner {
             ? Duration.ZERO
             : Duration.ofMillis((long) Math.ceil((total - sweeps) / sweepsPerSecond * 1000.0));
     return new ChainProgress(
-        chain, sweeps, settings.burnIn(), total, draws, settings.draws(),
+        chain, sweeps, settings.burnIn(), total, draws, settings.draws(), sweepsPerSecond,
         sweepsPerSecond / settings.thin(), left, done);
   }
 }

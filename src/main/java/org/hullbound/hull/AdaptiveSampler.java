@@ -26,6 +26,8 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
   double[] xs;
   double[] hs;
   int k;
+  /** Set when abscissae were added: the pieces are rebuilt before the next proposal needs them. */
+  private boolean stale;
 
   long evaluations;
   long proposals;
@@ -53,15 +55,21 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
   public final double sample(RandomGenerator rng) {
     PiecewiseExponential p = pieces;
     while (true) {
+      refresh();
       proposals++;
       // Gilks and Wild 1992, sampling step: draw x* from the normalised exp(u_k)
       int j = p.select(rng.nextDouble());
       double x = p.position(j, rng.nextDouble());
       double w = rng.nextDouble();
-      double offset = x - p.anchor[j];
-      double gap = p.gapValue[j] + p.gapSlope[j] * offset;
-      // squeezing test: accept when w <= exp(l_k(x*) - u_k(x*)), with no evaluation of h
-      if (w < Math.exp(-gap)) {
+      int at = PiecewiseExponential.STRIDE * j;
+      double[] packed = p.packed;
+      double offset = x - packed[at + PiecewiseExponential.ANCHOR];
+      double gap =
+          packed[at + PiecewiseExponential.GAP_VALUE]
+              + packed[at + PiecewiseExponential.GAP_SLOPE] * offset;
+      // squeezing test: accept when w <= exp(l_k(x*) - u_k(x*)), with no evaluation of h;
+      // 1 - gap <= exp(-gap) decides almost every case without the exponential
+      if (w < 1.0 - gap || w < Math.exp(-gap)) {
         squeezeAcceptances++;
         return x;
       }
@@ -70,7 +78,7 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
       double termScale = Math.abs(p.value[j]) + Math.abs(hullTerm);
       // rejection test: evaluate h(x*) and accept when w <= exp(h(x*) - u_k(x*));
       // updating step: the subclass adds x* to the abscissae
-      double h = evaluateAndRefine(x, upper, upper - gap, termScale);
+      double h = evaluateAndRefine(j, x, upper, upper - gap, termScale);
       if (w < Math.exp(h - upper)) {
         densityAcceptances++;
         return x;
@@ -83,14 +91,31 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
    * Evaluates h at a proposal that failed the squeeze test, checks it against the hull, adds it
    * when there is room, and returns h(x).
    *
+   * @param piece the piece of the hull that x was drawn from
    * @param upper the hull at x before the update
    * @param squeeze the squeeze at x before the update (-inf where there is none)
    * @param termScale magnitude of the terms that made {@code upper}, for the rounding tolerance
    */
-  abstract double evaluateAndRefine(double x, double upper, double squeeze, double termScale);
+  abstract double evaluateAndRefine(
+      int piece, double x, double upper, double squeeze, double termScale);
 
   /** Rebuilds {@link #pieces} from the abscissae. */
   abstract void rebuild();
+
+  /**
+   * Notes that abscissae were added; the rebuild waits for the next proposal, so a sampler used
+   * for one draw (a fresh density per Gibbs step) never rebuilds after its last evaluation.
+   */
+  final void markStale() {
+    stale = true;
+  }
+
+  private void refresh() {
+    if (stale) {
+      rebuild();
+      stale = false;
+    }
+  }
 
   @Override
   public final SamplerStatistics statistics() {
@@ -107,6 +132,7 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
 
   @Override
   public final HullSnapshot snapshot() {
+    refresh();
     return HullSnapshot.of(xs, hs, k, pieces);
   }
 

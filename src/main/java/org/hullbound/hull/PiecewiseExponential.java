@@ -29,8 +29,32 @@ final class PiecewiseExponential {
   double[] decay;
   /** decay / |slope|, computed without dividing by a tiny slope: the piece's effective width. */
   double[] effectiveWidth;
+  /** 1 / |slope|, so that the draw path multiplies instead of dividing. */
+  double[] inverseSlope;
+  /**
+   * What the draw path reads, packed {@value #STRIDE} doubles a piece so that one draw touches one
+   * or two cache lines: the end the inversion measures from (upper on rising pieces), 1 / |slope|
+   * signed toward the inside of the piece (no branch on the slope's sign), decay, both ends, anchor
+   * and the squeeze gap.
+   */
+  double[] packed;
+
+  static final int STRIDE = 8;
+  static final int ORIGIN = 0;
+  static final int SIGNED_INVERSE_SLOPE = 1;
+  static final int DECAY = 2;
+  static final int LEFT = 3;
+  static final int RIGHT = 4;
+  static final int ANCHOR = 5;
+  static final int GAP_VALUE = 6;
+  static final int GAP_SLOPE = 7;
   double[] logMass;
   double[] cumulative;
+  /**
+   * Guide table of the indexed search (Chen and Asau 1974): guide[i] is the first piece whose
+   * cumulative weight exceeds i / size of the total, so a piece is found in about one step.
+   */
+  int[] guide;
   int size;
   double total;
   double logScale;
@@ -49,8 +73,11 @@ final class PiecewiseExponential {
     gapSlope = new double[capacity];
     decay = new double[capacity];
     effectiveWidth = new double[capacity];
+    inverseSlope = new double[capacity];
+    packed = new double[STRIDE * capacity];
     logMass = new double[capacity];
     cumulative = new double[capacity];
+    guide = new int[capacity];
   }
 
   /** Empties the pieces and makes room for at least {@code capacity} of them. */
@@ -114,13 +141,33 @@ final class PiecewiseExponential {
         }
         decay[j] = 1.0;
         effectiveWidth[j] = 1.0 / Math.abs(s);
+        double end = left[j] == Double.NEGATIVE_INFINITY ? right[j] : left[j];
+        logMass[j] = value[j] + s * (end - anchor[j]) - Math.log(Math.abs(s));
       } else {
+        // the same masses as logMass(...), sharing exp(-t) with the decay
         double t = Math.abs(s) * width;
-        double relative = relativeDecay(t);
-        decay[j] = t > 1 ? -Math.expm1(-t) : t * relative;
-        effectiveWidth[j] = width * relative;
+        double top = value[j] + s * ((s > 0 ? right[j] : left[j]) - anchor[j]);
+        if (t > 1) {
+          decay[j] = 1.0 - Math.exp(-t);
+          logMass[j] = top + Math.log(decay[j]) - Math.log(Math.abs(s));
+          effectiveWidth[j] = decay[j] / Math.abs(s);
+        } else {
+          double relative = relativeDecay(t);
+          decay[j] = t * relative;
+          logMass[j] = top + Math.log(width) + Math.log(relative);
+          effectiveWidth[j] = width * relative;
+        }
       }
-      logMass[j] = logMass(left[j], right[j], anchor[j], value[j], s);
+      inverseSlope[j] = 1.0 / Math.abs(s);
+      int at = STRIDE * j;
+      packed[at + ORIGIN] = s > 0 ? right[j] : left[j];
+      packed[at + SIGNED_INVERSE_SLOPE] = s > 0 ? -inverseSlope[j] : inverseSlope[j];
+      packed[at + DECAY] = decay[j];
+      packed[at + LEFT] = left[j];
+      packed[at + RIGHT] = right[j];
+      packed[at + ANCHOR] = anchor[j];
+      packed[at + GAP_VALUE] = gapValue[j];
+      packed[at + GAP_SLOPE] = gapSlope[j];
       if (logMass[j] > largest) {
         largest = logMass[j];
       }
@@ -137,42 +184,55 @@ final class PiecewiseExponential {
     }
     total = sum;
     logScale = largest;
+    int j = 0;
+    for (int i = 0; i < size; i++) {
+      double threshold = ((double) i / size) * sum;
+      while (j < size - 1 && cumulative[j] <= threshold) {
+        j++;
+      }
+      guide[i] = j;
+    }
   }
 
-  /** The piece whose cumulative weight first exceeds {@code u * total}, u in [0, 1). */
+  /**
+   * The piece whose cumulative weight first exceeds {@code u * total}, u in [0, 1): the inverse of
+   * the discrete distribution of piece masses, by the guide table.
+   */
   int select(double u) {
     double target = u * total;
     double[] c = cumulative;
-    int lo = 0;
-    int hi = size - 1;
-    while (lo < hi) {
-      int mid = (lo + hi) >>> 1;
-      if (c[mid] > target) {
-        hi = mid;
-      } else {
-        lo = mid + 1;
-      }
+    int j = guide[(int) (u * size)];
+    // the guide entry is at or, by rounding of the thresholds, one past the answer
+    if (j > 0 && c[j - 1] > target) {
+      j--;
     }
-    return lo;
+    int last = size - 1;
+    while (j < last && c[j] <= target) {
+      j++;
+    }
+    return j;
   }
 
-  /** Inverts the exponential distribution function of piece {@code j} at {@code u} in [0, 1). */
+  /**
+   * Inverts the exponential distribution of piece {@code j} at {@code u} in [0, 1): measured from
+   * the lower end (P(X &lt;= x) = u) on falling or flat pieces, from the upper end (P(X &gt;= x) =
+   * u) on rising ones, so that the logarithm always acts on the side where the mass is.
+   */
   double position(int j, double u) {
-    double s = slope[j];
-    double q = decay[j];
-    double y;
+    double[] d = packed;
+    int at = STRIDE * j;
+    double q = d[at + DECAY];
+    double step;
     if (q < SMALL_DECAY) {
       // -log(1 - p) / p = 1 + p/2 + p^2/3 + p^3/4 + ...; truncation error below p^4/5 < 3e-17
       double p = u * q;
-      y = u * effectiveWidth[j] * (1.0 + p * (0.5 + p * (1.0 / 3.0 + 0.25 * p)));
+      double y = u * effectiveWidth[j] * (1.0 + p * (0.5 + p * (1.0 / 3.0 + 0.25 * p)));
+      step = Math.copySign(y, d[at + SIGNED_INVERSE_SLOPE]);
     } else {
-      y = -Math.log(1.0 - u * q) / Math.abs(s);
+      step = -Math.log(1.0 - u * q) * d[at + SIGNED_INVERSE_SLOPE];
     }
-    double x = s > 0 ? right[j] - y : left[j] + y;
-    if (x < left[j]) {
-      return left[j];
-    }
-    return x > right[j] ? right[j] : x;
+    double x = d[at + ORIGIN] + step;
+    return Math.min(Math.max(x, d[at + LEFT]), d[at + RIGHT]);
   }
 
   /** The index of the piece containing {@code x}, or -1 outside all pieces. */
@@ -208,13 +268,19 @@ final class PiecewiseExponential {
     double t = Math.abs(slope) * width;
     if (t > 1) {
       // integral = exp(top) (1 - exp(-t)) / |slope|
-      return top + Math.log1p(-Math.exp(-t)) - Math.log(Math.abs(slope));
+      // 1 - exp(-t) >= 0.63 here, so the subtraction loses nothing
+      return top + Math.log(1.0 - Math.exp(-t)) - Math.log(Math.abs(slope));
     }
     // integral = exp(top) width (1 - exp(-t)) / t, stable as t -> 0
     return top + Math.log(width) + Math.log(relativeDecay(t));
   }
 
-  /** (1 - exp(-t)) / t for t &gt;= 0, equal to 1 at t = 0, accurate for tiny t via expm1. */
+  /**
+   * (1 - exp(-t)) / t for t &gt;= 0, equal to 1 at t = 0, accurate for tiny t: for t &lt;= 1 by
+   * Kahan's form of expm1, (e - 1) t / log e with e = exp(-t) rounded (Kahan's note, as given in
+   * Higham 2002, Accuracy and Stability of Numerical Algorithms, section 1.14.1), which needs only
+   * the fast intrinsic exp and log; above 1 directly.
+   */
   static double relativeDecay(double t) {
     if (t == 0) {
       return 1.0;
@@ -222,7 +288,14 @@ final class PiecewiseExponential {
     if (t == Double.POSITIVE_INFINITY) {
       return 0.0;
     }
-    return -Math.expm1(-t) / t;
+    double e = Math.exp(-t);
+    if (t > 1) {
+      return (1.0 - e) / t;
+    }
+    if (e == 1.0) {
+      return 1.0 - 0.5 * t;
+    }
+    return (1.0 - e) / -Math.log(e);
   }
 
   /** A trimmed, independent copy for read-only views. */
@@ -240,6 +313,9 @@ final class PiecewiseExponential {
     System.arraycopy(gapSlope, 0, c.gapSlope, 0, size);
     System.arraycopy(decay, 0, c.decay, 0, size);
     System.arraycopy(effectiveWidth, 0, c.effectiveWidth, 0, size);
+    System.arraycopy(inverseSlope, 0, c.inverseSlope, 0, size);
+    System.arraycopy(packed, 0, c.packed, 0, STRIDE * size);
+    System.arraycopy(guide, 0, c.guide, 0, size);
     System.arraycopy(logMass, 0, c.logMass, 0, size);
     System.arraycopy(cumulative, 0, c.cumulative, 0, size);
     return c;

@@ -14,7 +14,7 @@ class ProgressDisplayTest {
 
   private static ChainProgress at(int chain, long sweeps, long draws, boolean finished) {
     return new ChainProgress(
-        chain, sweeps, 100, 300, draws, 200, 50.0, Duration.ofSeconds(125), finished);
+        chain, sweeps, 100, 300, draws, 200, 50.0, 50.0, Duration.ofSeconds(125), finished);
   }
 
   @Test
@@ -38,20 +38,25 @@ class ProgressDisplayTest {
   }
 
   @Test
-  void aTerminalDisplayRedrawsOneLineWithBars() {
+  void aTerminalDisplayRedrawsOneShortLineWithABar() {
     StringWriter text = new StringWriter();
     AtomicLong clock = new AtomicLong();
-    ProgressDisplay display = ProgressDisplay.of(new PrintWriter(text), true, 1, clock::get);
+    ProgressDisplay display = ProgressDisplay.of(new PrintWriter(text), true, 4, clock::get);
     clock.addAndGet(300_000_000L);
     display.progress(at(0, 150, 50, false));
     clock.addAndGet(300_000_000L);
-    display.progress(at(0, 300, 200, true));
+    display.progress(at(1, 60, 0, false));
+    // Chains 1 and 2 run at 50 sweeps/s each; 1200 sweeps in all, 210 done: 990 / 100 = 10 s.
+    String second = "[###.............]  18%  draws/chain 50 b60% - -  50/s  10s left";
+    assertTrue(text.toString().endsWith("\r" + second), text.toString());
+    assertTrue(second.length() <= 79);
+    for (int chain = 0; chain < 4; chain++) {
+      display.progress(at(chain, 300, 200, true));
+    }
     display.finish();
-    String first = "chain 1 [######......] 50/200 draws 50 draws/s 2m05s left";
-    String last = "chain 1 [############] 200/200 draws 50 draws/s done";
-    // The shorter last line is padded with blanks to wipe what the first one left.
-    assertEquals(
-        "\r" + first + "\r" + last + " ".repeat(first.length() - last.length()) + "\n",
+    String last = "[################] 100%  draws/chain done done done done";
+    assertTrue(
+        text.toString().endsWith("\r" + last + " ".repeat(second.length() - last.length()) + "\n"),
         text.toString());
   }
 
