@@ -14,10 +14,16 @@ import picocli.CommandLine.Command;
     mixinStandardHelpOptions = true,
     versionProvider = VersionProvider.class,
     description = "Exact draws from log-concave densities, and Gibbs fits of small models.",
-    subcommands = {CommandLine.HelpCommand.class})
+    subcommands = {CommandLine.HelpCommand.class, CheckCommand.class, FitCommand.class})
 public final class Main implements Runnable {
 
   @CommandLine.Spec CommandLine.Model.CommandSpec spec;
+
+  @CommandLine.Option(
+      names = "--debug",
+      scope = CommandLine.ScopeType.INHERIT,
+      description = "Print the full stack trace of an error.")
+  boolean debug;
 
   public static void main(String[] args) {
     System.exit(commandLine().execute(args));
@@ -25,7 +31,7 @@ public final class Main implements Runnable {
 
   /** The configured command line, shared by {@link #main} and the tests. */
   public static CommandLine commandLine() {
-    return new CommandLine(new Main());
+    return ErrorReporting.install(new CommandLine(new Main()));
   }
 
   @Override

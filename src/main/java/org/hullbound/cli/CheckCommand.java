@@ -1,0 +1,183 @@
+package org.hullbound.cli;
+
+import java.io.IOException;
+import java.io.PrintWriter;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Locale;
+import java.util.concurrent.Callable;
+import org.hullbound.io.CsvData;
+import org.hullbound.lang.ModelFile;
+import org.hullbound.lang.Parser;
+import org.hullbound.lang.SourceText;
+import org.hullbound.model.BoundModel;
+import org.hullbound.model.DataSummary;
+import org.hullbound.model.DataTable;
+import org.hullbound.model.IndexSet;
+import org.hullbound.model.Unknown;
+import org.hullbound.model.Update;
+import picocli.CommandLine;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.Parameters;
+
+/**
+ * {@code hullbound check MODEL [--data FILE]...}: parses and binds a model and prints its graph,
+ * every unknown with its sampling scale and the update the Gibbs driver will give it, and what
+ * data was read, without sampling anything.
+ *
+ * <p>The first thing to run on a new model: every model or data error shows here, positioned,
+ * and the reasons say which unknowns get exact draws and which need a fallback sampler.
+ */
+@Command(
+    name = "check",
+    mixinStandardHelpOptions = true,
+    description = {
+      "Parse and bind a model with its data, and print its graph: every unknown with its",
+      "sampling scale, the update it will get and why, and the data that was read."
+    })
+public final class CheckCommand implements Callable<Integer> {
+
+  @Parameters(index = "0", paramLabel = "MODEL", description = "The model file (.hbm).")
+  Path modelFile;
+
+  @Option(
+      names = "--data",
+      paramLabel = "FILE",
+      description = "A data file (CSV with a header row); repeat for one file per index set.")
+  List<Path> dataFiles = new ArrayList<>();
+
+  @CommandLine.Spec CommandLine.Model.CommandSpec spec;
+
+  @Override
+  public Integer call() throws IOException {
+    String text = Files.readString(modelFile, StandardCharsets.UTF_8);
+    ModelFile parsed = Parser.parse(SourceText.of(modelFile.toString(), text));
+    List<DataTable> tables = new ArrayList<>();
+    for (Path file : dataFiles) {
+      tables.add(CsvData.read(file));
+    }
+    BoundModel model = BoundModel.bind(parsed, tables);
+    PrintWriter out = spec.commandLine().getOut();
+    print(model, modelFile.toString(), out);
+    out.flush();
+    return 0;
+  }
+
+  /** Prints the layout of {@code check} for {@code model}. */
+  static void print(BoundModel model, String file, PrintWriter out) {
+    out.printf("model %s  (%s)%n", model.name(), file);
+    out.println();
+    out.println("data read");
+    if (model.data().isEmpty()) {
+      out.println("  (none)");
+    }
+    for (DataSummary d : model.data()) {
+      out.printf(
+          "  %s: %d rows over %s; columns %s%s%n",
+          d.source(),
+          d.rows(),
+          d.indexSet(),
+          String.join(", ", d.columns()),
+          d.missingCells() == 0 ? "" : "; " + d.missingCells() + " missing, imputed");
+    }
+    out.println();
+    out.println("index sets");
+    int width = 0;
+    for (IndexSet set : model.indexSets()) {
+      width = Math.max(width, set.name().length());
+    }
+    for (IndexSet set : model.indexSets()) {
+      out.printf(
+          "  %-" + width + "s  %s  (%d elements, %s)%n",
+          set.name(),
+          set.range(),
+          set.size(),
+          set.origin().equals("declared") ? "declared" : "from " + set.origin());
+    }
+    out.println();
+    out.printf(
+        "graph: %d data, %d param, %d let; %d scalar unknowns; %d terms in the joint density%n",
+        model.nodeCounts().getOrDefault("data", 0),
+        model.nodeCounts().getOrDefault("param", 0),
+        model.nodeCounts().getOrDefault("let", 0),
+        model.unknowns().size(),
+        model.termCount());
+    out.println();
+    out.println("unknowns: scale, update, terms in the conditional; then why");
+    List<List<Unknown>> groups = groups(model);
+    int labelWidth = 0;
+    for (List<Unknown> group : groups) {
+      labelWidth = Math.max(labelWidth, label(group).length());
+    }
+    for (List<Unknown> group : groups) {
+      Unknown first = group.get(0);
+      Update update = model.update(first.index());
+      int fewest = Integer.MAX_VALUE;
+      int most = 0;
+      for (Unknown u : group) {
+        int n = model.dependentLabels(u.index()).size() + 1;
+        fewest = Math.min(fewest, n);
+        most = Math.max(most, n);
+      }
+      out.printf(
+          "  %-" + labelWidth + "s  %-7s  %-30s  %s%n",
+          label(group),
+          first.scale().name().toLowerCase(Locale.ROOT),
+          updateName(update),
+          (fewest == most ? Integer.toString(most) : fewest + "-" + most)
+              + (most == 1 ? " term" : " terms")
+              + (group.size() > 1 ? " each, " + group.size() + " unknowns" : "")
+              + (first.imputed() ? ", missing data" : ""));
+      out.printf("  %-" + labelWidth + "s    %s%n", "", update.reason());
+    }
+  }
+
+  private static String updateName(Update update) {
+    if (update instanceof Update.Conjugate conjugate) {
+      return "exact " + conjugate.kind().name().toLowerCase(Locale.ROOT);
+    }
+    if (update instanceof Update.AdaptiveRejection ars) {
+      return ars.smooth() ? "adaptive rejection" : "adaptive rejection, no slopes";
+    }
+    return "fallback";
+  }
+
+  /** Consecutive unknowns of one node with the same scale, kind of update and reason. */
+  private static List<List<Unknown>> groups(BoundModel model) {
+    List<List<Unknown>> groups = new ArrayList<>();
+    List<Unknown> current = null;
+    for (Unknown u : model.unknowns()) {
+      if (current != null) {
+        Unknown previous = current.get(current.size() - 1);
+        Update a = model.update(previous.index());
+        Update b = model.update(u.index());
+        if (previous.node().equals(u.node())
+            && previous.scale() == u.scale()
+            && updateName(a).equals(updateName(b))
+            && a.reason().equals(b.reason())) {
+          current.add(u);
+          continue;
+        }
+      }
+      current = new ArrayList<>();
+      current.add(u);
+      groups.add(current);
+    }
+    return groups;
+  }
+
+  private static String label(List<Unknown> group) {
+    if (group.size() <= 3) {
+      List<String> labels = new ArrayList<>();
+      for (Unknown u : group) {
+        labels.add(u.label());
+      }
+      return String.join(", ", labels);
+    }
+    return group.get(0).label() + " .. " + group.get(group.size() - 1).label();
+  }
+}

@@ -1,0 +1,1137 @@
+package org.hullbound.model;
+
+import java.util.ArrayList;
+import java.util.HashMap;
+import java.util.HashSet;
+import java.util.LinkedHashMap;
+import java.util.LinkedHashSet;
+import java.util.List;
+import java.util.Map;
+import java.util.Optional;
+import java.util.Set;
+import java.util.TreeSet;
+import org.hullbound.lang.Argument;
+import org.hullbound.lang.Declarator;
+import org.hullbound.lang.Distribution;
+import org.hullbound.lang.Expression;
+import org.hullbound.lang.Functions;
+import org.hullbound.lang.Identifier;
+import org.hullbound.lang.ModelException;
+import org.hullbound.lang.ModelFile;
+import org.hullbound.lang.NameSuggestion;
+import org.hullbound.lang.SourcePosition;
+import org.hullbound.lang.SourceText;
+import org.hullbound.lang.Statement;
+import org.hullbound.model.family.Families;
+import org.hullbound.model.family.Family;
+import org.hullbound.model.family.Parametrisation;
+import org.hullbound.model.family.SupportKind;
+
+/**
+ * Turns a parsed model file and its data tables into element-level {@link Term}s over numbered
+ * unknowns, checking every semantic rule of the model language on the way.
+ *
+ * <p>Each check throws its own {@link ModelException} naming the file, line and column (for data
+ * files: the file, the line of the row and the number of the cell) and what was expected.
+ */
+final class Binder {
+
+  /** What binding produces, consumed by {@link BoundModel}. */
+  record Result(
+      String name,
+      List<IndexSet> indexSets,
+      List<Term> terms,
+      List<String> labels,
+      List<String> nodeOfSlot,
+      List<Boolean> imputed,
+      int[] ownTerm,
+      List<DataSummary> data,
+      Map<String, Integer> nodeCounts) {}
+
+  private static final Set<String> MISSING_WORDS = Set.of("", "NA");
+
+  private final ModelFile model;
+  private final SourceText source;
+  private final List<DataTable> tables;
+  private final Map<String, Statement.Index> indexStatements = new LinkedHashMap<>();
+  private final Map<String, IndexSet> sets = new LinkedHashMap<>();
+  private final Map<String, Node> nodes = new LinkedHashMap<>();
+  private final Map<Node, Formula[]> letCache = new HashMap<>();
+  private final List<DataSummary> summaries = new ArrayList<>();
+  private String modelName;
+
+  private Binder(ModelFile model, List<DataTable> tables) {
+    this.model = model;
+    this.source = model.source();
+    this.tables = List.copyOf(tables);
+  }
+
+  static Result bind(ModelFile model, List<DataTable> tables) {
+    return new Binder(model, tables).run();
+  }
+
+  private Result run() {
+    declare();
+    checkDeclarators();
+    for (Node node : nodes.values()) {
+      if (node.distribution != null) {
+        matchFamily(node);
+      }
+    }
+    checkCycles();
+    bindInlineScalars();
+    sizeDeclaredSets();
+    Map<Node, List<ColumnBinding>> columns = readTableHeaders();
+    sizeSetsFromInlineVectors();
+    for (Map.Entry<String, Statement.Index> entry : indexStatements.entrySet()) {
+      if (!sets.containsKey(entry.getKey())) {
+        throw error(
+            entry.getValue().name().position(),
+            "index set '" + entry.getKey() + "' has no bounds and no data runs over it",
+            "write index " + entry.getKey() + " = 1 .. N, or give data declared over it");
+      }
+    }
+    for (Node node : nodes.values()) {
+      node.indexSets = new ArrayList<>();
+      int size = 1;
+      for (Identifier set : node.target.indexSets()) {
+        IndexSet bound = sets.get(set.text());
+        node.indexSets.add(bound);
+        size *= bound.size();
+      }
+      node.size = size;
+    }
+    bindDataValues(columns);
+    return build();
+  }
+
+  // ---- declarations ----
+
+  private void declare() {
+    Map<String, SourcePosition> declaredAt = new HashMap<>();
+    for (Statement statement : model.statements()) {
+      if (statement instanceof Statement.ModelName named) {
+        if (modelName != null) {
+          throw error(named.name().position(), "the model is named twice", null);
+        }
+        modelName = named.name().text();
+      } else if (statement instanceof Statement.Index index) {
+        claim(index.name(), declaredAt);
+        indexStatements.put(index.name().text(), index);
+      } else if (statement instanceof Statement.Data data) {
+        for (Declarator target : data.targets()) {
+          claim(target.name(), declaredAt);
+          nodes.put(
+              target.name().text(),
+              new Node(
+                  Node.Kind.DATA, target, data, data.likelihood(), null, data.inlineValues()));
+        }
+      } else if (statement instanceof Statement.Param param) {
+        claim(param.target().name(), declaredAt);
+        if (param.prior() == null) {
+          throw error(
+              param.target().position(),
+              "param '" + param.target().name().text() + "' has no prior",
+              "write param " + param.target().name().text() + " ~ family(...)");
+        }
+        nodes.put(
+            param.target().name().text(),
+            new Node(Node.Kind.PARAM, param.target(), param, param.prior(), null, null));
+      } else if (statement instanceof Statement.Let let) {
+        claim(let.target().name(), declaredAt);
+        nodes.put(
+            let.target().name().text(),
+            new Node(Node.Kind.LET, let.target(), let, null, let.value(), null));
+      }
+    }
+    if (modelName == null) {
+      String file = source.fileName().replace('\\', '/');
+      file = file.substring(file.lastIndexOf('/') + 1);
+      modelName = file.endsWith(".hbm") ? file.substring(0, file.length() - 4) : file;
+    }
+  }
+
+  private void claim(Identifier name, Map<String, SourcePosition> declaredAt) {
+    SourcePosition earlier = declaredAt.putIfAbsent(name.text(), name.position());
+    if (earlier != null) {
+      throw error(
+          name.position(),
+          "'" + name.text() + "' is already declared at line " + earlier.line(),
+          "every name is declared once; rename one of them");
+    }
+  }
+
+  private void checkDeclarators() {
+    for (Node node : nodes.values()) {
+      Set<String> seen = new HashSet<>();
+      for (Identifier set : node.target.indexSets()) {
+        if (!indexStatements.containsKey(set.text())) {
+          throw error(
+              set.position(),
+              "unknown index set '" + set.text() + "'",
+              NameSuggestion.hint(set.text(), indexStatements.keySet()));
+        }
+        if (!seen.add(set.text())) {
+          throw error(
+              set.position(),
+              "index set '" + set.text() + "' appears twice in the declaration of '"
+                  + node.name() + "'",
+              null);
+        }
+      }
+    }
+  }
+
+  private void matchFamily(Node node) {
+    Distribution d = node.distribution;
+    String familyName = d.family().text();
+    Optional<Family> found = Families.lookup(familyName);
+    if (found.isEmpty()) {
+      throw error(
+          d.family().position(),
+          "unknown family '" + familyName + "'; the families are " + String.join(", ",
+              Families.names()),
+          NameSuggestion.hint(familyName, Families.names()));
+    }
+    Family family = found.get();
+    Set<String> allNames = new TreeSet<>();
+    for (Parametrisation p : family.parametrisations()) {
+      allNames.addAll(p.argumentNames());
+    }
+    Map<String, Argument> given = new LinkedHashMap<>();
+    for (Argument argument : d.arguments()) {
+      String name = argument.name().text();
+      if (!allNames.contains(name)) {
+        throw error(
+            argument.name().position(),
+            familyName + " has no argument '" + name + "'; its arguments are "
+                + describeParametrisations(family),
+            NameSuggestion.hint(name, allNames));
+      }
+      if (given.put(name, argument) != null) {
+        throw error(
+            argument.name().position(),
+            "argument '" + name + "' of " + familyName + " is given twice",
+            null);
+      }
+    }
+    Optional<Parametrisation> match = family.match(given.keySet());
+    if (match.isEmpty()) {
+      List<String> completions = new ArrayList<>();
+      for (Parametrisation p : family.parametrisations()) {
+        if (p.argumentNames().containsAll(given.keySet())) {
+          List<String> missing = new ArrayList<>(p.argumentNames());
+          missing.removeAll(given.keySet());
+          completions.add(String.join(" and ", missing));
+        }
+      }
+      if (!completions.isEmpty()) {
+        throw error(
+            d.family().position(),
+            familyName + " is missing "
+                + (completions.size() == 1 && !completions.get(0).contains(" and ")
+                    ? "argument '" + completions.get(0) + "'"
+                    : "arguments: give " + String.join(", or ", completions)),
+            "its arguments are " + describeParametrisations(family));
+      }
+      throw error(
+          d.family().position(),
+          "the arguments " + given.keySet() + " of " + familyName
+              + " do not form one parametrisation; its arguments are "
+              + describeParametrisations(family),
+          null);
+    }
+    Parametrisation p = match.get();
+    node.parametrisation = p;
+    node.argumentExpressions = new Expression[p.argumentNames().size()];
+    for (int k = 0; k < node.argumentExpressions.length; k++) {
+      node.argumentExpressions[k] = given.get(p.argumentNames().get(k)).value();
+    }
+    if (node.kind == Node.Kind.PARAM && p.discrete()) {
+      throw error(
+          d.family().position(),
+          "param '" + node.name() + "' has the discrete family " + familyName
+              + "; params must have a continuous family",
+          "model a count as data, or use a continuous family such as gamma");
+    }
+  }
+
+  private static String describeParametrisations(Family family) {
+    List<String> forms = new ArrayList<>();
+    for (Parametrisation p : family.parametrisations()) {
+      forms.add("(" + String.join(", ", p.argumentNames()) + ")");
+    }
+    return String.join(" or ", forms);
+  }
+
+  // ---- cycles ----
+
+  private void checkCycles() {
+    Map<Node, List<Node>> uses = new LinkedHashMap<>();
+    for (Node node : nodes.values()) {
+      Set<Node> used = new LinkedHashSet<>();
+      for (Expression e : expressionsOf(node)) {
+        collectNames(e, used);
+      }
+      uses.put(node, new ArrayList<>(used));
+    }
+    Map<Node, Integer> state = new HashMap<>();
+    for (Node start : nodes.values()) {
+      List<Node> path = new ArrayList<>();
+      List<Node> cycle = findCycle(start, uses, state, path);
+      if (cycle != null) {
+        StringBuilder names = new StringBuilder();
+        for (Node n : cycle) {
+          names.append(n.name()).append(" -> ");
+        }
+        names.append(cycle.get(0).name());
+        throw error(
+            cycle.get(0).position(),
+            "the model has a cycle: " + names + "; the graph of data, param and let must be"
+                + " acyclic",
+            "break the cycle by making one of " + cycleNames(cycle) + " not depend on the next");
+      }
+    }
+  }
+
+  private static String cycleNames(List<Node> cycle) {
+    List<String> names = new ArrayList<>();
+    for (Node n : cycle) {
+      names.add("'" + n.name() + "'");
+    }
+    return String.join(", ", names);
+  }
+
+  private static List<Node> findCycle(
+      Node node, Map<Node, List<Node>> uses, Map<Node, Integer> state, List<Node> path) {
+    Integer mark = state.get(node);
+    if (mark != null && mark == 2) {
+      return null;
+    }
+    if (mark != null && mark == 1) {
+      return new ArrayList<>(path.subList(path.indexOf(node), path.size()));
+    }
+    state.put(node, 1);
+    path.add(node);
+    for (Node next : uses.get(node)) {
+      List<Node> cycle = findCycle(next, uses, state, path);
+      if (cycle != null) {
+        return cycle;
+      }
+    }
+    path.remove(path.size() - 1);
+    state.put(node, 2);
+    return null;
+  }
+
+  private List<Expression> expressionsOf(Node node) {
+    List<Expression> expressions = new ArrayList<>();
+    if (node.letValue != null) {
+      expressions.add(node.letValue);
+    }
+    if (node.distribution != null) {
+      for (Argument a : node.distribution.arguments()) {
+        expressions.add(a.value());
+      }
+      if (node.distribution.truncation() != null) {
+        expressions.add(node.distribution.truncation().lower());
+        expressions.add(node.distribution.truncation().upper());
+      }
+    }
+    return expressions;
+  }
+
+  private void collectNames(Expression e, Set<Node> into) {
+    if (e instanceof Expression.Name name) {
+      Node node = nodes.get(name.name().text());
+      if (node != null) {
+        into.add(node);
+      }
+      for (Expression index : name.indexes()) {
+        collectNames(index, into);
+      }
+    } else if (e instanceof Expression.Negation n) {
+      collectNames(n.operand(), into);
+    } else if (e instanceof Expression.Binary b) {
+      collectNames(b.left(), into);
+      collectNames(b.right(), into);
+    } else if (e instanceof Expression.Call c) {
+      for (Expression a : c.arguments()) {
+        collectNames(a, into);
+      }
+    } else if (e instanceof Expression.Sum s) {
+      collectNames(s.body(), into);
+    }
+  }
+
+  // ---- sizes and data ----
+
+  private void bindInlineScalars() {
+    for (Node node : nodes.values()) {
+      if (node.kind == Node.Kind.DATA && node.inline != null && node.target.indexSets().isEmpty()) {
+        if (node.inline.size() != 1) {
+          throw error(
+              node.position(),
+              "'" + node.name() + "' is a scalar but " + node.inline.size() + " values are given",
+              "declare it over an index set, as in " + node.name() + "[set]");
+        }
+        node.indexSets = List.of();
+        node.size = 1;
+        allocate(node, "inline");
+        Statement.InlineValue v = node.inline.get(0);
+        if (v.missing()) {
+          if (!node.modelled()) {
+            throw error(
+                v.position(),
+                "'" + node.name() + "' is a covariate (it has no ~ line), so it cannot be NA",
+                null);
+          }
+          node.missing[0] = true;
+        } else {
+          node.values[0] = v.value();
+        }
+        node.present[0] = true;
+        node.cells[0] = v.position();
+      }
+    }
+  }
+
+  private void allocate(Node node, String from) {
+    node.values = new double[node.size];
+    node.present = new boolean[node.size];
+    node.missing = new boolean[node.size];
+    node.cells = new SourcePosition[node.size];
+    node.source = from;
+  }
+
+  private void sizeDeclaredSets() {
+    for (Statement.Index index : indexStatements.values()) {
+      if (index.sizedFromData()) {
+        continue;
+      }
+      int lower = wholeBound(index.lower(), "lower");
+      int upper = wholeBound(index.upper(), "upper");
+      if (upper < lower) {
+        throw error(
+            index.upper().position(),
+            "index set '" + index.name().text() + "' is empty: " + lower + " .. " + upper,
+            "the upper bound must be at least the lower bound");
+      }
+      sets.put(index.name().text(), new IndexSet(index.name().text(), lower, upper, "declared"));
+    }
+  }
+
+  private int wholeBound(Expression e, String which) {
+    Formula f = resolve(e, Map.of());
+    if (!(f instanceof Formula.Constant c)) {
+      throw error(e.position(), "the " + which + " bound of an index set must be a known number",
+          null);
+    }
+    double v = c.value();
+    if (!(v == Math.rint(v)) || Math.abs(v) > 1e9) {
+      throw error(
+          e.position(),
+          "the " + which + " bound of an index set must be a whole number, got " + v,
+          null);
+    }
+    return (int) v;
+  }
+
+  /** Where one column of a data file goes: its node and the trailing index values. */
+  private record ColumnBinding(DataTable table, int column, Node node, int[] trailing) {}
+
+  private Map<Node, List<ColumnBinding>> readTableHeaders() {
+    Map<Node, List<ColumnBinding>> columns = new LinkedHashMap<>();
+    Map<String, String> setRowsFrom = new HashMap<>();
+    Map<String, Integer> setRows = new HashMap<>();
+    Map<String, Integer> trailingMax = new HashMap<>();
+    Set<String> dataNames = new TreeSet<>();
+    for (Node n : nodes.values()) {
+      if (n.kind == Node.Kind.DATA) {
+        dataNames.add(n.name());
+      }
+    }
+    for (DataTable table : tables) {
+      String fileSet = null;
+      String fileSetColumn = null;
+      Set<String> seen = new HashSet<>();
+      List<String> columnNames = new ArrayList<>();
+      for (int j = 0; j < table.header().size(); j++) {
+        String header = table.header().get(j).trim();
+        SourcePosition at = new SourcePosition(table.fileName(), 1, j + 1);
+        if (!seen.add(header)) {
+          throw error(at, "column '" + header + "' appears twice in the header", null);
+        }
+        String base = header;
+        int[] trailing = new int[0];
+        int bracket = header.indexOf('[');
+        if (bracket >= 0) {
+          base = header.substring(0, bracket).trim();
+          trailing = parseColumnIndexes(header, bracket, at);
+        }
+        Node node = nodes.get(base);
+        if (node == null || node.kind != Node.Kind.DATA) {
+          String what =
+              node == null
+                  ? "is not a data name of the model"
+                  : "names a " + node.kindWord() + ", and only data is read from files";
+          throw error(
+              at,
+              "column '" + header + "' " + what + "; the data names are " + dataNames,
+              node == null ? NameSuggestion.hint(base, dataNames) : null);
+        }
+        if (node.inline != null) {
+          throw error(
+              at,
+              "'" + base + "' is given inline at line " + node.position().line()
+                  + " and again as a column of " + table.fileName(),
+              null);
+        }
+        List<Identifier> nodeSets = node.target.indexSets();
+        if (nodeSets.isEmpty()) {
+          throw error(
+              at,
+              "'" + base + "' is a scalar; give it inline (data " + base + " = value)",
+              null);
+        }
+        if (trailing.length != nodeSets.size() - 1) {
+          throw error(
+              at,
+              "'" + base + "' runs over " + setList(nodeSets) + ", so its columns are named "
+                  + exampleColumns(base, nodeSets.size()) + "; got '" + header + "'",
+              null);
+        }
+        String set = nodeSets.get(0).text();
+        if (fileSet == null) {
+          fileSet = set;
+          fileSetColumn = header;
+        } else if (!fileSet.equals(set)) {
+          throw error(
+              at,
+              "column '" + header + "' runs over '" + set + "' but column '" + fileSetColumn
+                  + "' of this file runs over '" + fileSet + "'",
+              "give one file per index set");
+        }
+        for (int t = 0; t < trailing.length; t++) {
+          String trailingSet = nodeSets.get(t + 1).text();
+          IndexSet bound = sets.get(trailingSet);
+          if (bound != null && !bound.contains(trailing[t])) {
+            throw error(
+                at,
+                "column '" + header + "': " + trailing[t] + " is outside index set '"
+                    + trailingSet + "' (" + bound.range() + ")",
+                null);
+          }
+          if (bound == null) {
+            if (trailing[t] < 1) {
+              throw error(at, "column '" + header + "': index values of '" + trailingSet
+                  + "' start at 1", null);
+            }
+            trailingMax.merge(trailingSet, trailing[t], Math::max);
+          }
+        }
+        columns.computeIfAbsent(node, k -> new ArrayList<>())
+            .add(new ColumnBinding(table, j, node, trailing));
+        columnNames.add(header);
+      }
+      if (fileSet == null) {
+        continue;
+      }
+      for (DataTable.Row row : table.rows()) {
+        if (row.cells().size() != table.header().size()) {
+          int column = Math.min(row.cells().size(), table.header().size()) + 1;
+          throw error(
+              new SourcePosition(table.fileName(), row.line(), column),
+              "this row has " + row.cells().size() + " cells but the header has "
+                  + table.header().size() + " columns, so the column lengths disagree",
+              "every row needs one cell per column; leave a cell empty or write NA when it is"
+                  + " missing");
+        }
+      }
+      int rows = table.rows().size();
+      IndexSet bound = sets.get(fileSet);
+      SourcePosition fileStart = new SourcePosition(table.fileName(), 1, 1);
+      if (bound != null) {
+        if (bound.size() != rows) {
+          throw error(
+              fileStart,
+              table.fileName() + " has " + rows + " data rows but index set '" + fileSet + "' is "
+                  + bound.range() + " (" + bound.size() + " elements)",
+              "one row per element of '" + fileSet + "'");
+        }
+      } else {
+        Integer earlier = setRows.putIfAbsent(fileSet, rows);
+        if (earlier != null && earlier != rows) {
+          throw error(
+              fileStart,
+              "column lengths disagree: " + table.fileName() + " has " + rows + " rows over '"
+                  + fileSet + "' but " + setRowsFrom.get(fileSet) + " has " + earlier,
+              null);
+        }
+        setRowsFrom.putIfAbsent(fileSet, table.fileName());
+      }
+      summaries.add(new DataSummary(table.fileName(), fileSet, rows, columnNames, 0));
+    }
+    for (Map.Entry<String, Integer> entry : setRows.entrySet()) {
+      if (entry.getValue() == 0) {
+        throw error(
+            new SourcePosition(setRowsFrom.get(entry.getKey()), 1, 1),
+            setRowsFrom.get(entry.getKey()) + " has no data rows, so index set '"
+                + entry.getKey() + "' would be empty",
+            null);
+      }
+      sets.put(
+          entry.getKey(),
+          new IndexSet(entry.getKey(), 1, entry.getValue(), setRowsFrom.get(entry.getKey())));
+    }
+    for (Map.Entry<String, Integer> entry : trailingMax.entrySet()) {
+      if (!sets.containsKey(entry.getKey())) {
+        sets.put(entry.getKey(), new IndexSet(entry.getKey(), 1, entry.getValue(), "columns"));
+      }
+    }
+    return columns;
+  }
+
+  private int[] parseColumnIndexes(String header, int bracket, SourcePosition at) {
+    if (!header.endsWith("]")) {
+      throw error(at, "column '" + header + "' has an unclosed '['", "write columns as X[1], X[2]");
+    }
+    String[] pieces = header.substring(bracket + 1, header.length() - 1).split(",");
+    int[] indexes = new int[pieces.length];
+    for (int i = 0; i < pieces.length; i++) {
+      try {
+        indexes[i] = Integer.parseInt(pieces[i].trim());
+      } catch (NumberFormatException e) {
+        throw error(
+            at,
+            "column '" + header + "': '" + pieces[i].trim() + "' is not a whole number",
+            "write columns as X[1], X[2]");
+      }
+    }
+    return indexes;
+  }
+
+  private static String setList(List<Identifier> identifiers) {
+    List<String> names = new ArrayList<>();
+    for (Identifier i : identifiers) {
+      names.add(i.text());
+    }
+    return "[" + String.join(", ", names) + "]";
+  }
+
+  private static String exampleColumns(String base, int dims) {
+    if (dims == 1) {
+      return "'" + base + "'";
+    }
+    String tail = dims == 2 ? "" : ", 1".repeat(dims - 2);
+    return "'" + base + "[1" + tail + "]', '" + base + "[2" + tail + "]', ...";
+  }
+
+  private void sizeSetsFromInlineVectors() {
+    for (Node node : nodes.values()) {
+      if (node.kind != Node.Kind.DATA || node.inline == null) {
+        continue;
+      }
+      List<Identifier> nodeSets = node.target.indexSets();
+      if (nodeSets.size() == 1 && !sets.containsKey(nodeSets.get(0).text())) {
+        String set = nodeSets.get(0).text();
+        sets.put(set, new IndexSet(set, 1, node.inline.size(), "inline data of " + node.name()));
+        summaries.add(new DataSummary("inline", set, node.inline.size(), List.of(node.name()), 0));
+      }
+    }
+  }
+
+  private void bindDataValues(Map<Node, List<ColumnBinding>> columns) {
+    for (Node node : nodes.values()) {
+      if (node.kind != Node.Kind.DATA || node.target.indexSets().isEmpty()) {
+        continue;
+      }
+      allocate(node, node.inline != null ? "inline" : null);
+      if (node.inline != null) {
+        if (node.inline.size() != node.size) {
+          throw error(
+              node.position(),
+              "'" + node.name() + "' runs over " + setList(node.target.indexSets()) + " with "
+                  + node.size + " elements but " + node.inline.size() + " values are given",
+              null);
+        }
+        for (int e = 0; e < node.size; e++) {
+          Statement.InlineValue v = node.inline.get(e);
+          store(node, e, v.missing(), v.value(), v.position(), "NA");
+        }
+        continue;
+      }
+      List<ColumnBinding> bindings = columns.getOrDefault(node, List.of());
+      if (bindings.isEmpty()) {
+        throw error(
+            node.position(),
+            "no data for '" + node.name() + "': "
+                + (tables.isEmpty()
+                    ? "no data file was given"
+                    : "no data file has a column '" + exampleColumn(node) + "'"),
+            tables.isEmpty() ? "give the data file that has a column '" + node.name() + "'"
+                : "the data files read are " + tableNames());
+      }
+      int[] index = new int[node.indexSets.size()];
+      for (ColumnBinding binding : bindings) {
+        node.source = binding.table().fileName();
+        List<DataTable.Row> rows = binding.table().rows();
+        for (int r = 0; r < rows.size(); r++) {
+          DataTable.Row row = rows.get(r);
+          index[0] = node.indexSets.get(0).lower() + r;
+          System.arraycopy(binding.trailing(), 0, index, 1, binding.trailing().length);
+          int e = node.offset(index);
+          SourcePosition at =
+              new SourcePosition(binding.table().fileName(), row.line(), binding.column() + 1);
+          String cell = binding.column() < row.cells().size()
+              ? row.cells().get(binding.column()).trim() : "";
+          boolean missing = MISSING_WORDS.contains(cell);
+          double value = Double.NaN;
+          if (!missing) {
+            try {
+              value = Double.parseDouble(cell);
+            } catch (NumberFormatException ex) {
+              value = Double.NaN;
+            }
+            if (!Double.isFinite(value)) {
+              throw error(
+                  at,
+                  "'" + cell + "' in column '" + binding.table().header().get(binding.column())
+                      + "' is not a number",
+                  "write a finite number, or NA (or leave the cell empty) for a missing"
+                      + " observation");
+            }
+          }
+          store(node, e, missing, value, at, cell.isEmpty() ? "an empty cell" : "'" + cell + "'");
+        }
+      }
+      for (int e = 0; e < node.size; e++) {
+        if (!node.present[e]) {
+          throw error(
+              node.position(),
+              "no data for '" + node.label(e) + "': no data file has a column '"
+                  + columnName(node, node.index(e)) + "'",
+              "the data files read are " + tableNames());
+        }
+      }
+    }
+    for (int i = 0; i < summaries.size(); i++) {
+      DataSummary s = summaries.get(i);
+      int missing = 0;
+      for (Node node : nodes.values()) {
+        if (node.missing != null && s.source().equals(node.source)
+            && s.columns().stream().anyMatch(c -> c.equals(node.name())
+                || c.startsWith(node.name() + "["))) {
+          for (boolean m : node.missing) {
+            missing += m ? 1 : 0;
+          }
+        }
+      }
+      summaries.set(i, new DataSummary(s.source(), s.indexSet(), s.rows(), s.columns(), missing));
+    }
+  }
+
+  private void store(
+      Node node, int e, boolean missing, double value, SourcePosition at, String shown) {
+    if (missing && !node.modelled()) {
+      throw error(
+          at,
+          "missing value (" + shown + ") for covariate '" + node.label(e)
+              + "'; only modelled data (with a ~ line) may be missing",
+          "fill in the value, or drop the row");
+    }
+    node.present[e] = true;
+    node.missing[e] = missing;
+    node.values[e] = value;
+    node.cells[e] = at;
+  }
+
+  private String exampleColumn(Node node) {
+    return node.target.indexSets().size() == 1 ? node.name() : node.name() + "[1]";
+  }
+
+  private static String columnName(Node node, int[] index) {
+    if (index.length == 1) {
+      return node.name();
+    }
+    StringBuilder text = new StringBuilder(node.name()).append('[');
+    for (int i = 1; i < index.length; i++) {
+      text.append(i == 1 ? "" : ", ").append(index[i]);
+    }
+    return text.append(']').toString();
+  }
+
+  private String tableNames() {
+    List<String> names = new ArrayList<>();
+    for (DataTable t : tables) {
+      names.add(t.fileName());
+    }
+    return String.join(", ", names);
+  }
+
+  // ---- resolution ----
+
+  /** Resolves {@code e} with the index sets in {@code env} bound to the given elements. */
+  private Formula resolve(Expression e, Map<String, Integer> env) {
+    if (e instanceof Expression.Number number) {
+      return Formula.constant(number.value());
+    }
+    if (e instanceof Expression.Negation negation) {
+      return Formulas.apply(Op.NEGATE, List.of(resolve(negation.operand(), env)));
+    }
+    if (e instanceof Expression.Binary binary) {
+      Op op =
+          switch (binary.operator()) {
+            case ADD -> Op.ADD;
+            case SUBTRACT -> Op.SUBTRACT;
+            case MULTIPLY -> Op.MULTIPLY;
+            case DIVIDE -> Op.DIVIDE;
+            case POWER -> Op.POWER;
+          };
+      return Formulas.apply(op, List.of(resolve(binary.left(), env), resolve(binary.right(), env)));
+    }
+    if (e instanceof Expression.Call call) {
+      String name = call.function().text();
+      Op op = Op.function(name);
+      if (op == null) {
+        throw error(
+            call.function().position(),
+            "unknown function '" + name + "'; the functions are "
+                + String.join(", ", Functions.names()) + ", and sum(set: ...)",
+            NameSuggestion.hint(name, Functions.names()));
+      }
+      if (call.arguments().size() != op.arity()) {
+        throw error(
+            call.function().position(),
+            name + " takes " + op.arity() + " argument" + (op.arity() == 1 ? "" : "s") + ", got "
+                + call.arguments().size(),
+            null);
+      }
+      List<Formula> parts = new ArrayList<>();
+      for (Expression argument : call.arguments()) {
+        parts.add(resolve(argument, env));
+      }
+      return Formulas.apply(op, parts);
+    }
+    if (e instanceof Expression.Sum sum) {
+      String setName = sum.indexSet().text();
+      IndexSet set = sets.get(setName);
+      if (set == null) {
+        throw error(
+            sum.indexSet().position(),
+            "unknown index set '" + setName + "' in sum",
+            NameSuggestion.hint(setName, indexStatements.keySet()));
+      }
+      if (env.containsKey(setName)) {
+        throw error(
+            sum.indexSet().position(),
+            "sum over '" + setName + "' inside an expression that already runs over '" + setName
+                + "'",
+            null);
+      }
+      List<Formula> terms = new ArrayList<>();
+      Map<String, Integer> inner = new HashMap<>(env);
+      for (int v = set.lower(); v <= set.upper(); v++) {
+        inner.put(setName, v);
+        terms.add(resolve(sum.body(), inner));
+      }
+      return Formulas.apply(Op.ADD, terms);
+    }
+    return resolveName((Expression.Name) e, env);
+  }
+
+  private Formula resolveName(Expression.Name reference, Map<String, Integer> env) {
+    String name = reference.name().text();
+    if (indexStatements.containsKey(name)) {
+      if (!reference.indexes().isEmpty()) {
+        throw error(reference.position(), "index set '" + name + "' cannot be indexed", null);
+      }
+      Integer value = env.get(name);
+      if (value == null) {
+        throw error(
+            reference.position(),
+            "index set '" + name + "' is not bound here; only "
+                + (env.isEmpty() ? "the sets of the statement" : env.keySet().toString())
+                + " can be used as values",
+            null);
+      }
+      return Formula.constant(value);
+    }
+    Node node = nodes.get(name);
+    if (node == null) {
+      Set<String> valid = new TreeSet<>(nodes.keySet());
+      valid.addAll(env.keySet());
+      throw error(
+          reference.position(),
+          "unknown name '" + name + "'",
+          NameSuggestion.hint(name, valid));
+    }
+    List<IndexSet> nodeSets = node.indexSets;
+    if (nodeSets == null) {
+      // Only inline scalars are bound while index bounds are evaluated.
+      throw error(
+          reference.position(),
+          "'" + name + "' cannot be used here: index bounds may use numbers and inline scalar"
+              + " data only",
+          null);
+    }
+    if (reference.indexes().size() != nodeSets.size()) {
+      throw error(
+          reference.position(),
+          "'" + name + "' runs over " + setList(node.target.indexSets()) + " and needs "
+              + nodeSets.size() + " index" + (nodeSets.size() == 1 ? "" : "es") + ", got "
+              + reference.indexes().size(),
+          nodeSets.isEmpty() ? "write " + name + " without brackets"
+              : "write " + name + setList(node.target.indexSets()));
+    }
+    int[] index = new int[nodeSets.size()];
+    for (int i = 0; i < index.length; i++) {
+      Expression indexExpression = reference.indexes().get(i);
+      IndexSet expected = nodeSets.get(i);
+      if (indexExpression instanceof Expression.Name bare
+          && bare.indexes().isEmpty()
+          && indexStatements.containsKey(bare.name().text())
+          && !bare.name().text().equals(expected.name())) {
+        throw error(
+            bare.position(),
+            "'" + name + "' is indexed by '" + expected.name() + "' here, got index set '"
+                + bare.name().text() + "'",
+            "map one set to the other with integer data, as in " + name + "["
+                + expected.name() + "_of[" + bare.name().text() + "]]");
+      }
+      Formula resolved = resolve(indexExpression, env);
+      if (!(resolved instanceof Formula.Constant c)) {
+        throw error(
+            indexExpression.position(),
+            "the index of '" + name + "' depends on an unknown; indexes must be known data",
+            null);
+      }
+      double v = c.value();
+      SourcePosition blame = c.origin() != null ? c.origin() : indexExpression.position();
+      if (v != Math.rint(v)) {
+        throw error(
+            blame,
+            "index " + v + " of '" + name + "' is not a whole number",
+            "'" + name + "' is indexed by '" + expected.name() + "' (" + expected.range() + ")");
+      }
+      if (!expected.contains(v)) {
+        throw error(
+            blame,
+            "index value " + (long) v + " is outside index set '" + expected.name() + "' ("
+                + expected.range() + ")" + " used to index '" + name + "'",
+            null);
+      }
+      index[i] = (int) v;
+    }
+    int offset = node.offset(index);
+    switch (node.kind) {
+      case DATA:
+        if (node.missing[offset] && node.slots == null) {
+          throw error(reference.position(), "'" + name + "' is missing and cannot be used"
+              + " here", null);
+        }
+        if (node.missing[offset]) {
+          return new Formula.Slot(node.slots[offset]);
+        }
+        return new Formula.Constant(node.values[offset], node.cells[offset]);
+      case PARAM:
+        return new Formula.Slot(node.slots[offset]);
+      default:
+        Formula[] cache = letCache.computeIfAbsent(node, k -> new Formula[k.size]);
+        if (cache[offset] == null) {
+          Map<String, Integer> letEnv = new HashMap<>();
+          for (int i = 0; i < index.length; i++) {
+            letEnv.put(nodeSets.get(i).name(), index[i]);
+          }
+          cache[offset] = resolve(node.letValue, letEnv);
+        }
+        return cache[offset];
+    }
+  }
+
+  // ---- terms ----
+
+  private Result build() {
+    List<String> labels = new ArrayList<>();
+    List<String> nodeOfSlot = new ArrayList<>();
+    List<Boolean> imputed = new ArrayList<>();
+    // Params first, then missing observations, each in statement order.
+    for (Node.Kind kind : List.of(Node.Kind.PARAM, Node.Kind.DATA)) {
+      for (Node node : nodes.values()) {
+        if (node.kind == kind && (kind == Node.Kind.PARAM || node.modelled())) {
+          node.slots = new int[node.size];
+          for (int e = 0; e < node.size; e++) {
+            boolean unknown = kind == Node.Kind.PARAM || node.missing[e];
+            node.slots[e] = unknown ? labels.size() : -1;
+            if (unknown) {
+              labels.add(node.label(e));
+              nodeOfSlot.add(node.name());
+              imputed.add(kind == Node.Kind.DATA);
+            }
+          }
+        }
+      }
+    }
+    // Lets are checked even when nothing uses them, so a fault in one never hides.
+    for (Node node : nodes.values()) {
+      if (node.kind == Node.Kind.LET) {
+        for (int e = 0; e < node.size; e++) {
+          resolveName(referenceTo(node, e), Map.of());
+        }
+      }
+    }
+    List<Term> terms = new ArrayList<>();
+    int[] ownTerm = new int[labels.size()];
+    java.util.Arrays.fill(ownTerm, -1);
+    Map<String, Integer> counts = new LinkedHashMap<>();
+    for (Node.Kind kind : Node.Kind.values()) {
+      counts.put(kind.name().toLowerCase(java.util.Locale.ROOT), 0);
+    }
+    for (Node node : nodes.values()) {
+      counts.merge(node.kindWord(), 1, Integer::sum);
+      if (node.distribution == null) {
+        continue;
+      }
+      for (int e = 0; e < node.size; e++) {
+        Term term = term(node, e);
+        if (term.owner() >= 0) {
+          ownTerm[term.owner()] = terms.size();
+        }
+        terms.add(term);
+      }
+    }
+    List<IndexSet> orderedSets = new ArrayList<>();
+    for (String set : indexStatements.keySet()) {
+      orderedSets.add(sets.get(set));
+    }
+    return new Result(
+        modelName,
+        orderedSets,
+        terms,
+        labels,
+        nodeOfSlot,
+        imputed,
+        ownTerm,
+        summaries,
+        counts);
+  }
+
+  private static Expression.Name referenceTo(Node node, int e) {
+    int[] index = node.index(e);
+    List<Expression> indexes = new ArrayList<>();
+    for (int i : index) {
+      indexes.add(new Expression.Number(i, node.position()));
+    }
+    return new Expression.Name(node.target.name(), indexes, node.position());
+  }
+
+  private Term term(Node node, int e) {
+    Map<String, Integer> env = new HashMap<>();
+    int[] index = node.index(e);
+    for (int i = 0; i < index.length; i++) {
+      env.put(node.indexSets.get(i).name(), index[i]);
+    }
+    Parametrisation p = node.parametrisation;
+    List<Formula> args = new ArrayList<>();
+    boolean allKnown = true;
+    for (Expression a : node.argumentExpressions) {
+      Formula f = resolve(a, env);
+      args.add(f);
+      allKnown &= f.known();
+    }
+    String label = node.label(e);
+    double[] known = new double[args.size()];
+    for (int k = 0; k < known.length; k++) {
+      known[k] = args.get(k) instanceof Formula.Constant c ? c.value() : Double.NaN;
+    }
+    if (allKnown) {
+      String problem = p.checkArguments(known);
+      if (problem != null) {
+        throw error(
+            node.argumentExpressions[0].position(),
+            "invalid arguments of " + p.family().name() + " for '" + label + "': " + problem,
+            null);
+      }
+    }
+    double lower = Double.NEGATIVE_INFINITY;
+    double upper = Double.POSITIVE_INFINITY;
+    boolean truncated = node.distribution.truncation() != null;
+    if (truncated) {
+      lower = knownBound(node.distribution.truncation().lower(), env, "lower");
+      upper = knownBound(node.distribution.truncation().upper(), env, "upper");
+      if (!(lower < upper)) {
+        throw error(
+            node.distribution.truncation().position(),
+            "within " + lower + " .. " + upper + " is empty; the lower bound must be below the"
+                + " upper",
+            null);
+      }
+    }
+    int slot = node.slots[e];
+    Formula value;
+    if (slot >= 0) {
+      value = new Formula.Slot(slot);
+    } else {
+      double y = node.values[e];
+      value = new Formula.Constant(y, node.cells[e]);
+      String problem = outsideSupport(y, p, known, allKnown);
+      if (problem == null && truncated && !(y >= lower && y <= upper)) {
+        problem = "it lies outside within " + lower + " .. " + upper;
+      }
+      if (problem != null) {
+        SourcePosition at = node.cells[e] != null ? node.cells[e] : node.position();
+        throw error(at, "'" + label + "' = " + number(y) + " is not a valid value of "
+            + p.family().name() + ": " + problem, null);
+      }
+    }
+    return new Term(label, p, value, args, truncated, lower, upper, slot, node.position());
+  }
+
+  private double knownBound(Expression e, Map<String, Integer> env, String which) {
+    Formula f = resolve(e, env);
+    if (!(f instanceof Formula.Constant c)) {
+      throw error(e.position(), "the " + which + " bound of within must be known (data or a"
+          + " number), not depend on an unknown", null);
+    }
+    return c.value();
+  }
+
+  /** Why {@code y} lies outside the support of {@code p}, or {@code null} when it does not. */
+  static String outsideSupport(double y, Parametrisation p, double[] known, boolean allKnown) {
+    boolean whole = y == Math.rint(y);
+    String family = p.family().name();
+    SupportKind kind = p.support();
+    String problem =
+        switch (kind) {
+          case REAL -> null;
+          case POSITIVE -> y > 0 ? null : "it must be > 0";
+          case UNIT_INTERVAL -> y > 0 && y < 1 ? null : "it must lie strictly between 0 and 1";
+          case BETWEEN_FIRST_TWO_ARGUMENTS -> !Double.isNaN(known[0]) && !(y >= known[0])
+              || !Double.isNaN(known[1]) && !(y <= known[1])
+              ? "it must lie between " + number(known[0]) + " and " + number(known[1]) : null;
+          case COUNT -> !whole ? "it is not a whole number, and " + family + " needs a count"
+              : y < 0 ? "it is negative, and " + family + " needs a count 0, 1, 2, ..." : null;
+          case COUNT_UP_TO_FIRST_ARGUMENT -> !whole
+              ? "it is not a whole number, and " + family + " needs a count"
+              : y < 0 ? "it is negative, and " + family + " needs a count 0, 1, 2, ..."
+              : !Double.isNaN(known[0]) && y > known[0]
+                  ? "it exceeds " + p.argumentNames().get(0) + " = " + number(known[0]) : null;
+          case BINARY -> y == 0 || y == 1 ? null : "it must be 0 or 1";
+        };
+    if (problem == null && allKnown) {
+      problem = p.checkValue(y, known);
+    }
+    return problem;
+  }
+
+  static String number(double v) {
+    return v == Math.rint(v) && Math.abs(v) < 1e15 ? Long.toString((long) v) : Double.toString(v);
+  }
+
+  private ModelException error(SourcePosition position, String problem, String hint) {
+    if (position.file().equals(source.fileName())) {
+      return ModelException.at(source, position, problem, hint);
+    }
+    return new ModelException(position, null, problem, hint);
+  }
+}

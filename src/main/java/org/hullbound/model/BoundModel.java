@@ -1,0 +1,350 @@
+package org.hullbound.model;
+
+import java.util.ArrayList;
+import java.util.LinkedHashSet;
+import java.util.List;
+import java.util.Map;
+import java.util.Set;
+import java.util.concurrent.atomic.AtomicReferenceArray;
+import org.hullbound.lang.ModelException;
+import org.hullbound.lang.ModelFile;
+
+/**
+ * A model bound to its data: index sets sized, data read and checked, and a graph of data,
+ * param and let nodes reduced to scalar unknowns, each with its compiled full conditional and
+ * the update chosen for it.
+ *
+ * <p>The entry point between a parsed {@code .hbm} file and the Gibbs driver:
+ *
+ * <pre>{@code
+ * BoundModel model = BoundModel.bind(modelFile, List.of(CsvData.read(path)));
+ * double[] state = model.initialState();
+ * for (Unknown unknown : model.unknowns()) {
+ *   ConditionalDensity conditional = model.conditional(unknown.index());
+ *   Update update = model.update(unknown.index());     // conjugate, adaptive rejection, fallback
+ *   double u = conditional.toSamplingScale(state[unknown.index()]);
+ *   double logp = conditional.logDensity(u, state, slope);  // value and d/du in one call
+ * }
+ * }</pre>
+ *
+ * <p>Each conditional sums only its unknown's Markov blanket (its own term and the terms that
+ * read it, found element by element through let chains and nested indexing) and is compiled on
+ * first use, then cached; instances are safe to share between chains.
+ */
+public final class BoundModel {
+  private final String name;
+  private final List<IndexSet> indexSets;
+  private final List<Term> terms;
+  private final List<Unknown> unknowns;
+  private final int[] ownTerm;
+  private final int[][] dependents;
+  private final Update[] updates;
+  private final Formula[] lowerBounds;
+  private final Formula[] upperBounds;
+  private final boolean[] smooth;
+  private final double[] initialState;
+  private final List<DataSummary> data;
+  private final Map<String, Integer> nodeCounts;
+  private final AtomicReferenceArray<ConditionalDensity> conditionals;
+
+  private BoundModel(Binder.Result result) {
+    this.name = result.name();
+    this.indexSets = List.copyOf(result.indexSets());
+    this.terms = List.copyOf(result.terms());
+    this.ownTerm = result.ownTerm();
+    this.data = List.copyOf(result.data());
+    this.nodeCounts = Map.copyOf(result.nodeCounts());
+    int n = result.labels().size();
+    List<Set<Integer>> blanket = new ArrayList<>();
+    for (int s = 0; s < n; s++) {
+      blanket.add(new LinkedHashSet<>());
+    }
+    Set<Integer> read = new LinkedHashSet<>();
+    for (int t = 0; t < terms.size(); t++) {
+      Term term = terms.get(t);
+      read.clear();
+      term.value().collectSlots(read);
+      for (Formula a : term.arguments()) {
+        a.collectSlots(read);
+      }
+      for (int s : read) {
+        if (s != term.owner()) {
+          blanket.get(s).add(t);
+        }
+      }
+    }
+    this.dependents = new int[n][];
+    this.updates = new Update[n];
+    this.lowerBounds = new Formula[n];
+    this.upperBounds = new Formula[n];
+    this.smooth = new boolean[n];
+    List<Unknown> list = new ArrayList<>();
+    for (int s = 0; s < n; s++) {
+      dependents[s] = blanket.get(s).stream().mapToInt(Integer::intValue).toArray();
+      Term own = terms.get(ownTerm[s]);
+      List<Term> children = dependentTerms(s);
+      boolean discrete = own.family().discrete();
+      boolean imputed = result.imputed().get(s);
+      UpdateAnalysis.Choice choice =
+          UpdateAnalysis.choose(s, own, children, discrete, imputed);
+      updates[s] = choice.update();
+      smooth[s] = UpdateAnalysis.smooth(s, own, children) && !discrete;
+      Formula[] support = support(own);
+      lowerBounds[s] = support[0];
+      upperBounds[s] = support[1];
+      list.add(
+          new Unknown(
+              s,
+              result.labels().get(s),
+              result.nodeOfSlot().get(s),
+              choice.scale(),
+              support[0] instanceof Formula.Constant c ? c.value() : Double.NaN,
+              support[1] instanceof Formula.Constant c ? c.value() : Double.NaN,
+              imputed,
+              discrete));
+    }
+    this.unknowns = List.copyOf(list);
+    this.conditionals = new AtomicReferenceArray<>(n);
+    this.initialState = initialState();
+  }
+
+  /**
+   * Binds {@code model} to the data tables read from its data files.
+   *
+   * @throws ModelException for any semantic fault of the model or the data, positioned
+   */
+  public static BoundModel bind(ModelFile model, List<DataTable> data) {
+    if (model == null) {
+      throw new IllegalArgumentException("model must not be null");
+    }
+    if (data == null) {
+      throw new IllegalArgumentException("data must not be null (use an empty list)");
+    }
+    return new BoundModel(Binder.bind(model, data));
+  }
+
+  /** The model's name, from its {@code model} statement or its file name. */
+  public String name() {
+    return name;
+  }
+
+  /**
+   * Every scalar unknown, in state order: the params' elements in statement order, then the
+   * missing observations in statement order.
+   */
+  public List<Unknown> unknowns() {
+    return unknowns;
+  }
+
+  /** The unknown labelled {@code label}, such as {@code effect[3]}. */
+  public Unknown unknown(String label) {
+    for (Unknown u : unknowns) {
+      if (u.label().equals(label)) {
+        return u;
+      }
+    }
+    throw new IllegalArgumentException("label must name an unknown of " + name + ", got " + label);
+  }
+
+  /** The index sets with their bounds, as declared or sized from the data. */
+  public List<IndexSet> indexSets() {
+    return indexSets;
+  }
+
+  /** What was read from each data source. */
+  public List<DataSummary> data() {
+    return data;
+  }
+
+  /** How many data, param and let nodes the model declares. */
+  public Map<String, Integer> nodeCounts() {
+    return nodeCounts;
+  }
+
+  /** How many element-level terms (priors and likelihoods) the joint density has. */
+  public int termCount() {
+    return terms.size();
+  }
+
+  /**
+   * A valid starting state (natural scale): inside every unknown's support, at the location
+   * argument of its prior when that is known, otherwise at 0, 1 or 1/2 for real, positive and
+   * unit-interval unknowns. A fresh copy on every call.
+   */
+  public double[] initialState() {
+    if (initialState != null) {
+      return initialState.clone();
+    }
+    double[] state = new double[unknowns.size()];
+    for (Unknown u : unknowns) {
+      state[u.index()] = startingValue(u, terms.get(ownTerm[u.index()]));
+    }
+    for (Unknown u : unknowns) {
+      if (!(lowerBounds[u.index()] instanceof Formula.Constant)
+          || !(upperBounds[u.index()] instanceof Formula.Constant)) {
+        Frame frame = new Frame(Double.NaN, state);
+        double lo = Evaluator.compile(lowerBounds[u.index()], -1).eval(frame);
+        double hi = Evaluator.compile(upperBounds[u.index()], -1).eval(frame);
+        double v = finiteMiddle(lo, hi, state[u.index()]);
+        state[u.index()] = u.discrete() ? Math.floor(v) : v;
+      }
+    }
+    return state;
+  }
+
+  /** The compiled full conditional of unknown {@code index}, compiled on first use. */
+  public ConditionalDensity conditional(int index) {
+    checkIndex(index);
+    ConditionalDensity c = conditionals.get(index);
+    if (c == null) {
+      List<Term> blanket = new ArrayList<>();
+      blanket.add(terms.get(ownTerm[index]));
+      blanket.addAll(dependentTerms(index));
+      c = new CompiledConditional(
+          unknowns.get(index), blanket, lowerBounds[index], upperBounds[index], smooth[index]);
+      conditionals.compareAndSet(index, null, c);
+      c = conditionals.get(index);
+    }
+    return c;
+  }
+
+  /** The update chosen for unknown {@code index}, with its reason. */
+  public Update update(int index) {
+    checkIndex(index);
+    return updates[index];
+  }
+
+  /** Labels of the terms that depend on unknown {@code index} (its blanket without itself). */
+  public List<String> dependentLabels(int index) {
+    checkIndex(index);
+    List<String> labels = new ArrayList<>();
+    for (int t : dependents[index]) {
+      labels.add(terms.get(t).label());
+    }
+    return labels;
+  }
+
+  /**
+   * The joint log-density of the model at {@code state} (natural scale, every unknown), with
+   * every family's normalising constants and truncation normalisers; no Jacobians.
+   */
+  public double logDensity(double[] state) {
+    if (state == null || state.length != unknowns.size()) {
+      throw new IllegalArgumentException(
+          "state must hold " + unknowns.size() + " values, got "
+              + (state == null ? "null" : state.length));
+    }
+    double total = 0;
+    Frame frame = new Frame(Double.NaN, state);
+    for (Term t : terms) {
+      double y = Evaluator.compile(t.value(), -1).eval(frame);
+      double[] a = new double[t.arguments().size()];
+      for (int k = 0; k < a.length; k++) {
+        a[k] = Evaluator.compile(t.arguments().get(k), -1).eval(frame);
+      }
+      if (t.truncated()) {
+        if (!(y >= t.lower() && y <= t.upper())) {
+          return Double.NEGATIVE_INFINITY;
+        }
+        total -= t.family().logProbabilityBetween(t.lower(), t.upper(), a, new double[a.length]);
+      }
+      total += t.family().logDensity(y, a);
+    }
+    return total;
+  }
+
+  private List<Term> dependentTerms(int index) {
+    List<Term> list = new ArrayList<>();
+    for (int t : dependents[index]) {
+      list.add(terms.get(t));
+    }
+    return list;
+  }
+
+  private void checkIndex(int index) {
+    if (index < 0 || index >= unknowns.size()) {
+      throw new IllegalArgumentException(
+          "index must be in 0 .. " + (unknowns.size() - 1) + ", got " + index);
+    }
+  }
+
+  /** The support of the own term's value on the natural scale, intersected with truncation. */
+  private static Formula[] support(Term own) {
+    Formula lo;
+    Formula hi;
+    switch (own.family().support()) {
+      case POSITIVE:
+        lo = Formula.constant(0);
+        hi = Formula.constant(Double.POSITIVE_INFINITY);
+        break;
+      case UNIT_INTERVAL:
+      case BINARY:
+        lo = Formula.constant(0);
+        hi = Formula.constant(1);
+        break;
+      case BETWEEN_FIRST_TWO_ARGUMENTS:
+        lo = own.arguments().get(0);
+        hi = own.arguments().get(1);
+        break;
+      case COUNT:
+        lo = Formula.constant(0);
+        hi = Formula.constant(Double.POSITIVE_INFINITY);
+        break;
+      case COUNT_UP_TO_FIRST_ARGUMENT:
+        lo = Formula.constant(0);
+        hi = own.arguments().get(0);
+        break;
+      default:
+        lo = Formula.constant(Double.NEGATIVE_INFINITY);
+        hi = Formula.constant(Double.POSITIVE_INFINITY);
+    }
+    if (own.truncated()) {
+      lo = Formulas.apply(Op.MAX, List.of(lo, Formula.constant(own.lower())));
+      hi = Formulas.apply(Op.MIN, List.of(hi, Formula.constant(own.upper())));
+    }
+    return new Formula[] {lo, hi};
+  }
+
+  private double startingValue(Unknown u, Term own) {
+    double lo = u.lower();
+    double hi = u.upper();
+    double guess;
+    switch (own.family().support()) {
+      case POSITIVE:
+        guess = 1;
+        break;
+      case UNIT_INTERVAL:
+        guess = 0.5;
+        break;
+      default:
+        guess = 0;
+    }
+    for (String location : List.of("mean", "location", "rate")) {
+      Formula f = own.argument(location);
+      if (f instanceof Formula.Constant c && Double.isFinite(c.value())
+          && (own.family().support() == org.hullbound.model.family.SupportKind.REAL
+              || u.discrete())) {
+        guess = c.value();
+      }
+    }
+    if (Double.isNaN(lo) || Double.isNaN(hi)) {
+      return u.discrete() ? Math.floor(guess) : guess;
+    }
+    double v = guess >= lo && guess <= hi && !(guess == lo && lo == 0 && !u.discrete())
+        ? guess : finiteMiddle(lo, hi, guess);
+    return u.discrete() ? Math.floor(v) : v;
+  }
+
+  private static double finiteMiddle(double lo, double hi, double guess) {
+    if (Double.isFinite(lo) && Double.isFinite(hi)) {
+      return lo + (hi - lo) / 2;
+    }
+    if (Double.isFinite(lo)) {
+      return guess > lo ? guess : lo + 1;
+    }
+    if (Double.isFinite(hi)) {
+      return guess < hi ? guess : hi - 1;
+    }
+    return guess;
+  }
+}

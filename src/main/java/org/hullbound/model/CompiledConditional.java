@@ -1,0 +1,206 @@
+package org.hullbound.model;
+
+import java.util.List;
+import org.hullbound.model.family.Parametrisation;
+import org.hullbound.model.family.Scale;
+
+/**
+ * A full conditional compiled from its Markov blanket: one {@link Evaluator} tree per argument of
+ * each term, the family's own log-density (with its normalising constants) per term, the
+ * truncation normaliser where the arguments move, and the change of variable to the sampling
+ * scale with its log-Jacobian.
+ *
+ * <p>Change of variable (any textbook on densities of transformed variables): for {@code x =
+ * g(u)} the density of {@code u} is {@code p(g(u)) |g'(u)|}. On the log scale {@code g(u) =
+ * exp(u)}, {@code log g' = u}; on the logit scale {@code g(u) = inv_logit(u)}, {@code log g' =
+ * log x + log(1 - x)} with derivative {@code 1 - 2x}.
+ */
+final class CompiledConditional implements ConditionalDensity {
+  private final Unknown unknown;
+  private final Scale scale;
+  private final TermEvaluator[] terms;
+  private final boolean[] aritiesUsed;
+  private final Evaluator lower;
+  private final Evaluator upper;
+  private final boolean smooth;
+
+  CompiledConditional(
+      Unknown unknown, List<Term> blanket, Formula lower, Formula upper, boolean smooth) {
+    this.unknown = unknown;
+    this.scale = unknown.scale();
+    int slot = unknown.index();
+    this.terms = new TermEvaluator[blanket.size()];
+    int maxArity = 0;
+    for (Term t : blanket) {
+      maxArity = Math.max(maxArity, t.arguments().size());
+    }
+    this.aritiesUsed = new boolean[maxArity + 1];
+    for (int i = 0; i < terms.length; i++) {
+      terms[i] = new TermEvaluator(blanket.get(i), slot);
+      aritiesUsed[blanket.get(i).arguments().size()] = true;
+    }
+    this.lower = Evaluator.compile(lower, -1);
+    this.upper = Evaluator.compile(upper, -1);
+    this.smooth = smooth;
+  }
+
+  @Override
+  public Unknown unknown() {
+    return unknown;
+  }
+
+  @Override
+  public Scale scale() {
+    return scale;
+  }
+
+  @Override
+  public boolean smooth() {
+    return smooth;
+  }
+
+  @Override
+  public int termCount() {
+    return terms.length;
+  }
+
+  @Override
+  public double logDensity(double u, double[] state, double[] slope) {
+    double x = toNatural(u);
+    Frame frame = new Frame(x, state, aritiesUsed);
+    double lo = lower.eval(frame);
+    double hi = upper.eval(frame);
+    if (!(x >= lo && x <= hi)) {
+      if (slope != null) {
+        slope[0] = 0;
+      }
+      return Double.NEGATIVE_INFINITY;
+    }
+    double total = 0;
+    double dx = 0;
+    for (TermEvaluator term : terms) {
+      total += term.eval(frame);
+      dx += frame.slope;
+    }
+    double logJacobian;
+    double dxdu;
+    double dLogJacobian;
+    switch (scale) {
+      case LOG:
+        logJacobian = u;
+        dxdu = x;
+        dLogJacobian = 1;
+        break;
+      case LOGIT:
+        logJacobian = Op.logInverseLogit(u) + Op.logInverseLogit(-u);
+        dxdu = x * (1 - x);
+        dLogJacobian = 1 - 2 * x;
+        break;
+      default:
+        logJacobian = 0;
+        dxdu = 1;
+        dLogJacobian = 0;
+    }
+    if (slope != null) {
+      slope[0] = dx * dxdu + dLogJacobian;
+    }
+    double value = total + logJacobian;
+    return Double.isNaN(value) ? Double.NEGATIVE_INFINITY : value;
+  }
+
+  @Override
+  public double toNatural(double u) {
+    switch (scale) {
+      case LOG:
+        return Math.exp(u);
+      case LOGIT:
+        return Op.inverseLogit(u);
+      default:
+        return u;
+    }
+  }
+
+  @Override
+  public double toSamplingScale(double v) {
+    switch (scale) {
+      case LOG:
+        return Math.log(v);
+      case LOGIT:
+        return Math.log(v) - Math.log1p(-v);
+      default:
+        return v;
+    }
+  }
+
+  @Override
+  public double lowerBound(double[] state) {
+    return toSamplingScale(lower.eval(new Frame(Double.NaN, state)));
+  }
+
+  @Override
+  public double upperBound(double[] state) {
+    return toSamplingScale(upper.eval(new Frame(Double.NaN, state)));
+  }
+
+  /** One term {@code value ~ family(args)} of the blanket, compiled with the own unknown. */
+  private static final class TermEvaluator {
+    private final Parametrisation family;
+    private final Evaluator value;
+    private final Evaluator[] args;
+    private final int[] moving;
+    private final boolean valueMoves;
+    private final boolean normalise;
+    private final double lower;
+    private final double upper;
+    private final int arity;
+
+    TermEvaluator(Term term, int slot) {
+      this.family = term.family();
+      this.value = Evaluator.compile(term.value(), slot);
+      this.arity = term.arguments().size();
+      this.args = new Evaluator[arity];
+      int movingCount = 0;
+      for (int k = 0; k < arity; k++) {
+        args[k] = Evaluator.compile(term.arguments().get(k), slot);
+        movingCount += args[k].fixed() ? 0 : 1;
+      }
+      this.moving = new int[movingCount];
+      for (int k = 0, m = 0; k < arity; k++) {
+        if (!args[k].fixed()) {
+          moving[m++] = k;
+        }
+      }
+      this.valueMoves = !value.fixed();
+      // The truncation normaliser -log(F(hi) - F(lo)) is constant unless an argument moves.
+      this.normalise = term.truncated() && movingCount > 0;
+      this.lower = term.lower();
+      this.upper = term.upper();
+    }
+
+    double eval(Frame frame) {
+      double y = value.eval(frame);
+      double dy = frame.slope;
+      double[] a = frame.args[arity];
+      double[] da = frame.argSlopes[arity];
+      for (int k = 0; k < arity; k++) {
+        a[k] = args[k].eval(frame);
+        da[k] = frame.slope;
+      }
+      double[] g = frame.gradient[arity];
+      double logDensity = family.logDensity(y, a, g);
+      double slope = valueMoves ? g[0] * dy : 0;
+      for (int k : moving) {
+        slope += g[1 + k] * da[k];
+      }
+      if (normalise) {
+        double[] ag = frame.argGradient[arity];
+        logDensity -= family.logProbabilityBetween(lower, upper, a, ag);
+        for (int k : moving) {
+          slope -= ag[k] * da[k];
+        }
+      }
+      frame.slope = slope;
+      return logDensity;
+    }
+  }
+}

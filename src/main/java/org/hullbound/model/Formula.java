@@ -1,0 +1,79 @@
+package org.hullbound.model;
+
+import java.util.List;
+import java.util.Set;
+import org.hullbound.lang.SourcePosition;
+
+/**
+ * An expression of the model resolved to one element: every index evaluated, every {@code let}
+ * inlined, every {@code sum} expanded, every data value a constant and every unknown a slot of
+ * the state vector.
+ *
+ * <p>The form that the Markov-blanket search, the log-concavity and conjugacy analyses and the
+ * compiler to {@link Evaluator}s all work on; it never refers back to the syntax tree.
+ */
+sealed interface Formula {
+
+  /** A known number; {@code origin} is the data cell it came from, or {@code null}. */
+  record Constant(double value, SourcePosition origin) implements Formula {}
+
+  /** The unknown in slot {@code index} of the state vector. */
+  record Slot(int index) implements Formula {}
+
+  /** An operator or function applied to its parts. */
+  record Operation(Op op, List<Formula> parts) implements Formula {
+    public Operation {
+      parts = List.copyOf(parts);
+    }
+  }
+
+  static Constant constant(double value) {
+    return new Constant(value, null);
+  }
+
+  /** Adds every slot this formula reads to {@code into}. */
+  default void collectSlots(Set<Integer> into) {
+    if (this instanceof Slot slot) {
+      into.add(slot.index());
+    } else if (this instanceof Operation operation) {
+      for (Formula part : operation.parts()) {
+        part.collectSlots(into);
+      }
+    }
+  }
+
+  /** True when the formula reads slot {@code index}. */
+  default boolean reads(int index) {
+    if (this instanceof Slot slot) {
+      return slot.index() == index;
+    }
+    if (this instanceof Operation operation) {
+      for (Formula part : operation.parts()) {
+        if (part.reads(index)) {
+          return true;
+        }
+      }
+    }
+    return false;
+  }
+
+  /** True when the formula reads no unknown at all. */
+  default boolean known() {
+    return this instanceof Constant;
+  }
+
+  /** True when a part not differentiable everywhere (abs, min, max) reads slot {@code index}. */
+  default boolean kinkedIn(int index) {
+    if (this instanceof Operation operation) {
+      if (!operation.op().smooth() && reads(index)) {
+        return true;
+      }
+      for (Formula part : operation.parts()) {
+        if (part.kinkedIn(index)) {
+          return true;
+        }
+      }
+    }
+    return false;
+  }
+}

@@ -1,0 +1,44 @@
+package org.hullbound.model;
+
+/**
+ * The scratch space of one conditional evaluation: the unknown's natural value {@code x}, the
+ * state vector, the derivative register that every {@link Evaluator} writes its d/dx into, and
+ * argument buffers for the family calls, one set per arity used.
+ *
+ * <p>Created per call, so compiled conditionals hold no mutable state and can be shared by chains.
+ */
+final class Frame {
+  final double x;
+  final double[] state;
+  /** d/dx of the value the last evaluator returned (forward-mode dual number, tangent part). */
+  double slope;
+
+  /** Indexed by arity: argument values, their slopes, the family's gradient, the normaliser's. */
+  final double[][] args;
+  final double[][] argSlopes;
+  final double[][] gradient;
+  final double[][] argGradient;
+
+  /** A frame without family buffers, for evaluating formulas only. */
+  Frame(double x, double[] state) {
+    this(x, state, new boolean[0]);
+  }
+
+  Frame(double x, double[] state, boolean[] aritiesUsed) {
+    this.x = x;
+    this.state = state;
+    int n = aritiesUsed.length;
+    this.args = new double[n][];
+    this.argSlopes = new double[n][];
+    this.gradient = new double[n][];
+    this.argGradient = new double[n][];
+    for (int a = 0; a < n; a++) {
+      if (aritiesUsed[a]) {
+        args[a] = new double[a];
+        argSlopes[a] = new double[a];
+        gradient[a] = new double[a + 1];
+        argGradient[a] = new double[a];
+      }
+    }
+  }
+}

@@ -1,0 +1,110 @@
+package org.hullbound.model;
+
+import java.util.List;
+import org.hullbound.lang.Declarator;
+import org.hullbound.lang.Distribution;
+import org.hullbound.lang.Expression;
+import org.hullbound.lang.SourcePosition;
+import org.hullbound.lang.Statement;
+import org.hullbound.model.family.Parametrisation;
+
+/**
+ * One declared name of the model while it is being bound: a {@code data}, {@code param} or
+ * {@code let} node, its index sets, and (for data) its values element by element.
+ *
+ * <p>Mutable only inside {@link Binder}; nothing outside the binder sees it.
+ */
+final class Node {
+  enum Kind {
+    DATA,
+    PARAM,
+    LET
+  }
+
+  final Kind kind;
+  final Declarator target;
+  final Statement statement;
+  /** The prior of a param or the likelihood of modelled data; {@code null} otherwise. */
+  final Distribution distribution;
+  /** The value of a let; {@code null} otherwise. */
+  final Expression letValue;
+  /** Inline data values; {@code null} when read from a file. */
+  final List<Statement.InlineValue> inline;
+
+  Parametrisation parametrisation;
+  /** Argument expressions in the parametrisation's order. */
+  Expression[] argumentExpressions;
+  List<IndexSet> indexSets;
+  int size;
+  double[] values;
+  boolean[] present;
+  boolean[] missing;
+  SourcePosition[] cells;
+  int[] slots;
+  String source;
+
+  Node(
+      Kind kind,
+      Declarator target,
+      Statement statement,
+      Distribution distribution,
+      Expression letValue,
+      List<Statement.InlineValue> inline) {
+    this.kind = kind;
+    this.target = target;
+    this.statement = statement;
+    this.distribution = distribution;
+    this.letValue = letValue;
+    this.inline = inline;
+  }
+
+  String name() {
+    return target.name().text();
+  }
+
+  boolean modelled() {
+    return kind == Kind.DATA && distribution != null;
+  }
+
+  /** The element's offset from its index values (row-major). */
+  int offset(int[] index) {
+    int offset = 0;
+    for (int i = 0; i < index.length; i++) {
+      IndexSet set = indexSets.get(i);
+      offset = offset * set.size() + (index[i] - set.lower());
+    }
+    return offset;
+  }
+
+  /** The index values of element {@code offset}. */
+  int[] index(int offset) {
+    int[] index = new int[indexSets.size()];
+    for (int i = index.length - 1; i >= 0; i--) {
+      IndexSet set = indexSets.get(i);
+      index[i] = set.lower() + offset % set.size();
+      offset /= set.size();
+    }
+    return index;
+  }
+
+  /** {@code name[i, j]}, or the bare name for a scalar. */
+  String label(int offset) {
+    if (indexSets.isEmpty()) {
+      return name();
+    }
+    StringBuilder text = new StringBuilder(name()).append('[');
+    int[] index = index(offset);
+    for (int i = 0; i < index.length; i++) {
+      text.append(i == 0 ? "" : ", ").append(index[i]);
+    }
+    return text.append(']').toString();
+  }
+
+  String kindWord() {
+    return kind.name().toLowerCase(java.util.Locale.ROOT);
+  }
+
+  SourcePosition position() {
+    return target.position();
+  }
+}

@@ -1,0 +1,52 @@
+package org.hullbound.model;
+
+import java.util.List;
+import org.hullbound.lang.SourcePosition;
+import org.hullbound.model.family.Parametrisation;
+
+/**
+ * One element-level term of the joint log-density: {@code value ~ family(args)}, optionally
+ * truncated to {@code [lower, upper]}, with value and arguments resolved to {@link Formula}s.
+ *
+ * <p>{@code owner} is the slot whose prior (or, for a missing observation, whose own likelihood)
+ * this term is, or -1 for an observed data value. {@code label} names the element, as in {@code
+ * survived[3]}.
+ */
+record Term(
+    String label,
+    Parametrisation family,
+    Formula value,
+    List<Formula> arguments,
+    boolean truncated,
+    double lower,
+    double upper,
+    int owner,
+    SourcePosition position) {
+  Term {
+    arguments = List.copyOf(arguments);
+  }
+
+  String familyName() {
+    return family.family().name();
+  }
+
+  String argumentName(int k) {
+    return family.argumentNames().get(k);
+  }
+
+  /** The argument called {@code name}, or {@code null}. */
+  Formula argument(String name) {
+    int k = family.argumentNames().indexOf(name);
+    return k < 0 ? null : arguments.get(k);
+  }
+
+  /** The known arguments' values, NaN for those that read an unknown. */
+  double[] knownArguments() {
+    double[] known = new double[arguments.size()];
+    for (int k = 0; k < known.length; k++) {
+      known[k] =
+          arguments.get(k) instanceof Formula.Constant c ? c.value() : Double.NaN;
+    }
+    return known;
+  }
+}

@@ -1,0 +1,42 @@
+package org.hullbound.model;
+
+import org.hullbound.model.family.Scale;
+
+/**
+ * One scalar unknown of a bound model: an element of a {@code param} (such as {@code effect[3]})
+ * or a missing observation of modelled {@code data} (such as {@code y[17]}).
+ *
+ * <p>{@code index} is its slot in the state vector; {@code scale} is the scale it is sampled on;
+ * {@code lower} and {@code upper} bound its support on the natural scale (infinite when open,
+ * NaN when a bound depends on other unknowns, as for {@code uniform(lower = a, upper = b)} with
+ * unknown {@code a}); {@code imputed} marks a missing observation; {@code discrete} one that
+ * takes whole values only (a missing count).
+ */
+public record Unknown(
+    int index,
+    String label,
+    String node,
+    Scale scale,
+    double lower,
+    double upper,
+    boolean imputed,
+    boolean discrete) {
+
+  /** The support on the natural scale, as {@code (lo, hi)} in the model language's notation. */
+  public String support() {
+    if (discrete) {
+      return "{" + bound(lower) + ", ..., " + bound(upper) + "}";
+    }
+    return "(" + bound(lower) + ", " + bound(upper) + ")";
+  }
+
+  private static String bound(double b) {
+    if (Double.isNaN(b)) {
+      return "?";
+    }
+    if (Double.isInfinite(b)) {
+      return b > 0 ? "inf" : "-inf";
+    }
+    return b == Math.rint(b) && Math.abs(b) < 1e15 ? Long.toString((long) b) : Double.toString(b);
+  }
+}

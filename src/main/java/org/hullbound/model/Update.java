@@ -1,0 +1,64 @@
+package org.hullbound.model;
+
+/**
+ * How the Gibbs driver should update one unknown, with the reason, as derived by the analysis of
+ * its full conditional.
+ *
+ * <p>A closed set of kinds: an exact draw from a conjugate posterior, adaptive rejection sampling
+ * (Gilks and Wild 1992) when the conditional is provably log-concave on the unknown's sampling
+ * scale, or a fallback sampler when the rules cannot prove it. {@code hullbound check} prints it.
+ */
+public sealed interface Update {
+
+  /** One line a user can read: why this update was chosen. */
+  String reason();
+
+  /** An exact draw: {@link #posterior(double[])} gives the conditional's family and arguments. */
+  record Conjugate(ConjugateKind kind, String reason, PosteriorRule rule) implements Update {
+    /** The exact full conditional at {@code state} (natural-scale values of all unknowns). */
+    public Posterior posterior(double[] state) {
+      return rule.posterior(state);
+    }
+  }
+
+  /**
+   * Adaptive rejection sampling on the sampling scale; {@code smooth} is false when a term is not
+   * differentiable (laplace, abs, min, max), so the derivative-free hull must be used.
+   */
+  record AdaptiveRejection(String reason, boolean smooth) implements Update {}
+
+  /** Not provably log-concave (or discrete): a fallback sampler; {@code reason} says why. */
+  record Fallback(String reason, boolean smooth) implements Update {}
+
+  /** Computes a conjugate posterior from the current state. */
+  @FunctionalInterface
+  interface PosteriorRule {
+    Posterior posterior(double[] state);
+  }
+
+  /** The conjugate pairs recognised (Gelman et al., Bayesian Data Analysis, 3rd ed., ch. 2-3). */
+  enum ConjugateKind {
+    /** Normal prior on the mean (or an affine coefficient of the mean) of normal children. */
+    NORMAL_MEAN("normal prior on the mean of normal terms"),
+    /** Gamma prior on the rate of Poisson, exponential or gamma children. */
+    GAMMA_RATE("gamma prior on a rate"),
+    /** Gamma prior on the precision of normal children. */
+    GAMMA_PRECISION("gamma prior on the precision of normal terms"),
+    /** Inverse-gamma prior on the variance of normal children. */
+    INV_GAMMA_VARIANCE("inverse-gamma prior on the variance of normal terms"),
+    /** Beta prior on the probability of binomial or Bernoulli children. */
+    BETA_PROBABILITY("beta prior on the probability of binomial or bernoulli terms"),
+    /** A missing observation nothing depends on: drawn from its own family. */
+    PREDICTIVE("missing observation with no dependants, drawn from its own family");
+
+    private final String description;
+
+    ConjugateKind(String description) {
+      this.description = description;
+    }
+
+    public String description() {
+      return description;
+    }
+  }
+}

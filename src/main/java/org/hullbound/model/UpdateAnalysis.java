@@ -1,0 +1,212 @@
+package org.hullbound.model;
+
+import java.util.ArrayList;
+import java.util.LinkedHashSet;
+import java.util.List;
+import java.util.Set;
+import org.hullbound.model.family.Curvature;
+import org.hullbound.model.family.Scale;
+
+/**
+ * Chooses each unknown's sampling scale and update from its Markov blanket: a conjugate pair
+ * when one is recognised, adaptive rejection when rules over families and affine links prove the
+ * conditional log-concave on a scale, a fallback otherwise.
+ *
+ * <p>The rules (each sound on its own; a sum of concave functions is concave):
+ *
+ * <ol>
+ *   <li>The unknown's own term uses its family's curvature in the value on the candidate scale
+ *       (the family includes the log-Jacobian of the log or logit map).
+ *   <li>A dependent term in which the unknown enters one argument only: on the natural scale, if
+ *       the argument is affine in the unknown, the family's curvature in that argument on the
+ *       natural scale decides (concave composed with affine is concave); if the argument is
+ *       {@code exp(affine)} or {@code inv_logit(affine)}, its curvature on the log or logit scale
+ *       decides. On the log scale, an argument {@code c * x^q} with known {@code c > 0} has
+ *       {@code log(arg) = log c + q u}, affine in {@code u}, so the family's curvature in that
+ *       argument on the log scale decides. On the logit scale the argument must be the unknown.
+ *   <li>Anything else (the unknown in two arguments, a non-affine link, a truncated term whose
+ *       normaliser moves) is "not provably log-concave".
+ * </ol>
+ *
+ * <p>Why scale parameters go on the log scale: for {@code sigma ~ half_normal(sd = s)} with
+ * normal children, in {@code u = log sigma} the conditional is {@code u - e^{2u}/(2 s^2) - n u
+ * - S e^{-2u}/2} (S the sum of squared residuals), whose second derivative {@code -2 e^{2u}/s^2
+ * - 2 S e^{-2u}} is negative everywhere: log-concave, while on the natural scale the {@code -n
+ * log sigma} term alone would need checking against the rest.
+ */
+final class UpdateAnalysis {
+
+  /** The chosen scale and update of one unknown. */
+  record Choice(Scale scale, Update update) {}
+
+  private UpdateAnalysis() {}
+
+  /** The scales worth trying for a support, preferred first. */
+  static List<Scale> candidates(Term own, boolean truncated, boolean discrete) {
+    if (discrete || truncated) {
+      return List.of(Scale.NATURAL);
+    }
+    switch (own.family().support()) {
+      case POSITIVE:
+        return List.of(Scale.LOG, Scale.NATURAL);
+      case UNIT_INTERVAL:
+        return List.of(Scale.LOGIT, Scale.NATURAL);
+      default:
+        return List.of(Scale.NATURAL);
+    }
+  }
+
+  static Choice choose(
+      int slot, Term own, List<Term> dependents, boolean discrete, boolean imputed) {
+    List<Scale> scales = candidates(own, own.truncated(), discrete);
+    boolean smooth = smooth(slot, own, dependents);
+    Update.Conjugate conjugate = ConjugatePairs.detect(slot, own, dependents, imputed);
+    Verdict first = null;
+    Scale chosen = null;
+    for (Scale scale : scales) {
+      Verdict verdict = concavity(slot, own, dependents, scale, imputed);
+      if (first == null) {
+        first = verdict;
+      }
+      if (verdict.concave && chosen == null) {
+        chosen = scale;
+        first = verdict;
+      }
+    }
+    Scale scale = chosen != null ? chosen : scales.get(0);
+    if (conjugate != null) {
+      return new Choice(scale, conjugate);
+    }
+    if (discrete) {
+      return new Choice(
+          scale,
+          new Update.Fallback(
+              "a missing count that other terms depend on is discrete; adaptive rejection needs"
+                  + " a continuous unknown",
+              false));
+    }
+    if (chosen != null) {
+      return new Choice(scale, new Update.AdaptiveRejection(first.reason, smooth));
+    }
+    return new Choice(scale, new Update.Fallback(first.reason, smooth));
+  }
+
+  /** True unless a term is not differentiable in the unknown. */
+  static boolean smooth(int slot, Term own, List<Term> dependents) {
+    List<Term> all = new ArrayList<>(dependents);
+    all.add(own);
+    for (Term t : all) {
+      for (Formula a : t.arguments()) {
+        if (a.kinkedIn(slot)) {
+          return false;
+        }
+      }
+      if (t.familyName().equals("laplace")) {
+        Formula location = t.argument("location");
+        if (t.value().reads(slot) || (location != null && location.reads(slot))) {
+          return false;
+        }
+      }
+      if (t.family().support() == org.hullbound.model.family.SupportKind
+              .BETWEEN_FIRST_TWO_ARGUMENTS
+          && (t.arguments().get(0).reads(slot) || t.arguments().get(1).reads(slot))) {
+        return false;
+      }
+    }
+    return true;
+  }
+
+  private record Verdict(boolean concave, String reason) {}
+
+  private static Verdict concavity(
+      int slot, Term own, List<Term> dependents, Scale scale, boolean imputed) {
+    String where = " on the " + scale.name().toLowerCase(java.util.Locale.ROOT) + " scale";
+    Curvature prior = own.family().curvatureInValue(scale, own.knownArguments());
+    String ownWord = imputed ? "likelihood" : "prior";
+    if (!prior.concave()) {
+      return new Verdict(
+          false,
+          "not provably log-concave" + where + ": the " + own.familyName() + " " + ownWord + " is "
+              + "not (" + prior.reason() + ")");
+    }
+    Set<String> pieces = new LinkedHashSet<>();
+    for (Term t : dependents) {
+      List<Integer> moving = new ArrayList<>();
+      for (int k = 0; k < t.arguments().size(); k++) {
+        if (t.arguments().get(k).reads(slot)) {
+          moving.add(k);
+        }
+      }
+      String term = t.familyName() + " term " + t.label();
+      if (moving.isEmpty()) {
+        continue;
+      }
+      if (moving.size() > 1) {
+        List<String> names = new ArrayList<>();
+        for (int k : moving) {
+          names.add(t.argumentName(k));
+        }
+        return new Verdict(
+            false,
+            "not provably log-concave" + where + ": the unknown enters both "
+                + String.join(" and ", names) + " of " + term);
+      }
+      if (t.truncated()) {
+        return new Verdict(
+            false,
+            "not provably log-concave" + where + ": " + term
+                + " is truncated and its normaliser moves with the unknown");
+      }
+      int k = moving.get(0);
+      Formula argument = t.arguments().get(k);
+      String argumentName = t.argumentName(k);
+      Scale argumentScale = null;
+      String link = null;
+      if (scale == Scale.NATURAL) {
+        if (Formulas.affine(argument, slot)) {
+          argumentScale = Scale.NATURAL;
+          link = "affine in the unknown";
+        } else if (Formulas.unwrap(argument, Op.EXP) != null
+            && Formulas.affine(Formulas.unwrap(argument, Op.EXP), slot)) {
+          argumentScale = Scale.LOG;
+          link = "exp of an affine function of the unknown";
+        } else if (Formulas.unwrap(argument, Op.INV_LOGIT) != null
+            && Formulas.affine(Formulas.unwrap(argument, Op.INV_LOGIT), slot)) {
+          argumentScale = Scale.LOGIT;
+          link = "inv_logit of an affine function of the unknown";
+        }
+      } else if (scale == Scale.LOG) {
+        double q = Formulas.power(argument, slot);
+        if (Double.isFinite(q) && q != 0) {
+          argumentScale = Scale.LOG;
+          link = q == 1 ? "a positive multiple of the unknown"
+              : "a positive multiple of a power of the unknown";
+        }
+      } else if (argument instanceof Formula.Slot) {
+        argumentScale = Scale.LOGIT;
+        link = "the unknown itself";
+      }
+      if (argumentScale == null) {
+        return new Verdict(
+            false,
+            "not provably log-concave" + where + ": " + argumentName + " of " + term
+                + " is not an affine (or log-affine) function of the unknown");
+      }
+      Curvature c = t.family().curvatureInArgument(k, argumentScale, t.knownArguments());
+      if (!c.concave()) {
+        return new Verdict(
+            false,
+            "not provably log-concave" + where + ": " + t.familyName() + " is not concave in "
+                + argumentName + " (" + c.reason() + ")");
+      }
+      pieces.add(t.familyName() + " terms concave in " + argumentName + ", " + link);
+    }
+    StringBuilder reason = new StringBuilder("log-concave" + where + ": ");
+    reason.append(own.familyName()).append(' ').append(ownWord).append(" (")
+        .append(prior.reason()).append(')');
+    for (String piece : pieces) {
+      reason.append("; ").append(piece);
+    }
+    return new Verdict(true, reason.toString());
+  }
+}

@@ -1,0 +1,186 @@
+package org.hullbound.model.family;
+
+import java.util.List;
+import org.apache.commons.math3.special.Beta;
+
+/**
+ * The binomial family {@code (trials, p)} and {@code (trials, logit_p)}, and the Bernoulli family
+ * {@code (p)} and {@code (logit_p)} as binomials of one trial.
+ *
+ * <p>Log mass {@code log C(trials, x) + x log p + (trials - x) log(1 - p)}, the binomial
+ * coefficient as {@code -log(trials + 1) - log B(x + 1, trials - x + 1)} (accurate for large
+ * trials); {@code P(X <= n) = I_{1-p}(trials - n, n + 1)} (Abramowitz and Stegun 1964, 26.5.24).
+ * On the logit scale {@code log p} and {@code log(1 - p)} come from {@link LogSpace#logInvLogit},
+ * so {@code |logit_p|} up to 1e3 and beyond neither overflows nor loses the small probability.
+ */
+final class Binomial {
+  private Binomial() {}
+
+  static Family binomial() {
+    return SimpleFamily.of("binomial", f -> List.of(
+        new ByProbability(f, true), new ByLogit(f, true)));
+  }
+
+  static Family bernoulli() {
+    return SimpleFamily.of("bernoulli", f -> List.of(
+        new ByProbability(f, false), new ByLogit(f, false)));
+  }
+
+  /** Shared by the four: the trials (1 for bernoulli), log p and log(1 - p). */
+  private abstract static class BinomialForm extends DiscreteParametrisation {
+    private final boolean withTrials;
+
+    BinomialForm(Family family, boolean withTrials, String name, ArgumentDomain domain) {
+      super(family, withTrials ? SupportKind.COUNT_UP_TO_FIRST_ARGUMENT : SupportKind.BINARY,
+          withTrials ? new Object[] {"trials", ArgumentDomain.WHOLE, name, domain} : new Object[] {name, domain});
+      this.withTrials = withTrials;
+    }
+
+    final double trials(double[] args) {
+      return withTrials ? args[0] : 1.0;
+    }
+
+    /** Index of the probability argument. */
+    final int probabilityIndex() {
+      return withTrials ? 1 : 0;
+    }
+
+    abstract double probability(double[] args);
+
+    abstract double complement(double[] args);
+
+    abstract double logProbability(double[] args);
+
+    abstract double logComplement(double[] args);
+
+    /** d(log mass)/d(probability argument). */
+    abstract double slope(double x, double trials, double[] args);
+
+    @Override
+    final double evaluate(double x, double[] args, double[] gradient) {
+      double trials = trials(args);
+      if (gradient != null) {
+        gradient[0] = 0.0;
+        if (withTrials) {
+          gradient[1] = 0.0;
+        }
+        gradient[1 + probabilityIndex()] = slope(x, trials, args);
+      }
+      double logChoose = withTrials ? -Math.log1p(trials) - Beta.logBeta(x + 1.0, trials - x + 1.0) : 0.0;
+      double successes = x == 0 ? 0.0 : x * logProbability(args);
+      double failures = x == trials ? 0.0 : (trials - x) * logComplement(args);
+      return logChoose + successes + failures;
+    }
+
+    @Override
+    final double logLowerTail(double n, double[] args) {
+      double trials = trials(args);
+      return IncompleteBeta.logRegularized(complement(args), probability(args), trials - n, n + 1.0);
+    }
+
+    @Override
+    final double logUpperTail(double n, double[] args) {
+      double trials = trials(args);
+      return IncompleteBeta.logRegularized(probability(args), complement(args), n + 1.0, trials - n);
+    }
+
+    final Curvature trialsFact() {
+      return Curvature.notEstablished("binomial trials is a whole number: concavity in a continuous argument does not apply");
+    }
+  }
+
+  private static final class ByProbability extends BinomialForm {
+    ByProbability(Family family, boolean withTrials) {
+      super(family, withTrials, "p", ArgumentDomain.PROBABILITY);
+    }
+
+    @Override
+    double probability(double[] args) {
+      return args[probabilityIndex()];
+    }
+
+    @Override
+    double complement(double[] args) {
+      return 1.0 - args[probabilityIndex()];
+    }
+
+    @Override
+    double logProbability(double[] args) {
+      return Math.log(args[probabilityIndex()]);
+    }
+
+    @Override
+    double logComplement(double[] args) {
+      return Math.log1p(-args[probabilityIndex()]);
+    }
+
+    @Override
+    double slope(double x, double trials, double[] args) {
+      double p = args[probabilityIndex()];
+      return (x == 0 ? 0.0 : x / p) - (x == trials ? 0.0 : (trials - x) / (1.0 - p));
+    }
+
+    @Override
+    public Curvature curvatureInArgument(int k, Scale scale, double[] knownArgs) {
+      if (k != probabilityIndex()) {
+        return trialsFact();
+      }
+      String name = family().name();
+      return switch (scale) {
+        // x log p + (n - x) log(1 - p): d2 = -x/p^2 - (n - x)/(1 - p)^2.
+        case NATURAL -> Curvature.concave(name
+            + " log mass is concave in p: x log p + (trials - x) log(1 - p), second derivative -x/p^2 - (trials - x)/(1 - p)^2 <= 0");
+        // p = e^u: x u + (n - x) log(1 - e^u), d2 = -(n - x) e^u/(1 - e^u)^2.
+        case LOG -> Curvature.concave(name
+            + " log mass is concave in u = log(p): x u + (trials - x) log(1 - exp(u)), second derivative -(trials - x) p/(1 - p)^2 <= 0");
+        // p = inv_logit(u): x u - n log(1 + e^u), d2 = -n p (1 - p).
+        case LOGIT -> Curvature.concave(name
+            + " log mass is concave in u = logit(p): x u - trials log(1 + exp(u)), second derivative -trials p(1 - p) < 0");
+      };
+    }
+  }
+
+  private static final class ByLogit extends BinomialForm {
+    ByLogit(Family family, boolean withTrials) {
+      super(family, withTrials, "logit_p", ArgumentDomain.REAL);
+    }
+
+    @Override
+    double probability(double[] args) {
+      return LogSpace.invLogit(args[probabilityIndex()]);
+    }
+
+    @Override
+    double complement(double[] args) {
+      return LogSpace.invLogit(-args[probabilityIndex()]);
+    }
+
+    @Override
+    double logProbability(double[] args) {
+      return LogSpace.logInvLogit(args[probabilityIndex()]);
+    }
+
+    @Override
+    double logComplement(double[] args) {
+      return LogSpace.logInvLogit(-args[probabilityIndex()]);
+    }
+
+    @Override
+    double slope(double x, double trials, double[] args) {
+      return x - trials * probability(args);
+    }
+
+    @Override
+    public Curvature curvatureInArgument(int k, Scale scale, double[] knownArgs) {
+      if (k != probabilityIndex()) {
+        return trialsFact();
+      }
+      return switch (scale) {
+        // x eta - n log(1 + e^eta): d2 = -n p (1 - p).
+        case NATURAL -> Curvature.concave(family().name()
+            + " log mass is concave in logit_p: x logit_p - trials log(1 + exp(logit_p)), second derivative -trials p(1 - p) < 0");
+        default -> Reasons.notAnalysed(this, "logit_p", scale);
+      };
+    }
+  }
+}

@@ -1,0 +1,78 @@
+package org.hullbound.model.family;
+
+import java.util.List;
+import org.apache.commons.math3.special.Beta;
+import org.apache.commons.math3.special.Gamma;
+
+/**
+ * The negative binomial family {@code (mean, size)}: a gamma mixture of Poissons with that mean and
+ * variance {@code mean + mean^2/size}.
+ *
+ * <p>Log mass {@code lgamma(x + size) - lgamma(size) - lgamma(x + 1) + size log(size/(size + mean))
+ * + x log(mean/(size + mean))} (Johnson, Kemp and Kotz, Univariate Discrete Distributions, 3rd ed.,
+ * 2005, 5.1 with {@code P = mean/size}), the gamma ratio as {@code -log x - log B(x, size)};
+ * {@code P(X <= n) = I_q(size, n + 1)} with {@code q = size/(size + mean)}.
+ */
+final class NegativeBinomial {
+  private NegativeBinomial() {}
+
+  static Family family() {
+    return SimpleFamily.of("neg_binomial", f -> List.of(new ByMeanSize(f)));
+  }
+
+  private static final class ByMeanSize extends DiscreteParametrisation {
+    ByMeanSize(Family family) {
+      super(family, SupportKind.COUNT, "mean", ArgumentDomain.POSITIVE, "size", ArgumentDomain.POSITIVE);
+    }
+
+    @Override
+    double evaluate(double x, double[] args, double[] gradient) {
+      double mean = args[0];
+      double size = args[1];
+      if (gradient != null) {
+        gradient[0] = 0.0;
+        gradient[1] = x / mean - (size + x) / (size + mean);
+        gradient[2] = Gamma.digamma(x + size) - Gamma.digamma(size) - Math.log1p(mean / size)
+            + (mean - x) / (size + mean);
+      }
+      double logGammaRatio = x == 0 ? 0.0 : -Math.log(x) - Beta.logBeta(x, size);
+      double failures = x == 0 ? 0.0 : -x * Math.log1p(size / mean);
+      return logGammaRatio - size * Math.log1p(mean / size) + failures;
+    }
+
+    @Override
+    double logLowerTail(double n, double[] args) {
+      double mean = args[0];
+      double size = args[1];
+      return IncompleteBeta.logRegularized(size / (size + mean), mean / (size + mean), size, n + 1.0);
+    }
+
+    @Override
+    double logUpperTail(double n, double[] args) {
+      double mean = args[0];
+      double size = args[1];
+      return IncompleteBeta.logRegularized(mean / (size + mean), size / (size + mean), n + 1.0, size);
+    }
+
+    @Override
+    public Curvature curvatureInArgument(int k, Scale scale, double[] knownArgs) {
+      if (k == 0) {
+        return switch (scale) {
+          // x log m - (r + x) log(r + m): d2 = -x/m^2 + (r + x)/(r + m)^2 = r/(r + m)^2 > 0 at x = 0.
+          case NATURAL -> Curvature.notEstablished(
+              "neg_binomial log mass in mean has second derivative -x/mean^2 + (size + x)/(size + mean)^2, positive at x = 0; concave in log(mean)");
+          // m = e^u: x u - (r + x) log(r + e^u), d2 = -(r + x) r m/(r + m)^2.
+          case LOG -> Curvature.concave(
+              "neg_binomial log mass is concave in u = log(mean): x u - (size + x) log(size + exp(u)), second derivative -(size + x) size mean/(size + mean)^2 < 0");
+          case LOGIT -> Reasons.notAnalysed(this, "mean", scale);
+        };
+      }
+      return switch (scale) {
+        // At x = 0: -r log(1 + m/r), d2 = m^2/(r (r + m)^2) > 0.
+        case NATURAL -> Curvature.notEstablished(
+            "neg_binomial log mass in size is not concave: at x = 0 its second derivative is mean^2/(size (size + mean)^2) > 0");
+        default -> Reasons.notAnalysed(this, "size", scale);
+      };
+    }
+  }
+}

@@ -1,0 +1,96 @@
+package org.hullbound.model.family;
+
+import java.util.List;
+
+/**
+ * One parametrisation of a family (e.g. normal with mean and precision): its log-density with
+ * gradient, argument and value checks, the truncation normaliser and curvature facts.
+ *
+ * <p>This is everything the compiler of full conditionals needs to know about one {@code ~} line;
+ * arguments are passed as a {@code double[]} in the order of {@link #argumentNames()} so that the
+ * compiled code allocates nothing per evaluation.
+ *
+ * <p>Arguments are assumed valid ({@link #checkArguments(double[])} returns {@code null}); with
+ * invalid arguments the results are unspecified (usually NaN). Whole-number arguments (binomial
+ * {@code trials}) and the value of a discrete family get gradient component 0: they are never
+ * differentiated.
+ */
+public interface Parametrisation {
+  /** The family this parametrisation belongs to. */
+  Family family();
+
+  /** The argument names; their order defines the indexes of {@code args[]}. */
+  List<String> argumentNames();
+
+  /** The support of the value. */
+  SupportKind support();
+
+  /** Whether values are whole numbers (a log mass rather than a log density). */
+  default boolean discrete() {
+    return support().discrete();
+  }
+
+  /** {@code family(arg1, arg2, ...)}, for messages. */
+  default String signature() {
+    return family().name() + "(" + String.join(", ", argumentNames()) + ")";
+  }
+
+  /**
+   * The full log density (or log mass) including normalising constants, as commons-math3's {@code
+   * logDensity}/{@code logProbability} would give; {@code -inf} outside the support.
+   */
+  double logDensity(double x, double[] args);
+
+  /**
+   * The same value, and fills {@code gradient[0] = d/dx} (0 for discrete families) and {@code
+   * gradient[1 + k] = d/d args[k]}; {@code gradient.length} must be at least {@code 1 +
+   * args.length}. Outside the support the value is {@code -inf} and the gradient is 0.
+   */
+  double logDensity(double x, double[] args, double[] gradient);
+
+  /**
+   * {@code null} when the arguments are valid, else a message naming the argument, its value and
+   * what is required, e.g. {@code "sd must be > 0, got -1.0"}.
+   */
+  String checkArguments(double[] args);
+
+  /**
+   * {@code null} when {@code x} is a valid value for these (valid) arguments, else a message, e.g.
+   * {@code "a count must be a whole number >= 0, got 2.5"}.
+   */
+  String checkValue(double x, double[] args);
+
+  /**
+   * The log of the probability of {@code [lo, hi]}: {@code log(F(hi) - F(lo))} for continuous
+   * families ({@code lo} may be {@code -inf}, {@code hi} {@code +inf}), {@code log P(lo <= X <= hi)}
+   * for discrete ones; fills {@code gradientOfArgs[k] = d/d args[k]}.
+   *
+   * <p>Computed in log space from whichever tail is small, so that it keeps its relative accuracy
+   * where {@code 1 - F} underflows. Location and scale arguments have closed-form derivatives;
+   * shape-like arguments (gamma and inverse-gamma shape, beta a and b, student df) and the
+   * arguments of discrete families are differentiated numerically by Richardson extrapolation of
+   * central differences with step {@code 1e-3} times the argument (see the family's Javadoc).
+   *
+   * @throws IllegalArgumentException if {@code lo > hi}, or {@code lo == hi} for a continuous family
+   */
+  double logProbabilityBetween(double lo, double hi, double[] args, double[] gradientOfArgs);
+
+  /**
+   * Whether the log-density, as a function of the value on {@code scale}, is concave for every
+   * value of the unknown arguments. On {@link Scale#LOG} and {@link Scale#LOGIT} the Jacobian term
+   * ({@code u}, respectively {@code log(v (1 - v))}) is included, since the value is then the
+   * sampled unknown.
+   *
+   * @param knownArgs the arguments, with {@code NaN} for those that are unknown
+   */
+  Curvature curvatureInValue(Scale scale, double[] knownArgs);
+
+  /**
+   * Whether the log-density, as a function of {@code args[k]} on {@code scale}, is concave for every
+   * fixed value in the support and every value of the other unknown arguments. No Jacobian is
+   * included: the argument is an expression equal to {@code exp(u)} or {@code inv_logit(u)}.
+   *
+   * @param knownArgs the arguments, with {@code NaN} for those that are unknown
+   */
+  Curvature curvatureInArgument(int k, Scale scale, double[] knownArgs);
+}
