@@ -18,7 +18,8 @@ import picocli.CommandLine.Command;
       CommandLine.HelpCommand.class,
       CheckCommand.class,
       FitCommand.class,
-      SummarizeCommand.class
+      SummarizeCommand.class,
+      DrawCommand.class
     })
 public final class Main implements Runnable {
 
