@@ -144,7 +144,7 @@ public final class DrawCommand implements Callable<Integer> {
     try {
       sampler = AdaptiveRejectionSampler.withDerivatives(density, support);
     } catch (HullException failure) {
-      return samplingFailed(stderr, failure, 0, null);
+      return samplingFailed(stderr, failure, 0, out);
     } catch (IllegalArgumentException cannotStart) {
       return fail(stderr, ErrorReporting.USER_ERROR, cannotStart.getMessage(), null);
     }
@@ -234,19 +234,19 @@ public final class DrawCommand implements Callable<Integer> {
       PrintWriter stderr, HullException failure, long made, Path out) {
     String after = made == 0 ? "" : " (after " + made + " draw" + (made == 1 ? "" : "s") + ")";
     String where = Double.isNaN(failure.x()) ? "" : " at x = " + failure.x();
+    String detail = failure.getMessage().replaceFirst("^h is not log-concave: ", "");
     String problem;
     String hint;
     if (failure instanceof NotLogConcaveException) {
-      problem = "the density is not log-concave" + where + after + ": " + failure.getMessage();
+      problem = "the density is not log-concave" + where + after + ": " + detail;
       hint = "adaptive rejection sampling is exact only for log-concave densities; this density"
           + " needs another sampler";
     } else if (failure instanceof NonIntegrableHullException) {
-      problem = "the density cannot be normalised" + where + after + ": " + failure.getMessage();
+      problem = "the density cannot be normalised" + where + after + ": " + detail;
       hint = "exp(EXPR) must have a finite integral; give --lower or --upper where it does not"
           + " fall away";
     } else if (failure instanceof InvalidDensityException) {
-      problem = "the log-density has no usable value" + where + after + ": "
-          + failure.getMessage();
+      problem = "the log-density has no usable value" + where + after + ": " + detail;
       hint = "the expression must be defined on the whole support; check --lower and --upper";
     } else {
       problem = failure.getMessage();

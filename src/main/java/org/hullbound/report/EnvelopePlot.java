@@ -340,10 +340,13 @@ public final class EnvelopePlot {
    */
   record Ticks(List<Double> values, double step) {
 
-    /** Heckbert's loose labelling: a nice range, then a nice rounded step for about wanted ticks. */
+    /**
+     * About {@code wanted} ticks inside [low, high] at a rounded nice step. Heckbert first rounds
+     * the range up to a nice number, which can halve the ticks (10.5 becomes 20); the step alone
+     * is rounded here so that the count stays near the one wanted.
+     */
     static Ticks of(double low, double high, int wanted) {
-      double range = niceNumber(high - low, false);
-      double step = niceNumber(range / Math.max(1, wanted - 1), true);
+      double step = niceNumber((high - low) / Math.max(1, wanted - 1), true);
       List<Double> values = new ArrayList<>();
       double first = Math.ceil(low / step) * step;
       for (int i = 0; i < 100; i++) {
