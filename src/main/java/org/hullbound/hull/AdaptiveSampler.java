@@ -70,7 +70,7 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
       double termScale = Math.abs(p.value[j]) + Math.abs(hullTerm);
       // rejection test: evaluate h(x*) and accept when w <= exp(h(x*) - u_k(x*));
       // updating step: the subclass adds x* to the abscissae
-      double h = evaluateAndRefine(x, upper, upper - gap, termScale);
+      double h = evaluateAndRefine(j, x, upper, upper - gap, termScale);
       if (w < Math.exp(h - upper)) {
         densityAcceptances++;
         return x;
@@ -83,11 +83,13 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
    * Evaluates h at a proposal that failed the squeeze test, checks it against the hull, adds it
    * when there is room, and returns h(x).
    *
+   * @param piece the piece of the hull that x was drawn from
    * @param upper the hull at x before the update
    * @param squeeze the squeeze at x before the update (-inf where there is none)
    * @param termScale magnitude of the terms that made {@code upper}, for the rounding tolerance
    */
-  abstract double evaluateAndRefine(double x, double upper, double squeeze, double termScale);
+  abstract double evaluateAndRefine(
+      int piece, double x, double upper, double squeeze, double termScale);
 
   /** Rebuilds {@link #pieces} from the abscissae. */
   abstract void rebuild();

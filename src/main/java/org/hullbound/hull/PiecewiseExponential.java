@@ -156,7 +156,11 @@ final class PiecewiseExponential {
     return lo;
   }
 
-  /** Inverts the exponential distribution function of piece {@code j} at {@code u} in [0, 1). */
+  /**
+   * Inverts the exponential distribution of piece {@code j} at {@code u} in [0, 1): measured from
+   * the lower end (P(X &lt;= x) = u) on falling or flat pieces, from the upper end (P(X &gt;= x) =
+   * u) on rising ones, so that the logarithm always acts on the side where the mass is.
+   */
   double position(int j, double u) {
     double s = slope[j];
     double q = decay[j];

@@ -79,7 +79,8 @@ final class SecantSampler extends AdaptiveSampler {
   }
 
   @Override
-  double evaluateAndRefine(double x, double upper, double squeeze, double termScale) {
+  double evaluateAndRefine(
+      int piece, double x, double upper, double squeeze, double termScale) {
     double h = evaluate(x, true);
     if (h == Double.NEGATIVE_INFINITY) {
       return h; // outside where f > 0: rejected, and no chord to add
@@ -87,6 +88,7 @@ final class SecantSampler extends AdaptiveSampler {
     checkAgainstEnvelope(x, h, upper, squeeze, termScale);
     int i = insertionIndex(x);
     if (isAbscissa(i, x)) {
+      refineInstead(piece);
       return h;
     }
     // concavity of the new point with its neighbours, checked whether or not it is added
@@ -99,11 +101,68 @@ final class SecantSampler extends AdaptiveSampler {
     if (i + 1 < k) {
       checkTriple(x, h, xs[i], hs[i], xs[i + 1], hs[i + 1]);
     }
-    if (k < maximumHullSize && wellSeparated(i, x)) {
-      insert(i, x, h);
-      rebuild();
+    if (k < maximumHullSize) {
+      if (wellSeparated(i, x)) {
+        insert(i, x, h);
+        rebuild();
+      } else {
+        refineInstead(piece);
+      }
     }
     return h;
+  }
+
+  /**
+   * A rejected proposal that cannot be added (it rounds onto an abscissa or lies too close to one)
+   * would leave the hull as it is, and a steep extended chord can send every later proposal to
+   * the same point. Add the middle of the proposal's piece instead (one step out on an unbounded
+   * piece): any new abscissa keeps the hull an upper bound, and the accepted draws stay exact
+   * because the hull never depends on the proposal being tested.
+   */
+  private void refineInstead(int piece) {
+    if (k >= maximumHullSize) {
+      return;
+    }
+    double lower = pieces.left[piece];
+    double upper = pieces.right[piece];
+    double s = Math.abs(pieces.slope[piece]);
+    double m;
+    if (lower == Double.NEGATIVE_INFINITY) {
+      m = upper - (s > 0 ? 1 / s : upper - xs[0] + 1);
+    } else if (upper == Double.POSITIVE_INFINITY) {
+      m = lower + (s > 0 ? 1 / s : lower - xs[0] + 1);
+    } else {
+      m = 0.5 * (lower + upper);
+    }
+    if (!support.containsInInterior(m)) {
+      return;
+    }
+    int i = insertionIndex(m);
+    if (isAbscissa(i, m) || !wellSeparated(i, m)) {
+      return;
+    }
+    int j = pieces.pieceOf(m);
+    double offset = m - pieces.anchor[j];
+    double hullTerm = pieces.slope[j] * offset;
+    double hullAtM = pieces.value[j] + hullTerm;
+    double gapAtM = pieces.gapValue[j] + pieces.gapSlope[j] * offset;
+    double hm = evaluate(m, true);
+    if (hm == Double.NEGATIVE_INFINITY) {
+      return;
+    }
+    checkAgainstEnvelope(
+        m, hm, hullAtM, hullAtM - gapAtM, Math.abs(pieces.value[j]) + Math.abs(hullTerm));
+    if (i >= 2) {
+      checkTriple(xs[i - 2], hs[i - 2], xs[i - 1], hs[i - 1], m, hm);
+    }
+    if (i >= 1 && i < k) {
+      checkTriple(xs[i - 1], hs[i - 1], m, hm, xs[i], hs[i]);
+    }
+    if (i + 1 < k) {
+      checkTriple(m, hm, xs[i], hs[i], xs[i + 1], hs[i + 1]);
+    }
+    insert(i, m, hm);
+    rebuild();
   }
 
   private boolean wellSeparated(int i, double x) {

@@ -68,7 +68,8 @@ final class TangentSampler extends AdaptiveSampler {
   }
 
   @Override
-  double evaluateAndRefine(double x, double upper, double squeeze, double termScale) {
+  double evaluateAndRefine(
+      int piece, double x, double upper, double squeeze, double termScale) {
     Evaluation e = evaluate(x, true);
     double h = e.value();
     if (h == Double.NEGATIVE_INFINITY) {
