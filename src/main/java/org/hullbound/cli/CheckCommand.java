@@ -35,10 +35,9 @@ import picocli.CommandLine.Parameters;
 @Command(
     name = "check",
     mixinStandardHelpOptions = true,
-    description = {
-      "Parse and bind a model with its data, and print its graph: every unknown with its",
-      "sampling scale, the update it will get and why, and the data that was read."
-    })
+    description =
+        "Parse and bind a model with its data, and print its graph: every unknown with its"
+            + " sampling scale, the update it will get and why, and the data that was read.")
 public final class CheckCommand implements Callable<Integer> {
 
   @Parameters(index = "0", paramLabel = "MODEL", description = "The model file (.hbm).")
@@ -76,23 +75,36 @@ public final class CheckCommand implements Callable<Integer> {
       out.println("  (none)");
     }
     for (DataSummary d : model.data()) {
-      out.printf(
-          "  %s: %d rows over %s; columns %s%s%n",
-          d.source(),
-          d.rows(),
-          d.indexSet(),
-          String.join(", ", d.columns()),
-          d.missingCells() == 0 ? "" : "; " + d.missingCells() + " missing, imputed");
+      String missing = d.missingCells() == 0 ? "" : "; " + d.missingCells() + " missing, imputed";
+      if (d.source().equals("inline")) {
+        out.printf(
+            "  inline %s %s: %d value%s%s%n",
+            String.join(", ", d.columns()),
+            d.indexSet(),
+            d.rows(),
+            d.rows() == 1 ? "" : "s",
+            missing);
+      } else {
+        out.printf(
+            "  %s: %d rows over %s; columns %s%s%n",
+            d.source(),
+            d.rows(),
+            d.indexSet(),
+            String.join(", ", d.columns()),
+            missing);
+      }
     }
     out.println();
     out.println("index sets");
     int width = 0;
+    int rangeWidth = 0;
     for (IndexSet set : model.indexSets()) {
       width = Math.max(width, set.name().length());
+      rangeWidth = Math.max(rangeWidth, set.range().length());
     }
     for (IndexSet set : model.indexSets()) {
       out.printf(
-          "  %-" + width + "s  %s  (%d elements, %s)%n",
+          "  %-" + width + "s  %-" + rangeWidth + "s  (%d elements, %s)%n",
           set.name(),
           set.range(),
           set.size(),

@@ -58,7 +58,7 @@ public final class CsvData {
     try (Reader reader = new StringReader(text);
         CSVParser parser = CSVParser.builder().setReader(reader).setFormat(FORMAT).get()) {
       for (CSVRecord record : parser) {
-        int line = lineOf(lineStarts, record.getCharacterPosition());
+        int line = lineOf(lineStarts, firstNonBlank(text, record.getCharacterPosition()));
         List<String> cells = record.toList();
         if (header == null) {
           header = cells;
@@ -99,6 +99,15 @@ public final class CsvData {
       }
     }
     return starts.stream().mapToInt(Integer::intValue).toArray();
+  }
+
+  /** Skips the blank lines the parser passed over before the record it reports at position. */
+  private static long firstNonBlank(String text, long position) {
+    int at = (int) position;
+    while (at < text.length() && (text.charAt(at) == '\n' || text.charAt(at) == '\r')) {
+      at++;
+    }
+    return at;
   }
 
   private static int lineOf(int[] lineStarts, long position) {

@@ -392,6 +392,7 @@ final class Binder {
         }
         node.present[0] = true;
         node.cells[0] = v.position();
+        summaries.add(new DataSummary("inline", "(scalar)", 1, List.of(node.name()), 0));
       }
     }
   }
@@ -636,7 +637,6 @@ final class Binder {
       if (nodeSets.size() == 1 && !sets.containsKey(nodeSets.get(0).text())) {
         String set = nodeSets.get(0).text();
         sets.put(set, new IndexSet(set, 1, node.inline.size(), "inline data of " + node.name()));
-        summaries.add(new DataSummary("inline", set, node.inline.size(), List.of(node.name()), 0));
       }
     }
   }
@@ -659,6 +659,9 @@ final class Binder {
           Statement.InlineValue v = node.inline.get(e);
           store(node, e, v.missing(), v.value(), v.position(), "NA");
         }
+        summaries.add(
+            new DataSummary(
+                "inline", setList(node.target.indexSets()), node.size, List.of(node.name()), 0));
         continue;
       }
       List<ColumnBinding> bindings = columns.getOrDefault(node, List.of());
@@ -918,7 +921,7 @@ final class Binder {
         throw error(
             blame,
             "index value " + (long) v + " is outside index set '" + expected.name() + "' ("
-                + expected.range() + ")" + " used to index '" + name + "'",
+                + expected.range() + "), which indexes '" + name + "'",
             null);
       }
       index[i] = (int) v;
@@ -1062,7 +1065,7 @@ final class Binder {
       if (!(lower < upper)) {
         throw error(
             node.distribution.truncation().position(),
-            "within " + lower + " .. " + upper + " is empty; the lower bound must be below the"
+            "within " + number(lower) + " .. " + number(upper) + " is empty; the lower bound must be below the"
                 + " upper",
             null);
       }
@@ -1076,7 +1079,7 @@ final class Binder {
       value = new Formula.Constant(y, node.cells[e]);
       String problem = outsideSupport(y, p, known, allKnown);
       if (problem == null && truncated && !(y >= lower && y <= upper)) {
-        problem = "it lies outside within " + lower + " .. " + upper;
+        problem = "it lies outside within " + number(lower) + " .. " + number(upper);
       }
       if (problem != null) {
         SourcePosition at = node.cells[e] != null ? node.cells[e] : node.position();
@@ -1125,6 +1128,9 @@ final class Binder {
   }
 
   static String number(double v) {
+    if (Double.isInfinite(v)) {
+      return v > 0 ? "inf" : "-inf";
+    }
     return v == Math.rint(v) && Math.abs(v) < 1e15 ? Long.toString((long) v) : Double.toString(v);
   }
 

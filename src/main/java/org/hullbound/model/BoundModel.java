@@ -46,6 +46,8 @@ public final class BoundModel {
   private final List<DataSummary> data;
   private final Map<String, Integer> nodeCounts;
   private final AtomicReferenceArray<ConditionalDensity> conditionals;
+  /** Value and argument evaluators of every term, compiled on the first joint evaluation. */
+  private volatile Evaluator[][] joint;
 
   private BoundModel(Binder.Result result) {
     this.name = result.name();
@@ -226,7 +228,8 @@ public final class BoundModel {
 
   /**
    * The joint log-density of the model at {@code state} (natural scale, every unknown), with
-   * every family's normalising constants and truncation normalisers; no Jacobians.
+   * every family's normalising constants and truncation normalisers; no Jacobians. Compiled on
+   * first use; it sums every term, so the Gibbs driver should use {@link #conditional} instead.
    */
   public double logDensity(double[] state) {
     if (state == null || state.length != unknowns.size()) {
@@ -234,13 +237,27 @@ public final class BoundModel {
           "state must hold " + unknowns.size() + " values, got "
               + (state == null ? "null" : state.length));
     }
+    Evaluator[][] compiled = joint;
+    if (compiled == null) {
+      compiled = new Evaluator[terms.size()][];
+      for (int i = 0; i < compiled.length; i++) {
+        Term t = terms.get(i);
+        compiled[i] = new Evaluator[1 + t.arguments().size()];
+        compiled[i][0] = Evaluator.compile(t.value(), -1);
+        for (int k = 0; k < t.arguments().size(); k++) {
+          compiled[i][1 + k] = Evaluator.compile(t.arguments().get(k), -1);
+        }
+      }
+      joint = compiled;
+    }
     double total = 0;
     Frame frame = new Frame(Double.NaN, state);
-    for (Term t : terms) {
-      double y = Evaluator.compile(t.value(), -1).eval(frame);
+    for (int i = 0; i < compiled.length; i++) {
+      Term t = terms.get(i);
+      double y = compiled[i][0].eval(frame);
       double[] a = new double[t.arguments().size()];
       for (int k = 0; k < a.length; k++) {
-        a[k] = Evaluator.compile(t.arguments().get(k), -1).eval(frame);
+        a[k] = compiled[i][1 + k].eval(frame);
       }
       if (t.truncated()) {
         if (!(y >= t.lower() && y <= t.upper())) {

@@ -1,12 +1,13 @@
 package org.hullbound.model.family;
 
 import java.util.List;
+import org.apache.commons.math3.special.Beta;
 import org.apache.commons.math3.special.Gamma;
 
 /**
  * Student's t family {@code (df, location, scale)}.
  *
- * <p>Log-density {@code lgamma((df+1)/2) - lgamma(df/2) - log(df pi)/2 - log(scale) - (df+1)/2
+ * <p>Log-density {@code -log B(df/2, 1/2) - log(df)/2 - log(scale) - (df+1)/2
  * log(1 + z^2/df)}, {@code z = (x - location)/scale}; tail {@code P(T > t) = I_{df/(df+t^2)}(df/2,
  * 1/2) / 2} (Abramowitz and Stegun 1964, 26.7.1 with 26.5.27), in log space by {@link
  * IncompleteBeta}. The derivative of the truncation normaliser in {@code df} has no closed form and
@@ -14,7 +15,6 @@ import org.apache.commons.math3.special.Gamma;
  */
 final class StudentT {
   private static final double LOG_HALF = Math.log(0.5);
-  private static final double LOG_PI = Math.log(Math.PI);
 
   private StudentT() {}
 
@@ -53,8 +53,9 @@ final class StudentT {
         gradient[2] = -dz / scale;
         gradient[3] = (-1.0 + (df + 1.0) * z2 / (df + z2)) / scale;
       }
-      return Gamma.logGamma(0.5 * (df + 1.0)) - Gamma.logGamma(0.5 * df) - 0.5 * (Math.log(df) + LOG_PI)
-          - Math.log(scale) - 0.5 * (df + 1.0) * log1pQ;
+      // lgamma((df+1)/2) - lgamma(df/2) - log(pi)/2 = -log B(df/2, 1/2): commons-math3's logBeta
+      // keeps this difference accurate for large df, where the two lgamma terms would cancel.
+      return -Beta.logBeta(0.5 * df, 0.5) - 0.5 * Math.log(df) - Math.log(scale) - 0.5 * (df + 1.0) * log1pQ;
     }
 
     @Override

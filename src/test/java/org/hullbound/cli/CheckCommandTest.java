@@ -1,0 +1,124 @@
+package org.hullbound.cli;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertFalse;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.io.IOException;
+import java.io.PrintWriter;
+import java.io.StringWriter;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import picocli.CommandLine;
+
+/** {@code hullbound check}: its output for the bundled demo models and its exit codes. */
+class CheckCommandTest {
+
+  private record Run(int status, String out, String err) {}
+
+  private static Run run(String... args) {
+    StringWriter out = new StringWriter();
+    StringWriter err = new StringWriter();
+    CommandLine command = Main.commandLine();
+    command.setOut(new PrintWriter(out));
+    command.setErr(new PrintWriter(err));
+    int status = command.execute(args);
+    return new Run(status, out.toString(), err.toString());
+  }
+
+  @Test
+  void theSeedlingsDemoShowsItsDataGraphUnknownsUpdatesAndReasons() {
+    Run run = run("check", "models/seedlings.hbm", "--data", "models/seedlings.csv");
+    assertEquals(0, run.status(), run.err());
+    String out = run.out();
+    assertTrue(out.contains("model seedlings"), out);
+    assertTrue(out.contains("models/seedlings.csv: 40 rows over tray; columns planted, bench_of,"
+        + " survived"), out);
+    assertTrue(out.contains("bench  1 .. 8"), out);
+    assertTrue(out.contains("graph: 3 data, 3 param, 0 let; 10 scalar unknowns"), out);
+    assertTrue(out.matches("(?s).*centre +natural +exact normal_mean.*"), out);
+    assertTrue(out.matches("(?s).*spread +log +adaptive rejection.*"), out);
+    assertTrue(out.matches("(?s).*effect\\[1\\] \\.\\. effect\\[8\\] +natural +adaptive"
+        + " rejection.*8 unknowns.*"), out);
+    assertTrue(out.contains("log-concave on the log scale: half_normal prior"), out);
+    assertTrue(out.contains("binomial terms concave in logit_p, affine in the unknown"), out);
+    assertEquals("", run.err());
+  }
+
+  @Test
+  void theFallbackDemoSaysWhyItsConditionalsAreNotProvablyLogConcave() {
+    Run run = run("check", "models/sensors.hbm", "--data", "models/sensors.csv");
+    assertEquals(0, run.status(), run.err());
+    assertTrue(run.out().matches("(?s).*level +natural +fallback.*"), run.out());
+    assertTrue(run.out().contains("student_t is not concave in location"), run.out());
+  }
+
+  @Test
+  void theConjugateDemoGetsExactDrawsAndImputesItsMissingWeights() {
+    Run run = run("check", "models/fill_weights.hbm", "--data", "models/bottles.csv", "--data",
+        "models/shifts.csv");
+    assertEquals(0, run.status(), run.err());
+    String out = run.out();
+    assertTrue(out.matches("(?s).*tau +log +exact gamma_precision.*"), out);
+    assertTrue(out.matches("(?s).*reject_rate +log +exact gamma_rate.*"), out);
+    assertTrue(out.matches("(?s).*weight\\[17\\], weight\\[44\\] +natural +exact predictive.*"),
+        out);
+    assertTrue(out.contains("2 missing, imputed"), out);
+  }
+
+  @Test
+  void theLogisticDemoHasThirtySixGroupsAndTwelveHundredObservations() {
+    Run run = run("check", "models/clinics.hbm", "--data", "models/clinics.csv");
+    assertEquals(0, run.status(), run.err());
+    assertTrue(run.out().contains("models/clinics.csv: 1200 rows over patient"), run.out());
+    assertTrue(run.out().contains("effect[1] .. effect[36]"), run.out());
+  }
+
+  @Test
+  void aModelErrorIsRenderedOnStderrWithStatusTwoAndNoStackTrace(@TempDir Path dir)
+      throws IOException {
+    Path model = dir.resolve("bad.hbm");
+    Files.writeString(model, "param mu ~ normal(mean = 0, sdev = 1)\n");
+    Run run = run("check", model.toString());
+    assertEquals(2, run.status());
+    assertEquals("", run.out());
+    assertTrue(run.err().startsWith(model + ":1:29: normal has no argument 'sdev'"), run.err());
+    assertTrue(run.err().contains("  | param mu ~ normal(mean = 0, sdev = 1)"), run.err());
+    assertTrue(run.err().contains("did you mean 'sd'?"), run.err());
+    assertFalse(run.err().contains("at org."), run.err());
+  }
+
+  @Test
+  void aDataErrorNamesTheFileRowAndColumn(@TempDir Path dir) throws IOException {
+    Path data = dir.resolve("trays.csv");
+    Files.writeString(data, "planted,bench_of,survived\n20,1,15\n22,9,11\n");
+    Run run = run("check", "models/seedlings.hbm", "--data", data.toString());
+    assertEquals(2, run.status());
+    assertTrue(run.err().startsWith(data + ":3:2: index value 9 is outside index set 'bench'"),
+        run.err());
+  }
+
+  @Test
+  void aMissingFileIsAUserErrorWithoutTrace() {
+    Run run = run("check", "no/such/model.hbm");
+    assertEquals(2, run.status());
+    assertEquals("hullbound: cannot read 'no/such/model.hbm': no such file\n", run.err());
+  }
+
+  @Test
+  void debugAddsTheStackTrace() {
+    Run run = run("check", "--debug", "no/such/model.hbm");
+    assertEquals(2, run.status());
+    assertTrue(run.err().contains("NoSuchFileException"), run.err());
+    assertTrue(run.err().contains("at org.hullbound.cli.CheckCommand"), run.err());
+  }
+
+  @Test
+  void aMissingModelArgumentIsAUsageError() {
+    Run run = run("check");
+    assertEquals(2, run.status());
+    assertTrue(run.err().contains("MODEL"), run.err());
+  }
+}
