@@ -145,34 +145,40 @@ public final class FitCommand implements Callable<Integer> {
         ProgressDisplay.of(stderr, System.console() != null, settings.chains());
     ProgressListener listener = quiet ? ProgressListener.none() : display;
     DrawStore store = DrawStore.create(settings.chains(), settings.draws(), sampler.labels().size());
-    RunOutcome outcome;
-    try (DrawsWriter writer = DrawsWriter.open(folder, sampler.labels())) {
-      DrawSink both =
-          (chain, draw, values) -> {
-            writer.accept(chain, draw, values);
-            store.accept(chain, draw, values);
-          };
-      if (!quiet) {
-        stderr.printf(
-            "hullbound fit: %s, %d unknowns, %d chains x (%d burn-in + %d draws%s), seed %d%n",
-            model.name(), sampler.labels().size(), settings.chains(), settings.burnIn(),
-            settings.draws(), settings.thin() > 1 ? " thinned by " + settings.thin() : "", runSeed);
-        stderr.flush();
+    try {
+      RunOutcome outcome;
+      try (DrawsWriter writer = DrawsWriter.open(folder, sampler.labels())) {
+        DrawSink both =
+            (chain, draw, values) -> {
+              writer.accept(chain, draw, values);
+              store.accept(chain, draw, values);
+            };
+        if (!quiet) {
+          stderr.printf(
+              "hullbound fit: %s, %d unknowns, %d chains x (%d burn-in + %d draws%s), seed %d%n",
+              model.name(), sampler.labels().size(), settings.chains(), settings.burnIn(),
+              settings.draws(), settings.thin() > 1 ? " thinned by " + settings.thin() : "",
+              runSeed);
+          stderr.flush();
+        }
+        try {
+          outcome =
+              ChainRunner.of(settings, listener, stop)
+                  .run(sampler.sampler().withAdaptation(settings.burnIn()), both);
+        } catch (ChainFailedException failed) {
+          display.finish();
+          stderr.println("hullbound fit: sampling failed: " + failed.getMessage());
+          stderr.println("  the draws made before the failure are in " + writer.file());
+          stderr.flush();
+          return ErrorReporting.FAILURE;
+        } finally {
+          display.finish();
+        }
       }
-      try {
-        outcome =
-            ChainRunner.of(settings, listener, stop)
-                .run(sampler.sampler().withAdaptation(settings.burnIn()), both);
-      } catch (ChainFailedException failed) {
-        display.finish();
-        stderr.println("hullbound fit: sampling failed: " + failed.getMessage());
-        stderr.println("  the draws made before the failure are in " + writer.file());
-        stderr.flush();
-        return ErrorReporting.FAILURE;
-      } finally {
-        display.finish();
-      }
+      report(model, sampler, settings, outcome, store, folder, stdout, stderr);
+      return 0;
     } finally {
+      // Only now may an interrupted JVM exit: the files are written.
       finished.countDown();
       try {
         Runtime.getRuntime().removeShutdownHook(interruptHook);
@@ -180,8 +186,6 @@ public final class FitCommand implements Callable<Integer> {
         // The JVM is already exiting (Ctrl-C): the hook is running and waits for us.
       }
     }
-    report(model, sampler, settings, outcome, store, folder, stdout, stderr);
-    return 0;
   }
 
   private String checkOptions() {

@@ -23,10 +23,18 @@ import org.hullbound.hull.Support;
  * reported.
  */
 final class AdaptiveRejectionUpdater implements Updater {
-  /** Starting tangents this many conditional standard deviations from the mode. */
+  /**
+   * Starting tangents this many conditional standard deviations from the predicted mode, widened
+   * to sqrt(1 + e^2) where e is the typical miss of the prediction in standard deviations (an
+   * offset of 1 needs the fewest evaluations when the mode is known: about 2.8 per draw for a
+   * normal; measured with the hull package).
+   */
   static final double START_OFFSET = 1.0;
 
   private static final int HULL_CAP = 32;
+
+  /** Weight kept per sweep by the mode predictor's running regression. */
+  private static final double FADE = 0.98;
 
   private final int index;
   private final ScalarConditional conditional;
@@ -35,6 +43,12 @@ final class AdaptiveRejectionUpdater implements Updater {
   private final Recorder recorder = new Recorder();
   private double centre = Double.NaN;
   private double spread = 1.0;
+  private double squaredMiss;
+  private double weight;
+  private double sumX;
+  private double sumY;
+  private double sumXX;
+  private double sumXY;
   private long draws;
   private long evaluations;
   private long sweeps;
@@ -62,7 +76,7 @@ final class AdaptiveRejectionUpdater implements Updater {
     double lower = conditional.lowerBound(state);
     double upper = conditional.upperBound(state);
     double current = conditional.toSamplingScale(state[index]);
-    double guess = Double.isFinite(centre) ? centre : current;
+    double guess = predictedMode(current);
     if (!Double.isFinite(guess)) {
       guess = 0;
     }
@@ -101,7 +115,52 @@ final class AdaptiveRejectionUpdater implements Updater {
     evaluations += recorder.count;
     draws++;
     state[index] = conditional.toNatural(u);
+    double predictionSpread = spread;
     learn(u);
+    if (Double.isFinite(centre)) {
+      double miss = (centre - guess) / predictionSpread;
+      if (Double.isFinite(miss)) {
+        squaredMiss = FADE * squaredMiss + (1 - FADE) * Math.min(miss * miss, 9.0);
+      }
+    }
+    if (Double.isFinite(centre) && Double.isFinite(current)) {
+      track(current, centre);
+    }
+  }
+
+  /**
+   * Where this sweep's conditional probably peaks, from the value the unknown has now: a
+   * regression of past modes on the values before their draws, with weights fading by 2% a sweep.
+   * In a Gibbs sweep the other unknowns were just drawn given this value, so the new conditional
+   * moves with it: for two correlated normals the mode is exactly linear in it (slope rho^2);
+   * for a nearly independent unknown the slope is near 0 and the prediction is the last mode.
+   */
+  private double predictedMode(double current) {
+    if (!Double.isFinite(centre)) {
+      return Double.isFinite(current) ? current : 0;
+    }
+    if (weight < 5 || !Double.isFinite(current)) {
+      return centre;
+    }
+    double meanX = sumX / weight;
+    double meanY = sumY / weight;
+    double varianceX = sumXX / weight - meanX * meanX;
+    double covariance = sumXY / weight - meanX * meanY;
+    if (!(varianceX > 1e-12 * Math.max(1.0, meanX * meanX))) {
+      return centre;
+    }
+    double slope = Math.min(Math.max(covariance / varianceX, 0.0), 1.0);
+    double predicted = meanY + slope * (current - meanX);
+    // A prediction far from the last mode is not trusted: keep within three spreads of it.
+    return Math.min(Math.max(predicted, centre - 3 * spread), centre + 3 * spread);
+  }
+
+  private void track(double before, double mode) {
+    weight = FADE * weight + 1;
+    sumX = FADE * sumX + before;
+    sumY = FADE * sumY + mode;
+    sumXX = FADE * sumXX + before * before;
+    sumXY = FADE * sumXY + before * mode;
   }
 
   /**
@@ -142,7 +201,7 @@ final class AdaptiveRejectionUpdater implements Updater {
 
   /** Two points (three without derivatives) around the guess, strictly inside the support. */
   private double[] startingAbscissae(double guess, double width, double lower, double upper) {
-    double step = START_OFFSET * width;
+    double step = START_OFFSET * Math.min(Math.sqrt(1 + squaredMiss), 2.0) * width;
     double[] points =
         smooth
             ? new double[] {guess - step, guess + step}

@@ -5,31 +5,45 @@ import java.util.Arrays;
 /**
  * Keeps every kept draw in memory, per quantity and chain, for the diagnostics at the end of a run.
  *
- * <p>Layout {@code [quantity][chain][draw]} is the one the diagnostics read; chains write disjoint
- * cells, so concurrent {@link #accept} calls from different chains need no lock.
+ * <p>Layout {@code [quantity][chain][draw]} is the one the diagnostics read. Storage grows as
+ * draws arrive (so that a long run stopped early costs only what it made); each chain writes only
+ * its own arrays, so concurrent {@link #accept} calls from different chains need no lock.
  */
 public final class DrawStore implements DrawSink {
+  private static final int FIRST_CAPACITY = 256;
+
   private final double[][][] values;
   private final int[] kept;
 
-  private DrawStore(int chains, int draws, int width) {
-    this.values = new double[width][chains][draws];
+  private DrawStore(int chains, int width) {
+    this.values = new double[width][chains][FIRST_CAPACITY];
     this.kept = new int[chains];
   }
 
-  /** Room for {@code draws} draws of {@code width} quantities in each of {@code chains} chains. */
-  public static DrawStore create(int chains, int draws, int width) {
-    if (chains < 1 || draws < 1 || width < 0) {
+  /**
+   * Room for draws of {@code width} quantities in each of {@code chains} chains.
+   *
+   * @param expectedDraws a hint only: draws per chain expected (storage grows beyond it)
+   */
+  public static DrawStore create(int chains, int expectedDraws, int width) {
+    if (chains < 1 || expectedDraws < 1 || width < 0) {
       throw new IllegalArgumentException(
-          "need chains >= 1, draws >= 1, width >= 0, got " + chains + ", " + draws + ", " + width);
+          "need chains >= 1, expectedDraws >= 1, width >= 0, got " + chains + ", "
+              + expectedDraws + ", " + width);
     }
-    return new DrawStore(chains, draws, width);
+    return new DrawStore(chains, width);
   }
 
   @Override
   public void accept(int chain, int draw, double[] row) {
+    int slot = draw - 1;
     for (int quantity = 0; quantity < values.length; quantity++) {
-      values[quantity][chain][draw - 1] = row[quantity];
+      double[] series = values[quantity][chain];
+      if (slot >= series.length) {
+        series = Arrays.copyOf(series, Math.max(2 * series.length, slot + 1));
+        values[quantity][chain] = series;
+      }
+      series[slot] = row[quantity];
     }
     synchronized (kept) {
       kept[chain] = Math.max(kept[chain], draw);
