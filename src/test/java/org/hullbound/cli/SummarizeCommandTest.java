@@ -202,6 +202,29 @@ class SummarizeCommandTest {
   }
 
   @Test
+  void summarisingTheDrawsOfFitGivesFitsOwnSummary() throws IOException {
+    Path out = folder.resolve("seedlings");
+    CliRun fit = CliRun.of("fit", "models/seedlings.hbm", "--data", "models/seedlings.csv",
+        "--chains", "2", "--burn-in", "100", "--draws", "150", "--seed", "7", "--out",
+        out.toString(), "--quiet");
+    assertEquals(0, fit.exit(), fit.toString());
+    Path summary = folder.resolve("again.csv");
+    CliRun run = CliRun.of("summarize", out.resolve("draws.csv").toString(), "--csv",
+        summary.toString());
+    assertEquals(0, run.exit(), run.toString());
+    List<String> fitRows = Files.readAllLines(out.resolve("summary.csv"));
+    List<String> ourRows = Files.readAllLines(summary);
+    assertEquals(fitRows.size(), ourRows.size());
+    for (int r = 0; r < fitRows.size(); r++) {
+      // Every column up to "draws per chain" agrees to the last digit; the update columns are
+      // known to fit only.
+      List<String> fitCells = List.of(fitRows.get(r).split(",")).subList(0, 18);
+      List<String> ourCells = List.of(ourRows.get(r).split(",")).subList(0, 18);
+      assertEquals(fitCells, ourCells, "row " + r);
+    }
+  }
+
+  @Test
   void aMissingFileExitsTwoNamingIt() {
     Path missing = folder.resolve("missing.csv");
     CliRun run = CliRun.of("summarize", missing.toString());
