@@ -18,6 +18,7 @@ import net.jqwik.api.Provide;
 import net.jqwik.api.lifecycle.AfterContainer;
 import net.jqwik.api.lifecycle.BeforeContainer;
 import net.jqwik.api.statistics.Statistics;
+import net.jqwik.api.statistics.StatisticsReport;
 
 /**
  * Fuzzing of {@code hullbound summarize}: whatever the draws file holds (ragged rows, unicode,
@@ -64,6 +65,7 @@ class SummarizeProperties {
   }
 
   @Property(tries = 400, seed = "20261201")
+  @StatisticsReport(StatisticsReport.StatisticsReportMode.OFF)
   void structuredDrawsFilesWithFaultsEndInAReportOrAMessage(
       @ForAll("drawsFiles") String text) throws IOException {
     Statistics.label("exit status").collect(summarizeEndsCleanly(text.getBytes(StandardCharsets.UTF_8)));
