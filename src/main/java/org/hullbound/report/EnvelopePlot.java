@@ -1,5 +1,7 @@
 package org.hullbound.report;
 
+import java.math.BigDecimal;
+import java.math.RoundingMode;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
@@ -167,10 +169,20 @@ public final class EnvelopePlot {
           .append("\" text-anchor=\"end\">").append(yTicks.label(t)).append("</text>\n");
     }
     svg.append("<text x=\"").append(n((LEFT + RIGHT) / 2)).append("\" y=\"").append(n(BOTTOM + 40))
-        .append("\" text-anchor=\"middle\">x</text>\n");
+        .append("\" text-anchor=\"middle\">x").append(offsetSuffix(xTicks)).append("</text>\n");
     svg.append("<text transform=\"translate(18,").append(n((TOP + BOTTOM) / 2))
-        .append(") rotate(-90)\" text-anchor=\"middle\">log-density (up to a constant)</text>\n");
+        .append(") rotate(-90)\" text-anchor=\"middle\">log-density").append(offsetSuffix(yTicks))
+        .append(" (up to a constant)</text>\n");
     svg.append("</g>\n");
+  }
+
+  /** " − 1000000" or " + 1000000" when the labels are relative to an offset. */
+  private static String offsetSuffix(Ticks ticks) {
+    String text = ticks.offsetText();
+    if (text.isEmpty()) {
+      return "";
+    }
+    return text.startsWith("-") ? " + " + text.substring(1) : " \u2212 " + text;
   }
 
   private static void legend(StringBuilder svg, int shownDraws, int abscissae) {
@@ -338,12 +350,14 @@ public final class EnvelopePlot {
    * Axis ticks at 1, 2 or 5 times a power of ten (Heckbert 1990), with labels that show just the
    * digits the step needs.
    */
-  record Ticks(List<Double> values, double step) {
+  record Ticks(List<Double> values, double step, BigDecimal offset) {
 
     /**
      * About {@code wanted} ticks inside [low, high] at a rounded nice step. Heckbert first rounds
      * the range up to a nice number, which can halve the ticks (10.5 becomes 20); the step alone
-     * is rounded here so that the count stays near the one wanted.
+     * is rounded here so that the count stays near the one wanted. When the ticks would need more
+     * than five significant digits (a narrow range far from zero), they are labelled relative to
+     * an offset, the first tick.
      */
     static Ticks of(double low, double high, int wanted) {
       double step = niceNumber((high - low) / Math.max(1, wanted - 1), true);
@@ -356,7 +370,38 @@ public final class EnvelopePlot {
         }
         values.add(Math.abs(t) < 1e-9 * step ? 0.0 : t);
       }
-      return new Ticks(List.copyOf(values), step);
+      BigDecimal offset = BigDecimal.ZERO;
+      double largest = Math.max(Math.abs(low), Math.abs(high));
+      if (largest / step >= 1e5 && !values.isEmpty()) {
+        offset = multiple(values.get(0), step);
+      }
+      return new Ticks(List.copyOf(values), step, offset);
+    }
+
+    /** The multiple of {@code step} nearest {@code t}, exactly in decimal. */
+    private static BigDecimal multiple(double t, double step) {
+      return new BigDecimal(Double.toString(step))
+          .multiply(BigDecimal.valueOf(Math.round(t / step)))
+          .stripTrailingZeros();
+    }
+
+    /** The offset subtracted from every label, as text such as {@code 1000000}; empty if none. */
+    String offsetText() {
+      return offset.signum() == 0 ? "" : offset.toPlainString();
+    }
+
+    /** The label of tick {@code t}: the nearest multiple of the step, less the offset. */
+    String label(double t) {
+      BigDecimal shown = multiple(t - offset.doubleValue(), step);
+      double magnitude = Math.abs(shown.doubleValue());
+      if (magnitude == 0) {
+        return "0";
+      }
+      if (magnitude >= 1e6 || step < 1e-4) {
+        return String.format(Locale.ROOT, "%.3g", shown.doubleValue());
+      }
+      int decimals = (int) Math.max(0, -Math.floor(Math.log10(step) + 1e-9));
+      return shown.setScale(decimals, RoundingMode.HALF_UP).toPlainString();
     }
 
     /**
@@ -376,18 +421,6 @@ public final class EnvelopePlot {
         nice = fraction <= 1 ? 1 : fraction <= 2 ? 2 : fraction <= 5 ? 5 : 10;
       }
       return nice * power;
-    }
-
-    String label(double t) {
-      double largest =
-          values.isEmpty()
-              ? Math.abs(t)
-              : Math.max(Math.abs(values.get(0)), Math.abs(values.get(values.size() - 1)));
-      if (largest >= 1e6 || step < 1e-4) {
-        return String.format(Locale.ROOT, "%.3g", t);
-      }
-      int decimals = (int) Math.max(0, -Math.floor(Math.log10(step) + 1e-9));
-      return String.format(Locale.ROOT, "%." + decimals + "f", t);
     }
   }
 }

@@ -30,6 +30,18 @@ class EnvelopePlotTest {
   }
 
   @Test
+  void aNarrowRangeFarFromZeroIsLabelledRelativeToAnOffset() {
+    EnvelopePlot.Ticks ticks = EnvelopePlot.Ticks.of(1e6 - 3e-6, 1e6 + 3e-6, 7);
+    assertEquals("999999.999997", ticks.offsetText());
+    assertEquals("0", ticks.label(ticks.values().get(0)));
+    assertEquals("1.00e-06", ticks.label(ticks.values().get(1)));
+    String svg = EnvelopePlot.svg("t", 1e6 - 3e-6, 1e6 + 3e-6, EMPTY, EMPTY, EMPTY, EMPTY,
+        new double[0]);
+    assertTrue(svg.contains(">x \u2212 999999.999997<"), svg);
+    assertEquals("", EnvelopePlot.Ticks.of(-3, 3, 7).offsetText());
+  }
+
+  @Test
   void titleTextIsEscapedForXml() {
     assertEquals("a &lt; b &amp; &quot;c&quot;", EnvelopePlot.escape("a < b & \"c\"\u0001"));
   }
