@@ -43,11 +43,11 @@ import picocli.CommandLine.Option;
     name = "draw",
     mixinStandardHelpOptions = true,
     sortOptions = false,
-    description = {
-      "Draw exactly from a log-concave density of one variable x, given as its log-density in",
-      "the model language, by adaptive rejection sampling. Draws go to standard output (or",
-      "--out FILE), one per line under the header x; the sampler's counters go to standard error."
-    })
+    description =
+        "Draw exactly from a log-concave density of one variable x, given as its "
+        + "log-density in the model language, by adaptive rejection sampling. Draws go to "
+        + "standard output (or --out FILE), one per line under the header x; the sampler's "
+        + "counters go to standard error.")
 public final class DrawCommand implements Callable<Integer> {
   /** The name under which the expression appears in messages. */
   static final String EXPRESSION_NAME = "<--log-density>";
@@ -59,10 +59,9 @@ public final class DrawCommand implements Callable<Integer> {
       names = "--log-density",
       required = true,
       paramLabel = "EXPR",
-      description = {
-        "The log-density in x up to a constant, e.g. \"-x^2/2 - 3*log1p(exp(-x))\"; the",
-        "functions of the model language may be used."
-      })
+      description =
+        "The log-density in x up to a constant, e.g. \"-x^2/2 - 3*log1p(exp(-x))\"; the "
+        + "functions of the model language may be used.")
   String logDensity;
 
   @Option(
@@ -86,19 +85,23 @@ public final class DrawCommand implements Callable<Integer> {
   @Option(
       names = "--seed",
       paramLabel = "S",
-      description = "Seed of the generator; the same seed gives the same draws (default: drawn, and printed).")
+      description =
+          "Seed of the generator; the same seed gives the same draws (default: drawn, and "
+          + "printed).")
   Long seed;
 
   @Option(
       names = "--out",
       paramLabel = "FILE",
-      description = "Write the draws to FILE (put in place when complete) instead of standard output.")
+      description =
+          "Write the draws to FILE (put in place when complete) instead of standard output.")
   Path out;
 
   @Option(
       names = "--plot",
       paramLabel = "FILE.svg",
-      description = "Also draw the final hull, squeeze, log-density and the draws as an SVG picture.")
+      description =
+          "Also draw the final hull, squeeze, log-density and the draws as an SVG picture.")
   Path plot;
 
   @CommandLine.Spec CommandLine.Model.CommandSpec spec;

@@ -34,19 +34,19 @@ import picocli.CommandLine.Parameters;
     name = "summarize",
     mixinStandardHelpOptions = true,
     sortOptions = false,
-    description = {
-      "Summarise a draws file: posterior mean, sd, quantiles, R-hat, effective sample sizes and",
-      "Monte Carlo error per variable, then plain-language verdicts on convergence."
-    })
+    description =
+        "Summarise a draws file: posterior mean, sd, quantiles, R-hat, effective sample "
+        + "sizes and Monte Carlo error per variable, then plain-language verdicts on "
+        + "convergence.")
 public final class SummarizeCommand implements Callable<Integer> {
 
   @Parameters(
       index = "0",
       paramLabel = "DRAWS.csv",
-      description = {
-        "A draws CSV with a header row: fit's draws.csv (chain, draw, then the unknowns), or any",
-        "CSV of variables with an optional 'chain' and an optional 'draw' or 'iteration' column."
-      })
+      description =
+        "A draws CSV with a header row: fit's draws.csv (chain, draw, then the "
+        + "unknowns), or any CSV of variables with an optional 'chain' and an optional "
+        + "'draw' or 'iteration' column.")
   Path drawsFile;
 
   @Option(
@@ -71,7 +71,8 @@ public final class SummarizeCommand implements Callable<Integer> {
   @Option(
       names = "--min-ess",
       paramLabel = "N",
-      description = "Flag a bulk or tail effective sample size below N (default: ${DEFAULT-VALUE}).")
+      description =
+          "Flag a bulk or tail effective sample size below N (default: ${DEFAULT-VALUE}).")
   double minEss = Verdicts.DEFAULT_MIN_ESS;
 
   @CommandLine.Spec CommandLine.Model.CommandSpec spec;

@@ -22,7 +22,8 @@ import org.hullbound.lang.SourceText;
  * {@link ModelException} pointing at it.
  *
  * <pre>{@code
- * UnivariateExpression h = UnivariateExpression.parse("<--log-density>", "-x^2/2 - 3*log1p(exp(-x))");
+ * UnivariateExpression h =
+ *     UnivariateExpression.parse("<--log-density>", "-x^2/2 - 3*log1p(exp(-x))");
  * UnivariateExpression.ValueAndSlope at = h.evaluate(0.5);   // at.value(), at.slope()
  * }</pre>
  */
