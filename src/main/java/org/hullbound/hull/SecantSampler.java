@@ -104,7 +104,7 @@ final class SecantSampler extends AdaptiveSampler {
     if (k < maximumHullSize) {
       if (wellSeparated(i, x)) {
         insert(i, x, h);
-        rebuild();
+        markStale();
       } else {
         refineInstead(piece);
       }
@@ -162,7 +162,7 @@ final class SecantSampler extends AdaptiveSampler {
       checkTriple(m, hm, xs[i], hs[i], xs[i + 1], hs[i + 1]);
     }
     insert(i, m, hm);
-    rebuild();
+    markStale();
   }
 
   private boolean wellSeparated(int i, double x) {

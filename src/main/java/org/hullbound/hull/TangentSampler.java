@@ -89,7 +89,7 @@ final class TangentSampler extends AdaptiveSampler {
     }
     if (k < maximumHullSize) {
       insert(i, x, h, d);
-      rebuild();
+      markStale();
     }
     return h;
   }
