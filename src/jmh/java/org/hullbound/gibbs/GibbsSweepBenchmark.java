@@ -1,6 +1,7 @@
 package org.hullbound.gibbs;
 
 import java.io.IOException;
+import java.lang.management.ManagementFactory;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
@@ -35,8 +36,9 @@ import org.openjdk.jmh.annotations.TearDown;
  *
  * <p>JMH measures sweeps per second; at tear-down each run prints the effective sample size per
  * sweep of {@code effect[1]} and the smallest over all unknowns (bulk ess, one chain, from the
- * sweeps made while measuring), and the density evaluations per conditional draw, so that ess
- * per second = sweeps per second x ess per sweep. Run from the project folder:
+ * sweeps made while measuring), the density evaluations per conditional draw, and the sweeps per
+ * second of the benchmark thread's own CPU time (steadier than wall time on a shared machine), so
+ * that ess per second = sweeps per second x ess per sweep. Run from the project folder:
  * {@code java -jar target/benchmarks.jar GibbsSweepBenchmark -f 1 -wi 3 -i 5}.
  */
 @State(Scope.Thread)
@@ -55,6 +57,8 @@ public class GibbsSweepBenchmark {
   private double[][] kept;
   private double[] row;
   private int count;
+  private long sweeps;
+  private long cpuStart;
 
   @Setup(Level.Trial)
   public void setUp() throws IOException {
@@ -112,10 +116,13 @@ public class GibbsSweepBenchmark {
     kept = new double[n][MAX_KEPT];
     row = new double[n];
     count = 0;
+    sweeps = 0;
+    cpuStart = ManagementFactory.getThreadMXBean().getCurrentThreadCpuTime();
   }
 
   @Benchmark
   public double sweep() {
+    sweeps++;
     kernel.sweep(rng);
     kernel.record(row);
     if (count < MAX_KEPT) {
@@ -129,6 +136,8 @@ public class GibbsSweepBenchmark {
 
   @TearDown(Level.Trial)
   public void report() {
+    double cpuSeconds =
+        (ManagementFactory.getThreadMXBean().getCurrentThreadCpuTime() - cpuStart) / 1e9;
     double minimum = Double.POSITIVE_INFINITY;
     String weakest = "";
     double effectOne = Double.NaN;
@@ -158,8 +167,9 @@ public class GibbsSweepBenchmark {
     System.out.printf(
         Locale.ROOT,
         "%n[%s] sweeps kept %d; ess/sweep effect[1] %.4f; min ess/sweep %.4f (%s);"
-            + " evaluations per conditional draw %.2f%s%n",
+            + " evaluations per conditional draw %.2f; sweeps per cpu-second %.1f%s%n",
         sampler, count, effectOne / count, minimum / count, weakest, evaluations,
+        sweeps / cpuSeconds,
         kernel instanceof WithinGibbsBaseline baseline
                 && sampler.equals("random-walk-metropolis")
             ? String.format(Locale.ROOT, "; acceptance %.3f", baseline.acceptanceRate())

@@ -75,13 +75,33 @@ final class Binomial {
     @Override
     final double logLowerTail(double n, double[] args) {
       double trials = trials(args);
-      return IncompleteBeta.logRegularized(complement(args), probability(args), trials - n, n + 1.0);
+      return IncompleteBeta.logRegularized(complement(args), probability(args),
+          logComplement(args), logProbability(args), trials - n, n + 1.0);
     }
 
     @Override
     final double logUpperTail(double n, double[] args) {
       double trials = trials(args);
-      return IncompleteBeta.logRegularized(probability(args), complement(args), n + 1.0, trials - n);
+      return IncompleteBeta.logRegularized(probability(args), complement(args),
+          logProbability(args), logComplement(args), n + 1.0, trials - n);
+    }
+
+    /** d p / d (probability argument). */
+    abstract double probabilitySlope(double[] args);
+
+    @Override
+    final double cdfDerivative(int k, double n, double[] args, double logScale) {
+      if (k != probabilityIndex()) {
+        return Double.NaN;
+      }
+      // d/dp P(X <= n; trials, p) = -trials pmf(n; trials - 1, p) (differentiating the incomplete
+      // beta I_{1-p}(trials - n, n + 1) in its argument, A&S 26.5.24 and 6.6.1).
+      double trials = trials(args);
+      double below = trials - 1.0;
+      double logChoose = -Math.log1p(below) - Beta.logBeta(n + 1.0, below - n + 1.0);
+      double successes = n == 0 ? 0.0 : n * logProbability(args);
+      double failures = n == below ? 0.0 : (below - n) * logComplement(args);
+      return -trials * Math.exp(logChoose + successes + failures - logScale) * probabilitySlope(args);
     }
 
     final Curvature trialsFact() {
@@ -112,6 +132,11 @@ final class Binomial {
     @Override
     double logComplement(double[] args) {
       return Math.log1p(-args[probabilityIndex()]);
+    }
+
+    @Override
+    double probabilitySlope(double[] args) {
+      return 1.0;
     }
 
     @Override
@@ -163,6 +188,11 @@ final class Binomial {
     @Override
     double logComplement(double[] args) {
       return LogSpace.logInvLogit(-args[probabilityIndex()]);
+    }
+
+    @Override
+    double probabilitySlope(double[] args) {
+      return probability(args) * complement(args);
     }
 
     @Override

@@ -17,6 +17,15 @@ abstract class DiscreteParametrisation extends BaseParametrisation {
   /** {@code log P(X > n)} for a whole {@code n} with {@code 0 <= n < upperCount(args)}. */
   abstract double logUpperTail(double n, double[] args);
 
+  /**
+   * {@code (dP(X <= n)/d args[k]) / exp(logScale)} for a whole {@code n} with {@code 0 <= n <
+   * upperCount(args)}; {@code NaN} when argument {@code k} has no closed form (it is then
+   * differentiated numerically).
+   */
+  double cdfDerivative(int k, double n, double[] args, double logScale) {
+    return Double.NaN;
+  }
+
   double upperCount(double[] args) {
     return switch (support()) {
       case COUNT_UP_TO_FIRST_ARGUMENT -> args[0];
@@ -41,9 +50,9 @@ abstract class DiscreteParametrisation extends BaseParametrisation {
   }
 
   /**
-   * {@code log P(lo <= X <= hi)}, both ends included; the gradient is numerical (Richardson
-   * extrapolation of central differences, step {@code 1e-3} times the argument), 0 for whole-number
-   * arguments.
+   * {@code log P(lo <= X <= hi)}, both ends included. The gradient is in closed form where {@link
+   * #cdfDerivative} gives one, else numerical (Richardson extrapolation of central differences,
+   * step {@code 1e-3} times the argument); 0 for whole-number arguments.
    */
   @Override
   public final double logProbabilityBetween(
@@ -57,10 +66,22 @@ abstract class DiscreteParametrisation extends BaseParametrisation {
       Arrays.fill(gradientOfArgs, 0, arity(), 0.0);
       return logP;
     }
+    double upper = upperCount(args);
+    double first = Math.max(Math.ceil(lo), 0.0);
+    double last = Math.min(Math.floor(hi), upper);
     for (int k = 0; k < arity(); k++) {
-      gradientOfArgs[k] = domain(k) == ArgumentDomain.WHOLE
-          ? 0.0
-          : numericalDerivative(a -> logProbability(lo, hi, a), args, k);
+      if (domain(k) == ArgumentDomain.WHOLE) {
+        gradientOfArgs[k] = 0.0;
+        continue;
+      }
+      // d log(F(last) - F(first - 1)) = (dF(last) - dF(first - 1)) / P; F is constant at the ends
+      // of the support.
+      double atLast = last >= upper ? 0.0 : cdfDerivative(k, last, args, logP);
+      double atBelow = first - 1 < 0 ? 0.0 : cdfDerivative(k, first - 1, args, logP);
+      double closedForm = atLast - atBelow;
+      gradientOfArgs[k] = Double.isNaN(closedForm)
+          ? numericalDerivative(a -> logProbability(lo, hi, a), args, k)
+          : closedForm;
     }
     return logP;
   }

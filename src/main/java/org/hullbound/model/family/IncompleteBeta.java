@@ -21,22 +21,27 @@ final class IncompleteBeta {
 
   /** {@code log I_x(a, b)} with {@code y = 1 - x}. */
   static double logRegularized(double x, double y, double a, double b) {
+    return logRegularized(x, y, Math.log(x), Math.log(y), a, b);
+  }
+
+  /**
+   * {@code log I_x(a, b)} with {@code y = 1 - x} and their logs supplied by the caller: when {@code
+   * x} is within {@code 1e-10} of 1 and {@code a} is large, {@code a log(x)} needs {@code log x}
+   * from {@code log1p}, not from the rounded {@code x}.
+   */
+  static double logRegularized(double x, double y, double logX, double logY, double a, double b) {
     if (x <= 0) {
       return Double.NEGATIVE_INFINITY;
     }
     if (y <= 0) {
       return 0.0;
     }
+    double logPrefactor = a * logX + b * logY - Beta.logBeta(a, b);
     if (x < (a + 1) / (a + b + 2)) {
-      return logPrefactor(x, y, a, b) - Math.log(a) + Math.log(continuedFraction(x, a, b));
+      return logPrefactor - Math.log(a) + Math.log(continuedFraction(x, a, b));
     }
-    double logComplement =
-        logPrefactor(x, y, a, b) - Math.log(b) + Math.log(continuedFraction(y, b, a));
+    double logComplement = logPrefactor - Math.log(b) + Math.log(continuedFraction(y, b, a));
     return LogSpace.log1mExp(Math.min(0.0, logComplement));
-  }
-
-  private static double logPrefactor(double x, double y, double a, double b) {
-    return a * Math.log(x) + b * Math.log(y) - Beta.logBeta(a, b);
   }
 
   private static double continuedFraction(double x, double a, double b) {

@@ -11,7 +11,9 @@ import org.apache.commons.math3.special.Gamma;
  * <p>Log mass {@code lgamma(x + size) - lgamma(size) - lgamma(x + 1) + size log(size/(size + mean))
  * + x log(mean/(size + mean))} (Johnson, Kemp and Kotz, Univariate Discrete Distributions, 3rd ed.,
  * 2005, 5.1 with {@code P = mean/size}), the gamma ratio as {@code -log x - log B(x, size)};
- * {@code P(X <= n) = I_q(size, n + 1)} with {@code q = size/(size + mean)}.
+ * {@code P(X <= n) = I_q(size, n + 1)} with {@code q = size/(size + mean)}. The derivative of a
+ * truncation normaliser in {@code size} is numerical (Richardson-extrapolated central differences,
+ * step {@code 1e-3 size}); in {@code mean} it is closed.
  */
 final class NegativeBinomial {
   private NegativeBinomial() {}
@@ -44,14 +46,32 @@ final class NegativeBinomial {
     double logLowerTail(double n, double[] args) {
       double mean = args[0];
       double size = args[1];
-      return IncompleteBeta.logRegularized(size / (size + mean), mean / (size + mean), size, n + 1.0);
+      return IncompleteBeta.logRegularized(size / (size + mean), mean / (size + mean),
+          -Math.log1p(mean / size), -Math.log1p(size / mean), size, n + 1.0);
     }
 
     @Override
     double logUpperTail(double n, double[] args) {
       double mean = args[0];
       double size = args[1];
-      return IncompleteBeta.logRegularized(mean / (size + mean), size / (size + mean), n + 1.0, size);
+      return IncompleteBeta.logRegularized(mean / (size + mean), size / (size + mean),
+          -Math.log1p(size / mean), -Math.log1p(mean / size), n + 1.0, size);
+    }
+
+    @Override
+    double cdfDerivative(int k, double n, double[] args, double logScale) {
+      if (k != 0) {
+        return Double.NaN;
+      }
+      // P(X <= n) = I_q(size, n + 1), q = size/(size + mean): dI/dq = q^(size-1) (1-q)^n / B(size, n + 1)
+      // (A&S 6.6.1 with 26.5.1), dq/dmean = -size/(size + mean)^2.
+      double mean = args[0];
+      double size = args[1];
+      double logQ = -Math.log1p(mean / size);
+      double log1mQ = -Math.log1p(size / mean);
+      double logDerivative = (size - 1.0) * logQ + (n == 0 ? 0.0 : n * log1mQ) - Beta.logBeta(size, n + 1.0)
+          + Math.log(size) - 2.0 * Math.log(size + mean);
+      return -Math.exp(logDerivative - logScale);
     }
 
     @Override

@@ -66,9 +66,9 @@ public interface Parametrisation {
    * for discrete ones; fills {@code gradientOfArgs[k] = d/d args[k]}.
    *
    * <p>Computed in log space from whichever tail is small, so that it keeps its relative accuracy
-   * where {@code 1 - F} underflows. Location and scale arguments have closed-form derivatives;
-   * shape-like arguments (gamma and inverse-gamma shape, beta a and b, student df) and the
-   * arguments of discrete families are differentiated numerically by Richardson extrapolation of
+   * where {@code 1 - F} underflows. Location and scale arguments, rates and probabilities have
+   * closed-form derivatives; shape-like arguments (gamma and inverse-gamma shape, beta a and b,
+   * student df, neg_binomial size) are differentiated numerically by Richardson extrapolation of
    * central differences with step {@code 1e-3} times the argument (see the family's Javadoc).
    *
    * @throws IllegalArgumentException if {@code lo > hi}, or {@code lo == hi} for a continuous family

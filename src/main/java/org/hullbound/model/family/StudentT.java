@@ -27,9 +27,10 @@ final class StudentT {
     if (t == 0) {
       return LOG_HALF;
     }
-    // r = df/t^2 without overflowing t^2; x = df/(df + t^2), y = t^2/(df + t^2).
+    // r = df/t^2 without overflowing t^2; x = df/(df + t^2), y = t^2/(df + t^2), logs by log1p.
     double r = (df / t) / t;
-    return LOG_HALF + IncompleteBeta.logRegularized(r / (1.0 + r), 1.0 / (1.0 + r), 0.5 * df, 0.5);
+    return LOG_HALF + IncompleteBeta.logRegularized(
+        r / (1.0 + r), 1.0 / (1.0 + r), -Math.log1p(1.0 / r), -Math.log1p(r), 0.5 * df, 0.5);
   }
 
   private static final class ByDfLocationScale extends ContinuousParametrisation {

@@ -44,6 +44,14 @@ class ExtremeArgumentsTest {
     double expected = normal.logDensity(1.5, new double[] {0, 1});
     assertEquals(expected, t.logDensity(1.5, new double[] {1e10, 0, 1}), 1e-9);
     assertEquals(expected, t.logDensity(1.5, new double[] {1e14, 0, 1}), 1e-12);
+    // Tails too: log P(T > 0.5) -> log Q(0.5), commons-math3 NormalDistribution (accurate at 0.5).
+    double tail = Math.log(1 - new org.apache.commons.math3.distribution.NormalDistribution(null, 0, 1)
+        .cumulativeProbability(0.5));
+    double[] gradient = new double[3];
+    for (double df : new double[] {1e9, 1e12, 1e15}) {
+      assertEquals(tail, t.logProbabilityBetween(0.5, Double.POSITIVE_INFINITY, new double[] {df, 0, 1}, gradient),
+          1e-8, () -> "df = " + df);
+    }
   }
 
   @Test

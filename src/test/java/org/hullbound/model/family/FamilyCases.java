@@ -223,12 +223,12 @@ final class FamilyCases {
         (x, a) -> new UniformRealDistribution(null, a[0], a[1]).logDensity(x),
         (x, a) -> new UniformRealDistribution(null, a[0], a[1]).cumulativeProbability(x),
         (x, a) -> Math.min(x - a[0], a[1] - x), cm + "UniformRealDistribution"));
-    cases.add(new Case("poisson(rate)", parametrisation("poisson", "rate"), args(logUniform(0.01, 1000)),
+    cases.add(new Case("poisson(rate)", parametrisation("poisson", "rate"), args(logUniform(0.01, 1e6)),
         (a, q) -> floorCount(q, 3 * a[0] + 10),
         (x, a) -> poisson(a[0]).logProbability((int) x),
         (x, a) -> poisson(a[0]).cumulativeProbability((int) x),
         (x, a) -> 1.0, cm + "PoissonDistribution"));
-    cases.add(new Case("poisson(log_rate)", parametrisation("poisson", "log_rate"), args(uniform(-5, 7)),
+    cases.add(new Case("poisson(log_rate)", parametrisation("poisson", "log_rate"), args(uniform(-5, 14)),
         (a, q) -> floorCount(q, 3 * Math.exp(a[0]) + 10),
         (x, a) -> poisson(Math.exp(a[0])).logProbability((int) x),
         (x, a) -> poisson(Math.exp(a[0])).cumulativeProbability((int) x),
