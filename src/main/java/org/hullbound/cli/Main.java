@@ -14,7 +14,13 @@ import picocli.CommandLine.Command;
     mixinStandardHelpOptions = true,
     versionProvider = VersionProvider.class,
     description = "Exact draws from log-concave densities, and Gibbs fits of small models.",
-    subcommands = {CommandLine.HelpCommand.class, CheckCommand.class})
+    subcommands = {
+      CommandLine.HelpCommand.class,
+      CheckCommand.class,
+      FitCommand.class,
+      SummarizeCommand.class,
+      DrawCommand.class
+    })
 public final class Main implements Runnable {
 
   @CommandLine.Spec CommandLine.Model.CommandSpec spec;

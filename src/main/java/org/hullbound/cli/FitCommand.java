@@ -1,0 +1,302 @@
+package org.hullbound.cli;
+
+import java.io.IOException;
+import java.io.PrintWriter;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.security.SecureRandom;
+import java.util.ArrayList;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.concurrent.Callable;
+import java.util.concurrent.CountDownLatch;
+import java.util.concurrent.TimeUnit;
+import org.hullbound.diagnostics.PosteriorSummary;
+import org.hullbound.diagnostics.VariableSummary;
+import org.hullbound.gibbs.ChainFailedException;
+import org.hullbound.gibbs.ChainRunner;
+import org.hullbound.gibbs.DrawSink;
+import org.hullbound.gibbs.DrawStore;
+import org.hullbound.gibbs.ModelSampler;
+import org.hullbound.gibbs.ProgressListener;
+import org.hullbound.gibbs.RunOutcome;
+import org.hullbound.gibbs.RunSettings;
+import org.hullbound.gibbs.StartingValueException;
+import org.hullbound.gibbs.StopSignal;
+import org.hullbound.gibbs.UpdateReport;
+import org.hullbound.gibbs.UpdateRule;
+import org.hullbound.io.AtomicFiles;
+import org.hullbound.io.CsvData;
+import org.hullbound.io.DrawsWriter;
+import org.hullbound.io.InitialValuesFile;
+import org.hullbound.lang.ModelFile;
+import org.hullbound.lang.Parser;
+import org.hullbound.lang.SourceText;
+import org.hullbound.model.BoundModel;
+import org.hullbound.model.DataTable;
+import org.hullbound.model.Unknown;
+import org.hullbound.report.SummaryTable;
+import org.hullbound.report.UpdateFacts;
+import org.hullbound.report.Verdicts;
+import picocli.CommandLine;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.Parameters;
+
+/**
+ * {@code hullbound fit MODEL [--data FILE]...}: binds a model to its data, runs parallel Gibbs
+ * chains, streams every draw to {@code draws.csv}, and prints the posterior summary with the
+ * update each unknown got, its cost in density evaluations, and plain-language verdicts.
+ *
+ * <p>Thin by design: the numerics live in {@code gibbs}, {@code diagnostics} and {@code report};
+ * this class reads files, shows progress on standard error, writes the outputs and turns failures
+ * into exit codes (0 done, 1 sampling failure, 2 usage, model or data error).
+ */
+@Command(
+    name = "fit",
+    mixinStandardHelpOptions = true,
+    sortOptions = false,
+    description = {
+      "Fit a model by Gibbs sampling: one exact or adaptive-rejection update per unknown,",
+      "parallel chains, draws streamed to DIR/draws.csv, summary to DIR/summary.csv."
+    })
+public final class FitCommand implements Callable<Integer> {
+
+  @Parameters(index = "0", paramLabel = "MODEL", description = "The model file (.hbm).")
+  Path modelFile;
+
+  @Option(
+      names = "--data",
+      paramLabel = "FILE",
+      description = "A data file (CSV with a header row); repeat for one file per index set.")
+  List<Path> dataFiles = new ArrayList<>();
+
+  @Option(names = "--chains", paramLabel = "N", description = "Chains, run in parallel (default: ${DEFAULT-VALUE}).")
+  int chains = RunSettings.DEFAULT_CHAINS;
+
+  @Option(names = "--draws", paramLabel = "N", description = "Kept draws per chain (default: ${DEFAULT-VALUE}).")
+  int draws = RunSettings.DEFAULT_DRAWS;
+
+  @Option(names = "--burn-in", paramLabel = "N", description = "Sweeps discarded first (default: ${DEFAULT-VALUE}).")
+  int burnIn = RunSettings.DEFAULT_BURN_IN;
+
+  @Option(names = "--thin", paramLabel = "K", description = "Keep every K-th sweep (default: ${DEFAULT-VALUE}).")
+  int thin = 1;
+
+  @Option(
+      names = "--seed",
+      paramLabel = "S",
+      description = "Seed of every chain's generator; the same seed and chain count give the same draws (default: drawn, and printed).")
+  Long seed;
+
+  @Option(
+      names = "--out",
+      paramLabel = "DIR",
+      description = "Folder for draws.csv and summary.csv (default: fit-out/<model name>).")
+  Path out;
+
+  @Option(
+      names = "--init",
+      paramLabel = "FILE",
+      description = "Starting values: a CSV of name,value rows (natural scale); others start dispersed.")
+  Path initFile;
+
+  @Option(names = "--threads", paramLabel = "N", description = "Worker threads (default: chains, at most the processors).")
+  Integer threads;
+
+  @Option(names = "--quiet", description = "No progress display.")
+  boolean quiet;
+
+  @CommandLine.Spec CommandLine.Model.CommandSpec spec;
+
+  @Override
+  public Integer call() throws IOException {
+    PrintWriter stdout = spec.commandLine().getOut();
+    PrintWriter stderr = spec.commandLine().getErr();
+    String problem = checkOptions();
+    if (problem != null) {
+      stderr.println("hullbound fit: " + problem);
+      stderr.flush();
+      return ErrorReporting.USER_ERROR;
+    }
+    BoundModel model = load();
+    Map<String, Double> given = initFile == null ? Map.of() : InitialValuesFile.read(initFile);
+    ModelSampler sampler;
+    try {
+      sampler = ModelSampler.of(model, given);
+    } catch (StartingValueException invalid) {
+      stderr.println("hullbound fit: " + invalid.getMessage());
+      stderr.flush();
+      return ErrorReporting.USER_ERROR;
+    }
+    long runSeed = seed != null ? seed : new SecureRandom().nextLong();
+    RunSettings settings = RunSettings.of(chains, burnIn, draws, thin, runSeed);
+    if (threads != null) {
+      settings = settings.withThreads(threads);
+    }
+    Path folder = out != null ? out : Path.of("fit-out", model.name());
+    StopSignal stop = StopSignal.create();
+    CountDownLatch finished = new CountDownLatch(1);
+    Thread interruptHook = new Thread(() -> stopAndWait(stop, finished), "hullbound-interrupt");
+    Runtime.getRuntime().addShutdownHook(interruptHook);
+    ProgressDisplay display =
+        ProgressDisplay.of(stderr, System.console() != null, settings.chains());
+    ProgressListener listener = quiet ? ProgressListener.none() : display;
+    DrawStore store = DrawStore.create(settings.chains(), settings.draws(), sampler.labels().size());
+    try {
+      RunOutcome outcome;
+      try (DrawsWriter writer = DrawsWriter.open(folder, sampler.labels())) {
+        DrawSink both =
+            (chain, draw, values) -> {
+              writer.accept(chain, draw, values);
+              store.accept(chain, draw, values);
+            };
+        if (!quiet) {
+          stderr.printf(
+              "hullbound fit: %s, %d unknowns, %d chains x (%d burn-in + %d draws%s), seed %d%n",
+              model.name(), sampler.labels().size(), settings.chains(), settings.burnIn(),
+              settings.draws(), settings.thin() > 1 ? " thinned by " + settings.thin() : "",
+              runSeed);
+          stderr.flush();
+        }
+        try {
+          outcome =
+              ChainRunner.of(settings, listener, stop)
+                  .run(sampler.sampler().withAdaptation(settings.burnIn()), both);
+        } catch (ChainFailedException failed) {
+          display.finish();
+          stderr.println("hullbound fit: sampling failed: " + failed.getMessage());
+          stderr.println("  the draws made before the failure are in " + writer.file());
+          stderr.flush();
+          return ErrorReporting.FAILURE;
+        } finally {
+          display.finish();
+        }
+      }
+      report(model, sampler, settings, outcome, store, folder, stdout, stderr);
+      return 0;
+    } finally {
+      // Only now may an interrupted JVM exit: the files are written.
+      finished.countDown();
+      try {
+        Runtime.getRuntime().removeShutdownHook(interruptHook);
+      } catch (IllegalStateException shuttingDown) {
+        // The JVM is already exiting (Ctrl-C): the hook is running and waits for us.
+      }
+    }
+  }
+
+  private String checkOptions() {
+    if (chains < 1) {
+      return "--chains must be at least 1, got " + chains;
+    }
+    if (draws < 1) {
+      return "--draws must be at least 1, got " + draws;
+    }
+    if (burnIn < 0) {
+      return "--burn-in must be at least 0, got " + burnIn;
+    }
+    if (thin < 1) {
+      return "--thin must be at least 1, got " + thin;
+    }
+    if (threads != null && threads < 1) {
+      return "--threads must be at least 1, got " + threads;
+    }
+    if ((long) burnIn + (long) draws * thin > Integer.MAX_VALUE) {
+      return "--burn-in + --draws x --thin must be at most " + Integer.MAX_VALUE;
+    }
+    return null;
+  }
+
+  private BoundModel load() throws IOException {
+    String text = Files.readString(modelFile, StandardCharsets.UTF_8);
+    ModelFile parsed = Parser.parse(SourceText.of(modelFile.toString(), text));
+    List<DataTable> tables = new ArrayList<>();
+    for (Path file : dataFiles) {
+      tables.add(CsvData.read(file));
+    }
+    return BoundModel.bind(parsed, tables);
+  }
+
+  /** On Ctrl-C: ask the chains to stop, then give the run a few seconds to write its files. */
+  private static void stopAndWait(StopSignal stop, CountDownLatch finished) {
+    stop.request();
+    try {
+      finished.await(10, TimeUnit.SECONDS);
+    } catch (InterruptedException interrupted) {
+      Thread.currentThread().interrupt();
+    }
+  }
+
+  private static void report(
+      BoundModel model, ModelSampler sampler, RunSettings settings, RunOutcome outcome,
+      DrawStore store, Path folder, PrintWriter stdout, PrintWriter stderr) {
+    List<String> labels = sampler.labels();
+    int kept = store.commonDraws();
+    if (outcome.stoppedEarly()) {
+      stderr.printf("hullbound fit: stopped early after %d draws per chain%n", kept);
+      stderr.flush();
+    }
+    Path drawsFile = folder.resolve(DrawsWriter.FILE_NAME);
+    if (kept == 0) {
+      stdout.println("No draws were kept, so there is no summary.");
+      stdout.println("draws: " + drawsFile);
+      stdout.flush();
+      return;
+    }
+    List<UpdateReport> reports = UpdateReport.of(labels.size(), outcome.kernels());
+    List<UpdateRule> rules = sampler.sampler().rules();
+    boolean[] chosenFallback = new boolean[labels.size()];
+    for (UpdateRule rule : rules) {
+      for (int index : rule.indices()) {
+        chosenFallback[index] = rule instanceof UpdateRule.Fallback;
+      }
+    }
+    List<VariableSummary> summaries = new ArrayList<>();
+    Map<String, UpdateFacts> facts = new LinkedHashMap<>();
+    List<String> switchNotes = new ArrayList<>();
+    for (Unknown unknown : model.unknowns()) {
+      int index = unknown.index();
+      String label = labels.get(index);
+      summaries.add(PosteriorSummary.of(label, store.draws(index)));
+      UpdateReport update = reports.get(index);
+      String method = update.method() + (unknown.imputed() ? ", imputed" : "");
+      UpdateFacts fact;
+      if (!update.switches().isEmpty()) {
+        fact = UpdateFacts.switchedToFallback(method, update.evaluationsPerDraw(), update.firstSwitchSweep());
+        for (String note : update.switches()) {
+          switchNotes.add(label + ": " + note);
+        }
+      } else if (chosenFallback[index]) {
+        fact = UpdateFacts.fallback(method, update.evaluationsPerDraw());
+      } else {
+        fact = UpdateFacts.exact(method, update.evaluationsPerDraw());
+      }
+      facts.put(label, fact);
+    }
+    SummaryTable table = SummaryTable.of(summaries, facts);
+    Path summaryFile = folder.resolve("summary.csv");
+    AtomicFiles.write(summaryFile, table.csv());
+    stdout.print(table.text());
+    stdout.println();
+    for (String line : Verdicts.of(table).lines()) {
+      stdout.println(line);
+    }
+    for (String note : switchNotes) {
+      stdout.println("switched: " + note);
+    }
+    long imputed = model.unknowns().stream().filter(Unknown::imputed).count();
+    if (imputed > 0) {
+      stdout.println(imputed + " missing observation" + (imputed == 1 ? " was" : "s were")
+          + " imputed; their rows are marked 'imputed'.");
+    }
+    stdout.println();
+    stdout.printf("seed %d (give --seed %d with --chains %d to repeat these draws)%n",
+        settings.seed(), settings.seed(), settings.chains());
+    stdout.println("draws:   " + drawsFile);
+    stdout.println("summary: " + summaryFile);
+    stdout.flush();
+  }
+}

@@ -1,0 +1,122 @@
+package org.hullbound.cli;
+
+import java.io.PrintWriter;
+import java.time.Duration;
+import java.util.Locale;
+import java.util.function.LongSupplier;
+import org.hullbound.gibbs.ChainProgress;
+import org.hullbound.gibbs.ProgressListener;
+
+/**
+ * Shows the chains' progress on standard error: on a terminal one line redrawn in place with a bar
+ * per chain, elsewhere (a log file, CI) a plain line every few seconds.
+ *
+ * <p>Thread-safe: the chains report from their own threads; the display keeps the latest report of
+ * each and prints at most at its own pace, so that printing never slows the sampling.
+ */
+final class ProgressDisplay implements ProgressListener {
+  private static final long REDRAW_NANOS = 200_000_000L;
+  private static final long PLAIN_NANOS = 5_000_000_000L;
+  private static final int BAR_WIDTH = 12;
+
+  private final PrintWriter err;
+  private final boolean terminal;
+  private final ChainProgress[] latest;
+  private final LongSupplier clock;
+  private long lastPrint;
+  private boolean printed;
+  private int lastWidth;
+
+  private ProgressDisplay(PrintWriter err, boolean terminal, int chains, LongSupplier clock) {
+    this.err = err;
+    this.terminal = terminal;
+    this.latest = new ChainProgress[chains];
+    this.clock = clock;
+    this.lastPrint = clock.getAsLong();
+  }
+
+  /** A display of {@code chains} chains writing to {@code err}, redrawn when {@code terminal}. */
+  static ProgressDisplay of(PrintWriter err, boolean terminal, int chains) {
+    return new ProgressDisplay(err, terminal, chains, System::nanoTime);
+  }
+
+  /** The same with a given clock (nanoseconds), for tests. */
+  static ProgressDisplay of(PrintWriter err, boolean terminal, int chains, LongSupplier clock) {
+    return new ProgressDisplay(err, terminal, chains, clock);
+  }
+
+  @Override
+  public synchronized void progress(ChainProgress progress) {
+    latest[progress.chain()] = progress;
+    long now = clock.getAsLong();
+    boolean allFinished = true;
+    for (ChainProgress chain : latest) {
+      allFinished &= chain != null && chain.finished();
+    }
+    if (now - lastPrint >= (terminal ? REDRAW_NANOS : PLAIN_NANOS) || allFinished) {
+      lastPrint = now;
+      print();
+    }
+  }
+
+  /** Ends the redrawn line so that what follows starts on a fresh line. */
+  synchronized void finish() {
+    if (terminal && printed) {
+      err.print('\n');
+      err.flush();
+      printed = false;
+    }
+  }
+
+  private void print() {
+    StringBuilder line = new StringBuilder();
+    for (int chain = 0; chain < latest.length; chain++) {
+      ChainProgress progress = latest[chain];
+      if (chain > 0) {
+        line.append(terminal ? "  " : " | ");
+      }
+      line.append("chain ").append(chain + 1).append(' ');
+      if (progress == null) {
+        line.append("starting");
+        continue;
+      }
+      if (terminal) {
+        int filled = (int) Math.round(progress.fractionDone() * BAR_WIDTH);
+        line.append('[').append("#".repeat(filled)).append(".".repeat(BAR_WIDTH - filled)).append("] ");
+      }
+      if (progress.inBurnIn()) {
+        line.append("burn-in ").append(progress.sweepsDone()).append('/').append(progress.burnIn());
+      } else {
+        line.append(progress.drawsDone()).append('/').append(progress.drawsTotal()).append(" draws");
+      }
+      line.append(String.format(Locale.ROOT, " %.0f draws/s", progress.drawsPerSecond()));
+      if (!progress.finished()) {
+        line.append(' ').append(format(progress.timeLeft())).append(" left");
+      } else {
+        line.append(" done");
+      }
+    }
+    if (terminal) {
+      String text = line.toString();
+      int pad = Math.max(0, lastWidth - text.length());
+      err.print('\r' + text + " ".repeat(pad));
+      lastWidth = text.length();
+      printed = true;
+    } else {
+      err.println(line);
+    }
+    err.flush();
+  }
+
+  /** A short duration: {@code 42s}, {@code 3m05s}, {@code 1h02m}. */
+  static String format(Duration duration) {
+    long seconds = Math.max(0, duration.toSeconds());
+    if (seconds < 60) {
+      return seconds + "s";
+    }
+    if (seconds < 3600) {
+      return String.format(Locale.ROOT, "%dm%02ds", seconds / 60, seconds % 60);
+    }
+    return String.format(Locale.ROOT, "%dh%02dm", seconds / 3600, (seconds % 3600) / 60);
+  }
+}

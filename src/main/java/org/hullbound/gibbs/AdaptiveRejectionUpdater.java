@@ -1,0 +1,391 @@
+package org.hullbound.gibbs;
+
+import java.util.Arrays;
+import java.util.random.RandomGenerator;
+import org.hullbound.hull.AdaptiveRejectionSampler;
+import org.hullbound.hull.DifferentiableLogDensity;
+import org.hullbound.hull.Evaluation;
+import org.hullbound.hull.HullOptions;
+import org.hullbound.hull.LogDensity;
+import org.hullbound.hull.NotLogConcaveException;
+import org.hullbound.hull.Support;
+
+/**
+ * An exact draw by adaptive rejection sampling (Gilks and Wild 1992; derivative-free secants,
+ * Gilks 1992, where the conditional is not smooth), warm-started from the previous sweep.
+ *
+ * <p>Warm start: the previous sweep's evaluations locate the conditional's mode (where the slope
+ * changes sign) and its curvature there; the next hull starts from two tangents one conditional
+ * standard deviation either side of that mode, so that a draw costs about two or three
+ * evaluations instead of a search. When the hull finds the conditional is not log-concave after
+ * all ({@link NotLogConcaveException}), this unknown switches, for the rest of the chain, to
+ * adaptive rejection Metropolis (Gilks, Best and Tan 1995), the draw is redone, and the switch is
+ * reported.
+ */
+final class AdaptiveRejectionUpdater implements Updater {
+  /**
+   * Starting tangents this many conditional standard deviations from the predicted mode, widened
+   * to sqrt(1 + e^2) where e is the typical miss of the prediction in standard deviations (an
+   * offset of 1 needs the fewest evaluations when the mode is known: about 2.8 per draw for a
+   * normal; measured with the hull package).
+   */
+  static final double START_OFFSET = 1.0;
+
+  private static final int HULL_CAP = 32;
+
+  /** Weight kept per sweep by the mode predictor's running regression. */
+  private static final double FADE = 0.98;
+
+  private final int index;
+  private final ScalarConditional conditional;
+  private final boolean smooth;
+  private final String reason;
+  private final Recorder recorder = new Recorder();
+  private double centre = Double.NaN;
+  private double spread = 1.0;
+  private double squaredMiss;
+  private double weight;
+  private double sumX;
+  private double sumY;
+  private double sumXX;
+  private double sumXY;
+  private long draws;
+  private long evaluations;
+  private long sweeps;
+  private FallbackUpdater fallback;
+  private String switchNote;
+  private long switchSweep;
+
+  private final long adaptationSweeps;
+
+  AdaptiveRejectionUpdater(UpdateRule.AdaptiveRejection rule, long adaptationSweeps) {
+    this.adaptationSweeps = adaptationSweeps;
+    this.index = rule.index();
+    this.conditional = rule.conditional();
+    this.smooth = rule.conditional().smooth();
+    this.reason = rule.reason();
+  }
+
+  @Override
+  public void update(double[] state, RandomGenerator rng) {
+    sweeps++;
+    if (fallback != null) {
+      fallback.update(state, rng);
+      return;
+    }
+    double lower = conditional.lowerBound(state);
+    double upper = conditional.upperBound(state);
+    double current = conditional.toSamplingScale(state[index]);
+    double guess = predictedMode(current);
+    if (!Double.isFinite(guess)) {
+      guess = 0;
+    }
+    recorder.start(state);
+    double u;
+    try {
+      Support support = new Support(lower, upper);
+      double[] start = startingAbscissae(guess, spread, lower, upper);
+      if (smooth) {
+        start = steepen(start, lower, upper);
+      }
+      HullOptions options =
+          HullOptions.defaults()
+              .withAutomaticStart(guess, spread)
+              .withMaximumHullSize(HULL_CAP)
+              .withStartingAbscissae(start);
+      AdaptiveRejectionSampler sampler =
+          smooth
+              ? AdaptiveRejectionSampler.withDerivatives(recorder, support, options)
+              : AdaptiveRejectionSampler.derivativeFree((LogDensity) recorder::value, support, options);
+      u = sampler.sample(rng);
+    } catch (NotLogConcaveException notConcave) {
+      evaluations += recorder.count;
+      switchSweep = sweeps;
+      switchNote =
+          "switched to adaptive rejection Metropolis at sweep " + sweeps + ": "
+              + notConcave.getMessage();
+      fallback =
+          new FallbackUpdater(
+              new UpdateRule.Fallback(index, conditional, "not log-concave at run time"),
+              Math.max(0, adaptationSweeps - sweeps), Double.isFinite(centre) ? centre : current,
+              spread);
+      fallback.update(state, rng);
+      return;
+    }
+    evaluations += recorder.count;
+    draws++;
+    state[index] = conditional.toNatural(u);
+    double predictionSpread = spread;
+    learn(u);
+    if (Double.isFinite(centre)) {
+      double miss = (centre - guess) / predictionSpread;
+      if (Double.isFinite(miss)) {
+        squaredMiss = FADE * squaredMiss + (1 - FADE) * Math.min(miss * miss, 9.0);
+      }
+    }
+    if (Double.isFinite(centre) && Double.isFinite(current)) {
+      track(current, centre);
+    }
+  }
+
+  /**
+   * Where this sweep's conditional probably peaks, from the value the unknown has now: a
+   * regression of past modes on the values before their draws, with weights fading by 2% a sweep.
+   * In a Gibbs sweep the other unknowns were just drawn given this value, so the new conditional
+   * moves with it: for two correlated normals the mode is exactly linear in it (slope rho^2);
+   * for a nearly independent unknown the slope is near 0 and the prediction is the last mode.
+   */
+  private double predictedMode(double current) {
+    if (!Double.isFinite(centre)) {
+      return Double.isFinite(current) ? current : 0;
+    }
+    if (weight < 5 || !Double.isFinite(current)) {
+      return centre;
+    }
+    double meanX = sumX / weight;
+    double meanY = sumY / weight;
+    double varianceX = sumXX / weight - meanX * meanX;
+    double covariance = sumXY / weight - meanX * meanY;
+    if (!(varianceX > 1e-12 * Math.max(1.0, meanX * meanX))) {
+      return centre;
+    }
+    double slope = Math.min(Math.max(covariance / varianceX, 0.0), 1.0);
+    double predicted = meanY + slope * (current - meanX);
+    // A prediction far from the last mode is not trusted: keep within three spreads of it.
+    return Math.min(Math.max(predicted, centre - 3 * spread), centre + 3 * spread);
+  }
+
+  private void track(double before, double mode) {
+    weight = FADE * weight + 1;
+    sumX = FADE * sumX + before;
+    sumY = FADE * sumY + mode;
+    sumXX = FADE * sumXX + before * before;
+    sumXY = FADE * sumXY + before * mode;
+  }
+
+  /**
+   * Moves an outer starting point outward, by the spread, while its tangent is nearly flat (less
+   * than a quarter of the slope one standard deviation from the mode of a normal) or points the
+   * wrong way: a flat outer tangent would give the hull a heavy tail, costly to sample from. The
+   * evaluations are cached, so the hull does not repeat them.
+   */
+  private double[] steepen(double[] start, double lower, double upper) {
+    double left = start[0];
+    double right = start[start.length - 1];
+    double step = spread;
+    for (int k = 0; k < 8 && lower == Double.NEGATIVE_INFINITY; k++) {
+      double slope = recorder.slopeAt(left);
+      if (!(slope * spread < 0.25) || !Double.isFinite(slope)) {
+        break;
+      }
+      left -= step;
+      step *= 2;
+    }
+    step = spread;
+    for (int k = 0; k < 8 && upper == Double.POSITIVE_INFINITY; k++) {
+      double slope = recorder.slopeAt(right);
+      if (!(slope * spread > -0.25) || !Double.isFinite(slope)) {
+        break;
+      }
+      right += step;
+      step *= 2;
+    }
+    if (left == start[0] && right == start[start.length - 1]) {
+      return start;
+    }
+    double[] moved = start.clone();
+    moved[0] = left;
+    moved[moved.length - 1] = right;
+    return moved;
+  }
+
+  /** Two points (three without derivatives) around the guess, strictly inside the support. */
+  private double[] startingAbscissae(double guess, double width, double lower, double upper) {
+    double step = START_OFFSET * Math.min(Math.sqrt(1 + squaredMiss), 2.0) * width;
+    double[] points =
+        smooth
+            ? new double[] {guess - step, guess + step}
+            : new double[] {guess - step, guess, guess + step};
+    boolean inside = true;
+    for (double point : points) {
+      inside &= point > lower && point < upper;
+    }
+    if (inside) {
+      return points;
+    }
+    if (Double.isFinite(lower) && Double.isFinite(upper)) {
+      double range = upper - lower;
+      return smooth
+          ? new double[] {lower + range / 3, lower + 2 * range / 3}
+          : new double[] {lower + range / 4, lower + range / 2, lower + 3 * range / 4};
+    }
+    // One bound only: keep the points inside by stepping back from the bound.
+    double[] moved = points.clone();
+    for (int k = 0; k < moved.length; k++) {
+      if (!(moved[k] > lower)) {
+        moved[k] = lower + Math.min(step, Math.max(1e-8, Math.abs(lower) * 1e-8)) * (k + 1);
+      } else if (!(moved[k] < upper)) {
+        moved[k] = upper - Math.min(step, Math.max(1e-8, Math.abs(upper) * 1e-8)) * (moved.length - k);
+      }
+    }
+    return moved;
+  }
+
+  /**
+   * Locates the mode and curvature from this sweep's evaluations: between the last rising and the
+   * first falling slope by the secant of the slopes (a Newton step on h'); without derivatives from
+   * the highest value and its neighbours (a parabola).
+   */
+  private void learn(double drawn) {
+    int n = recorder.count;
+    double[] x = Arrays.copyOf(recorder.x, n);
+    double[] h = Arrays.copyOf(recorder.h, n);
+    double[] s = Arrays.copyOf(recorder.s, n);
+    sortTogether(x, h, s);
+    double newCentre = Double.NaN;
+    double curvature = Double.NaN;
+    if (smooth) {
+      for (int k = 0; k + 1 < n; k++) {
+        if (s[k] > 0 && s[k + 1] <= 0 && x[k + 1] > x[k]) {
+          newCentre = x[k] + s[k] * (x[k + 1] - x[k]) / (s[k] - s[k + 1]);
+          curvature = (s[k] - s[k + 1]) / (x[k + 1] - x[k]);
+          break;
+        }
+      }
+    } else if (n >= 3) {
+      int best = 0;
+      for (int k = 1; k < n; k++) {
+        if (h[k] > h[best]) {
+          best = k;
+        }
+      }
+      int mid = Math.min(Math.max(best, 1), n - 2);
+      double left = (h[mid] - h[mid - 1]) / (x[mid] - x[mid - 1]);
+      double right = (h[mid + 1] - h[mid]) / (x[mid + 1] - x[mid]);
+      curvature = (left - right) / ((x[mid + 1] - x[mid - 1]) / 2);
+      newCentre = x[best];
+    }
+    if (Double.isFinite(newCentre) && curvature > 0 && Double.isFinite(curvature)) {
+      centre = newCentre;
+      double sd = 1 / Math.sqrt(curvature);
+      double floor = 1e-10 * Math.max(1.0, Math.abs(centre));
+      spread = Math.min(Math.max(sd, floor), 1e10);
+    } else {
+      centre = drawn;
+    }
+  }
+
+  private static void sortTogether(double[] x, double[] h, double[] s) {
+    for (int i = 1; i < x.length; i++) {
+      double xi = x[i];
+      double hi = h[i];
+      double si = s[i];
+      int j = i - 1;
+      while (j >= 0 && x[j] > xi) {
+        x[j + 1] = x[j];
+        h[j + 1] = h[j];
+        s[j + 1] = s[j];
+        j--;
+      }
+      x[j + 1] = xi;
+      h[j + 1] = hi;
+      s[j + 1] = si;
+    }
+  }
+
+  @Override
+  public int[] indices() {
+    return new int[] {index};
+  }
+
+  @Override
+  public String method() {
+    String base = smooth ? "adaptive rejection" : "adaptive rejection (no derivatives)";
+    return fallback == null ? base : base + ", then " + fallback.method();
+  }
+
+  @Override
+  public long draws() {
+    return draws + (fallback == null ? 0 : fallback.draws());
+  }
+
+  @Override
+  public long evaluations() {
+    return evaluations + (fallback == null ? 0 : fallback.evaluations());
+  }
+
+  @Override
+  public String switchNote() {
+    return switchNote;
+  }
+
+  @Override
+  public long switchSweep() {
+    return switchSweep;
+  }
+
+  /** The conditional at the current state, recording each evaluation for the warm start. */
+  private final class Recorder implements DifferentiableLogDensity {
+    private final double[] slope = new double[1];
+    private double[] x = new double[16];
+    private double[] h = new double[16];
+    private double[] s = new double[16];
+    private double[] state;
+    private int count;
+
+    void start(double[] state) {
+      this.state = state;
+      this.count = 0;
+    }
+
+    @Override
+    public Evaluation evaluate(double u) {
+      int seen = find(u);
+      if (seen >= 0) {
+        return new Evaluation(h[seen], s[seen]);
+      }
+      slope[0] = Double.NaN;
+      double value = conditional.logDensity(u, state, slope);
+      record(u, value, slope[0]);
+      return new Evaluation(value, slope[0]);
+    }
+
+    /** The slope at {@code u}, evaluating (once) if needed. */
+    double slopeAt(double u) {
+      return evaluate(u).slope();
+    }
+
+    /** Where {@code u} was already evaluated in this update, else -1 (the state is unchanged). */
+    private int find(double u) {
+      for (int k = count - 1; k >= 0; k--) {
+        if (x[k] == u) {
+          return k;
+        }
+      }
+      return -1;
+    }
+
+    double value(double u) {
+      double value = conditional.logDensity(u, state, null);
+      record(u, value, Double.NaN);
+      return value;
+    }
+
+    private void record(double u, double value, double derivative) {
+      if (count == x.length) {
+        x = Arrays.copyOf(x, 2 * count);
+        h = Arrays.copyOf(h, 2 * count);
+        s = Arrays.copyOf(s, 2 * count);
+      }
+      x[count] = u;
+      h[count] = value;
+      s[count] = derivative;
+      count++;
+    }
+  }
+
+  /** Why the model chose this update. */
+  String reason() {
+    return reason;
+  }
+}

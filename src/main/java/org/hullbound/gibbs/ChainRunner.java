@@ -1,0 +1,164 @@
+package org.hullbound.gibbs;
+
+import java.time.Duration;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.concurrent.ExecutionException;
+import java.util.concurrent.ExecutorService;
+import java.util.concurrent.Executors;
+import java.util.concurrent.Future;
+import java.util.concurrent.atomic.AtomicInteger;
+import java.util.random.RandomGenerator;
+
+/**
+ * Runs several Markov chains in parallel threads: burn-in, thinning, kept draws, progress and a
+ * cooperative stop.
+ *
+ * <p>Each chain has its own generator ({@link ChainSeeds}) and its own kernel, made in chain order
+ * before the threads start, so that a seed and a chain count give the same draws bit for bit with
+ * one thread or many. The stop signal is read at the end of each sweep: a stopped run has handed on
+ * only whole draws.
+ */
+public final class ChainRunner {
+  /** How often, at most, each chain reports progress. */
+  private static final long PROGRESS_INTERVAL_NANOS = 250_000_000L;
+
+  private final RunSettings settings;
+  private final ProgressListener listener;
+  private final StopSignal stop;
+
+  private ChainRunner(RunSettings settings, ProgressListener listener, StopSignal stop) {
+    this.settings = settings;
+    this.listener = listener;
+    this.stop = stop;
+  }
+
+  /** A runner for {@code settings} that reports to {@code listener} and obeys {@code stop}. */
+  public static ChainRunner of(RunSettings settings, ProgressListener listener, StopSignal stop) {
+    if (settings == null) {
+      throw new IllegalArgumentException("settings must not be null");
+    }
+    if (listener == null) {
+      throw new IllegalArgumentException("listener must not be null");
+    }
+    if (stop == null) {
+      throw new IllegalArgumentException("stop must not be null");
+    }
+    return new ChainRunner(settings, listener, stop);
+  }
+
+  /**
+   * Runs every chain to its end or to a stop request, handing each kept draw to {@code sink}.
+   *
+   * @throws ChainFailedException when a kernel throws (the lowest-numbered failed chain is named)
+   */
+  public RunOutcome run(KernelFactory factory, DrawSink sink) {
+    RandomGenerator[] generators = ChainSeeds.split(settings.seed(), settings.chains());
+    List<ChainKernel> kernels = new ArrayList<>();
+    for (int chain = 0; chain < settings.chains(); chain++) {
+      kernels.add(factory.newChain(chain, generators[chain]));
+    }
+    StopSignal abort = StopSignal.create();
+    int[] kept = new int[settings.chains()];
+    AtomicInteger threadNumber = new AtomicInteger();
+    ExecutorService pool =
+        Executors.newFixedThreadPool(
+            Math.min(settings.threads(), settings.chains()),
+            task -> {
+              Thread thread = new Thread(task, "hullbound-chain-" + threadNumber.incrementAndGet());
+              thread.setDaemon(true);
+              return thread;
+            });
+    try {
+      List<Future<?>> futures = new ArrayList<>();
+      for (int chain = 0; chain < settings.chains(); chain++) {
+        int index = chain;
+        futures.add(
+            pool.submit(
+                () -> {
+                  kept[index] =
+                      runChain(index, kernels.get(index), generators[index], sink, abort);
+                  return null;
+                }));
+      }
+      ChainFailedException failure = null;
+      for (Future<?> future : futures) {
+        Throwable cause = awaitQuietly(future);
+        if (cause instanceof ChainFailedException chainFailure && failure == null) {
+          failure = chainFailure;
+        } else if (cause != null && failure == null) {
+          throw new IllegalStateException("chain thread failed", cause);
+        }
+      }
+      if (failure != null) {
+        throw failure;
+      }
+    } finally {
+      pool.shutdownNow();
+    }
+    boolean stoppedEarly = false;
+    for (int count : kept) {
+      stoppedEarly |= count < settings.draws();
+    }
+    return new RunOutcome(kernels, kept, stoppedEarly);
+  }
+
+  /** Waits for {@code future}; an interrupt of the waiting thread becomes a stop request. */
+  private Throwable awaitQuietly(Future<?> future) {
+    while (true) {
+      try {
+        future.get();
+        return null;
+      } catch (ExecutionException failed) {
+        return failed.getCause();
+      } catch (InterruptedException interrupted) {
+        stop.request();
+      }
+    }
+  }
+
+  private int runChain(
+      int chain, ChainKernel kernel, RandomGenerator rng, DrawSink sink, StopSignal abort) {
+    double[] row = new double[kernel.width()];
+    long total = settings.totalSweeps();
+    long start = System.nanoTime();
+    long lastReport = start;
+    int draws = 0;
+    long sweep = 0;
+    try {
+      while (sweep < total && !stop.isRequested() && !abort.isRequested()) {
+        sweep++;
+        kernel.sweep(rng);
+        long afterBurnIn = sweep - settings.burnIn();
+        if (afterBurnIn > 0 && afterBurnIn % settings.thin() == 0) {
+          draws++;
+          kernel.record(row);
+          sink.accept(chain, draws, row);
+        }
+        long now = System.nanoTime();
+        if (now - lastReport >= PROGRESS_INTERVAL_NANOS) {
+          lastReport = now;
+          listener.progress(progress(chain, sweep, draws, now - start, false));
+        }
+      }
+    } catch (RuntimeException | Error failure) {
+      abort.request();
+      listener.progress(progress(chain, sweep, draws, System.nanoTime() - start, true));
+      throw new ChainFailedException(chain, sweep, failure);
+    }
+    listener.progress(progress(chain, sweep, draws, System.nanoTime() - start, true));
+    return draws;
+  }
+
+  private ChainProgress progress(int chain, long sweeps, int draws, long elapsedNanos, boolean done) {
+    long total = settings.totalSweeps();
+    double sweepsPerSecond = elapsedNanos > 0 ? sweeps * 1e9 / elapsedNanos : 0.0;
+    Duration left =
+        done || sweepsPerSecond <= 0
+            ? Duration.ZERO
+            : Duration.ofMillis((long) Math.ceil((total - sweeps) / sweepsPerSecond * 1000.0));
+    return new ChainProgress(
+        chain, sweeps, settings.burnIn(), total, draws, settings.draws(),
+        sweepsPerSecond / settings.thin(), left, done);
+  }
+}

@@ -1,0 +1,291 @@
+package org.hullbound.gibbs;
+
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Map;
+import java.util.random.RandomGenerator;
+import org.hullbound.model.BoundModel;
+import org.hullbound.model.ConditionalDensity;
+import org.hullbound.model.Posterior;
+import org.hullbound.model.Unknown;
+import org.hullbound.model.Update;
+import org.hullbound.sampling.ConjugateDraws;
+
+/**
+ * The Gibbs sampler of a bound model: one update rule per scalar unknown, chosen from the model's
+ * analysis of its full conditional, and dispersed starting values.
+ *
+ * <p>Conjugate conditionals are drawn exactly; log-concave ones by adaptive rejection (tangents,
+ * or secants where the conditional is not smooth); the others by the fallback. Missing
+ * observations are unknowns like any other and are imputed the same way. Starting values: each
+ * unknown's prior location (from the model) moved by uniform(-2, 2) on its sampling scale
+ * (common practice; a draw from the prior is not offered by the model package), then the values
+ * given with {@code --init}.
+ */
+public final class ModelSampler {
+  private final BoundModel model;
+  private final GibbsSampler sampler;
+  private final List<String> labels;
+  private final List<String> reasons;
+
+  private ModelSampler(
+      BoundModel model, GibbsSampler sampler, List<String> labels, List<String> reasons) {
+    this.model = model;
+    this.sampler = sampler;
+    this.labels = labels;
+    this.reasons = reasons;
+  }
+
+  /**
+   * Builds the sampler of {@code model}.
+   *
+   * @param given starting values by label (natural scale), possibly empty
+   * @throws StartingValueException when a given value names no unknown or lies outside the support
+   */
+  public static ModelSampler of(BoundModel model, Map<String, Double> given) {
+    List<Unknown> unknowns = model.unknowns();
+    List<String> labels = new ArrayList<>();
+    for (Unknown unknown : unknowns) {
+      labels.add(unknown.label());
+    }
+    for (String name : given.keySet()) {
+      if (!labels.contains(name)) {
+        throw new StartingValueException(
+            "--init names '" + name + "', which is not an unknown of model " + model.name()
+                + "; unknowns are " + abbreviate(labels));
+      }
+    }
+    double[] base = model.initialState();
+    List<UpdateRule> rules = new ArrayList<>();
+    List<String> reasons = new ArrayList<>();
+    for (Unknown unknown : unknowns) {
+      int index = unknown.index();
+      Update update = model.update(index);
+      rules.add(ruleFor(unknown, model.conditional(index), update, base));
+      reasons.add(update.reason());
+    }
+    StartingValues starts = (state, rng) -> fill(model, base, given, state, rng);
+    // Fail before sampling when a given value is outside its support.
+    fill(model, base, given, base.clone(), new FixedUniform());
+    return new ModelSampler(
+        model, GibbsSampler.of(unknowns.size(), rules, starts), List.copyOf(labels),
+        List.copyOf(reasons));
+  }
+
+  /** The sampler to run. */
+  public GibbsSampler sampler() {
+    return sampler;
+  }
+
+  /** The columns of a draw: each unknown's label in state order. */
+  public List<String> labels() {
+    return labels;
+  }
+
+  /** Why each unknown's update was chosen, in state order. */
+  public List<String> reasons() {
+    return reasons;
+  }
+
+  public BoundModel model() {
+    return model;
+  }
+
+  private static UpdateRule ruleFor(
+      Unknown unknown, ConditionalDensity density, Update update, double[] base) {
+    int index = unknown.index();
+    ScalarConditional conditional = adapt(density);
+    if (update instanceof Update.Conjugate conjugate) {
+      Posterior sample = conjugate.posterior(base);
+      String family = sample.family();
+      List<String> names = sample.argumentNames();
+      if (conjugate.kind() == Update.ConjugateKind.PREDICTIVE) {
+        if (PredictiveDraw.supports(family, names)) {
+          double lower = unknown.lower();
+          double upper = unknown.upper();
+          return new UpdateRule.Conjugate(
+              index, "predictive " + family,
+              (state, rng) -> {
+                Posterior posterior = conjugate.posterior(state);
+                return PredictiveDraw.draw(
+                    family, names, posterior.arguments(),
+                    Double.isNaN(lower) ? Double.NEGATIVE_INFINITY : lower,
+                    Double.isNaN(upper) ? Double.POSITIVE_INFINITY : upper, rng);
+              });
+        }
+        return new UpdateRule.Fallback(index, conditional, "no exact draw for " + family);
+      }
+      return new UpdateRule.Conjugate(index, family, conjugateDraw(conjugate, family, names));
+    }
+    if (update instanceof Update.AdaptiveRejection && !unknown.discrete()) {
+      return new UpdateRule.AdaptiveRejection(index, conditional, update.reason());
+    }
+    return new UpdateRule.Fallback(index, conditional, update.reason());
+  }
+
+  private static UpdateRule.ConjugateDraw conjugateDraw(
+      Update.Conjugate conjugate, String family, List<String> names) {
+    switch (family) {
+      case "normal":
+        return (state, rng) -> {
+          double[] a = conjugate.posterior(state).arguments();
+          return ConjugateDraws.normal(rng, a[names.indexOf("mean")], a[names.indexOf("sd")]);
+        };
+      case "gamma":
+        return (state, rng) -> {
+          double[] a = conjugate.posterior(state).arguments();
+          return ConjugateDraws.gamma(rng, a[names.indexOf("shape")], a[names.indexOf("rate")]);
+        };
+      case "inv_gamma":
+        return (state, rng) -> {
+          double[] a = conjugate.posterior(state).arguments();
+          return ConjugateDraws.inverseGamma(
+              rng, a[names.indexOf("shape")], a[names.indexOf("scale")]);
+        };
+      case "beta":
+        return (state, rng) -> {
+          double[] a = conjugate.posterior(state).arguments();
+          return ConjugateDraws.beta(rng, a[names.indexOf("a")], a[names.indexOf("b")]);
+        };
+      default:
+        throw new IllegalStateException(
+            "the model offered a conjugate " + family + " posterior, which has no exact draw here");
+    }
+  }
+
+  /** The model's conditional seen through the driver's narrow interface. */
+  static ScalarConditional adapt(ConditionalDensity density) {
+    boolean discrete = density.unknown().discrete();
+    return new ScalarConditional() {
+      @Override
+      public double logDensity(double u, double[] state, double[] slope) {
+        return density.logDensity(u, state, slope);
+      }
+
+      @Override
+      public double toNatural(double u) {
+        return density.toNatural(u);
+      }
+
+      @Override
+      public double toSamplingScale(double v) {
+        return density.toSamplingScale(v);
+      }
+
+      @Override
+      public double lowerBound(double[] state) {
+        return density.lowerBound(state);
+      }
+
+      @Override
+      public double upperBound(double[] state) {
+        return density.upperBound(state);
+      }
+
+      @Override
+      public boolean smooth() {
+        return density.smooth();
+      }
+
+      @Override
+      public boolean discrete() {
+        return discrete;
+      }
+    };
+  }
+
+  /**
+   * Starting values in state order: the model's valid start moved by uniform(-2, 2) on each
+   * sampling scale and kept inside the support, then the given values. Where the dispersed values
+   * together have zero density (supports that depend on other unknowns), the undispersed start is
+   * used instead.
+   */
+  private static void fill(
+      BoundModel model, double[] base, Map<String, Double> given, double[] state,
+      RandomGenerator rng) {
+    disperse(model, base, given, state, rng, true);
+    if (zeroDensityAt(model, state) != null) {
+      disperse(model, base, given, state, rng, false);
+      Unknown fault = zeroDensityAt(model, state);
+      if (fault != null) {
+        String origin = given.containsKey(fault.label()) ? "given" : "model's";
+        throw new StartingValueException(
+            "the " + origin + " starting value " + fault.label() + " = " + state[fault.index()]
+                + " has zero density (support " + fault.support() + ")");
+      }
+    }
+  }
+
+  private static void disperse(
+      BoundModel model, double[] base, Map<String, Double> given, double[] state,
+      RandomGenerator rng, boolean dispersed) {
+    System.arraycopy(base, 0, state, 0, base.length);
+    for (Unknown unknown : model.unknowns()) {
+      int index = unknown.index();
+      ConditionalDensity density = model.conditional(index);
+      Double value = given.get(unknown.label());
+      if (value != null) {
+        state[index] = value;
+        continue;
+      }
+      double shift = rng.nextDouble(-2, 2);
+      if (unknown.discrete() || !dispersed) {
+        continue;
+      }
+      double u0 = density.toSamplingScale(base[index]);
+      double u = Double.isFinite(u0) ? u0 + shift : shift;
+      double lower = density.lowerBound(state);
+      double upper = density.upperBound(state);
+      if (!(u > lower && u < upper)) {
+        u = Double.isFinite(u0) && u0 > lower && u0 < upper ? u0 : middle(lower, upper);
+      }
+      state[index] = density.toNatural(u);
+    }
+  }
+
+  /** The first unknown whose conditional is zero (or undefined) at {@code state}, else null. */
+  private static Unknown zeroDensityAt(BoundModel model, double[] state) {
+    for (Unknown unknown : model.unknowns()) {
+      ConditionalDensity density = model.conditional(unknown.index());
+      double u = density.toSamplingScale(state[unknown.index()]);
+      double logDensity = density.logDensity(u, state, null);
+      if (!(logDensity > Double.NEGATIVE_INFINITY) || logDensity == Double.POSITIVE_INFINITY) {
+        return unknown;
+      }
+    }
+    return null;
+  }
+
+  private static double middle(double lower, double upper) {
+    if (Double.isFinite(lower) && Double.isFinite(upper)) {
+      return lower + (upper - lower) / 2;
+    }
+    if (Double.isFinite(lower)) {
+      return lower + 1;
+    }
+    if (Double.isFinite(upper)) {
+      return upper - 1;
+    }
+    return 0;
+  }
+
+  private static String abbreviate(List<String> labels) {
+    if (labels.size() <= 8) {
+      return String.join(", ", labels);
+    }
+    return String.join(", ", labels.subList(0, 8)) + ", ... (" + labels.size() + " in all)";
+  }
+
+  /** A generator that returns the middle of every range: for the up-front check only. */
+  private static final class FixedUniform implements RandomGenerator {
+    @Override
+    public long nextLong() {
+      return 0;
+    }
+
+    @Override
+    public double nextDouble(double origin, double bound) {
+      return origin + (bound - origin) / 2;
+    }
+  }
+}

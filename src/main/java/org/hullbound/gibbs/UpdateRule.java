@@ -1,0 +1,65 @@
+package org.hullbound.gibbs;
+
+import java.util.random.RandomGenerator;
+import java.util.function.Function;
+
+/**
+ * How one unknown (or one block of unknowns) is updated in a sweep, as the model's analysis chose:
+ * a closed set of kinds from exact to approximate.
+ *
+ * <p>A rule is shared by all chains; {@link GibbsSampler} turns it into one {@link Updater} per
+ * chain, which holds the chain's warm-start state and counters.
+ */
+public sealed interface UpdateRule {
+
+  /** The state entries this rule updates. */
+  int[] indices();
+
+  /** An exact draw from a conjugate full conditional; uses no density evaluation. */
+  record Conjugate(int index, String family, ConjugateDraw draw) implements UpdateRule {
+    @Override
+    public int[] indices() {
+      return new int[] {index};
+    }
+  }
+
+  /** A block of coefficients with a multivariate normal full conditional in canonical form. */
+  record BlockNormal(int[] block, Function<double[], CanonicalNormal> posterior)
+      implements UpdateRule {
+    public BlockNormal {
+      block = block.clone();
+    }
+
+    @Override
+    public int[] indices() {
+      return block.clone();
+    }
+  }
+
+  /** Adaptive rejection on a conditional known to be log-concave (Gilks and Wild 1992). */
+  record AdaptiveRejection(int index, ScalarConditional conditional, String reason)
+      implements UpdateRule {
+    @Override
+    public int[] indices() {
+      return new int[] {index};
+    }
+  }
+
+  /**
+   * Adaptive rejection Metropolis (Gilks, Best and Tan 1995) where log-concavity is not
+   * established.
+   */
+  record Fallback(int index, ScalarConditional conditional, String reason) implements UpdateRule {
+    @Override
+    public int[] indices() {
+      return new int[] {index};
+    }
+  }
+
+  /** Draws one unknown exactly from its conjugate full conditional given the state. */
+  @FunctionalInterface
+  interface ConjugateDraw {
+    /** A draw on the sampling scale. */
+    double draw(double[] state, RandomGenerator rng);
+  }
+}

@@ -1,0 +1,315 @@
+package org.hullbound.hull;
+
+import java.util.random.RandomGenerator;
+
+/**
+ * The draw loop shared by the tangent and the secant form: sampling, squeezing and rejection tests
+ * and the updating step of Gilks and Wild (1992, section 2.2), over a {@link PiecewiseExponential}
+ * that the subclass rebuilds.
+ *
+ * <p>The loop allocates nothing while the squeeze accepts; abscissae are kept sorted in growable
+ * arrays so that a fresh sampler per draw (as in Gibbs sampling) stays cheap to make.
+ */
+abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
+
+  /** Initial room for abscissae; arrays grow by doubling up to the cap. */
+  private static final int INITIAL_CAPACITY = 8;
+
+  /** Where an automatic start falls outside a bound: this fraction of the way from the bound in. */
+  private static final double INSIDE_BOUND = 0.1;
+
+  final Support support;
+  final int maximumHullSize;
+  final double tolerance;
+  final int maximumSearchSteps;
+  final PiecewiseExponential pieces;
+  double[] xs;
+  double[] hs;
+  int k;
+  /** Set when abscissae were added: the pieces are rebuilt before the next proposal needs them. */
+  private boolean stale;
+
+  long evaluations;
+  long proposals;
+  long squeezeAcceptances;
+  long densityAcceptances;
+  long rejections;
+
+  AdaptiveSampler(Support support, HullOptions options, int piecesPerPoint) {
+    if (support == null) {
+      throw new IllegalArgumentException("support must not be null");
+    }
+    if (options == null) {
+      throw new IllegalArgumentException("options must not be null");
+    }
+    this.support = support;
+    this.maximumHullSize = options.maximumHullSize();
+    this.tolerance = options.logConcavityTolerance();
+    this.maximumSearchSteps = options.maximumSearchSteps();
+    this.pieces = new PiecewiseExponential(piecesPerPoint * INITIAL_CAPACITY + 2);
+    this.xs = new double[INITIAL_CAPACITY];
+    this.hs = new double[INITIAL_CAPACITY];
+  }
+
+  @Override
+  public final double sample(RandomGenerator rng) {
+    PiecewiseExponential p = pieces;
+    while (true) {
+      refresh();
+      proposals++;
+      // Gilks and Wild 1992, sampling step: draw x* from the normalised envelope exp(E_k)
+      int j = p.select(rng.nextDouble());
+      double x = p.position(j, rng.nextDouble());
+      double w = rng.nextDouble();
+      double[] d = p.packed;
+      int at = PiecewiseExponential.STRIDE * j;
+      double offset = x - d[at + PiecewiseExponential.ANCHOR];
+      double gap =
+          d[at + PiecewiseExponential.GAP_VALUE] + d[at + PiecewiseExponential.GAP_SLOPE] * offset;
+      // squeezing test: accept when w <= exp(l_k(x*) - E_k(x*)), with no evaluation of h;
+      // 1 - gap <= exp(-gap) decides almost every case without the exponential
+      if (w < 1.0 - gap || w < Math.exp(-gap)) {
+        squeezeAcceptances++;
+        return x;
+      }
+      // on a piece drawn uniformly under its top, E_k > u_k: w above exp(u_k - E_k) is rejected
+      // by the hull itself, before h is evaluated
+      double raise =
+          d[at + PiecewiseExponential.RAISE_VALUE]
+              + d[at + PiecewiseExponential.RAISE_SLOPE] * offset;
+      if (!(w < 1.0 - raise) && !(w < Math.exp(-raise))) {
+        rejections++;
+        continue;
+      }
+      double hullTerm = p.slope[j] * offset;
+      double upper = p.value[j] + hullTerm;
+      double termScale = Math.abs(p.value[j]) + Math.abs(hullTerm);
+      // rejection test: evaluate h(x*) and accept when w <= exp(h(x*) - E_k(x*));
+      // updating step: the subclass adds x* to the abscissae
+      double h = evaluateAndRefine(j, x, upper, upper - (gap - raise), termScale);
+      if (w < Math.exp(h - upper - raise)) {
+        densityAcceptances++;
+        return x;
+      }
+      rejections++;
+    }
+  }
+
+  /**
+   * Evaluates h at a proposal that failed the squeeze test, checks it against the hull, adds it
+   * when there is room, and returns h(x).
+   *
+   * @param piece the piece of the hull that x was drawn from
+   * @param upper the hull at x before the update
+   * @param squeeze the squeeze at x before the update (-inf where there is none)
+   * @param termScale magnitude of the terms that made {@code upper}, for the rounding tolerance
+   */
+  abstract double evaluateAndRefine(
+      int piece, double x, double upper, double squeeze, double termScale);
+
+  /** Rebuilds {@link #pieces} from the abscissae. */
+  abstract void rebuild();
+
+  /**
+   * Notes that abscissae were added; the rebuild waits for the next proposal, so a sampler used
+   * for one draw (a fresh density per Gibbs step) never rebuilds after its last evaluation.
+   */
+  final void markStale() {
+    stale = true;
+  }
+
+  private void refresh() {
+    if (stale) {
+      rebuild();
+      stale = false;
+    }
+  }
+
+  @Override
+  public final SamplerStatistics statistics() {
+    return new SamplerStatistics(
+        evaluations, proposals, squeezeAcceptances, densityAcceptances, rejections, k);
+  }
+
+  @Override
+  public final double[] abscissae() {
+    double[] copy = new double[k];
+    System.arraycopy(xs, 0, copy, 0, k);
+    return copy;
+  }
+
+  @Override
+  public final HullSnapshot snapshot() {
+    refresh();
+    return HullSnapshot.of(xs, hs, k, pieces);
+  }
+
+  @Override
+  public final Support support() {
+    return support;
+  }
+
+  /** Index of the first abscissa greater than {@code x}. */
+  final int insertionIndex(double x) {
+    int lo = 0;
+    int hi = k;
+    while (lo < hi) {
+      int mid = (lo + hi) >>> 1;
+      if (xs[mid] > x) {
+        hi = mid;
+      } else {
+        lo = mid + 1;
+      }
+    }
+    return lo;
+  }
+
+  /** True when {@code x} equals an abscissa next to insertion index {@code i}. */
+  final boolean isAbscissa(int i, double x) {
+    return (i > 0 && xs[i - 1] == x) || (i < k && xs[i] == x);
+  }
+
+  /** Makes room for one more abscissa; subclasses grow their own arrays alongside. */
+  double[] grow(double[] array) {
+    if (k < array.length) {
+      return array;
+    }
+    double[] bigger = new double[Math.max(2 * array.length, INITIAL_CAPACITY)];
+    System.arraycopy(array, 0, bigger, 0, k);
+    return bigger;
+  }
+
+  /** Shifts {@code array[i..k)} one place up and stores {@code value} at i (k not yet counted). */
+  static void insertAt(double[] array, int k, int i, double value) {
+    System.arraycopy(array, i, array, i + 1, k - i);
+    array[i] = value;
+  }
+
+  /** The tolerance for a value comparison among log-density values of the given magnitude. */
+  final double valueTolerance(double magnitude) {
+    return tolerance * Math.max(1.0, magnitude);
+  }
+
+  /** Throws when h(x) lies above the hull or below the squeeze beyond the tolerance. */
+  final void checkAgainstEnvelope(double x, double h, double upper, double squeeze, double terms) {
+    double allowed = valueTolerance(Math.max(Math.max(Math.abs(h), Math.abs(upper)), terms));
+    if (h > upper + allowed) {
+      throw new NotLogConcaveException(
+          "h is not log-concave: at x = "
+              + x
+              + ", h(x) = "
+              + h
+              + " lies above the upper hull value "
+              + upper
+              + " (tolerance "
+              + allowed
+              + ")",
+          x);
+    }
+    if (h < squeeze - allowed) {
+      throw new NotLogConcaveException(
+          "h is not log-concave: at x = "
+              + x
+              + ", h(x) = "
+              + h
+              + " lies below the chord (squeeze) value "
+              + squeeze
+              + " (tolerance "
+              + allowed
+              + ")",
+          x);
+    }
+  }
+
+  /** Throws for NaN or +inf; -inf is allowed where {@code allowMinusInfinity}. */
+  static void checkValue(double x, double h, boolean allowMinusInfinity) {
+    if (Double.isNaN(h) || h == Double.POSITIVE_INFINITY) {
+      throw new InvalidDensityException(
+          "h(x) = " + h + " at x = " + x + ": expected a finite log density (or -inf)", x, h);
+    }
+    if (h == Double.NEGATIVE_INFINITY && !allowMinusInfinity) {
+      throw new InvalidDensityException(
+          "h(x) = -inf at starting abscissa x = "
+              + x
+              + ": starting abscissae must lie where the density is positive; is the support right?",
+          x,
+          h);
+    }
+  }
+
+  /** Checks caller-given starting abscissae lie strictly inside the support. */
+  final double[] checkedStart(double[] start) {
+    for (double x : start) {
+      if (!support.containsInInterior(x)) {
+        throw new IllegalArgumentException(
+            "starting abscissa " + x + " must lie strictly inside the support " + support);
+      }
+    }
+    return start;
+  }
+
+  /**
+   * Automatic starting abscissae: guess - spread and guess + spread (and the guess itself when
+   * {@code withCentre}), the guess moved into the support, points past a bound moved a fraction of
+   * the way in from it.
+   */
+  final double[] automaticStart(double guess, double spread, boolean withCentre) {
+    double lower = support.lower();
+    double upper = support.upper();
+    double centre = guess;
+    if (!support.containsInInterior(centre)) {
+      double room =
+          support.isBoundedBelow() && support.isBoundedAbove()
+              ? Math.min(spread, 0.5 * (upper - lower))
+              : spread;
+      centre = guess <= lower ? lower + room : upper - room;
+    }
+    double left = centre - spread;
+    if (left <= lower) {
+      left = lower + INSIDE_BOUND * (centre - lower);
+    }
+    double right = centre + spread;
+    if (right >= upper) {
+      right = upper - INSIDE_BOUND * (upper - centre);
+    }
+    double[] start = withCentre ? new double[] {left, centre, right} : new double[] {left, right};
+    for (int i = 0; i < start.length; i++) {
+      if (!support.containsInInterior(start[i]) || (i > 0 && !(start[i] > start[i - 1]))) {
+        throw new IllegalArgumentException(
+            "cannot place distinct starting abscissae inside the support "
+                + support
+                + " from guess "
+                + guess
+                + " and spread "
+                + spread
+                + "; give a spread on the scale of the support");
+      }
+    }
+    return start;
+  }
+
+  /** The first outward step for a search from the given starting abscissae. */
+  final double initialStep(double spread) {
+    double range = k > 1 ? xs[k - 1] - xs[0] : 0.0;
+    return range > 0 ? range : spread;
+  }
+
+  /** Thrown when an unbounded side needs more outward steps than allowed. */
+  final NonIntegrableHullException noFallingSlope(boolean lowerSide, double x, double slope) {
+    return new NonIntegrableHullException(
+        "the hull is not integrable: on the unbounded "
+            + (lowerSide ? "lower" : "upper")
+            + " side the slope is still "
+            + slope
+            + " at x = "
+            + x
+            + " after "
+            + maximumSearchSteps
+            + " doubling steps outward (expected "
+            + (lowerSide ? "> 0" : "< 0")
+            + "); is the density proper on "
+            + support
+            + "?",
+        x);
+  }
+}
