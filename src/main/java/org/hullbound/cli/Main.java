@@ -15,7 +15,12 @@ import picocli.CommandLine.Command;
     versionProvider = VersionProvider.class,
     description = "Exact draws from log-concave densities, and Gibbs fits of small models.",
     subcommands = {
-      CommandLine.HelpCommand.class, CheckCommand.class, FitCommand.class, ValidateCommand.class,
+      CommandLine.HelpCommand.class,
+      CheckCommand.class,
+      FitCommand.class,
+      SummarizeCommand.class,
+      DrawCommand.class,
+      ValidateCommand.class,
       CalibrateCommand.class
     })
 public final class Main implements Runnable {
