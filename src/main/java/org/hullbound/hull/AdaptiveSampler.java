@@ -13,7 +13,7 @@ import java.util.random.RandomGenerator;
 abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
 
   /** Initial room for abscissae; arrays grow by doubling up to the cap. */
-  private static final int INITIAL_CAPACITY = 8;
+  private static final int INITIAL_CAPACITY = 4;
 
   /** Where an automatic start falls outside a bound: this fraction of the way from the bound in. */
   private static final double INSIDE_BOUND = 0.1;
