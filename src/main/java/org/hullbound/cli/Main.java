@@ -34,7 +34,29 @@ public final class Main implements Runnable {
   boolean debug;
 
   public static void main(String[] args) {
-    System.exit(commandLine().execute(args));
+    System.exit(run(args));
+  }
+
+  /**
+   * Runs the command line; an {@link Error} that escapes picocli's handling (out of memory, a
+   * stack overflow) still becomes a one-line message and exit status 1, never a stack trace
+   * unless {@code --debug} was given.
+   */
+  static int run(String[] args) {
+    try {
+      return commandLine().execute(args);
+    } catch (OutOfMemoryError e) {
+      System.err.println(
+          "hullbound: out of memory; give the JVM more, e.g. HULLBOUND_JAVA_OPTS=-Xmx8g, or keep"
+              + " fewer draws (--draws, --thin)");
+      return ErrorReporting.FAILURE;
+    } catch (Error e) {
+      System.err.println("hullbound: internal error: " + e);
+      if (java.util.Arrays.asList(args).contains("--debug")) {
+        e.printStackTrace();
+      }
+      return ErrorReporting.FAILURE;
+    }
   }
 
   /** The configured command line, shared by {@link #main} and the tests. */
