@@ -57,29 +57,37 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
     while (true) {
       refresh();
       proposals++;
-      // Gilks and Wild 1992, sampling step: draw x* from the normalised exp(u_k)
+      // Gilks and Wild 1992, sampling step: draw x* from the normalised envelope exp(E_k)
       int j = p.select(rng.nextDouble());
       double x = p.position(j, rng.nextDouble());
       double w = rng.nextDouble();
+      double[] d = p.packed;
       int at = PiecewiseExponential.STRIDE * j;
-      double[] packed = p.packed;
-      double offset = x - packed[at + PiecewiseExponential.ANCHOR];
+      double offset = x - d[at + PiecewiseExponential.ANCHOR];
       double gap =
-          packed[at + PiecewiseExponential.GAP_VALUE]
-              + packed[at + PiecewiseExponential.GAP_SLOPE] * offset;
-      // squeezing test: accept when w <= exp(l_k(x*) - u_k(x*)), with no evaluation of h;
+          d[at + PiecewiseExponential.GAP_VALUE] + d[at + PiecewiseExponential.GAP_SLOPE] * offset;
+      // squeezing test: accept when w <= exp(l_k(x*) - E_k(x*)), with no evaluation of h;
       // 1 - gap <= exp(-gap) decides almost every case without the exponential
       if (w < 1.0 - gap || w < Math.exp(-gap)) {
         squeezeAcceptances++;
         return x;
       }
+      // on a piece drawn uniformly under its top, E_k > u_k: w above exp(u_k - E_k) is rejected
+      // by the hull itself, before h is evaluated
+      double raise =
+          d[at + PiecewiseExponential.RAISE_VALUE]
+              + d[at + PiecewiseExponential.RAISE_SLOPE] * offset;
+      if (!(w < 1.0 - raise) && !(w < Math.exp(-raise))) {
+        rejections++;
+        continue;
+      }
       double hullTerm = p.slope[j] * offset;
       double upper = p.value[j] + hullTerm;
       double termScale = Math.abs(p.value[j]) + Math.abs(hullTerm);
-      // rejection test: evaluate h(x*) and accept when w <= exp(h(x*) - u_k(x*));
+      // rejection test: evaluate h(x*) and accept when w <= exp(h(x*) - E_k(x*));
       // updating step: the subclass adds x* to the abscissae
-      double h = evaluateAndRefine(j, x, upper, upper - gap, termScale);
-      if (w < Math.exp(h - upper)) {
+      double h = evaluateAndRefine(j, x, upper, upper - (gap - raise), termScale);
+      if (w < Math.exp(h - upper - raise)) {
         densityAcceptances++;
         return x;
       }

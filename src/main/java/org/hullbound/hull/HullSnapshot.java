@@ -59,22 +59,36 @@ public final class HullSnapshot {
     return pieces.slope[checkIndex(i)];
   }
 
-  /** log of each segment's mass, the integral of exp(hull) over it. */
+  /** log of each segment's mass, the integral of exp(envelope) over it. */
   public double[] logSegmentMasses() {
     double[] masses = new double[pieces.size];
     System.arraycopy(pieces.logMass, 0, masses, 0, pieces.size);
     return masses;
   }
 
-  /** log of the hull's total mass. */
+  /** log of the envelope's total mass. */
   public double logTotalMass() {
     return pieces.logScale + Math.log(pieces.total);
   }
 
-  /** The upper hull u(x); -inf outside the support. */
+  /**
+   * The upper envelope the sampler draws from at x: the hull u(x), raised to the top of its segment
+   * on segments drawn from uniformly (see {@link #isUniformSegment(int)}); -inf outside the support.
+   */
   public double logHull(double x) {
     int j = pieces.pieceOf(x);
+    return j < 0 ? Double.NEGATIVE_INFINITY : pieces.envelope(j, x);
+  }
+
+  /** The piecewise-linear hull u(x) of tangents (or secants) itself; -inf outside the support. */
+  public double logLinearHull(double x) {
+    int j = pieces.pieceOf(x);
     return j < 0 ? Double.NEGATIVE_INFINITY : pieces.value[j] + pieces.slope[j] * (x - pieces.anchor[j]);
+  }
+
+  /** True when segment {@code i} is drawn from uniformly under the top of the hull there. */
+  public boolean isUniformSegment(int i) {
+    return pieces.uniform[checkIndex(i)];
   }
 
   /** The squeeze l(x) as the sampler uses it; -inf outside the outermost abscissae. */
@@ -92,7 +106,7 @@ public final class HullSnapshot {
     return Squeeze.logSqueeze(abscissae, values, abscissae.length, x);
   }
 
-  /** The distribution function of the normalised hull exp(u) at {@code x}. */
+  /** The distribution function of the normalised envelope exp(E) at {@code x}. */
   public double hullCdf(double x) {
     if (!(x > pieces.left[0])) {
       return 0.0;
@@ -102,15 +116,11 @@ public final class HullSnapshot {
     }
     int j = pieces.pieceOf(x);
     double below = j > 0 ? pieces.cumulative[j - 1] : 0.0;
-    double part =
-        Math.exp(
-            PiecewiseExponential.logMass(
-                    pieces.left[j], x, pieces.anchor[j], pieces.value[j], pieces.slope[j])
-                - pieces.logScale);
+    double part = Math.exp(pieces.logPartialMass(j, x) - pieces.logScale);
     return Math.min(1.0, (below + part) / pieces.total);
   }
 
-  /** One draw from the normalised hull exp(u) alone, without the rejection step. */
+  /** One draw from the normalised envelope exp(E) alone, without the rejection step. */
   public double drawFromHull(RandomGenerator rng) {
     int j = pieces.select(rng.nextDouble());
     return pieces.position(j, rng.nextDouble());

@@ -9,45 +9,35 @@ import java.util.Arrays;
  * <p>Both hulls (tangents, Gilks and Wild 1992; secants, Gilks 1992) are written into this one form
  * so that the draw path is shared. The squeeze is kept as the gap u(x) - l(x) = gapValue + gapSlope
  * (x - anchor), +inf where there is no squeeze. Masses are kept in log space and normalised to
- * cumulative weights relative to the largest piece; a piece is chosen by binary search over them
- * and the point by inverting its exponential distribution function. Package-private and mutable:
- * the sampler rebuilds it after every insertion and reads its arrays directly on the draw path.
+ * cumulative weights relative to the largest piece; a piece is chosen by a guide table over them
+ * and the point by inverting its exponential distribution function.
+ *
+ * <p>A piece over which u rises by at most {@value #UNIFORM_LIMIT} is drawn from as if the hull
+ * were constant at its top there (the envelope E = max u on the piece, still above h): its point
+ * is uniform and needs no logarithm, which is most of the cost of a draw; a proposal that falls
+ * between u and E is rejected without evaluating h. On such a piece at most 1 - (1 - e^-0.5) / 0.5
+ * = 21% of proposals are lost that way. Package-private and mutable: the sampler rebuilds it after
+ * insertions and reads {@link #packed} directly on the draw path.
  */
 final class PiecewiseExponential {
 
-  /** Below this decay a piece is treated with a series, so near-flat pieces keep full precision. */
-  private static final double SMALL_DECAY = 1e-4;
+  /** Largest rise |slope| * width of u over a piece that is drawn from uniformly. */
+  static final double UNIFORM_LIMIT = 0.5;
 
   double[] left;
   double[] right;
   double[] anchor;
   double[] value;
   double[] slope;
+  /** u - l at the anchor and its slope; +inf (slope 0) where there is no squeeze. */
   double[] gapValue;
   double[] gapSlope;
-  /** 1 - exp(-|slope| width): the share of an untruncated exponential that the piece holds. */
-  double[] decay;
-  /** decay / |slope|, computed without dividing by a tiny slope: the piece's effective width. */
-  double[] effectiveWidth;
-  /** 1 / |slope|, so that the draw path multiplies instead of dividing. */
-  double[] inverseSlope;
-  /**
-   * What the draw path reads, packed {@value #STRIDE} doubles a piece so that one draw touches one
-   * or two cache lines: the end the inversion measures from (upper on rising pieces), 1 / |slope|
-   * signed toward the inside of the piece (no branch on the slope's sign), decay, both ends, anchor
-   * and the squeeze gap.
-   */
-  double[] packed;
-
-  static final int STRIDE = 8;
-  static final int ORIGIN = 0;
-  static final int SIGNED_INVERSE_SLOPE = 1;
-  static final int DECAY = 2;
-  static final int LEFT = 3;
-  static final int RIGHT = 4;
-  static final int ANCHOR = 5;
-  static final int GAP_VALUE = 6;
-  static final int GAP_SLOPE = 7;
+  /** E - u at the anchor and its slope: 0 on exponential pieces, top - u on uniform ones. */
+  double[] raiseValue;
+  double[] raiseSlope;
+  /** True where the piece is drawn from uniformly under its top. */
+  boolean[] uniform;
+  /** log of the integral of exp(E) over the piece. */
   double[] logMass;
   double[] cumulative;
   /**
@@ -55,6 +45,30 @@ final class PiecewiseExponential {
    * cumulative weight exceeds i / size of the total, so a piece is found in about one step.
    */
   int[] guide;
+
+  /**
+   * What the draw path reads, packed {@value #STRIDE} doubles a piece so that one draw touches one
+   * or two cache lines instead of one per array.
+   */
+  double[] packed;
+
+  static final int STRIDE = 10;
+  /** The end a point is measured from: lower end, or the upper end of a rising exponential piece. */
+  static final int ORIGIN = 0;
+  /** Uniform piece: its width; exponential piece: 1 / |slope| signed toward the inside. */
+  static final int SCALE = 1;
+  /** Exponential piece: 1 - exp(-|slope| width), the share of the exponential it holds; -1 if uniform. */
+  static final int DECAY = 2;
+  static final int LEFT = 3;
+  static final int RIGHT = 4;
+  static final int ANCHOR = 5;
+  /** E - l at the anchor and its slope. */
+  static final int GAP_VALUE = 6;
+  static final int GAP_SLOPE = 7;
+  /** E - u at the anchor and its slope. */
+  static final int RAISE_VALUE = 8;
+  static final int RAISE_SLOPE = 9;
+
   int size;
   double total;
   double logScale;
@@ -71,13 +85,13 @@ final class PiecewiseExponential {
     slope = new double[capacity];
     gapValue = new double[capacity];
     gapSlope = new double[capacity];
-    decay = new double[capacity];
-    effectiveWidth = new double[capacity];
-    inverseSlope = new double[capacity];
-    packed = new double[STRIDE * capacity];
+    raiseValue = new double[capacity];
+    raiseSlope = new double[capacity];
+    uniform = new boolean[capacity];
     logMass = new double[capacity];
     cumulative = new double[capacity];
     guide = new int[capacity];
+    packed = new double[STRIDE * capacity];
   }
 
   /** Empties the pieces and makes room for at least {@code capacity} of them. */
@@ -114,60 +128,14 @@ final class PiecewiseExponential {
   }
 
   /**
-   * Computes log masses and cumulative weights.
+   * Computes the envelope of each piece, its log mass and the cumulative weights.
    *
    * @throws NonIntegrableHullException when an unbounded piece does not fall away
    */
   void seal() {
     double largest = Double.NEGATIVE_INFINITY;
     for (int j = 0; j < size; j++) {
-      double s = slope[j];
-      double width = right[j] - left[j];
-      if (width == Double.POSITIVE_INFINITY) {
-        boolean falls = left[j] == Double.NEGATIVE_INFINITY ? s > 0 : s < 0;
-        if (!falls) {
-          double at = left[j] == Double.NEGATIVE_INFINITY ? right[j] : left[j];
-          throw new NonIntegrableHullException(
-              "the hull is not integrable: on the unbounded "
-                  + (left[j] == Double.NEGATIVE_INFINITY ? "lower" : "upper")
-                  + " side the outermost slope at x = "
-                  + at
-                  + " is "
-                  + s
-                  + ", expected "
-                  + (left[j] == Double.NEGATIVE_INFINITY ? "> 0" : "< 0")
-                  + "; is the density proper on this support?",
-              at);
-        }
-        decay[j] = 1.0;
-        effectiveWidth[j] = 1.0 / Math.abs(s);
-        double end = left[j] == Double.NEGATIVE_INFINITY ? right[j] : left[j];
-        logMass[j] = value[j] + s * (end - anchor[j]) - Math.log(Math.abs(s));
-      } else {
-        // the same masses as logMass(...), sharing exp(-t) with the decay
-        double t = Math.abs(s) * width;
-        double top = value[j] + s * ((s > 0 ? right[j] : left[j]) - anchor[j]);
-        if (t > 1) {
-          decay[j] = 1.0 - Math.exp(-t);
-          logMass[j] = top + Math.log(decay[j]) - Math.log(Math.abs(s));
-          effectiveWidth[j] = decay[j] / Math.abs(s);
-        } else {
-          double relative = relativeDecay(t);
-          decay[j] = t * relative;
-          logMass[j] = top + Math.log(width) + Math.log(relative);
-          effectiveWidth[j] = width * relative;
-        }
-      }
-      inverseSlope[j] = 1.0 / Math.abs(s);
-      int at = STRIDE * j;
-      packed[at + ORIGIN] = s > 0 ? right[j] : left[j];
-      packed[at + SIGNED_INVERSE_SLOPE] = s > 0 ? -inverseSlope[j] : inverseSlope[j];
-      packed[at + DECAY] = decay[j];
-      packed[at + LEFT] = left[j];
-      packed[at + RIGHT] = right[j];
-      packed[at + ANCHOR] = anchor[j];
-      packed[at + GAP_VALUE] = gapValue[j];
-      packed[at + GAP_SLOPE] = gapSlope[j];
+      sealPiece(j);
       if (logMass[j] > largest) {
         largest = logMass[j];
       }
@@ -194,6 +162,70 @@ final class PiecewiseExponential {
     }
   }
 
+  private void sealPiece(int j) {
+    double s = slope[j];
+    double width = right[j] - left[j];
+    double decay;
+    double scale;
+    double origin;
+    if (width == Double.POSITIVE_INFINITY) {
+      boolean lowerSide = left[j] == Double.NEGATIVE_INFINITY;
+      double end = lowerSide ? right[j] : left[j];
+      if (!(lowerSide ? s > 0 : s < 0)) {
+        throw new NonIntegrableHullException(
+            "the hull is not integrable: on the unbounded "
+                + (lowerSide ? "lower" : "upper")
+                + " side the outermost slope at x = "
+                + end
+                + " is "
+                + s
+                + ", expected "
+                + (lowerSide ? "> 0" : "< 0")
+                + "; is the density proper on this support?",
+            end);
+      }
+      uniform[j] = false;
+      raiseValue[j] = 0;
+      raiseSlope[j] = 0;
+      logMass[j] = value[j] + s * (end - anchor[j]) - Math.log(Math.abs(s));
+      decay = 1.0;
+      origin = end;
+      scale = -1.0 / s; // toward the inside: < 0 on the lower side, > 0 on the upper
+    } else {
+      double t = Math.abs(s) * width;
+      double top = value[j] + s * ((s > 0 ? right[j] : left[j]) - anchor[j]);
+      if (t <= UNIFORM_LIMIT) {
+        uniform[j] = true;
+        raiseValue[j] = top - value[j];
+        raiseSlope[j] = -s;
+        logMass[j] = top + Math.log(width);
+        decay = -1.0;
+        origin = left[j];
+        scale = width;
+      } else {
+        // t > 0.5: 1 - exp(-t) >= 0.39, so the subtraction loses nothing
+        uniform[j] = false;
+        raiseValue[j] = 0;
+        raiseSlope[j] = 0;
+        decay = 1.0 - Math.exp(-t);
+        logMass[j] = top + Math.log(decay) - Math.log(Math.abs(s));
+        origin = s > 0 ? right[j] : left[j];
+        scale = -1.0 / s;
+      }
+    }
+    int at = STRIDE * j;
+    packed[at + ORIGIN] = origin;
+    packed[at + SCALE] = scale;
+    packed[at + DECAY] = decay;
+    packed[at + LEFT] = left[j];
+    packed[at + RIGHT] = right[j];
+    packed[at + ANCHOR] = anchor[j];
+    packed[at + GAP_VALUE] = raiseValue[j] + gapValue[j];
+    packed[at + GAP_SLOPE] = raiseSlope[j] + gapSlope[j];
+    packed[at + RAISE_VALUE] = raiseValue[j];
+    packed[at + RAISE_SLOPE] = raiseSlope[j];
+  }
+
   /**
    * The piece whose cumulative weight first exceeds {@code u * total}, u in [0, 1): the inverse of
    * the discrete distribution of piece masses, by the guide table.
@@ -214,25 +246,34 @@ final class PiecewiseExponential {
   }
 
   /**
-   * Inverts the exponential distribution of piece {@code j} at {@code u} in [0, 1): measured from
-   * the lower end (P(X &lt;= x) = u) on falling or flat pieces, from the upper end (P(X &gt;= x) =
-   * u) on rising ones, so that the logarithm always acts on the side where the mass is.
+   * The point of piece {@code j} at {@code u} in [0, 1) under its envelope: uniform pieces at u of
+   * their width; exponential pieces by inverting the distribution function from the end where the
+   * mass is (P(X &lt;= x) = u on falling pieces, P(X &gt;= x) = u on rising ones).
    */
   double position(int j, double u) {
     double[] d = packed;
     int at = STRIDE * j;
     double q = d[at + DECAY];
-    double step;
-    if (q < SMALL_DECAY) {
-      // -log(1 - p) / p = 1 + p/2 + p^2/3 + p^3/4 + ...; truncation error below p^4/5 < 3e-17
-      double p = u * q;
-      double y = u * effectiveWidth[j] * (1.0 + p * (0.5 + p * (1.0 / 3.0 + 0.25 * p)));
-      step = Math.copySign(y, d[at + SIGNED_INVERSE_SLOPE]);
+    double x;
+    if (q < 0) {
+      x = d[at + ORIGIN] + u * d[at + SCALE];
     } else {
-      step = -Math.log(1.0 - u * q) * d[at + SIGNED_INVERSE_SLOPE];
+      // -log(1 - u q) / |slope|, with q >= 0.39, so 1 - u q keeps its digits
+      x = d[at + ORIGIN] - Math.log(1.0 - u * q) * d[at + SCALE];
     }
-    double x = d[at + ORIGIN] + step;
-    return Math.min(Math.max(x, d[at + LEFT]), d[at + RIGHT]);
+    // rounding may step just outside the piece; plain comparisons, cheaper than Math.min/max
+    double lower = d[at + LEFT];
+    if (x < lower) {
+      return lower;
+    }
+    double upper = d[at + RIGHT];
+    return x > upper ? upper : x;
+  }
+
+  /** The envelope E(x) of piece {@code j}: u(x) raised to the piece's top on uniform pieces. */
+  double envelope(int j, double x) {
+    double offset = x - anchor[j];
+    return value[j] + slope[j] * offset + raiseValue[j] + raiseSlope[j] * offset;
   }
 
   /** The index of the piece containing {@code x}, or -1 outside all pieces. */
@@ -253,6 +294,14 @@ final class PiecewiseExponential {
     return lo;
   }
 
+  /** log of the integral of exp(E) over [left of piece j, x], x inside the piece. */
+  double logPartialMass(int j, double x) {
+    if (uniform[j]) {
+      return logMass[j] + Math.log((x - left[j]) / (right[j] - left[j]));
+    }
+    return logMass(left[j], x, anchor[j], value[j], slope[j]);
+  }
+
   /** log of the integral of exp(value + slope (x - anchor)) over [lower, upper]. */
   static double logMass(double lower, double upper, double anchor, double value, double slope) {
     double width = upper - lower;
@@ -267,8 +316,7 @@ final class PiecewiseExponential {
     double top = value + slope * (high - anchor);
     double t = Math.abs(slope) * width;
     if (t > 1) {
-      // integral = exp(top) (1 - exp(-t)) / |slope|
-      // 1 - exp(-t) >= 0.63 here, so the subtraction loses nothing
+      // integral = exp(top) (1 - exp(-t)) / |slope|; 1 - exp(-t) >= 0.63 loses nothing
       return top + Math.log(1.0 - Math.exp(-t)) - Math.log(Math.abs(slope));
     }
     // integral = exp(top) width (1 - exp(-t)) / t, stable as t -> 0
@@ -311,13 +359,13 @@ final class PiecewiseExponential {
     System.arraycopy(slope, 0, c.slope, 0, size);
     System.arraycopy(gapValue, 0, c.gapValue, 0, size);
     System.arraycopy(gapSlope, 0, c.gapSlope, 0, size);
-    System.arraycopy(decay, 0, c.decay, 0, size);
-    System.arraycopy(effectiveWidth, 0, c.effectiveWidth, 0, size);
-    System.arraycopy(inverseSlope, 0, c.inverseSlope, 0, size);
-    System.arraycopy(packed, 0, c.packed, 0, STRIDE * size);
-    System.arraycopy(guide, 0, c.guide, 0, size);
+    System.arraycopy(raiseValue, 0, c.raiseValue, 0, size);
+    System.arraycopy(raiseSlope, 0, c.raiseSlope, 0, size);
+    System.arraycopy(uniform, 0, c.uniform, 0, size);
     System.arraycopy(logMass, 0, c.logMass, 0, size);
     System.arraycopy(cumulative, 0, c.cumulative, 0, size);
+    System.arraycopy(guide, 0, c.guide, 0, size);
+    System.arraycopy(packed, 0, c.packed, 0, STRIDE * size);
     return c;
   }
 

@@ -1,6 +1,7 @@
 package org.hullbound.hull;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
@@ -69,12 +70,23 @@ class PiecewiseExponentialTest {
   }
 
   @Test
-  void nearFlatAndFlatPiecesArePlacedUniformly() {
-    for (double s : new double[] {0.0, 1e-300, 1e-14, -1e-14}) {
+  void nearFlatAndFlatPiecesAreDrawnUniformlyUnderTheirTop() {
+    for (double s : new double[] {0.0, 1e-300, 1e-14, -1e-14, 0.1}) {
       PiecewiseExponential p = single(2, 6, 2, 0, s);
-      // a quarter of the width in from the lower end, or from the upper end when rising
-      assertEquals(s > 0 ? 5.0 : 3.0, p.position(0, 0.25), 1e-12, "slope " + s);
+      assertTrue(p.uniform[0], "slope " + s);
+      assertEquals(3.0, p.position(0, 0.25), 1e-12, "slope " + s);
+      // the envelope is the top of the line: value at the upper end when rising
+      double top = s > 0 ? 4 * s : 0.0;
+      assertEquals(top, p.envelope(0, 2.5), 1e-15, "slope " + s);
+      assertEquals(top + Math.log(4), p.logMass[0], 1e-15, "slope " + s);
     }
+  }
+
+  @Test
+  void piecesRisingMoreThanTheLimitKeepTheExponential() {
+    // |slope| * width = 0.5 is the last uniform piece; just above it is exponential
+    assertTrue(single(0, 1, 0, 0, PiecewiseExponential.UNIFORM_LIMIT).uniform[0]);
+    assertFalse(single(0, 1, 0, 0, Math.nextUp(PiecewiseExponential.UNIFORM_LIMIT)).uniform[0]);
   }
 
   @Test
