@@ -10,10 +10,12 @@ import java.util.random.RandomGenerator;
 public final class GibbsKernel implements ChainKernel {
   private final double[] state;
   private final Updater[] updaters;
+  private final List<String> labels;
 
-  GibbsKernel(double[] state, Updater[] updaters) {
+  GibbsKernel(double[] state, Updater[] updaters, List<String> labels) {
     this.state = state;
     this.updaters = updaters;
+    this.labels = labels;
   }
 
   @Override
@@ -24,13 +26,31 @@ public final class GibbsKernel implements ChainKernel {
   @Override
   public void sweep(RandomGenerator rng) {
     for (Updater updater : updaters) {
-      updater.update(state, rng);
+      try {
+        updater.update(state, rng);
+      } catch (UpdateFailedException already) {
+        throw already;
+      } catch (RuntimeException failure) {
+        throw new UpdateFailedException(nameOf(updater), updater.method(), failure);
+      }
     }
   }
 
   @Override
   public void record(double[] out) {
     System.arraycopy(state, 0, out, 0, state.length);
+  }
+
+  private String nameOf(Updater updater) {
+    int[] indices = updater.indices();
+    if (labels == null) {
+      return indices.length == 1 ? "state entry " + indices[0] : "state entries " + java.util.Arrays.toString(indices);
+    }
+    StringBuilder names = new StringBuilder();
+    for (int index : indices) {
+      names.append(names.length() == 0 ? "" : ", ").append(labels.get(index));
+    }
+    return names.toString();
   }
 
   /** The updaters in sweep order. */

@@ -16,13 +16,16 @@ public final class GibbsSampler implements KernelFactory {
   private final List<UpdateRule> rules;
   private final StartingValues starts;
   private final long adaptationSweeps;
+  private final List<String> labels;
 
   private GibbsSampler(
-      int dimension, List<UpdateRule> rules, StartingValues starts, long adaptationSweeps) {
+      int dimension, List<UpdateRule> rules, StartingValues starts, long adaptationSweeps,
+      List<String> labels) {
     this.dimension = dimension;
     this.rules = rules;
     this.starts = starts;
     this.adaptationSweeps = adaptationSweeps;
+    this.labels = labels;
   }
 
   /**
@@ -53,7 +56,17 @@ public final class GibbsSampler implements KernelFactory {
             "state entry " + index + " must be updated by exactly one rule, got " + covered[index]);
       }
     }
-    return new GibbsSampler(dimension, List.copyOf(rules), starts, 0);
+    return new GibbsSampler(dimension, List.copyOf(rules), starts, 0, null);
+  }
+
+  /** The same sampler naming state entries by {@code labels} in failure messages. */
+  public GibbsSampler withLabels(List<String> labels) {
+    if (labels == null || labels.size() != dimension) {
+      throw new IllegalArgumentException(
+          "labels must name all " + dimension + " state entries, got "
+              + (labels == null ? "null" : labels.size()));
+    }
+    return new GibbsSampler(dimension, rules, starts, adaptationSweeps, List.copyOf(labels));
   }
 
   /**
@@ -64,7 +77,7 @@ public final class GibbsSampler implements KernelFactory {
     if (sweeps < 0) {
       throw new IllegalArgumentException("sweeps must be >= 0, got " + sweeps);
     }
-    return new GibbsSampler(dimension, rules, starts, sweeps);
+    return new GibbsSampler(dimension, rules, starts, sweeps, labels);
   }
 
   public int dimension() {
@@ -83,7 +96,7 @@ public final class GibbsSampler implements KernelFactory {
     for (UpdateRule rule : rules) {
       updaters.add(updaterFor(rule));
     }
-    return new GibbsKernel(state, updaters.toArray(new Updater[0]));
+    return new GibbsKernel(state, updaters.toArray(new Updater[0]), labels);
   }
 
   private Updater updaterFor(UpdateRule rule) {

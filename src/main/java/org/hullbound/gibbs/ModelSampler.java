@@ -68,7 +68,8 @@ public final class ModelSampler {
     // Fail before sampling when a given value is outside its support.
     fill(model, base, given, base.clone(), new FixedUniform());
     return new ModelSampler(
-        model, GibbsSampler.of(unknowns.size(), rules, starts), List.copyOf(labels),
+        model, GibbsSampler.of(unknowns.size(), rules, starts).withLabels(labels),
+        List.copyOf(labels),
         List.copyOf(reasons));
   }
 

@@ -106,6 +106,17 @@ class FitCommandTest {
   }
 
   @Test
+  void unknownsWithoutProvenLogConcavityAreDrawnByTheFallbackAndSaidSo() {
+    Result result =
+        run("fit", "models/sensors.hbm", "--data", "models/sensors.csv", "--chains", "2",
+            "--burn-in", "100", "--draws", "100", "--seed", "2", "--out", folder.toString(),
+            "--quiet");
+    assertEquals(0, result.status(), result.err());
+    assertTrue(result.out().contains("ARMS fallback"), result.out());
+    assertTrue(result.out().contains("level: drawn by ARMS fallback"), result.out());
+  }
+
+  @Test
   void startingValuesFromAFileAreAccepted() throws IOException {
     Path init = folder.resolve("init.csv");
     Files.writeString(init, "name,value\ncentre,0.5\nspread,0.3\n");

@@ -162,6 +162,27 @@ class ChainRunnerTest {
   }
 
   @Test
+  void aFailingUpdateNamesTheUnknownAndItsMethod() {
+    ScalarConditional broken = (u, state, slope) -> Double.NaN;
+    GibbsSampler sampler =
+        GibbsSampler.of(
+                1,
+                java.util.List.of(new UpdateRule.AdaptiveRejection(0, broken, "test")),
+                (state, rng) -> state[0] = 0)
+            .withLabels(java.util.List.of("effect[3]"));
+    ChainFailedException failure =
+        assertThrows(
+            ChainFailedException.class,
+            () ->
+                ChainRunner.of(new RunSettings(1, 0, 5, 1, 1L, 1), ProgressListener.none(),
+                        StopSignal.create())
+                    .run(sampler, DrawSink.discard()));
+    assertTrue(failure.getMessage().contains("updating effect[3] (adaptive rejection)"),
+        failure.getMessage());
+    assertTrue(failure.getCause() instanceof UpdateFailedException);
+  }
+
+  @Test
   void settingsRejectNonsenseNamingTheArgument() {
     IllegalArgumentException e =
         assertThrows(IllegalArgumentException.class, () -> new RunSettings(0, 1, 1, 1, 1L, 1));
