@@ -62,7 +62,7 @@ class FitResumeTest {
                       Path.of(System.getProperty("java.home"), "bin", "java").toString(),
                       "-cp", System.getProperty("java.class.path"), "org.hullbound.cli.Main"
                     },
-                    with(RUN, "--out", stopped.toString())))
+                    with(RUN, "--threads", "2", "--out", stopped.toString())))
             .redirectErrorStream(true)
             .redirectOutput(folder.resolve("child.txt").toFile())
             .start();
@@ -108,7 +108,8 @@ class FitResumeTest {
     // A cut last line (as a crash while writing would leave) is dropped before appending.
     Files.writeString(draws, "1,99", StandardCharsets.UTF_8, java.nio.file.StandardOpenOption.APPEND);
 
-    CliRun resumed = CliRun.of(resume(stopped));
+    // The stopped run had two threads; the resumed one has one thread for both chains.
+    CliRun resumed = CliRun.of(resume(stopped, "--threads", "1"));
     assertEquals(0, resumed.exit(), resumed.toString());
     Path whole = folder.resolve("whole");
     CliRun uninterrupted = CliRun.of(with(RUN, "--out", whole.toString()));
