@@ -28,6 +28,9 @@ import org.hullbound.gibbs.StopSignal;
 import org.hullbound.gibbs.UpdateReport;
 import org.hullbound.gibbs.UpdateRule;
 import org.hullbound.io.AtomicFiles;
+import org.hullbound.io.Checkpoint;
+import org.hullbound.io.CheckpointException;
+import org.hullbound.io.CheckpointFile;
 import org.hullbound.io.CsvData;
 import org.hullbound.io.DrawsWriter;
 import org.hullbound.io.InitialValuesFile;
@@ -109,6 +112,12 @@ public final class FitCommand implements Callable<Integer> {
   @Option(names = "--quiet", description = "No progress display.")
   boolean quiet;
 
+  @Option(
+      names = "--resume",
+      paramLabel = "DIR",
+      description = "Continue the interrupted run whose files are in DIR (its checkpoint.txt): same draws as if never stopped.")
+  Path resumeFolder;
+
   @CommandLine.Spec CommandLine.Model.CommandSpec spec;
 
   @Override
@@ -131,12 +140,29 @@ public final class FitCommand implements Callable<Integer> {
       stderr.flush();
       return ErrorReporting.USER_ERROR;
     }
-    long runSeed = seed != null ? seed : new SecureRandom().nextLong();
-    RunSettings settings = RunSettings.of(chains, burnIn, draws, thin, runSeed);
+    Checkpoint checkpoint;
+    try {
+      checkpoint = resumeFolder == null ? null : checkpointToResume(sampler);
+    } catch (CheckpointException unusable) {
+      stderr.println("hullbound fit: " + unusable.getMessage());
+      stderr.flush();
+      return ErrorReporting.USER_ERROR;
+    }
+    long runSeed = checkpoint != null ? checkpoint.seed() : seed != null ? seed : new SecureRandom().nextLong();
+    RunSettings settings =
+        checkpoint != null
+            ? RunSettings.of(
+                checkpoint.chains().size(), checkpoint.burnIn(), checkpoint.draws(),
+                checkpoint.thin(), runSeed)
+            : RunSettings.of(chains, burnIn, draws, thin, runSeed);
     if (threads != null) {
       settings = settings.withThreads(threads);
     }
-    Path folder = out != null ? out : Path.of("fit-out", model.name());
+    Path folder =
+        checkpoint != null ? resumeFolder : out != null ? out : Path.of("fit-out", model.name());
+    if (checkpoint == null) {
+      forgetOldCheckpoint(folder);
+    }
     StopSignal stop = StopSignal.create();
     CountDownLatch finished = new CountDownLatch(1);
     Thread interruptHook = new Thread(() -> stopAndWait(stop, finished), "hullbound-interrupt");
@@ -147,7 +173,15 @@ public final class FitCommand implements Callable<Integer> {
     DrawStore store = DrawStore.create(settings.chains(), settings.draws(), sampler.labels().size());
     try {
       RunOutcome outcome;
-      try (DrawsWriter writer = DrawsWriter.open(folder, sampler.labels())) {
+      DrawsWriter opened;
+      try {
+        opened = openDraws(folder, sampler, checkpoint, store);
+      } catch (CheckpointException unusable) {
+        stderr.println("hullbound fit: " + unusable.getMessage());
+        stderr.flush();
+        return ErrorReporting.USER_ERROR;
+      }
+      try (DrawsWriter writer = opened) {
         DrawSink both =
             (chain, draw, values) -> {
               writer.accept(chain, draw, values);
@@ -159,12 +193,17 @@ public final class FitCommand implements Callable<Integer> {
               model.name(), sampler.labels().size(), settings.chains(), settings.burnIn(),
               settings.draws(), settings.thin() > 1 ? " thinned by " + settings.thin() : "",
               runSeed);
+          if (checkpoint != null) {
+            stderr.printf("resuming from %s%n", CheckpointFile.in(folder));
+          }
           stderr.flush();
         }
         try {
           outcome =
               ChainRunner.of(settings, listener, stop)
-                  .run(sampler.sampler().withAdaptation(settings.burnIn()), both);
+                  .resume(
+                      sampler.sampler().withAdaptation(settings.burnIn()), both,
+                      checkpoint == null ? List.of() : checkpoint.chains());
         } catch (ChainFailedException failed) {
           display.finish();
           stderr.println("hullbound fit: sampling failed: " + failed.getMessage());
@@ -175,7 +214,11 @@ public final class FitCommand implements Callable<Integer> {
           display.finish();
         }
       }
+      saveCheckpoint(folder, sampler, settings, outcome, checkpoint);
       report(model, sampler, settings, outcome, store, folder, stdout, stderr);
+      if (outcome.stoppedEarly()) {
+        printHowToResume(folder, stdout);
+      }
       return 0;
     } finally {
       // Only now may an interrupted JVM exit: the files are written.
@@ -186,6 +229,113 @@ public final class FitCommand implements Callable<Integer> {
         // The JVM is already exiting (Ctrl-C): the hook is running and waits for us.
       }
     }
+  }
+
+  /**
+   * The checkpoint in {@code --resume DIR}, checked against this model, its data and the options
+   * given: a finished run, another model or data, or other settings are refused.
+   */
+  private Checkpoint checkpointToResume(ModelSampler sampler) throws IOException {
+    Checkpoint checkpoint = CheckpointFile.read(resumeFolder);
+    if (checkpoint.complete()) {
+      throw new CheckpointException(
+          "the run in " + resumeFolder + " is finished (its checkpoint is marked complete):"
+              + " nothing to resume");
+    }
+    if (!checkpoint.inputHash().equals(inputHash())) {
+      throw new CheckpointException(
+          "the model or data changed since the run in " + resumeFolder + " was interrupted (it ran "
+              + checkpoint.modelFile() + " with other model or data text): resuming would mix"
+              + " draws of two models; start a new fit instead");
+    }
+    if (!checkpoint.columns().equals(sampler.labels())) {
+      throw new CheckpointException(
+          "the checkpoint in " + resumeFolder + " has other unknowns than this model");
+    }
+    CommandLine.ParseResult given = spec.commandLine().getParseResult();
+    List<String> conflicts = new ArrayList<>();
+    if (given.hasMatchedOption("--chains") && chains != checkpoint.chains().size()) {
+      conflicts.add("--chains " + checkpoint.chains().size());
+    }
+    if (given.hasMatchedOption("--burn-in") && burnIn != checkpoint.burnIn()) {
+      conflicts.add("--burn-in " + checkpoint.burnIn());
+    }
+    if (given.hasMatchedOption("--draws") && draws != checkpoint.draws()) {
+      conflicts.add("--draws " + checkpoint.draws());
+    }
+    if (given.hasMatchedOption("--thin") && thin != checkpoint.thin()) {
+      conflicts.add("--thin " + checkpoint.thin());
+    }
+    if (seed != null && seed != checkpoint.seed()) {
+      conflicts.add("--seed " + checkpoint.seed());
+    }
+    if (out != null && !out.toAbsolutePath().normalize().equals(resumeFolder.toAbsolutePath().normalize())) {
+      conflicts.add("--out " + resumeFolder);
+    }
+    if (!conflicts.isEmpty()) {
+      throw new CheckpointException(
+          "the run in " + resumeFolder + " was made with " + String.join(", ", conflicts)
+              + "; a resumed run keeps its settings (leave these options out)");
+    }
+    return checkpoint;
+  }
+
+  /** SHA-256 of the model and data texts as read now (see {@link CheckpointFile#inputHash}). */
+  private String inputHash() throws IOException {
+    List<String> dataTexts = new ArrayList<>();
+    for (Path file : dataFiles) {
+      dataTexts.add(Files.readString(file, StandardCharsets.UTF_8));
+    }
+    return CheckpointFile.inputHash(Files.readString(modelFile, StandardCharsets.UTF_8), dataTexts);
+  }
+
+  /** A new draws file, or the checkpointed one continued (its draws handed to {@code store}). */
+  private static DrawsWriter openDraws(
+      Path folder, ModelSampler sampler, Checkpoint checkpoint, DrawStore store) {
+    if (checkpoint == null) {
+      return DrawsWriter.open(folder, sampler.labels());
+    }
+    int[] kept = new int[checkpoint.chains().size()];
+    for (int chain = 0; chain < kept.length; chain++) {
+      kept[chain] = checkpoint.chains().get(chain).draws();
+    }
+    return DrawsWriter.resume(folder, sampler.labels(), kept, store);
+  }
+
+  /** A new run in {@code folder} makes an older run's checkpoint meaningless: remove it. */
+  private static void forgetOldCheckpoint(Path folder) throws IOException {
+    Files.deleteIfExists(CheckpointFile.in(folder));
+  }
+
+  /**
+   * After the chains stopped: an interrupted run saves where every chain stood; a run that
+   * reached its end marks an existing checkpoint complete, so that it is not resumed twice.
+   */
+  private void saveCheckpoint(
+      Path folder, ModelSampler sampler, RunSettings settings, RunOutcome outcome,
+      Checkpoint resumed) throws IOException {
+    if (outcome.chainStates().isEmpty()) {
+      return;
+    }
+    Checkpoint now =
+        new Checkpoint(
+            !outcome.stoppedEarly(), modelFile.toString(), inputHash(), settings.seed(),
+            settings.burnIn(), settings.draws(), settings.thin(), sampler.labels(),
+            outcome.chainStates());
+    if (outcome.stoppedEarly() || resumed != null) {
+      CheckpointFile.write(folder, now);
+    }
+  }
+
+  private void printHowToResume(Path folder, PrintWriter stdout) {
+    StringBuilder command = new StringBuilder("hullbound fit ").append(modelFile);
+    for (Path file : dataFiles) {
+      command.append(" --data ").append(file);
+    }
+    command.append(" --resume ").append(folder);
+    stdout.println("checkpoint: " + CheckpointFile.in(folder));
+    stdout.println("to continue this run with the draws it would have made: " + command);
+    stdout.flush();
   }
 
   private String checkOptions() {

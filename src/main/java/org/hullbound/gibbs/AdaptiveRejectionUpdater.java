@@ -315,6 +315,61 @@ final class AdaptiveRejectionUpdater implements Updater {
   }
 
   @Override
+  public UpdaterState save() {
+    UpdaterState.Writer out = new UpdaterState.Writer();
+    out.put(sweeps).put(draws).put(evaluations).put(switchSweep)
+        .put(centre).put(spread).put(squaredMiss)
+        .put(weight).put(sumX).put(sumY).put(sumXX).put(sumXY)
+        .put(fallback == null ? 0L : 1L);
+    if (fallback != null) {
+      fallback.write(out);
+    }
+    return out.note(switchNote).done();
+  }
+
+  @Override
+  public void restore(UpdaterState saved) {
+    UpdaterState.Reader in = new UpdaterState.Reader(saved, method());
+    long restoredSweeps = in.nextLong();
+    long restoredDraws = in.nextLong();
+    long restoredEvaluations = in.nextLong();
+    long restoredSwitchSweep = in.nextLong();
+    double restoredCentre = in.nextDouble();
+    double restoredSpread = in.nextDouble();
+    double restoredSquaredMiss = in.nextDouble();
+    double restoredWeight = in.nextDouble();
+    double restoredSumX = in.nextDouble();
+    double restoredSumY = in.nextDouble();
+    double restoredSumXX = in.nextDouble();
+    double restoredSumXY = in.nextDouble();
+    FallbackUpdater restoredFallback = null;
+    if (in.nextFlag()) {
+      // The switched-to fallback was made with what remained of burn-in at the switch; make it
+      // the same way, then let it read its own words.
+      restoredFallback =
+          new FallbackUpdater(
+              new UpdateRule.Fallback(index, conditional, "not log-concave at run time"),
+              Math.max(0, adaptationSweeps - restoredSwitchSweep), Double.NaN, 1.0);
+      restoredFallback.read(in);
+    }
+    in.end();
+    sweeps = restoredSweeps;
+    draws = restoredDraws;
+    evaluations = restoredEvaluations;
+    switchSweep = restoredSwitchSweep;
+    centre = restoredCentre;
+    spread = restoredSpread;
+    squaredMiss = restoredSquaredMiss;
+    weight = restoredWeight;
+    sumX = restoredSumX;
+    sumY = restoredSumY;
+    sumXX = restoredSumXX;
+    sumXY = restoredSumXY;
+    fallback = restoredFallback;
+    switchNote = restoredFallback == null ? null : saved.note();
+  }
+
+  @Override
   public String switchNote() {
     return switchNote;
   }

@@ -48,6 +48,19 @@ final class BlockNormalUpdater implements Updater {
   }
 
   @Override
+  public UpdaterState save() {
+    return new UpdaterState.Writer().put(draws).done();
+  }
+
+  @Override
+  public void restore(UpdaterState saved) {
+    UpdaterState.Reader in = new UpdaterState.Reader(saved, method());
+    long restoredDraws = in.nextLong();
+    in.end();
+    draws = restoredDraws;
+  }
+
+  @Override
   public long evaluations() {
     return 0;
   }

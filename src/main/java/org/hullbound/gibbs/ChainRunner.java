@@ -53,11 +53,48 @@ public final class ChainRunner {
    * @throws ChainFailedException when a kernel throws (the lowest-numbered failed chain is named)
    */
   public RunOutcome run(KernelFactory factory, DrawSink sink) {
-    RandomGenerator[] generators = ChainSeeds.split(settings.seed(), settings.chains());
-    List<ChainKernel> kernels = new ArrayList<>();
-    for (int chain = 0; chain < settings.chains(); chain++) {
-      kernels.add(factory.newChain(chain, generators[chain]));
+    return resume(factory, sink, List.of());
+  }
+
+  /**
+   * Continues each chain from {@code from} (a checkpoint's chain states, in chain order) to its
+   * end or to a stop request; draws are numbered on from each chain's saved count. With an empty
+   * {@code from} this is {@link #run}. The continued chains make exactly the draws an
+   * uninterrupted run would have made: each kernel is made as in a fresh run (so that its
+   * updaters are those of the same rules), then given its saved state and its saved generator.
+   *
+   * @throws IllegalArgumentException when {@code from} does not fit the settings or the kernels
+   * @throws ChainFailedException when a kernel throws
+   */
+  public RunOutcome resume(KernelFactory factory, DrawSink sink, List<ChainState> from) {
+    if (!from.isEmpty() && from.size() != settings.chains()) {
+      throw new IllegalArgumentException(
+          "the checkpoint has " + from.size() + " chains, the settings " + settings.chains());
     }
+    ChainRandom[] generators = ChainSeeds.split(settings.seed(), settings.chains());
+    List<ChainKernel> kernels = new ArrayList<>();
+    long[] startSweep = new long[settings.chains()];
+    int[] startDraws = new int[settings.chains()];
+    for (int chain = 0; chain < settings.chains(); chain++) {
+      ChainKernel kernel = factory.newChain(chain, generators[chain]);
+      if (!from.isEmpty()) {
+        ChainState saved = from.get(chain);
+        if (!(kernel instanceof ResumableKernel resumable)) {
+          throw new IllegalArgumentException("chain " + (chain + 1) + " cannot be resumed");
+        }
+        if (saved.sweep() > settings.totalSweeps()) {
+          throw new IllegalArgumentException(
+              "chain " + (chain + 1) + " was saved at sweep " + saved.sweep() + ", beyond the "
+                  + settings.totalSweeps() + " sweeps of the run");
+        }
+        resumable.restore(saved.kernel());
+        generators[chain] = ChainRandom.restore(saved.generator());
+        startSweep[chain] = saved.sweep();
+        startDraws[chain] = saved.draws();
+      }
+      kernels.add(kernel);
+    }
+    ChainState[] ends = new ChainState[settings.chains()];
     StopSignal abort = StopSignal.create();
     int[] kept = new int[settings.chains()];
     AtomicInteger threadNumber = new AtomicInteger();
@@ -77,7 +114,9 @@ public final class ChainRunner {
             pool.submit(
                 () -> {
                   kept[index] =
-                      runChain(index, kernels.get(index), generators[index], sink, abort);
+                      runChain(
+                          index, kernels.get(index), generators[index], startSweep[index],
+                          startDraws[index], sink, abort, ends);
                   return null;
                 }));
       }
@@ -100,7 +139,15 @@ public final class ChainRunner {
     for (int count : kept) {
       stoppedEarly |= count < settings.draws();
     }
-    return new RunOutcome(kernels, kept, stoppedEarly);
+    List<ChainState> states = new ArrayList<>();
+    for (ChainState end : ends) {
+      if (end == null) {
+        states.clear();
+        break;
+      }
+      states.add(end);
+    }
+    return new RunOutcome(kernels, kept, stoppedEarly, states);
   }
 
   /** Waits for {@code future}; an interrupt of the waiting thread becomes a stop request. */
@@ -118,13 +165,14 @@ public final class ChainRunner {
   }
 
   private int runChain(
-      int chain, ChainKernel kernel, RandomGenerator rng, DrawSink sink, StopSignal abort) {
+      int chain, ChainKernel kernel, RandomGenerator rng, long firstSweep, int firstDraws,
+      DrawSink sink, StopSignal abort, ChainState[] ends) {
     double[] row = new double[kernel.width()];
     long total = settings.totalSweeps();
     long start = System.nanoTime();
     long lastReport = start;
-    int draws = 0;
-    long sweep = 0;
+    int draws = firstDraws;
+    long sweep = firstSweep;
     try {
       while (sweep < total && !stop.isRequested() && !abort.isRequested()) {
         sweep++;
@@ -138,21 +186,26 @@ public final class ChainRunner {
         long now = System.nanoTime();
         if (now - lastReport >= PROGRESS_INTERVAL_NANOS) {
           lastReport = now;
-          listener.progress(progress(chain, sweep, draws, now - start, false));
+          listener.progress(progress(chain, sweep, firstSweep, draws, now - start, false));
         }
       }
     } catch (RuntimeException | Error failure) {
       abort.request();
-      listener.progress(progress(chain, sweep, draws, System.nanoTime() - start, true));
+      listener.progress(
+          progress(chain, sweep, firstSweep, draws, System.nanoTime() - start, true));
       throw new ChainFailedException(chain, sweep, failure);
     }
-    listener.progress(progress(chain, sweep, draws, System.nanoTime() - start, true));
+    if (kernel instanceof ResumableKernel resumable && rng instanceof ChainRandom generator) {
+      ends[chain] = new ChainState(sweep, draws, generator.state(), resumable.save());
+    }
+    listener.progress(progress(chain, sweep, firstSweep, draws, System.nanoTime() - start, true));
     return draws;
   }
 
-  private ChainProgress progress(int chain, long sweeps, int draws, long elapsedNanos, boolean done) {
+  private ChainProgress progress(
+      int chain, long sweeps, long firstSweep, int draws, long elapsedNanos, boolean done) {
     long total = settings.totalSweeps();
-    double sweepsPerSecond = elapsedNanos > 0 ? sweeps * 1e9 / elapsedNanos : 0.0;
+    double sweepsPerSecond = elapsedNanos > 0 ? (sweeps - firstSweep) * 1e9 / elapsedNanos : 0.0;
     Duration left =
         done || sweepsPerSecond <= 0
             ? Duration.ZERO

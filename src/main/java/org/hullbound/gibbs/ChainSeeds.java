@@ -1,8 +1,5 @@
 package org.hullbound.gibbs;
 
-import java.util.random.RandomGenerator;
-import java.util.random.RandomGenerator.SplittableGenerator;
-import java.util.random.RandomGeneratorFactory;
 
 /**
  * The chains' generators: an LXM generator (L64X128MixRandom) seeded once, then split once per
@@ -13,19 +10,19 @@ import java.util.random.RandomGeneratorFactory;
  * a chain count reproduce every draw however the threads are scheduled.
  */
 public final class ChainSeeds {
-  /** The JDK algorithm used for every chain. */
+  /** The JDK algorithm whose numbers every chain's {@link ChainRandom} reproduces bit for bit. */
   public static final String ALGORITHM = "L64X128MixRandom";
 
   private ChainSeeds() {}
 
   /** The generators of chains 0 .. {@code chains - 1} for {@code seed}. */
-  public static RandomGenerator[] split(long seed, int chains) {
+  public static ChainRandom[] split(long seed, int chains) {
     if (chains < 1) {
       throw new IllegalArgumentException("chains must be >= 1, got " + chains);
     }
-    SplittableGenerator root =
-        (SplittableGenerator) RandomGeneratorFactory.of(ALGORITHM).create(seed);
-    RandomGenerator[] generators = new RandomGenerator[chains];
+    // Our own LXM rather than the JDK's: a checkpoint needs the generator's state (ChainRandom).
+    ChainRandom root = ChainRandom.seeded(seed);
+    ChainRandom[] generators = new ChainRandom[chains];
     for (int chain = 0; chain < chains; chain++) {
       generators[chain] = root.split();
     }

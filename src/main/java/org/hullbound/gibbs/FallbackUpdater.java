@@ -132,6 +132,52 @@ final class FallbackUpdater implements Updater {
   }
 
   @Override
+  public UpdaterState save() {
+    UpdaterState.Writer out = new UpdaterState.Writer();
+    write(out);
+    return out.done();
+  }
+
+  /** The words of this updater, appended to {@code out} (also used inside a switched updater). */
+  void write(UpdaterState.Writer out) {
+    out.put(adaptationSweeps).put(sweeps).put(draws).put(evaluations).put(seen)
+        .put(centre).put(spread).put(mean).put(sumSquares);
+  }
+
+  @Override
+  public void restore(UpdaterState saved) {
+    UpdaterState.Reader in = new UpdaterState.Reader(saved, method());
+    read(in);
+    in.end();
+  }
+
+  /** Reads what {@link #write} wrote; the adaptation length must be this updater's own. */
+  void read(UpdaterState.Reader in) {
+    long savedAdaptation = in.nextLong();
+    if (savedAdaptation != adaptationSweeps) {
+      throw new IllegalArgumentException(
+          "the saved state of " + method() + " adapts for " + savedAdaptation
+              + " sweeps, this run for " + adaptationSweeps);
+    }
+    long restoredSweeps = in.nextLong();
+    long restoredDraws = in.nextLong();
+    long restoredEvaluations = in.nextLong();
+    long restoredSeen = in.nextLong();
+    double restoredCentre = in.nextDouble();
+    double restoredSpread = in.nextDouble();
+    double restoredMean = in.nextDouble();
+    double restoredSumSquares = in.nextDouble();
+    sweeps = restoredSweeps;
+    draws = restoredDraws;
+    evaluations = restoredEvaluations;
+    seen = restoredSeen;
+    centre = restoredCentre;
+    spread = restoredSpread;
+    mean = restoredMean;
+    sumSquares = restoredSumSquares;
+  }
+
+  @Override
   public long evaluations() {
     return evaluations;
   }

@@ -7,7 +7,7 @@ import java.util.random.RandomGenerator;
  * One chain of a Gibbs sampler: the state and one updater per unknown (or block), applied in
  * order once per sweep (systematic scan, Geman and Geman 1984).
  */
-public final class GibbsKernel implements ChainKernel {
+public final class GibbsKernel implements ResumableKernel {
   private final double[] state;
   private final Updater[] updaters;
   private final List<String> labels;
@@ -51,6 +51,29 @@ public final class GibbsKernel implements ChainKernel {
       names.append(names.length() == 0 ? "" : ", ").append(labels.get(index));
     }
     return names.toString();
+  }
+
+  @Override
+  public KernelState save() {
+    List<UpdaterState> saved = new java.util.ArrayList<>();
+    for (Updater updater : updaters) {
+      saved.add(updater.save());
+    }
+    return new KernelState(state, saved);
+  }
+
+  @Override
+  public void restore(KernelState saved) {
+    double[] values = saved.values();
+    if (values.length != state.length || saved.updaters().size() != updaters.length) {
+      throw new IllegalArgumentException(
+          "the saved chain has " + values.length + " values and " + saved.updaters().size()
+              + " updaters, this sampler " + state.length + " and " + updaters.length);
+    }
+    for (int k = 0; k < updaters.length; k++) {
+      updaters[k].restore(saved.updaters().get(k));
+    }
+    System.arraycopy(values, 0, state, 0, state.length);
   }
 
   /** The updaters in sweep order. */

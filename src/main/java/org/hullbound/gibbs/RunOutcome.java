@@ -9,12 +9,16 @@ import java.util.List;
  * @param kernels the kernels of chains 0, 1, ..., in chain order
  * @param drawsKept kept draws per chain
  * @param stoppedEarly whether a stop request ended the run before every draw was made
+ * @param chainStates where each chain stood at the end, in chain order, for a checkpoint; empty
+ *     when the kernels are not {@link ResumableKernel}s
  */
-public record RunOutcome(List<ChainKernel> kernels, int[] drawsKept, boolean stoppedEarly) {
+public record RunOutcome(
+    List<ChainKernel> kernels, int[] drawsKept, boolean stoppedEarly, List<ChainState> chainStates) {
 
   public RunOutcome {
     kernels = List.copyOf(kernels);
     drawsKept = drawsKept.clone();
+    chainStates = List.copyOf(chainStates);
   }
 
   @Override

@@ -27,6 +27,21 @@ public sealed interface Updater
   /** Density evaluations spent so far. */
   long evaluations();
 
+  /**
+   * Everything of this updater that influences its future draws and is not a function of the
+   * chain's state (warm starts, tuning, switches), with its counts: what a checkpoint keeps.
+   * An updater whose draws depend on anything it does not save here breaks exact resumption.
+   */
+  UpdaterState save();
+
+  /**
+   * Continues from {@code saved}, made by {@link #save} of an updater of the same rule and run
+   * settings.
+   *
+   * @throws IllegalArgumentException when {@code saved} does not fit this updater
+   */
+  void restore(UpdaterState saved);
+
   /** A note for the report when the updater changed method during the run, else {@code null}. */
   default String switchNote() {
     return null;

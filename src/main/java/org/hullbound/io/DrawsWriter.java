@@ -6,6 +6,7 @@ import java.io.UncheckedIOException;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
+import java.nio.file.StandardOpenOption;
 import java.util.List;
 import java.util.concurrent.Executors;
 import java.util.concurrent.ScheduledExecutorService;
@@ -63,15 +64,120 @@ public final class DrawsWriter implements DrawSink, AutoCloseable {
     try {
       Files.createDirectories(directory);
       BufferedWriter out = Files.newBufferedWriter(file, StandardCharsets.UTF_8);
-      StringBuilder header = new StringBuilder("chain,draw");
-      for (String column : columns) {
-        header.append(',').append(Csv.quote(column));
-      }
-      out.write(header.append('\n').toString());
+      out.write(header(columns));
       out.flush();
       return new DrawsWriter(file, out, columns.size());
     } catch (IOException e) {
       throw new UncheckedIOException("cannot write " + file + ": " + e.getMessage(), e);
+    }
+  }
+
+  /**
+   * Continues the {@code draws.csv} of an interrupted run in {@code directory}: checks its header,
+   * keeps the first {@code kept[c]} rows of each chain {@code c} (a partial last line, or rows
+   * written after the checkpoint, are dropped, rewriting the file atomically), hands each kept row
+   * to {@code existing} (so that the summary covers every draw), and opens the file for appending.
+   *
+   * @param kept draws per chain (chain 0 first) that the checkpoint says were made
+   * @throws CheckpointException when the file is missing, has other columns, or lacks rows the
+   *     checkpoint counts
+   */
+  public static DrawsWriter resume(
+      Path directory, List<String> columns, int[] kept, DrawSink existing) {
+    Path file = directory.resolve(FILE_NAME);
+    String text;
+    try {
+      text = Files.readString(file, StandardCharsets.UTF_8);
+    } catch (IOException e) {
+      throw new CheckpointException(
+          "cannot continue " + file + ": " + e.getMessage() + " (the draws so far are needed)");
+    }
+    String header = header(columns);
+    if (!text.startsWith(header)) {
+      throw new CheckpointException(
+          file + " does not start with the header " + header.strip()
+              + ": it is not the draws file of this checkpoint");
+    }
+    int wholeEnd = text.lastIndexOf('\n') + 1;
+    StringBuilder keptText = new StringBuilder(header);
+    int[] seen = new int[kept.length];
+    double[] values = new double[columns.size()];
+    int start = header.length();
+    int lineNumber = 1;
+    while (start < wholeEnd) {
+      int end = text.indexOf('\n', start);
+      String line = text.substring(start, end);
+      lineNumber++;
+      String[] fields = line.split(",", -1);
+      int chain;
+      int draw;
+      try {
+        chain = Integer.parseInt(fields[0]) - 1;
+        draw = Integer.parseInt(fields[1]);
+      } catch (NumberFormatException | ArrayIndexOutOfBoundsException bad) {
+        throw new CheckpointException(file + ":" + lineNumber + ": not a row of draws: " + line);
+      }
+      if (chain < 0 || chain >= kept.length || fields.length != columns.size() + 2) {
+        throw new CheckpointException(
+            file + ":" + lineNumber + ": expected chain 1 to " + kept.length + " and "
+                + (columns.size() + 2) + " fields, got " + line);
+      }
+      if (draw <= kept[chain]) {
+        if (draw != seen[chain] + 1) {
+          throw new CheckpointException(
+              file + ":" + lineNumber + ": chain " + (chain + 1) + " draw " + draw
+                  + " follows draw " + seen[chain]);
+        }
+        seen[chain] = draw;
+        for (int k = 0; k < values.length; k++) {
+          values[k] = parseNumber(fields[k + 2], file, lineNumber);
+        }
+        existing.accept(chain, draw, values);
+        keptText.append(line).append('\n');
+      }
+      start = end + 1;
+    }
+    for (int chain = 0; chain < kept.length; chain++) {
+      if (seen[chain] != kept[chain]) {
+        throw new CheckpointException(
+            file + " has " + seen[chain] + " draws of chain " + (chain + 1) + ", the checkpoint "
+                + kept[chain] + ": the draws file and the checkpoint do not belong together");
+      }
+    }
+    try {
+      if (keptText.length() != text.length()) {
+        AtomicFiles.write(file, keptText.toString());
+      }
+      BufferedWriter out =
+          Files.newBufferedWriter(file, StandardCharsets.UTF_8, StandardOpenOption.APPEND);
+      return new DrawsWriter(file, out, columns.size());
+    } catch (IOException e) {
+      throw new UncheckedIOException("cannot write " + file + ": " + e.getMessage(), e);
+    }
+  }
+
+  private static String header(List<String> columns) {
+    StringBuilder header = new StringBuilder("chain,draw");
+    for (String column : columns) {
+      header.append(',').append(Csv.quote(column));
+    }
+    return header.append('\n').toString();
+  }
+
+  private static double parseNumber(String field, Path file, int lineNumber) {
+    switch (field) {
+      case "NaN":
+        return Double.NaN;
+      case "inf":
+        return Double.POSITIVE_INFINITY;
+      case "-inf":
+        return Double.NEGATIVE_INFINITY;
+      default:
+        try {
+          return Double.parseDouble(field);
+        } catch (NumberFormatException bad) {
+          throw new CheckpointException(file + ":" + lineNumber + ": not a number: " + field);
+        }
     }
   }
 
