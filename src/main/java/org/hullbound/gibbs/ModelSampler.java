@@ -15,7 +15,9 @@ import org.hullbound.sampling.ConjugateDraws;
  * The Gibbs sampler of a bound model: one update rule per scalar unknown, chosen from the model's
  * analysis of its full conditional, and dispersed starting values.
  *
- * <p>Conjugate conditionals are drawn exactly; log-concave ones by adaptive rejection (tangents,
+ * <p>Blocks of unknowns with a multivariate normal joint conditional (linear-normal regressions)
+ * are drawn jointly and exactly through {@link CanonicalNormal}; other conjugate conditionals are
+ * drawn exactly one at a time; log-concave ones by adaptive rejection (tangents,
  * or secants where the conditional is not smooth); the others by the fallback. Missing
  * observations are unknowns like any other and are imputed the same way. Starting values: each
  * unknown's prior location (from the model) moved by uniform(-2, 2) on its sampling scale
@@ -61,8 +63,15 @@ public final class ModelSampler {
     for (Unknown unknown : unknowns) {
       int index = unknown.index();
       Update update = model.update(index);
-      rules.add(ruleFor(unknown, model.conditional(index), update, base));
       reasons.add(update.reason());
+      if (update instanceof Update.LinearNormalBlock block) {
+        // The block's rule goes in the sweep where its first member would be.
+        if (block.members()[0] == index) {
+          rules.add(blockRule(block));
+        }
+        continue;
+      }
+      rules.add(ruleFor(unknown, model.conditional(index), update, base));
     }
     StartingValues starts = (state, rng) -> fill(model, base, given, state, rng);
     // Fail before sampling when a given value is outside its support.
@@ -90,6 +99,15 @@ public final class ModelSampler {
 
   public BoundModel model() {
     return model;
+  }
+
+  private static UpdateRule blockRule(Update.LinearNormalBlock block) {
+    return new UpdateRule.BlockNormal(
+        block.members(),
+        state -> {
+          Update.Canonical canonical = block.canonical(state);
+          return CanonicalNormal.of(canonical.precision(), canonical.linear());
+        });
   }
 
   private static UpdateRule ruleFor(
