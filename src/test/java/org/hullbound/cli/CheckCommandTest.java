@@ -77,6 +77,17 @@ class CheckCommandTest {
   }
 
   @Test
+  void theRegressionDemoDrawsItsInterceptAndCoefficientsAsOneBlock() {
+    Run run = run("check", "models/orchard.hbm", "--data", "models/orchard.csv");
+    assertEquals(0, run.status(), run.err());
+    String out = run.out();
+    assertTrue(out.matches("(?s).*alpha +natural +exact block normal \\(4 jointly\\).*"), out);
+    assertTrue(out.matches("(?s).*beta\\[1\\], beta\\[2\\], beta\\[3\\] +natural +exact block"
+        + " normal \\(4 jointly\\).*"), out);
+    assertTrue(out.matches("(?s).*sigma +log +adaptive rejection.*"), out);
+  }
+
+  @Test
   void aRegressionShowsItsCoefficientsAsOneExactNormalBlock(@TempDir Path dir)
       throws IOException {
     // An invented scenario: a straight-line fit with known noise, inline data.
