@@ -28,7 +28,13 @@ final class ModelStartingValues implements StartingValues {
 
   private ModelStartingValues(BoundModel model, double[] base, Map<String, Double> given) {
     this.model = model;
-    this.prior = PriorSimulation.of(model);
+    PriorSimulation simulation;
+    try {
+      simulation = PriorSimulation.of(model);
+    } catch (SimulationException unordered) {
+      simulation = null;
+    }
+    this.prior = simulation;
     this.base = base.clone();
     this.given = Map.copyOf(given);
   }
@@ -58,6 +64,9 @@ final class ModelStartingValues implements StartingValues {
 
   /** Writes a prior draw with the given values into {@code state}; false when it is unusable. */
   private boolean priorDraw(double[] state, RandomGenerator rng) {
+    if (prior == null) {
+      return false;
+    }
     double[] draw;
     try {
       draw = prior.drawUnknowns(rng);
