@@ -137,4 +137,47 @@ class LinearNormalBlocksTest {
     assertEquals(2, c.precision()[0][1], 1e-12);
     assertEquals(4, c.linear()[1], 1e-12);
   }
+
+  @Test
+  void aHierarchicalNormalModelWithKnownSpreadsIsOneBlock() {
+    // theta[j] ~ N(mu, 2^2), y[j] ~ N(theta[j], sd[j]^2), mu ~ N(0, 5^2): the joint log-density is
+    // a quadratic form in (theta, mu) (BDA3 section 5.4 with tau known) whose precision has
+    // 1/4 + 1/sd_j^2 on theta's diagonal, -1/4 between theta_j and mu, 1/25 + J/4 for mu, and
+    // linear term y_j/sd_j^2 for theta_j, 0 for mu.
+    BoundModel model =
+        bind(
+            String.join(
+                "\n",
+                "index school = 1 .. 3",
+                "data sd[school] = [1.0, 2.0, 4.0]",
+                "data y[school] = [3.0, -1.0, 6.0] ~ normal(mean = theta[school], sd = sd[school])",
+                "param mu ~ normal(mean = 0, sd = 5)",
+                "param theta[school] ~ normal(mean = mu, sd = 2)"));
+    Update.LinearNormalBlock block = assertInstanceOf(
+        Update.LinearNormalBlock.class, model.update(model.unknown("mu").index()));
+    assertEquals(4, block.size());
+    Update.Canonical c = block.canonical(model.initialState());
+    int mu = indexIn(block, model.unknown("mu").index());
+    double[] sd = {1, 2, 4};
+    double[] y = {3, -1, 6};
+    assertEquals(1 / 25.0 + 3 / 4.0, c.precision()[mu][mu], 1e-12);
+    assertEquals(0, c.linear()[mu], 1e-12);
+    for (int j = 0; j < 3; j++) {
+      int t = indexIn(block, model.unknown("theta[" + (j + 1) + "]").index());
+      assertEquals(0.25 + 1 / (sd[j] * sd[j]), c.precision()[t][t], 1e-12);
+      assertEquals(-0.25, c.precision()[t][mu], 1e-12);
+      assertEquals(-0.25, c.precision()[mu][t], 1e-12);
+      assertEquals(y[j] / (sd[j] * sd[j]), c.linear()[t], 1e-12);
+    }
+  }
+
+  private static int indexIn(Update.LinearNormalBlock block, int slot) {
+    int[] members = block.members();
+    for (int p = 0; p < members.length; p++) {
+      if (members[p] == slot) {
+        return p;
+      }
+    }
+    throw new AssertionError("slot " + slot + " is not in the block");
+  }
 }
