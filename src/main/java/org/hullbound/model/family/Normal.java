@@ -86,7 +86,7 @@ final class Normal {
 
     @Override
     public double logArgumentSlope(double x, double[] args, int k, double[] gradient) {
-      if (k != 1 || !(args[1] > 0)) {
+      if (k != 1 || !(args[1] > 0) || !inSupport(x, args)) {
         return super.logArgumentSlope(x, args, k, gradient);
       }
       // sd d/dsd (-z^2/2 - log sd) = z^2 - 1, finite while z^2 is, unlike (z^2 - 1)/sd.
@@ -141,7 +141,7 @@ final class Normal {
 
     @Override
     public double logArgumentSlope(double x, double[] args, int k, double[] gradient) {
-      if (k != 1 || !(args[1] > 0)) {
+      if (k != 1 || !(args[1] > 0) || !inSupport(x, args)) {
         return super.logArgumentSlope(x, args, k, gradient);
       }
       // var d/dvar (-d^2/(2 var) - log(var)/2) = (d^2/var - 1)/2.
@@ -196,7 +196,7 @@ final class Normal {
 
     @Override
     public double logArgumentSlope(double x, double[] args, int k, double[] gradient) {
-      if (k != 1 || !(args[1] > 0)) {
+      if (k != 1 || !(args[1] > 0) || !inSupport(x, args)) {
         return super.logArgumentSlope(x, args, k, gradient);
       }
       // tau d/dtau (-tau d^2/2 + log(tau)/2) = (1 - tau d^2)/2.
