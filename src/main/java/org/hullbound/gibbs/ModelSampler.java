@@ -43,6 +43,19 @@ public final class ModelSampler {
    * @throws StartingValueException when a given value names no unknown or lies outside the support
    */
   public static ModelSampler of(BoundModel model, Map<String, Double> given) {
+    return build(model, given, true);
+  }
+
+  /**
+   * The same sampler with every linear-normal block replaced by its members' one-at-a-time
+   * updates ({@link BoundModel#singleUpdate}): the baseline that benchmarks and comparisons of the
+   * block draw need; {@link #of} is the sampler to use.
+   */
+  public static ModelSampler withoutBlocks(BoundModel model, Map<String, Double> given) {
+    return build(model, given, false);
+  }
+
+  private static ModelSampler build(BoundModel model, Map<String, Double> given, boolean blocks) {
     List<Unknown> unknowns = model.unknowns();
     List<String> labels = new ArrayList<>();
     for (Unknown unknown : unknowns) {
@@ -60,7 +73,7 @@ public final class ModelSampler {
     List<String> reasons = new ArrayList<>();
     for (Unknown unknown : unknowns) {
       int index = unknown.index();
-      Update update = model.update(index);
+      Update update = blocks ? model.update(index) : model.singleUpdate(index);
       reasons.add(update.reason());
       if (update instanceof Update.LinearNormalBlock block) {
         // The block's rule goes in the sweep where its first member would be.

@@ -236,8 +236,11 @@ public final class BoundModel {
     return updates[index];
   }
 
-  /** The update unknown {@code index} would have on its own, were it in no block. */
-  Update singleUpdate(int index) {
+  /**
+   * The update unknown {@code index} would have on its own, were it in no linear-normal block
+   * (the same as {@link #update} for unknowns outside blocks): for comparisons with the block.
+   */
+  public Update singleUpdate(int index) {
     checkIndex(index);
     return singleUpdates[index];
   }
