@@ -149,6 +149,9 @@ public final class CheckCommand implements Callable<Integer> {
   }
 
   private static String updateName(Update update) {
+    if (update instanceof Update.LinearNormalBlock block) {
+      return "exact block normal (" + block.size() + " jointly)";
+    }
     if (update instanceof Update.Conjugate conjugate) {
       return "exact " + conjugate.kind().name().toLowerCase(Locale.ROOT);
     }

@@ -15,12 +15,12 @@ import org.hullbound.sampling.ConjugateDraws;
  * The Gibbs sampler of a bound model: one update rule per scalar unknown, chosen from the model's
  * analysis of its full conditional, and dispersed starting values.
  *
- * <p>Conjugate conditionals are drawn exactly; log-concave ones by adaptive rejection (tangents,
+ * <p>Blocks of unknowns with a multivariate normal joint conditional (linear-normal regressions)
+ * are drawn jointly and exactly through {@link CanonicalNormal}; other conjugate conditionals are
+ * drawn exactly one at a time; log-concave ones by adaptive rejection (tangents,
  * or secants where the conditional is not smooth); the others by the fallback. Missing
- * observations are unknowns like any other and are imputed the same way. Starting values: each
- * unknown's prior location (from the model) moved by uniform(-2, 2) on its sampling scale
- * (common practice; a draw from the prior is not offered by the model package), then the values
- * given with {@code --init}.
+ * observations are unknowns like any other and are imputed the same way. Starting values: a draw
+ * from the joint prior, then the values given with {@code --init} ({@link ModelStartingValues}).
  */
 public final class ModelSampler {
   private final BoundModel model;
@@ -43,6 +43,19 @@ public final class ModelSampler {
    * @throws StartingValueException when a given value names no unknown or lies outside the support
    */
   public static ModelSampler of(BoundModel model, Map<String, Double> given) {
+    return build(model, given, true);
+  }
+
+  /**
+   * The same sampler with every linear-normal block replaced by its members' one-at-a-time
+   * updates ({@link BoundModel#singleUpdate}): the baseline that benchmarks and comparisons of the
+   * block draw need; {@link #of} is the sampler to use.
+   */
+  public static ModelSampler withoutBlocks(BoundModel model, Map<String, Double> given) {
+    return build(model, given, false);
+  }
+
+  private static ModelSampler build(BoundModel model, Map<String, Double> given, boolean blocks) {
     List<Unknown> unknowns = model.unknowns();
     List<String> labels = new ArrayList<>();
     for (Unknown unknown : unknowns) {
@@ -60,13 +73,18 @@ public final class ModelSampler {
     List<String> reasons = new ArrayList<>();
     for (Unknown unknown : unknowns) {
       int index = unknown.index();
-      Update update = model.update(index);
-      rules.add(ruleFor(unknown, model.conditional(index), update, base));
+      Update update = blocks ? model.update(index) : model.singleUpdate(index);
       reasons.add(update.reason());
+      if (update instanceof Update.LinearNormalBlock block) {
+        // The block's rule goes in the sweep where its first member would be.
+        if (block.members()[0] == index) {
+          rules.add(blockRule(block));
+        }
+        continue;
+      }
+      rules.add(ruleFor(unknown, model.conditional(index), update, base));
     }
-    StartingValues starts = (state, rng) -> fill(model, base, given, state, rng);
-    // Fail before sampling when a given value is outside its support.
-    fill(model, base, given, base.clone(), new FixedUniform());
+    StartingValues starts = ModelStartingValues.of(model, base, given);
     return new ModelSampler(
         model, GibbsSampler.of(unknowns.size(), rules, starts).withLabels(labels),
         List.copyOf(labels),
@@ -90,6 +108,15 @@ public final class ModelSampler {
 
   public BoundModel model() {
     return model;
+  }
+
+  private static UpdateRule blockRule(Update.LinearNormalBlock block) {
+    return new UpdateRule.BlockNormal(
+        block.members(),
+        state -> {
+          Update.Canonical canonical = block.canonical(state);
+          return CanonicalNormal.of(canonical.precision(), canonical.linear());
+        });
   }
 
   private static UpdateRule ruleFor(
@@ -195,98 +222,10 @@ public final class ModelSampler {
     };
   }
 
-  /**
-   * Starting values in state order: the model's valid start moved by uniform(-2, 2) on each
-   * sampling scale and kept inside the support, then the given values. Where the dispersed values
-   * together have zero density (supports that depend on other unknowns), the undispersed start is
-   * used instead.
-   */
-  private static void fill(
-      BoundModel model, double[] base, Map<String, Double> given, double[] state,
-      RandomGenerator rng) {
-    disperse(model, base, given, state, rng, true);
-    if (zeroDensityAt(model, state) != null) {
-      disperse(model, base, given, state, rng, false);
-      Unknown fault = zeroDensityAt(model, state);
-      if (fault != null) {
-        String origin = given.containsKey(fault.label()) ? "given" : "model's";
-        throw new StartingValueException(
-            "the " + origin + " starting value " + fault.label() + " = " + state[fault.index()]
-                + " has zero density (support " + fault.support() + ")");
-      }
-    }
-  }
-
-  private static void disperse(
-      BoundModel model, double[] base, Map<String, Double> given, double[] state,
-      RandomGenerator rng, boolean dispersed) {
-    System.arraycopy(base, 0, state, 0, base.length);
-    for (Unknown unknown : model.unknowns()) {
-      int index = unknown.index();
-      ConditionalDensity density = model.conditional(index);
-      Double value = given.get(unknown.label());
-      if (value != null) {
-        state[index] = value;
-        continue;
-      }
-      double shift = rng.nextDouble(-2, 2);
-      if (unknown.discrete() || !dispersed) {
-        continue;
-      }
-      double u0 = density.toSamplingScale(base[index]);
-      double u = Double.isFinite(u0) ? u0 + shift : shift;
-      double lower = density.lowerBound(state);
-      double upper = density.upperBound(state);
-      if (!(u > lower && u < upper)) {
-        u = Double.isFinite(u0) && u0 > lower && u0 < upper ? u0 : middle(lower, upper);
-      }
-      state[index] = density.toNatural(u);
-    }
-  }
-
-  /** The first unknown whose conditional is zero (or undefined) at {@code state}, else null. */
-  private static Unknown zeroDensityAt(BoundModel model, double[] state) {
-    for (Unknown unknown : model.unknowns()) {
-      ConditionalDensity density = model.conditional(unknown.index());
-      double u = density.toSamplingScale(state[unknown.index()]);
-      double logDensity = density.logDensity(u, state, null);
-      if (!(logDensity > Double.NEGATIVE_INFINITY) || logDensity == Double.POSITIVE_INFINITY) {
-        return unknown;
-      }
-    }
-    return null;
-  }
-
-  private static double middle(double lower, double upper) {
-    if (Double.isFinite(lower) && Double.isFinite(upper)) {
-      return lower + (upper - lower) / 2;
-    }
-    if (Double.isFinite(lower)) {
-      return lower + 1;
-    }
-    if (Double.isFinite(upper)) {
-      return upper - 1;
-    }
-    return 0;
-  }
-
   private static String abbreviate(List<String> labels) {
     if (labels.size() <= 8) {
       return String.join(", ", labels);
     }
     return String.join(", ", labels.subList(0, 8)) + ", ... (" + labels.size() + " in all)";
-  }
-
-  /** A generator that returns the middle of every range: for the up-front check only. */
-  private static final class FixedUniform implements RandomGenerator {
-    @Override
-    public long nextLong() {
-      return 0;
-    }
-
-    @Override
-    public double nextDouble(double origin, double bound) {
-      return origin + (bound - origin) / 2;
-    }
   }
 }

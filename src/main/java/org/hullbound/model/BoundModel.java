@@ -39,6 +39,8 @@ public final class BoundModel {
   private final int[] ownTerm;
   private final int[][] dependents;
   private final Update[] updates;
+  /** Each unknown's update on its own, before blocks replace some of them. */
+  private final Update[] singleUpdates;
   private final Formula[] lowerBounds;
   private final Formula[] upperBounds;
   private final boolean[] smooth;
@@ -77,6 +79,7 @@ public final class BoundModel {
     }
     this.dependents = new int[n][];
     this.updates = new Update[n];
+    this.singleUpdates = new Update[n];
     this.lowerBounds = new Formula[n];
     this.upperBounds = new Formula[n];
     this.smooth = new boolean[n];
@@ -90,6 +93,7 @@ public final class BoundModel {
       UpdateAnalysis.Choice choice =
           UpdateAnalysis.choose(s, own, children, discrete, imputed);
       updates[s] = choice.update();
+      singleUpdates[s] = choice.update();
       smooth[s] = UpdateAnalysis.smooth(s, own, children) && !discrete;
       Formula[] support = support(own);
       lowerBounds[s] = support[0];
@@ -106,6 +110,22 @@ public final class BoundModel {
               discrete));
     }
     this.unknowns = List.copyOf(list);
+    int[][] blankets = new int[n][];
+    boolean[] imputedSlots = new boolean[n];
+    for (int s = 0; s < n; s++) {
+      blankets[s] = new int[dependents[s].length + 1];
+      blankets[s][0] = ownTerm[s];
+      System.arraycopy(dependents[s], 0, blankets[s], 1, dependents[s].length);
+      imputedSlots[s] = result.imputed().get(s);
+    }
+    // A block is preferred over its members' one-at-a-time (even conjugate) updates: it mixes
+    // better when the members are correlated a posteriori.
+    for (int[] members : LinearNormalBlocks.find(terms, blankets, imputedSlots)) {
+      Update block = LinearNormalBlocks.update(members, terms, blankets);
+      for (int s : members) {
+        updates[s] = block;
+      }
+    }
     this.conditionals = new AtomicReferenceArray<>(n);
     this.initialState = initialState();
   }
@@ -214,6 +234,15 @@ public final class BoundModel {
   public Update update(int index) {
     checkIndex(index);
     return updates[index];
+  }
+
+  /**
+   * The update unknown {@code index} would have on its own, were it in no linear-normal block
+   * (the same as {@link #update} for unknowns outside blocks): for comparisons with the block.
+   */
+  public Update singleUpdate(int index) {
+    checkIndex(index);
+    return singleUpdates[index];
   }
 
   /** Labels of the terms that depend on unknown {@code index} (its blanket without itself). */

@@ -36,7 +36,7 @@ final class CompiledConditional implements ConditionalDensity {
     }
     this.aritiesUsed = new boolean[maxArity + 1];
     for (int i = 0; i < terms.length; i++) {
-      terms[i] = new TermEvaluator(blanket.get(i), slot);
+      terms[i] = new TermEvaluator(blanket.get(i), slot, scale);
       aritiesUsed[blanket.get(i).arguments().size()] = true;
     }
     this.lower = Evaluator.compile(lower, -1);
@@ -78,9 +78,14 @@ final class CompiledConditional implements ConditionalDensity {
     }
     double total = 0;
     double dx = 0;
+    double du = 0;
     for (TermEvaluator term : terms) {
       total += term.eval(frame);
-      dx += frame.slope;
+      if (term.slopeOnSamplingScale) {
+        du += frame.slope;
+      } else {
+        dx += frame.slope;
+      }
     }
     double logJacobian;
     double dxdu;
@@ -101,11 +106,17 @@ final class CompiledConditional implements ConditionalDensity {
         dxdu = 1;
         dLogJacobian = 0;
     }
-    if (slope != null) {
-      slope[0] = dx * dxdu + dLogJacobian;
-    }
     double value = total + logJacobian;
-    return Double.isNaN(value) ? Double.NEGATIVE_INFINITY : value;
+    if (Double.isNaN(value)) {
+      value = Double.NEGATIVE_INFINITY;
+    }
+    if (slope != null) {
+      double s = (dx == 0 ? 0 : dx * dxdu) + du + dLogJacobian;
+      // Where the density is zero (an argument underflowed out of its domain, say), the slope
+      // has no meaning; 0 as outside the support, never NaN.
+      slope[0] = Double.isNaN(s) && value == Double.NEGATIVE_INFINITY ? 0 : s;
+    }
+    return value;
   }
 
   @Override
@@ -153,8 +164,15 @@ final class CompiledConditional implements ConditionalDensity {
     private final double lower;
     private final double upper;
     private final int arity;
+    /**
+     * On the log scale, a term whose only moving argument is {@code c x^q} gives its slope in u
+     * directly as {@code q} times the family's slope in the log of that argument, so that a
+     * natural-scale derivative that overflows (an sd near 1e-144: {@code S / sd^3}) never enters.
+     */
+    final boolean slopeOnSamplingScale;
+    private final double power;
 
-    TermEvaluator(Term term, int slot) {
+    TermEvaluator(Term term, int slot, Scale scale) {
       this.family = term.family();
       this.value = Evaluator.compile(term.value(), slot);
       this.arity = term.arguments().size();
@@ -175,6 +193,11 @@ final class CompiledConditional implements ConditionalDensity {
       this.normalise = term.truncated() && movingCount > 0;
       this.lower = term.lower();
       this.upper = term.upper();
+      double q = movingCount == 1 ? Formulas.power(term.arguments().get(moving[0]), slot)
+          : Double.NaN;
+      this.slopeOnSamplingScale = scale == Scale.LOG && !valueMoves && !normalise
+          && Double.isFinite(q) && q != 0;
+      this.power = q;
     }
 
     double eval(Frame frame) {
@@ -188,6 +211,10 @@ final class CompiledConditional implements ConditionalDensity {
       }
       double[] g = frame.gradient[arity];
       double logDensity = family.logDensity(y, a, g);
+      if (slopeOnSamplingScale) {
+        frame.slope = power * family.logArgumentSlope(y, a, moving[0], g);
+        return logDensity;
+      }
       double slope = valueMoves ? g[0] * dy : 0;
       for (int k : moving) {
         slope += g[1 + k] * da[k];

@@ -30,6 +30,45 @@ public sealed interface Update {
   /** Not provably log-concave (or discrete): a fallback sampler; {@code reason} says why. */
   record Fallback(String reason, boolean smooth) implements Update {}
 
+  /**
+   * An exact joint draw of several unknowns (the {@code members}, in state order) whose joint
+   * full conditional is multivariate normal: every term that reads a member is normal with its
+   * value minus its mean affine in the members jointly and its spread free of them. {@link
+   * #canonical(double[])} gives the precision matrix Q and linear term b of N(Q^-1 b, Q^-1).
+   */
+  record LinearNormalBlock(int[] members, String reason, CanonicalRule rule) implements Update {
+    public LinearNormalBlock {
+      members = members.clone();
+    }
+
+    @Override
+    public int[] members() {
+      return members.clone();
+    }
+
+    /** How many unknowns the block draws jointly. */
+    public int size() {
+      return members.length;
+    }
+
+    /** The joint full conditional at {@code state} (natural-scale values of all unknowns). */
+    public Canonical canonical(double[] state) {
+      return rule.canonical(state);
+    }
+  }
+
+  /**
+   * A multivariate normal in canonical form: precision matrix Q (symmetric) and linear term b, so
+   * that the mean is Q^-1 b; rows and columns follow the block's members.
+   */
+  record Canonical(double[][] precision, double[] linear) {}
+
+  /** Computes a block's canonical-form full conditional from the current state. */
+  @FunctionalInterface
+  interface CanonicalRule {
+    Canonical canonical(double[] state);
+  }
+
   /** Computes a conjugate posterior from the current state. */
   @FunctionalInterface
   interface PosteriorRule {

@@ -77,6 +77,40 @@ class CheckCommandTest {
   }
 
   @Test
+  void theRegressionDemoDrawsItsInterceptAndCoefficientsAsOneBlock() {
+    Run run = run("check", "models/orchard.hbm", "--data", "models/orchard.csv");
+    assertEquals(0, run.status(), run.err());
+    String out = run.out();
+    assertTrue(out.matches("(?s).*alpha +natural +exact block normal \\(4 jointly\\).*"), out);
+    assertTrue(out.matches("(?s).*beta\\[1\\], beta\\[2\\], beta\\[3\\] +natural +exact block"
+        + " normal \\(4 jointly\\).*"), out);
+    assertTrue(out.matches("(?s).*sigma +log +adaptive rejection.*"), out);
+  }
+
+  @Test
+  void aRegressionShowsItsCoefficientsAsOneExactNormalBlock(@TempDir Path dir)
+      throws IOException {
+    // An invented scenario: a straight-line fit with known noise, inline data.
+    Path model = dir.resolve("line.hbm");
+    Files.writeString(model, String.join("\n",
+        "index obs = 1 .. 4",
+        "data x[obs] = [0.5, 1.0, 1.5, 2.0]",
+        "data y[obs] = [1.1, 2.2, 2.8, 4.1] ~ normal(mean = a + b[1] * x[obs], sd = 0.3)",
+        "index k = 1 .. 1",
+        "param a ~ normal(mean = 0, sd = 5)",
+        "param b[k] ~ normal(mean = 0, sd = 5)",
+        ""));
+    Run run = run("check", model.toString());
+    assertEquals(0, run.status(), run.err());
+    assertTrue(run.out().matches("(?s).*  a +natural +exact block normal \\(2 jointly\\).*"),
+        run.out());
+    assertTrue(run.out().matches("(?s).*b\\[1\\] +natural +exact block normal \\(2 jointly\\).*"),
+        run.out());
+    assertTrue(run.out().contains("exact joint draw of 2: every term reading them is normal"),
+        run.out());
+  }
+
+  @Test
   void aModelErrorIsRenderedOnStderrWithStatusTwoAndNoStackTrace(@TempDir Path dir)
       throws IOException {
     Path model = dir.resolve("bad.hbm");

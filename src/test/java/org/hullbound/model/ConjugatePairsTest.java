@@ -18,9 +18,10 @@ import org.junit.jupiter.api.Test;
 class ConjugatePairsTest {
 
   private static Update.Conjugate conjugate(BoundModel model, String label) {
+    // The one-at-a-time update: some of these models also form a linear-normal block.
     return assertInstanceOf(
-        Update.Conjugate.class, model.update(model.unknown(label).index()),
-        model.update(model.unknown(label).index()).reason());
+        Update.Conjugate.class, model.singleUpdate(model.unknown(label).index()),
+        model.singleUpdate(model.unknown(label).index()).reason());
   }
 
   /** The compiled conditional minus {@code posterior} (on the sampling scale) is constant. */

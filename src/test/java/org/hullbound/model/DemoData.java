@@ -29,6 +29,7 @@ public final class DemoData {
     files.put("bottles.csv", bottles());
     files.put("shifts.csv", shifts());
     files.put("sensors.csv", sensors());
+    files.put("orchard.csv", orchard());
     return files;
   }
 
@@ -143,6 +144,24 @@ public final class DemoData {
       }
       double t = random.nextGaussian() / Math.sqrt(chiSquare / 3);
       csv.append(fixed(day)).append(',').append(fixed(20 + 0.3 * day + 0.5 * t)).append('\n');
+    }
+    return csv.toString();
+  }
+
+  /**
+   * 60 apple trees: rainfall and irrigation (standardised, correlated 0.95 by construction) and
+   * age; yield 40 + 3 rain + 2 irrigation - 1.5 age plus normal noise of sd 2.
+   */
+  static String orchard() {
+    RandomGenerator random = random(20240806L);
+    StringBuilder csv = new StringBuilder("X[1],X[2],X[3],yield\n");
+    for (int i = 0; i < 60; i++) {
+      double rain = random.nextGaussian();
+      double irrigation = 0.95 * rain + Math.sqrt(1 - 0.95 * 0.95) * random.nextGaussian();
+      double age = random.nextGaussian();
+      double yield = 40 + 3 * rain + 2 * irrigation - 1.5 * age + 2 * random.nextGaussian();
+      csv.append(fixed(rain)).append(',').append(fixed(irrigation)).append(',')
+          .append(fixed(age)).append(',').append(fixed(yield)).append('\n');
     }
     return csv.toString();
   }

@@ -37,6 +37,16 @@ final class HalfNormal {
     }
 
     @Override
+    public double logArgumentSlope(double x, double[] args, int k, double[] gradient) {
+      if (k != 0 || !(args[0] > 0) || !inSupport(x, args)) {
+        return super.logArgumentSlope(x, args, k, gradient);
+      }
+      // sd d/dsd (-log sd - z^2/2) = z^2 - 1, finite while z^2 is, unlike (z^2 - 1)/sd.
+      double z = x / args[0];
+      return z * z - 1.0;
+    }
+
+    @Override
     double logLowerTail(double x, double[] args) {
       double z = x / args[0];
       // Near 0, erf keeps relative accuracy where 1 - 2Q(z) would cancel.

@@ -33,6 +33,16 @@ final class LogNormal {
     }
 
     @Override
+    public double logArgumentSlope(double x, double[] args, int k, double[] gradient) {
+      if (k != 1 || !(args[1] > 0) || !inSupport(x, args)) {
+        return super.logArgumentSlope(x, args, k, gradient);
+      }
+      // sdlog d/dsdlog (-log sdlog - z^2/2) = z^2 - 1, finite while z^2 is.
+      double z = (Math.log(x) - args[0]) / args[1];
+      return z * z - 1.0;
+    }
+
+    @Override
     double logLowerTail(double x, double[] args) {
       return NormalTail.logLower((Math.log(x) - args[0]) / args[1]);
     }

@@ -85,6 +85,16 @@ final class Normal {
     }
 
     @Override
+    public double logArgumentSlope(double x, double[] args, int k, double[] gradient) {
+      if (k != 1 || !(args[1] > 0) || !inSupport(x, args)) {
+        return super.logArgumentSlope(x, args, k, gradient);
+      }
+      // sd d/dsd (-z^2/2 - log sd) = z^2 - 1, finite while z^2 is, unlike (z^2 - 1)/sd.
+      double z = (x - args[0]) / args[1];
+      return z * z - 1.0;
+    }
+
+    @Override
     double cdfSensitivity(int k, double x, double[] args) {
       // z = (x - mean)/sd: dz/dmean / dz/dx = -1, dz/dsd / dz/dx = -(x - mean)/sd.
       return k == 0 ? -1.0 : -(x - args[0]) / args[1];
@@ -130,6 +140,16 @@ final class Normal {
     }
 
     @Override
+    public double logArgumentSlope(double x, double[] args, int k, double[] gradient) {
+      if (k != 1 || !(args[1] > 0) || !inSupport(x, args)) {
+        return super.logArgumentSlope(x, args, k, gradient);
+      }
+      // var d/dvar (-d^2/(2 var) - log(var)/2) = (d^2/var - 1)/2.
+      double d = x - args[0];
+      return 0.5 * (d * d / args[1] - 1.0);
+    }
+
+    @Override
     double cdfSensitivity(int k, double x, double[] args) {
       // z = (x - mean)/sqrt(var): dz/dvar / dz/dx = -(x - mean)/(2 var).
       return k == 0 ? -1.0 : -(x - args[0]) / (2.0 * args[1]);
@@ -172,6 +192,16 @@ final class Normal {
         gradient[2] = 0.5 * (1.0 / precision - d * d);
       }
       return -0.5 * precision * d * d + 0.5 * Math.log(precision) - NormalTail.HALF_LOG_TWO_PI;
+    }
+
+    @Override
+    public double logArgumentSlope(double x, double[] args, int k, double[] gradient) {
+      if (k != 1 || !(args[1] > 0) || !inSupport(x, args)) {
+        return super.logArgumentSlope(x, args, k, gradient);
+      }
+      // tau d/dtau (-tau d^2/2 + log(tau)/2) = (1 - tau d^2)/2.
+      double d = x - args[0];
+      return 0.5 * (1.0 - args[1] * d * d);
     }
 
     @Override

@@ -49,6 +49,18 @@ public interface Parametrisation {
   double logDensity(double x, double[] args, double[] gradient);
 
   /**
+   * {@code args[k]} times d/d args[k] of the log density: its slope in {@code log(args[k])}, which
+   * the compiler needs for a scale on the log scale. {@code gradient} holds what {@link
+   * #logDensity(double, double[], double[])} filled at the same point. The default multiplies, so
+   * it overflows where the natural-scale derivative does (about {@code args[k] < 1e-103} for a
+   * normal sd); families override it with a form that does not.
+   */
+  default double logArgumentSlope(double x, double[] args, int k, double[] gradient) {
+    double g = gradient[1 + k];
+    return g == 0 ? 0 : args[k] * g;
+  }
+
+  /**
    * {@code null} when the arguments are valid, else a message naming the argument, its value and
    * what is required, e.g. {@code "sd must be > 0, got -1.0"}.
    */
