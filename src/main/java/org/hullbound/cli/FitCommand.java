@@ -2,10 +2,13 @@ package org.hullbound.cli;
 
 import java.io.IOException;
 import java.io.PrintWriter;
+import java.io.UncheckedIOException;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.security.SecureRandom;
+import java.time.Duration;
+import java.time.OffsetDateTime;
 import java.util.ArrayList;
 import java.util.LinkedHashMap;
 import java.util.List;
@@ -13,12 +16,14 @@ import java.util.Map;
 import java.util.concurrent.Callable;
 import java.util.concurrent.CountDownLatch;
 import java.util.concurrent.TimeUnit;
+import org.hullbound.diagnostics.Draws;
 import org.hullbound.diagnostics.PosteriorSummary;
 import org.hullbound.diagnostics.VariableSummary;
 import org.hullbound.gibbs.ChainFailedException;
 import org.hullbound.gibbs.ChainRunner;
 import org.hullbound.gibbs.DrawSink;
 import org.hullbound.gibbs.DrawStore;
+import org.hullbound.gibbs.MemoryBudget;
 import org.hullbound.gibbs.ModelSampler;
 import org.hullbound.gibbs.ProgressListener;
 import org.hullbound.gibbs.RunOutcome;
@@ -37,6 +42,11 @@ import org.hullbound.lang.SourceText;
 import org.hullbound.model.BoundModel;
 import org.hullbound.model.DataTable;
 import org.hullbound.model.Unknown;
+import org.hullbound.report.HtmlReport;
+import org.hullbound.report.ReportInput;
+import org.hullbound.report.ReportOptions;
+import org.hullbound.report.ReportWriter;
+import org.hullbound.report.RunHeader;
 import org.hullbound.report.SummaryTable;
 import org.hullbound.report.UpdateFacts;
 import org.hullbound.report.Verdicts;
@@ -109,7 +119,21 @@ public final class FitCommand implements Callable<Integer> {
   @Option(names = "--quiet", description = "No progress display.")
   boolean quiet;
 
+  @Option(
+      names = "--overwrite",
+      description = "Replace the files of an earlier run in DIR (without it, fit refuses to start).")
+  boolean overwrite;
+
   @CommandLine.Spec CommandLine.Model.CommandSpec spec;
+
+  /** The summary table's file name in the output folder. */
+  static final String SUMMARY_FILE = "summary.csv";
+
+  /** The HTML report's file name in the output folder. */
+  static final String REPORT_FILE = "report.html";
+
+  /** When sampling started; set just before the chains run. */
+  private RunClock clock;
 
   @Override
   public Integer call() throws IOException {
@@ -137,6 +161,16 @@ public final class FitCommand implements Callable<Integer> {
       settings = settings.withThreads(threads);
     }
     Path folder = out != null ? out : Path.of("fit-out", model.name());
+    String refusal = refuseToOverwrite(folder);
+    if (refusal == null) {
+      refusal = refuseTooMuchMemory(settings, sampler.labels().size(), stderr);
+    }
+    if (refusal != null) {
+      stderr.println("hullbound fit: " + refusal);
+      stderr.flush();
+      return ErrorReporting.USER_ERROR;
+    }
+    clearEarlierRun(folder);
     StopSignal stop = StopSignal.create();
     CountDownLatch finished = new CountDownLatch(1);
     Thread interruptHook = new Thread(() -> stopAndWait(stop, finished), "hullbound-interrupt");
@@ -161,6 +195,7 @@ public final class FitCommand implements Callable<Integer> {
               runSeed);
           stderr.flush();
         }
+        clock = RunClock.start();
         try {
           outcome =
               ChainRunner.of(settings, listener, stop)
@@ -175,7 +210,7 @@ public final class FitCommand implements Callable<Integer> {
           display.finish();
         }
       }
-      report(model, sampler, settings, outcome, store, folder, stdout, stderr);
+      report(model, sampler, settings, outcome, store, folder, stdout, stderr, clock);
       return 0;
     } finally {
       // Only now may an interrupted JVM exit: the files are written.
@@ -210,6 +245,85 @@ public final class FitCommand implements Callable<Integer> {
     return null;
   }
 
+  /** Files that mark a folder as holding an earlier run; checkpoint files start with {@code checkpoint}. */
+  static final List<String> OUTPUT_FILES =
+      List.of(DrawsWriter.FILE_NAME, SUMMARY_FILE, REPORT_FILE);
+
+  /**
+   * Why {@code folder} must not be written, or null: it is a file, or it holds an earlier run's
+   * outputs and {@code --overwrite} was not given. A resumed run skips this check.
+   */
+  String refuseToOverwrite(Path folder) throws IOException {
+    if (Files.exists(folder) && !Files.isDirectory(folder)) {
+      return "--out " + folder + " is a file, not a folder";
+    }
+    List<String> found = earlierRunFiles(folder);
+    if (found.isEmpty() || overwrite) {
+      return null;
+    }
+    return "the folder " + folder + " holds an earlier run (" + String.join(", ", found)
+        + "); give --overwrite to replace it, or --out with another folder";
+  }
+
+  /** With {@code --overwrite}, deletes the earlier run's files so none outlives this run. */
+  private void clearEarlierRun(Path folder) throws IOException {
+    if (!overwrite) {
+      return;
+    }
+    for (String name : earlierRunFiles(folder)) {
+      Files.deleteIfExists(folder.resolve(name));
+    }
+  }
+
+  private static List<String> earlierRunFiles(Path folder) throws IOException {
+    List<String> found = new ArrayList<>();
+    if (!Files.isDirectory(folder)) {
+      return found;
+    }
+    for (String name : OUTPUT_FILES) {
+      if (Files.exists(folder.resolve(name))) {
+        found.add(name);
+      }
+    }
+    try (var entries = Files.list(folder)) {
+      entries
+          .map(entry -> entry.getFileName().toString())
+          .filter(name -> name.startsWith("checkpoint") && !Files.isDirectory(folder.resolve(name)))
+          .sorted()
+          .forEach(found::add);
+    }
+    return found;
+  }
+
+  /**
+   * Why the run would not fit the heap, or null; prints a note on {@code stderr} when it fits but
+   * is a large share of it (see {@link MemoryBudget}).
+   */
+  private String refuseTooMuchMemory(RunSettings settings, int unknowns, PrintWriter stderr) {
+    MemoryBudget budget = MemoryBudget.of(settings.chains(), settings.draws(), unknowns);
+    long heap = Runtime.getRuntime().maxMemory();
+    String figure =
+        settings.chains() + " chains x " + settings.draws() + " draws x " + unknowns
+            + " unknowns will hold about " + MemoryBudget.describe(budget.bytes())
+            + " of draws in memory";
+    switch (budget.against(heap)) {
+      case REFUSE:
+        return figure + ", more than " + Math.round(100 * MemoryBudget.REFUSE_SHARE)
+            + "% of the Java heap (" + MemoryBudget.describe(heap) + "); keep fewer draws"
+            + " (--thin K keeps every K-th sweep, or a smaller --draws) or give Java more memory"
+            + " (HULLBOUND_JAVA_OPTS=-Xmx8g ./hullbound fit ...)";
+      case NOTE:
+        if (!quiet) {
+          stderr.println("note: " + figure + " (the Java heap is " + MemoryBudget.describe(heap)
+              + ")");
+          stderr.flush();
+        }
+        return null;
+      default:
+        return null;
+    }
+  }
+
   private BoundModel load() throws IOException {
     String text = Files.readString(modelFile, StandardCharsets.UTF_8);
     ModelFile parsed = Parser.parse(SourceText.of(modelFile.toString(), text));
@@ -218,6 +332,17 @@ public final class FitCommand implements Callable<Integer> {
       tables.add(CsvData.read(file));
     }
     return BoundModel.bind(parsed, tables);
+  }
+
+  /** When the chains started, by the wall clock (for the report) and the monotonic one. */
+  private record RunClock(OffsetDateTime startedAt, long startNanos) {
+    static RunClock start() {
+      return new RunClock(OffsetDateTime.now(), System.nanoTime());
+    }
+
+    Duration elapsed() {
+      return Duration.ofNanos(Math.max(0, System.nanoTime() - startNanos));
+    }
   }
 
   /** On Ctrl-C: ask the chains to stop, then give the run a few seconds to write its files. */
@@ -232,7 +357,7 @@ public final class FitCommand implements Callable<Integer> {
 
   private static void report(
       BoundModel model, ModelSampler sampler, RunSettings settings, RunOutcome outcome,
-      DrawStore store, Path folder, PrintWriter stdout, PrintWriter stderr) {
+      DrawStore store, Path folder, PrintWriter stdout, PrintWriter stderr, RunClock clock) {
     List<String> labels = sampler.labels();
     int kept = store.commonDraws();
     if (outcome.stoppedEarly()) {
@@ -240,9 +365,16 @@ public final class FitCommand implements Callable<Integer> {
       stderr.flush();
     }
     Path drawsFile = folder.resolve(DrawsWriter.FILE_NAME);
+    RunHeader header =
+        new RunHeader(model.name(), clock.startedAt(), settings.chains(), kept, settings.burnIn(),
+            settings.seed(), clock.elapsed());
     if (kept == 0) {
+      Path reportFile = writeReport(folder, new ReportInput(header,
+          List.of("No draws were kept (the run stopped during burn-in), so there is no summary."),
+          "", List.of(), ReportOptions.defaults()));
       stdout.println("No draws were kept, so there is no summary.");
-      stdout.println("draws: " + drawsFile);
+      stdout.println("draws:  " + drawsFile);
+      stdout.println("report: " + reportFile);
       stdout.flush();
       return;
     }
@@ -255,12 +387,15 @@ public final class FitCommand implements Callable<Integer> {
       }
     }
     List<VariableSummary> summaries = new ArrayList<>();
+    List<Draws> kepts = new ArrayList<>();
     Map<String, UpdateFacts> facts = new LinkedHashMap<>();
     List<String> switchNotes = new ArrayList<>();
     for (Unknown unknown : model.unknowns()) {
       int index = unknown.index();
       String label = labels.get(index);
-      summaries.add(PosteriorSummary.of(label, store.draws(index)));
+      Draws draws = Draws.of(store.draws(index));
+      kepts.add(draws);
+      summaries.add(PosteriorSummary.of(label, draws));
       UpdateReport update = reports.get(index);
       String method = update.method() + (unknown.imputed() ? ", imputed" : "");
       UpdateFacts fact;
@@ -277,11 +412,14 @@ public final class FitCommand implements Callable<Integer> {
       facts.put(label, fact);
     }
     SummaryTable table = SummaryTable.of(summaries, facts);
-    Path summaryFile = folder.resolve("summary.csv");
+    Path summaryFile = folder.resolve(SUMMARY_FILE);
     AtomicFiles.write(summaryFile, table.csv());
+    Verdicts verdicts = Verdicts.of(table);
+    Path reportFile = writeReport(folder,
+        ReportInput.of(header, table, verdicts, kepts, ReportOptions.defaults()));
     stdout.print(table.text());
     stdout.println();
-    for (String line : Verdicts.of(table).lines()) {
+    for (String line : verdicts.lines()) {
       stdout.println(line);
     }
     for (String note : switchNotes) {
@@ -297,6 +435,18 @@ public final class FitCommand implements Callable<Integer> {
         settings.seed(), settings.seed(), settings.chains());
     stdout.println("draws:   " + drawsFile);
     stdout.println("summary: " + summaryFile);
+    stdout.println("report:  " + reportFile);
     stdout.flush();
+  }
+
+  /** Renders the page and writes it atomically; returns its path. */
+  private static Path writeReport(Path folder, ReportInput input) {
+    Path file = folder.resolve(REPORT_FILE);
+    try {
+      ReportWriter.writeAtomically(file, HtmlReport.render(input));
+    } catch (IOException e) {
+      throw new UncheckedIOException("cannot write " + file + ": " + e.getMessage(), e);
+    }
+    return file;
   }
 }
