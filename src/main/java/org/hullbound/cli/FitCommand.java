@@ -3,7 +3,6 @@ package org.hullbound.cli;
 import java.io.IOException;
 import java.io.PrintWriter;
 import java.io.UncheckedIOException;
-import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.security.SecureRandom;
@@ -34,6 +33,7 @@ import org.hullbound.gibbs.UpdateReport;
 import org.hullbound.gibbs.UpdateRule;
 import org.hullbound.io.AtomicFiles;
 import org.hullbound.io.CsvData;
+import org.hullbound.io.TextFiles;
 import org.hullbound.io.DrawsWriter;
 import org.hullbound.io.InitialValuesFile;
 import org.hullbound.lang.ModelFile;
@@ -151,7 +151,8 @@ public final class FitCommand implements Callable<Integer> {
     try {
       sampler = ModelSampler.of(model, given);
     } catch (StartingValueException invalid) {
-      stderr.println("hullbound fit: " + invalid.getMessage());
+      stderr.println("hullbound fit: " + (initFile != null ? initFile + ": " : "")
+          + invalid.getMessage());
       stderr.flush();
       return ErrorReporting.USER_ERROR;
     }
@@ -313,11 +314,9 @@ public final class FitCommand implements Callable<Integer> {
             + " (--thin K keeps every K-th sweep, or a smaller --draws) or give Java more memory"
             + " (HULLBOUND_JAVA_OPTS=-Xmx8g ./hullbound fit ...)";
       case NOTE:
-        if (!quiet) {
-          stderr.println("note: " + figure + " (the Java heap is " + MemoryBudget.describe(heap)
-              + ")");
-          stderr.flush();
-        }
+        stderr.println("hullbound fit: note: " + figure + " (the Java heap is "
+            + MemoryBudget.describe(heap) + ")");
+        stderr.flush();
         return null;
       default:
         return null;
@@ -325,7 +324,7 @@ public final class FitCommand implements Callable<Integer> {
   }
 
   private BoundModel load() throws IOException {
-    String text = Files.readString(modelFile, StandardCharsets.UTF_8);
+    String text = TextFiles.readUtf8(modelFile, "model file");
     ModelFile parsed = Parser.parse(SourceText.of(modelFile.toString(), text));
     List<DataTable> tables = new ArrayList<>();
     for (Path file : dataFiles) {
