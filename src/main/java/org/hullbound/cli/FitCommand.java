@@ -62,7 +62,9 @@ import picocli.CommandLine.Parameters;
  *
  * <p>Thin by design: the numerics live in {@code gibbs}, {@code diagnostics} and {@code report};
  * this class reads files, shows progress on standard error, writes the outputs and turns failures
- * into exit codes (0 done, 1 sampling failure, 2 usage, model or data error).
+ * into exit codes (0 done, 1 sampling failure, 2 usage, model or data error). Before sampling it
+ * refuses to write over an earlier run without {@code --overwrite} and refuses a run whose kept
+ * draws would not fit the heap ({@link MemoryBudget}).
  */
 @Command(
     name = "fit",
@@ -70,7 +72,8 @@ import picocli.CommandLine.Parameters;
     sortOptions = false,
     description = {
       "Fit a model by Gibbs sampling: one exact or adaptive-rejection update per unknown,",
-      "parallel chains, draws streamed to DIR/draws.csv, summary to DIR/summary.csv."
+      "parallel chains, draws streamed to DIR/draws.csv, summary to DIR/summary.csv,",
+      "a self-contained page to DIR/report.html."
     })
 public final class FitCommand implements Callable<Integer> {
 
@@ -104,7 +107,7 @@ public final class FitCommand implements Callable<Integer> {
   @Option(
       names = "--out",
       paramLabel = "DIR",
-      description = "Folder for draws.csv and summary.csv (default: fit-out/<model name>).")
+      description = "Folder for draws.csv, summary.csv and report.html (default: fit-out/<model name>).")
   Path out;
 
   @Option(
