@@ -100,6 +100,38 @@ class FitSafetyTest {
     assertFalse(Files.exists(out), "nothing was written: no sampling happened");
   }
 
+  /**
+   * A run stopped during burn-in (SIGTERM in a child JVM, the same hook as Ctrl-C) kept no draws:
+   * it still writes a report, which says so, and no summary.
+   */
+  @Test
+  void aRunStoppedBeforeAnyKeptDrawStillWritesAReportThatSaysSo() throws Exception {
+    Path out = folder.resolve("burn-in");
+    Process process =
+        new ProcessBuilder(
+                Path.of(System.getProperty("java.home"), "bin", "java").toString(),
+                "-cp", System.getProperty("java.class.path"), "org.hullbound.cli.Main",
+                "fit", MODEL, "--data", DATA, "--chains", "1", "--burn-in", "100000000",
+                "--draws", "1", "--seed", "5", "--quiet", "--out", out.toString())
+            .redirectErrorStream(true)
+            .redirectOutput(folder.resolve("child.txt").toFile())
+            .start();
+    long deadline = System.nanoTime() + java.util.concurrent.TimeUnit.SECONDS.toNanos(30);
+    while (System.nanoTime() < deadline && !Files.exists(out.resolve("draws.csv"))) {
+      Thread.sleep(50);
+    }
+    Thread.sleep(300);
+    process.destroy();
+    assertTrue(process.waitFor(30, java.util.concurrent.TimeUnit.SECONDS), "the child stopped");
+    String output = Files.readString(folder.resolve("child.txt"));
+    assertTrue(output.contains("No draws were kept"), output);
+    assertTrue(output.contains("report: " + out.resolve("report.html")), output);
+    String report = Files.readString(out.resolve("report.html"));
+    assertTrue(report.contains("No draws were kept"), report);
+    assertFalse(report.contains("class=\"plot plot-trace\""), "no plots without draws");
+    assertFalse(Files.exists(out.resolve("summary.csv")));
+  }
+
   /** One bad input per row: what to write, the arguments, and what the message must name. */
   static Stream<Arguments> errorPaths() {
     return Stream.of(
