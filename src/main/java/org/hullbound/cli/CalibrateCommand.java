@@ -2,13 +2,12 @@ package org.hullbound.cli;
 
 import java.io.IOException;
 import java.io.PrintWriter;
-import java.nio.charset.StandardCharsets;
-import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.concurrent.Callable;
 import org.hullbound.io.CsvData;
+import org.hullbound.io.TextFiles;
 import org.hullbound.lang.ModelFile;
 import org.hullbound.lang.Parser;
 import org.hullbound.lang.SourceText;
@@ -85,7 +84,7 @@ public final class CalibrateCommand implements Callable<Integer> {
           .replace("thin must", "--thin must").replace("burnIn must", "--burn-in must")
           .replace("bins must", "--bins must"));
     }
-    String text = Files.readString(modelFile, StandardCharsets.UTF_8);
+    String text = TextFiles.readUtf8(modelFile, "model file");
     ModelFile parsed = Parser.parse(SourceText.of(modelFile.toString(), text));
     List<DataTable> tables = new ArrayList<>();
     for (Path file : dataFiles) {

@@ -2,14 +2,13 @@ package org.hullbound.cli;
 
 import java.io.IOException;
 import java.io.PrintWriter;
-import java.nio.charset.StandardCharsets;
-import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
 import java.util.concurrent.Callable;
 import org.hullbound.io.CsvData;
+import org.hullbound.io.TextFiles;
 import org.hullbound.lang.ModelFile;
 import org.hullbound.lang.Parser;
 import org.hullbound.lang.SourceText;
@@ -53,7 +52,7 @@ public final class CheckCommand implements Callable<Integer> {
 
   @Override
   public Integer call() throws IOException {
-    String text = Files.readString(modelFile, StandardCharsets.UTF_8);
+    String text = TextFiles.readUtf8(modelFile, "model file");
     ModelFile parsed = Parser.parse(SourceText.of(modelFile.toString(), text));
     List<DataTable> tables = new ArrayList<>();
     for (Path file : dataFiles) {

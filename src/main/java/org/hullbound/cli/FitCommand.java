@@ -2,10 +2,12 @@ package org.hullbound.cli;
 
 import java.io.IOException;
 import java.io.PrintWriter;
-import java.nio.charset.StandardCharsets;
+import java.io.UncheckedIOException;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.security.SecureRandom;
+import java.time.Duration;
+import java.time.OffsetDateTime;
 import java.util.ArrayList;
 import java.util.LinkedHashMap;
 import java.util.List;
@@ -13,12 +15,14 @@ import java.util.Map;
 import java.util.concurrent.Callable;
 import java.util.concurrent.CountDownLatch;
 import java.util.concurrent.TimeUnit;
+import org.hullbound.diagnostics.Draws;
 import org.hullbound.diagnostics.PosteriorSummary;
 import org.hullbound.diagnostics.VariableSummary;
 import org.hullbound.gibbs.ChainFailedException;
 import org.hullbound.gibbs.ChainRunner;
 import org.hullbound.gibbs.DrawSink;
 import org.hullbound.gibbs.DrawStore;
+import org.hullbound.gibbs.MemoryBudget;
 import org.hullbound.gibbs.ModelSampler;
 import org.hullbound.gibbs.ProgressListener;
 import org.hullbound.gibbs.RunOutcome;
@@ -32,6 +36,7 @@ import org.hullbound.io.Checkpoint;
 import org.hullbound.io.CheckpointException;
 import org.hullbound.io.CheckpointFile;
 import org.hullbound.io.CsvData;
+import org.hullbound.io.TextFiles;
 import org.hullbound.io.DrawsWriter;
 import org.hullbound.io.InitialValuesFile;
 import org.hullbound.lang.ModelFile;
@@ -40,6 +45,11 @@ import org.hullbound.lang.SourceText;
 import org.hullbound.model.BoundModel;
 import org.hullbound.model.DataTable;
 import org.hullbound.model.Unknown;
+import org.hullbound.report.HtmlReport;
+import org.hullbound.report.ReportInput;
+import org.hullbound.report.ReportOptions;
+import org.hullbound.report.ReportWriter;
+import org.hullbound.report.RunHeader;
 import org.hullbound.report.SummaryTable;
 import org.hullbound.report.UpdateFacts;
 import org.hullbound.report.Verdicts;
@@ -55,7 +65,9 @@ import picocli.CommandLine.Parameters;
  *
  * <p>Thin by design: the numerics live in {@code gibbs}, {@code diagnostics} and {@code report};
  * this class reads files, shows progress on standard error, writes the outputs and turns failures
- * into exit codes (0 done, 1 sampling failure, 2 usage, model or data error).
+ * into exit codes (0 done, 1 sampling failure, 2 usage, model or data error). Before sampling it
+ * refuses to write over an earlier run without {@code --overwrite} and refuses a run whose kept
+ * draws would not fit the heap ({@link MemoryBudget}).
  */
 @Command(
     name = "fit",
@@ -63,7 +75,8 @@ import picocli.CommandLine.Parameters;
     sortOptions = false,
     description = {
       "Fit a model by Gibbs sampling: one exact or adaptive-rejection update per unknown,",
-      "parallel chains, draws streamed to DIR/draws.csv, summary to DIR/summary.csv."
+      "parallel chains, draws streamed to DIR/draws.csv, summary to DIR/summary.csv,",
+      "a self-contained page to DIR/report.html."
     })
 public final class FitCommand implements Callable<Integer> {
 
@@ -97,7 +110,7 @@ public final class FitCommand implements Callable<Integer> {
   @Option(
       names = "--out",
       paramLabel = "DIR",
-      description = "Folder for draws.csv and summary.csv (default: fit-out/<model name>).")
+      description = "Folder for draws.csv, summary.csv and report.html (default: fit-out/<model name>).")
   Path out;
 
   @Option(
@@ -118,7 +131,21 @@ public final class FitCommand implements Callable<Integer> {
       description = "Continue the interrupted run whose files are in DIR (its checkpoint.txt): same draws as if never stopped.")
   Path resumeFolder;
 
+  @Option(
+      names = "--overwrite",
+      description = "Replace the files of an earlier run in DIR (without it, fit refuses to start).")
+  boolean overwrite;
+
   @CommandLine.Spec CommandLine.Model.CommandSpec spec;
+
+  /** The summary table's file name in the output folder. */
+  static final String SUMMARY_FILE = "summary.csv";
+
+  /** The HTML report's file name in the output folder. */
+  static final String REPORT_FILE = "report.html";
+
+  /** When sampling started; set just before the chains run. */
+  private RunClock clock;
 
   @Override
   public Integer call() throws IOException {
@@ -136,7 +163,8 @@ public final class FitCommand implements Callable<Integer> {
     try {
       sampler = ModelSampler.of(model, given);
     } catch (StartingValueException invalid) {
-      stderr.println("hullbound fit: " + invalid.getMessage());
+      stderr.println("hullbound fit: " + (initFile != null ? initFile + ": " : "")
+          + invalid.getMessage());
       stderr.flush();
       return ErrorReporting.USER_ERROR;
     }
@@ -160,8 +188,18 @@ public final class FitCommand implements Callable<Integer> {
     }
     Path folder =
         checkpoint != null ? resumeFolder : out != null ? out : Path.of("fit-out", model.name());
+    // A resumed run continues in its folder by design; a new one must not replace an earlier one.
+    String refusal = checkpoint != null ? null : refuseToOverwrite(folder);
+    if (refusal == null) {
+      refusal = refuseTooMuchMemory(settings, sampler.labels().size(), stderr);
+    }
+    if (refusal != null) {
+      stderr.println("hullbound fit: " + refusal);
+      stderr.flush();
+      return ErrorReporting.USER_ERROR;
+    }
     if (checkpoint == null) {
-      forgetOldCheckpoint(folder);
+      clearEarlierRun(folder);
     }
     StopSignal stop = StopSignal.create();
     CountDownLatch finished = new CountDownLatch(1);
@@ -198,6 +236,7 @@ public final class FitCommand implements Callable<Integer> {
           }
           stderr.flush();
         }
+        clock = RunClock.start();
         try {
           outcome =
               ChainRunner.of(settings, listener, stop)
@@ -215,7 +254,7 @@ public final class FitCommand implements Callable<Integer> {
         }
       }
       saveCheckpoint(folder, sampler, settings, outcome, checkpoint);
-      report(model, sampler, settings, outcome, store, folder, stdout, stderr);
+      report(model, sampler, settings, outcome, store, folder, stdout, stderr, clock);
       if (outcome.stoppedEarly()) {
         printHowToResume(folder, stdout);
       }
@@ -284,9 +323,9 @@ public final class FitCommand implements Callable<Integer> {
   private String inputHash() throws IOException {
     List<String> dataTexts = new ArrayList<>();
     for (Path file : dataFiles) {
-      dataTexts.add(Files.readString(file, StandardCharsets.UTF_8));
+      dataTexts.add(TextFiles.readUtf8(file, "data file"));
     }
-    return CheckpointFile.inputHash(Files.readString(modelFile, StandardCharsets.UTF_8), dataTexts);
+    return CheckpointFile.inputHash(TextFiles.readUtf8(modelFile, "model file"), dataTexts);
   }
 
   /** A new draws file, or the checkpointed one continued (its draws handed to {@code store}). */
@@ -300,11 +339,6 @@ public final class FitCommand implements Callable<Integer> {
       kept[chain] = checkpoint.chains().get(chain).draws();
     }
     return DrawsWriter.resume(folder, sampler.labels(), kept, store);
-  }
-
-  /** A new run in {@code folder} makes an older run's checkpoint meaningless: remove it. */
-  private static void forgetOldCheckpoint(Path folder) throws IOException {
-    Files.deleteIfExists(CheckpointFile.in(folder));
   }
 
   /**
@@ -360,8 +394,85 @@ public final class FitCommand implements Callable<Integer> {
     return null;
   }
 
+  /** Files that mark a folder as holding an earlier run; checkpoint files start with {@code checkpoint}. */
+  static final List<String> OUTPUT_FILES =
+      List.of(DrawsWriter.FILE_NAME, SUMMARY_FILE, REPORT_FILE);
+
+  /**
+   * Why {@code folder} must not be written, or null: it is a file, or it holds an earlier run's
+   * outputs and {@code --overwrite} was not given. A resumed run skips this check.
+   */
+  String refuseToOverwrite(Path folder) throws IOException {
+    if (Files.exists(folder) && !Files.isDirectory(folder)) {
+      return "--out " + folder + " is a file, not a folder";
+    }
+    List<String> found = earlierRunFiles(folder);
+    if (found.isEmpty() || overwrite) {
+      return null;
+    }
+    return "the folder " + folder + " holds an earlier run (" + String.join(", ", found)
+        + "); give --overwrite to replace it, or --out with another folder";
+  }
+
+  /** With {@code --overwrite}, deletes the earlier run's files so none outlives this run. */
+  private void clearEarlierRun(Path folder) throws IOException {
+    if (!overwrite) {
+      return;
+    }
+    for (String name : earlierRunFiles(folder)) {
+      Files.deleteIfExists(folder.resolve(name));
+    }
+  }
+
+  private static List<String> earlierRunFiles(Path folder) throws IOException {
+    List<String> found = new ArrayList<>();
+    if (!Files.isDirectory(folder)) {
+      return found;
+    }
+    for (String name : OUTPUT_FILES) {
+      if (Files.exists(folder.resolve(name))) {
+        found.add(name);
+      }
+    }
+    try (var entries = Files.list(folder)) {
+      entries
+          .map(entry -> entry.getFileName().toString())
+          .filter(name -> name.startsWith("checkpoint") && !Files.isDirectory(folder.resolve(name)))
+          .sorted()
+          .forEach(found::add);
+    }
+    return found;
+  }
+
+  /**
+   * Why the run would not fit the heap, or null; prints a note on {@code stderr} when it fits but
+   * is a large share of it (see {@link MemoryBudget}).
+   */
+  private String refuseTooMuchMemory(RunSettings settings, int unknowns, PrintWriter stderr) {
+    MemoryBudget budget = MemoryBudget.of(settings.chains(), settings.draws(), unknowns);
+    long heap = Runtime.getRuntime().maxMemory();
+    String figure =
+        settings.chains() + " chains x " + settings.draws() + " draws x " + unknowns
+            + " unknowns will hold about " + MemoryBudget.describe(budget.bytes())
+            + " of draws in memory";
+    switch (budget.against(heap)) {
+      case REFUSE:
+        return figure + ", more than " + Math.round(100 * MemoryBudget.REFUSE_SHARE)
+            + "% of the Java heap (" + MemoryBudget.describe(heap) + "); keep fewer draws"
+            + " (--thin K keeps every K-th sweep, or a smaller --draws) or give Java more memory"
+            + " (HULLBOUND_JAVA_OPTS=-Xmx8g ./hullbound fit ...)";
+      case NOTE:
+        stderr.println("hullbound fit: note: " + figure + " (the Java heap is "
+            + MemoryBudget.describe(heap) + ")");
+        stderr.flush();
+        return null;
+      default:
+        return null;
+    }
+  }
+
   private BoundModel load() throws IOException {
-    String text = Files.readString(modelFile, StandardCharsets.UTF_8);
+    String text = TextFiles.readUtf8(modelFile, "model file");
     ModelFile parsed = Parser.parse(SourceText.of(modelFile.toString(), text));
     List<DataTable> tables = new ArrayList<>();
     for (Path file : dataFiles) {
@@ -370,11 +481,24 @@ public final class FitCommand implements Callable<Integer> {
     return BoundModel.bind(parsed, tables);
   }
 
+  /** When the chains started, by the wall clock (for the report) and the monotonic one. */
+  private record RunClock(OffsetDateTime startedAt, long startNanos) {
+    static RunClock start() {
+      return new RunClock(OffsetDateTime.now(), System.nanoTime());
+    }
+
+    Duration elapsed() {
+      return Duration.ofNanos(Math.max(0, System.nanoTime() - startNanos));
+    }
+  }
+
   /** On Ctrl-C: ask the chains to stop, then give the run a few seconds to write its files. */
   private static void stopAndWait(StopSignal stop, CountDownLatch finished) {
     stop.request();
     try {
-      finished.await(10, TimeUnit.SECONDS);
+      // Writing the summary and report of a large run on a loaded machine can take a while;
+      // a bounded wait still lets a hung run end.
+      finished.await(2, TimeUnit.MINUTES);
     } catch (InterruptedException interrupted) {
       Thread.currentThread().interrupt();
     }
@@ -382,7 +506,7 @@ public final class FitCommand implements Callable<Integer> {
 
   private static void report(
       BoundModel model, ModelSampler sampler, RunSettings settings, RunOutcome outcome,
-      DrawStore store, Path folder, PrintWriter stdout, PrintWriter stderr) {
+      DrawStore store, Path folder, PrintWriter stdout, PrintWriter stderr, RunClock clock) {
     List<String> labels = sampler.labels();
     int kept = store.commonDraws();
     if (outcome.stoppedEarly()) {
@@ -390,9 +514,16 @@ public final class FitCommand implements Callable<Integer> {
       stderr.flush();
     }
     Path drawsFile = folder.resolve(DrawsWriter.FILE_NAME);
+    RunHeader header =
+        new RunHeader(model.name(), clock.startedAt(), settings.chains(), kept, settings.burnIn(),
+            settings.seed(), clock.elapsed());
     if (kept == 0) {
+      Path reportFile = writeReport(folder, new ReportInput(header,
+          List.of("No draws were kept (the run stopped during burn-in), so there is no summary."),
+          "", List.of(), ReportOptions.defaults()));
       stdout.println("No draws were kept, so there is no summary.");
-      stdout.println("draws: " + drawsFile);
+      stdout.println("draws:  " + drawsFile);
+      stdout.println("report: " + reportFile);
       stdout.flush();
       return;
     }
@@ -405,12 +536,15 @@ public final class FitCommand implements Callable<Integer> {
       }
     }
     List<VariableSummary> summaries = new ArrayList<>();
+    List<Draws> kepts = new ArrayList<>();
     Map<String, UpdateFacts> facts = new LinkedHashMap<>();
     List<String> switchNotes = new ArrayList<>();
     for (Unknown unknown : model.unknowns()) {
       int index = unknown.index();
       String label = labels.get(index);
-      summaries.add(PosteriorSummary.of(label, store.draws(index)));
+      Draws draws = Draws.of(store.draws(index));
+      kepts.add(draws);
+      summaries.add(PosteriorSummary.of(label, draws));
       UpdateReport update = reports.get(index);
       String method = update.method() + (unknown.imputed() ? ", imputed" : "");
       UpdateFacts fact;
@@ -427,11 +561,14 @@ public final class FitCommand implements Callable<Integer> {
       facts.put(label, fact);
     }
     SummaryTable table = SummaryTable.of(summaries, facts);
-    Path summaryFile = folder.resolve("summary.csv");
+    Path summaryFile = folder.resolve(SUMMARY_FILE);
     AtomicFiles.write(summaryFile, table.csv());
+    Verdicts verdicts = Verdicts.of(table);
+    Path reportFile = writeReport(folder,
+        ReportInput.of(header, table, verdicts, kepts, ReportOptions.defaults()));
     stdout.print(table.text());
     stdout.println();
-    for (String line : Verdicts.of(table).lines()) {
+    for (String line : verdicts.lines()) {
       stdout.println(line);
     }
     for (String note : switchNotes) {
@@ -447,6 +584,18 @@ public final class FitCommand implements Callable<Integer> {
         settings.seed(), settings.seed(), settings.chains());
     stdout.println("draws:   " + drawsFile);
     stdout.println("summary: " + summaryFile);
+    stdout.println("report:  " + reportFile);
     stdout.flush();
+  }
+
+  /** Renders the page and writes it atomically; returns its path. */
+  private static Path writeReport(Path folder, ReportInput input) {
+    Path file = folder.resolve(REPORT_FILE);
+    try {
+      ReportWriter.writeAtomically(file, HtmlReport.render(input));
+    } catch (IOException e) {
+      throw new UncheckedIOException("cannot write " + file + ": " + e.getMessage(), e);
+    }
+    return file;
   }
 }

@@ -15,8 +15,9 @@ public final class DrawStore implements DrawSink {
   private final double[][][] values;
   private final int[] kept;
 
-  private DrawStore(int chains, int width) {
-    this.values = new double[width][chains][FIRST_CAPACITY];
+  private DrawStore(int chains, int expectedDraws, int width) {
+    // Never more room than the run expects at first: many chains of few draws stay small.
+    this.values = new double[width][chains][Math.min(FIRST_CAPACITY, expectedDraws)];
     this.kept = new int[chains];
   }
 
@@ -31,7 +32,7 @@ public final class DrawStore implements DrawSink {
           "need chains >= 1, expectedDraws >= 1, width >= 0, got " + chains + ", "
               + expectedDraws + ", " + width);
     }
-    return new DrawStore(chains, width);
+    return new DrawStore(chains, expectedDraws, width);
   }
 
   @Override

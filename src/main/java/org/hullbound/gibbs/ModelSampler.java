@@ -68,6 +68,7 @@ public final class ModelSampler {
                 + "; unknowns are " + abbreviate(labels));
       }
     }
+    requireInsideSupports(unknowns, given);
     double[] base = model.initialState();
     List<UpdateRule> rules = new ArrayList<>();
     List<String> reasons = new ArrayList<>();
@@ -89,6 +90,26 @@ public final class ModelSampler {
         model, GibbsSampler.of(unknowns.size(), rules, starts).withLabels(labels),
         List.copyOf(labels),
         List.copyOf(reasons));
+  }
+
+  /**
+   * A given value outside its own unknown's fixed support is named as such; otherwise the
+   * zero-density check of the whole start would blame whichever unknown it meets first.
+   */
+  private static void requireInsideSupports(List<Unknown> unknowns, Map<String, Double> given) {
+    for (Unknown unknown : unknowns) {
+      Double value = given.get(unknown.label());
+      if (value == null) {
+        continue;
+      }
+      boolean outside = Double.isNaN(value) || value < unknown.lower() || value > unknown.upper()
+          || (unknown.discrete() && Double.isFinite(value) && value != Math.rint(value));
+      if (outside) {
+        throw new StartingValueException(
+            "--init gives " + unknown.label() + " = " + value + ", outside its support "
+                + unknown.support());
+      }
+    }
   }
 
   /** The sampler to run. */

@@ -7,6 +7,8 @@ import java.nio.file.AtomicMoveNotSupportedException;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.nio.file.StandardCopyOption;
+import java.nio.file.StandardOpenOption;
+import java.util.UUID;
 
 /**
  * Writes a whole file so that readers see either the old content or the new, never half: a temporary
@@ -24,8 +26,11 @@ public final class AtomicFiles {
     Path temporary = null;
     try {
       Files.createDirectories(directory);
-      temporary = Files.createTempFile(directory, "." + target.getFileName(), ".tmp");
-      Files.writeString(temporary, text, StandardCharsets.UTF_8);
+      // CREATE_NEW gives the umask's permissions, as any new file: createTempFile's owner-only
+      // permissions would leave the replaced file unreadable to the group that read the old one.
+      temporary = directory.resolve("." + target.getFileName() + "." + UUID.randomUUID() + ".tmp");
+      Files.writeString(temporary, text, StandardCharsets.UTF_8, StandardOpenOption.CREATE_NEW,
+          StandardOpenOption.WRITE);
       try {
         Files.move(
             temporary, target, StandardCopyOption.ATOMIC_MOVE, StandardCopyOption.REPLACE_EXISTING);

@@ -4,8 +4,6 @@ import java.io.IOException;
 import java.io.Reader;
 import java.io.StringReader;
 import java.io.UncheckedIOException;
-import java.nio.charset.StandardCharsets;
-import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.Arrays;
@@ -38,13 +36,7 @@ public final class CsvData {
    * @throws ModelException when it is not valid CSV or a row is ragged
    */
   public static DataTable read(Path file) {
-    String text;
-    try {
-      text = Files.readString(file, StandardCharsets.UTF_8);
-    } catch (IOException e) {
-      throw new UncheckedIOException("cannot read data file " + file + ": " + e.getMessage(), e);
-    }
-    return parse(file.toString(), text);
+    return parse(file.toString(), TextFiles.readUtf8(file, "data file"));
   }
 
   /** Reads CSV {@code text} as if it were the file called {@code fileName}. */

@@ -2,8 +2,6 @@ package org.hullbound.io;
 
 import java.io.IOException;
 import java.io.UncheckedIOException;
-import java.nio.charset.StandardCharsets;
-import java.nio.file.Files;
 import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
 import java.util.Collections;
@@ -29,13 +27,14 @@ public final class InitialValuesFile {
   public static Map<String, Double> read(Path file) {
     String text;
     try {
-      text = Files.readString(file, StandardCharsets.UTF_8);
-    } catch (NoSuchFileException missing) {
-      throw new ModelException(
-          SourceText.of(file.toString(), "").position(1, 1), null,
-          "starting values file not found", null);
-    } catch (IOException e) {
-      throw new UncheckedIOException("cannot read " + file + ": " + e.getMessage(), e);
+      text = TextFiles.readUtf8(file, "starting values file");
+    } catch (UncheckedIOException e) {
+      if (e.getCause() instanceof NoSuchFileException) {
+        throw new ModelException(
+            SourceText.of(file.toString(), "").position(1, 1), null,
+            "starting values file not found", null);
+      }
+      throw e;
     }
     return parse(file.toString(), text);
   }

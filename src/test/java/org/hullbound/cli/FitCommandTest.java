@@ -43,7 +43,7 @@ class FitCommandTest {
   }
 
   @Test
-  void fitsTheSeedlingsDemoWritesBothFilesAndPrintsTheTable() throws IOException {
+  void fitsTheSeedlingsDemoWritesBothFilesAndPrintsTheTable() throws Exception {
     Path out = folder.resolve("seedlings");
     Result result =
         run("fit", "models/seedlings.hbm", "--data", "models/seedlings.csv", "--chains", "2",
@@ -64,6 +64,9 @@ class FitCommandTest {
     List<CSVRecord> summary = csv(out.resolve("summary.csv"));
     assertEquals(1 + 10, summary.size());
     assertEquals("unknown", summary.get(0).get(0));
+    assertTrue(result.out().contains(out.resolve("report.html").toString()), result.out());
+    ReportPage.assertOneTracePerUnknown(
+        Files.readString(out.resolve("report.html")), draws.get(0).toList().subList(2, 12));
   }
 
   @Test
@@ -163,12 +166,14 @@ class FitCommandTest {
   @Test
   void anInterruptedRunLeavesValidFiles() throws Exception {
     Path out = folder.resolve("interrupted");
+    // A run far longer than the test (2e7 sweeps per chain) that keeps few enough draws to pass
+    // the memory check before sampling.
     Process process =
         new ProcessBuilder(
                 Path.of(System.getProperty("java.home"), "bin", "java").toString(),
                 "-cp", System.getProperty("java.class.path"), "org.hullbound.cli.Main",
                 "fit", "models/seedlings.hbm", "--data", "models/seedlings.csv", "--chains", "2",
-                "--burn-in", "10", "--draws", "100000000", "--seed", "5", "--quiet",
+                "--burn-in", "10", "--draws", "200000", "--thin", "100", "--seed", "5", "--quiet",
                 "--out", out.toString())
             .redirectErrorStream(true)
             .redirectOutput(folder.resolve("child.txt").toFile())
@@ -188,6 +193,8 @@ class FitCommandTest {
       assertEquals(12, row.size(), "a whole row: " + row);
     }
     assertTrue(Files.exists(out.resolve("summary.csv")), output);
+    ReportPage.assertOneTracePerUnknown(
+        Files.readString(out.resolve("report.html")), rows.get(0).toList().subList(2, 12));
     assertTrue(output.contains("stopped early"), output);
   }
 }
