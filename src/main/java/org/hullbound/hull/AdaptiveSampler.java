@@ -15,6 +15,9 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
   /** Initial room for abscissae; arrays grow by doubling up to the cap. */
   private static final int INITIAL_CAPACITY = 4;
 
+  /** Proposals without a rebuild (plus one per piece) after which the alias table is built. */
+  static final int SETTLED_AFTER = 32;
+
   /** Where an automatic start falls outside a bound: this fraction of the way from the bound in. */
   private static final double INSIDE_BOUND = 0.1;
 
@@ -29,9 +32,17 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
   /** Set when abscissae were added: the pieces are rebuilt before the next proposal needs them. */
   private boolean stale;
 
+  /** The fast path over the current pieces, or null until the hull has settled. */
+  private SettledPieces settled;
+  /** The table's storage, kept across rebuilds. */
+  private SettledPieces spare;
+  private int quietProposals;
+
   long evaluations;
   long proposals;
   long squeezeAcceptances;
+  /** Proposals accepted on the fast path alone; counted in proposals and squeeze acceptances. */
+  long innerAcceptances;
   long densityAcceptances;
   long rejections;
 
@@ -53,14 +64,65 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
 
   @Override
   public final double sample(RandomGenerator rng) {
+    SettledPieces fast = settled;
+    if (fast == null) {
+      return sampleFrom(rng, -1);
+    }
+    int e = fast.select(rng.nextLong());
+    if (fast.isInner(e)) {
+      // an inner entry lies under the squeeze on all its piece (Marsaglia and Tsang 2000): the
+      // proposal is accepted at once, x uniform on the piece
+      innerAcceptances++;
+      return fast.uniformPoint(e, rng.nextDouble());
+    }
+    return sampleFrom(rng, e);
+  }
+
+  /**
+   * The general draw loop; its first proposal comes from entry {@code entry} of the settled table
+   * when that is not -1, later ones from the table or, while the hull changes, the guide table.
+   */
+  private double sampleFrom(RandomGenerator rng, int entry) {
     PiecewiseExponential p = pieces;
+    int e = entry;
     while (true) {
       refresh();
       proposals++;
-      // Gilks and Wild 1992, sampling step: draw x* from the normalised envelope exp(E_k)
-      int j = p.select(rng.nextDouble());
-      double x = p.position(j, rng.nextDouble());
-      double w = rng.nextDouble();
+      // Gilks and Wild 1992, sampling step: draw x* from the normalised envelope exp(E_k), with
+      // w uniform under it relative to E_k(x*)
+      int j;
+      double x;
+      double w;
+      SettledPieces fast = settled;
+      if (fast != null) {
+        if (e < 0) {
+          e = fast.select(rng.nextLong());
+        }
+        int at = SettledPieces.STRIDE * e;
+        double[] d = fast.data;
+        double floor = d[at + SettledPieces.FLOOR];
+        j = fast.piece[e];
+        if (floor < 0) {
+          squeezeAcceptances++;
+          return fast.uniformPoint(e, rng.nextDouble());
+        }
+        if (p.uniform[j]) {
+          // the outer rectangle: x uniform, w uniform on [floor, 1) above the inner one
+          x = fast.uniformPoint(e, rng.nextDouble());
+          w = floor + d[at + SettledPieces.SHARE] * rng.nextDouble();
+        } else {
+          x = p.position(j, rng.nextDouble());
+          w = rng.nextDouble();
+        }
+        e = -1;
+      } else {
+        if (++quietProposals >= SETTLED_AFTER + p.size) {
+          settle();
+        }
+        j = p.select(rng.nextDouble());
+        x = p.position(j, rng.nextDouble());
+        w = rng.nextDouble();
+      }
       double[] d = p.packed;
       int at = PiecewiseExponential.STRIDE * j;
       double offset = x - d[at + PiecewiseExponential.ANCHOR];
@@ -96,6 +158,18 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
   }
 
   /**
+   * Switches to the alias-table path once the hull has gone {@link #SETTLED_AFTER} plus its size
+   * proposals without a rebuild, so that a sampler used for a few draws never pays for the table.
+   */
+  private void settle() {
+    if (spare == null) {
+      spare = new SettledPieces();
+    }
+    spare.build(pieces);
+    settled = spare;
+  }
+
+  /**
    * Evaluates h at a proposal that failed the squeeze test, checks it against the hull, adds it
    * when there is room, and returns h(x).
    *
@@ -116,19 +190,26 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
    */
   final void markStale() {
     stale = true;
+    settled = null;
   }
 
   private void refresh() {
     if (stale) {
       rebuild();
       stale = false;
+      quietProposals = 0;
     }
   }
 
   @Override
   public final SamplerStatistics statistics() {
     return new SamplerStatistics(
-        evaluations, proposals, squeezeAcceptances, densityAcceptances, rejections, k);
+        evaluations,
+        proposals + innerAcceptances,
+        squeezeAcceptances + innerAcceptances,
+        densityAcceptances,
+        rejections,
+        k);
   }
 
   @Override
