@@ -66,25 +66,26 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
   public final double sample(RandomGenerator rng) {
     SettledPieces fast = settled;
     if (fast == null) {
-      return sampleFrom(rng, -1);
+      return sampleFrom(rng, false);
     }
-    int e = fast.select(rng.nextLong());
-    if (fast.isInner(e)) {
-      // an inner entry lies under the squeeze on all its piece (Marsaglia and Tsang 2000): the
-      // proposal is accepted at once, x uniform on the piece
+    // an equal column of an inner rectangle lies under the squeeze on all its piece (Marsaglia
+    // and Tsang 2000): the proposal is accepted at once, x uniform on the piece
+    double x = fast.fastPoint(rng.nextLong());
+    if (!Double.isNaN(x)) {
       innerAcceptances++;
-      return fast.uniformPoint(e, rng.nextDouble());
+      return x;
     }
-    return sampleFrom(rng, e);
+    return sampleFrom(rng, true);
   }
 
   /**
-   * The general draw loop; its first proposal comes from entry {@code entry} of the settled table
-   * when that is not -1, later ones from the table or, while the hull changes, the guide table.
+   * The general draw loop. With a settled table, each proposal first tries an equal column; when
+   * {@code slowColumnDrawn}, the first proposal has already drawn a slow column and goes straight
+   * to the alias table of the remainder.
    */
-  private double sampleFrom(RandomGenerator rng, int entry) {
+  private double sampleFrom(RandomGenerator rng, boolean slowColumnDrawn) {
     PiecewiseExponential p = pieces;
-    int e = entry;
+    boolean skipColumns = slowColumnDrawn;
     while (true) {
       refresh();
       proposals++;
@@ -95,9 +96,15 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
       double w;
       SettledPieces fast = settled;
       if (fast != null) {
-        if (e < 0) {
-          e = fast.select(rng.nextLong());
+        if (!skipColumns) {
+          x = fast.fastPoint(rng.nextLong());
+          if (!Double.isNaN(x)) {
+            squeezeAcceptances++;
+            return x;
+          }
         }
+        skipColumns = false;
+        int e = fast.select(rng.nextLong());
         int at = SettledPieces.STRIDE * e;
         double[] d = fast.data;
         double floor = d[at + SettledPieces.FLOOR];
@@ -114,7 +121,6 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
           x = p.position(j, rng.nextDouble());
           w = rng.nextDouble();
         }
-        e = -1;
       } else {
         if (++quietProposals >= SETTLED_AFTER + p.size) {
           settle();
@@ -199,6 +205,11 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
       stale = false;
       quietProposals = 0;
     }
+  }
+
+  /** The settled table the draws go through now, or null while the hull still changes. */
+  final SettledPieces settledOrNull() {
+    return settled;
   }
 
   @Override

@@ -1,30 +1,56 @@
 package org.hullbound.hull;
 
+import java.util.random.RandomGenerator;
+
 /**
- * The fast draw path of a settled hull: the pieces of a {@link PiecewiseExponential} split into
- * entries of an alias table (Walker 1977, An efficient method for generating discrete random
- * variables with general distributions, ACM TOMS 3, 253-256; stable construction of Vose 1991, A
- * linear algorithm for generating random numbers with a given distribution, IEEE TSE 17, 972-975),
- * so that one random long picks an entry in constant time.
+ * The fast draw path of a settled hull, in two layers over a {@link PiecewiseExponential}.
  *
- * <p>A piece drawn uniformly under its top is split as in the ziggurat (Marsaglia and Tsang 2000,
- * The ziggurat method for generating random variables, J. Stat. Softw. 5(8)): its inner rectangle
- * lies under the squeeze everywhere on the piece (height exp(-max gap) of the top, the squeeze
- * being linear there), so a point drawn in it is accepted at once with x uniform on the piece and
- * no squeeze, exp or log; its outer rectangle, between that height and the top, keeps the usual
+ * <p>Inner rectangles, as in the ziggurat (Marsaglia and Tsang 2000, The ziggurat method for
+ * generating random variables, J. Stat. Softw. 5(8)): on a piece drawn uniformly under its top, the
+ * rectangle of height exp(-max gap) of the top lies under the squeeze everywhere on the piece (the
+ * squeeze is linear there), so a point drawn in it is accepted at once with x uniform on the piece
+ * and no squeeze, exp or log. The outer rectangle, between that height and the top, keeps the usual
  * tests with the vertical uniform drawn above the inner height. Both are rectangles because the
  * envelope is flat on such a piece, so together they are exactly the region under the envelope.
  * Exponential pieces (and pieces without a squeeze) are one whole entry with the usual draw.
  *
- * <p>Bits: the top {@code columnBits} bits of the long choose a column, the low {@code
- * thresholdBits} (at most 53) bits are compared with the column's threshold; the two fields are
- * disjoint. The point and the vertical uniform come from separate draws of the generator.
+ * <p>Layer 1, equal columns: the envelope's mass is cut into {@code 2^b} columns of equal mass. Each
+ * inner rectangle gives as many whole columns as fit in its mass (n_j = floor(inner mass / column
+ * mass)), each with x uniform on the piece; the columns left over are "slow". One random long
+ * decides a fast draw: its top b bits (b at most {@value #MAXIMUM_COLUMN_BITS}) pick the column and
+ * its low 53 bits, a disjoint field, place x, exactly as {@code nextDouble} would.
+ *
+ * <p>Layer 2, the remainder (what the fast columns leave: the rest of each inner rectangle, the outer
+ * rectangles and the whole pieces, of total mass (slow columns) x (column mass)): an alias table
+ * (Walker 1977, An efficient method for generating discrete random variables with general
+ * distributions, ACM TOMS 3, 253-256; stable construction of Vose 1991, A linear algorithm for
+ * generating random numbers with a given distribution, IEEE TSE 17, 972-975) picks an entry from a
+ * fresh random long: its top bits choose a column, its low bits (at most 53, disjoint) are compared
+ * with the column's threshold; the point and the vertical uniform come from separate draws.
  * Package-private and mutable: rebuilt in place when the hull has settled again.
  */
 final class SettledPieces {
 
   /** Most bits of the long compared with a column's threshold: the precision of a double. */
   static final int MAXIMUM_THRESHOLD_BITS = 53;
+
+  /** Most bits for an equal column, so that 53 bits of the same long remain for x. */
+  static final int MAXIMUM_COLUMN_BITS = Long.SIZE - 53;
+
+  /** Equal columns per piece aimed at, so that the part left to layer 2 stays small. */
+  private static final int COLUMNS_PER_PIECE = 16;
+
+  /** The low 53 bits of a long, and their scale to [0, 1), as {@code nextDouble} uses them. */
+  static final long POINT_MASK = (1L << 53) - 1;
+  static final double POINT_SCALE = 0x1.0p-53;
+
+  /** Layer 1: top bits of the long that choose an equal column. */
+  int equalShift;
+  /** Layer 1: left end and width of each equal column's piece; width -1 on a slow column. */
+  double[] equal;
+  /** Layer 1: number of fast columns, and the number of columns. */
+  int fastColumns;
+  int equalColumns;
 
   /**
    * Per entry: left end, width, and the range [floor, floor + share) of the vertical uniform: -1
@@ -57,6 +83,7 @@ final class SettledPieces {
 
   SettledPieces() {
     allocate(8, 8);
+    equal = new double[0];
   }
 
   private void allocate(int entryCapacity, int columnCapacity) {
@@ -70,18 +97,35 @@ final class SettledPieces {
     large = new int[columnCapacity];
   }
 
-  /** Splits the sealed {@code pieces} into entries and builds the alias table over them. */
+  /** Splits the sealed {@code pieces} into equal columns and alias entries for the rest. */
   void build(PiecewiseExponential pieces) {
     int n = pieces.size;
     int columns = Integer.highestOneBit(Math.max(2, 2 * n - 1)) << 1;
     if (piece.length < 2 * n || threshold.length < columns) {
       allocate(Math.max(2 * n, piece.length), Math.max(columns, threshold.length));
     }
+    int equalBits =
+        Math.min(
+            MAXIMUM_COLUMN_BITS,
+            Math.max(6, Long.SIZE - Long.numberOfLeadingZeros((long) COLUMNS_PER_PIECE * n - 1)));
+    equalColumns = 1 << equalBits;
+    equalShift = Long.SIZE - equalBits;
+    if (equal.length < 2 * equalColumns) {
+      equal = new double[2 * equalColumns];
+    }
+    double[] weights = new double[n];
+    double sumOfPieces = 0;
+    for (int j = 0; j < n; j++) {
+      // from the log mass, not a difference of cumulative weights, which would cancel
+      weights[j] = Math.exp(pieces.logMass[j] - pieces.logScale);
+      sumOfPieces += weights[j];
+    }
+    double columnMass = sumOfPieces / equalColumns;
+    fastColumns = 0;
     entries = 0;
     double[] d = pieces.packed;
     for (int j = 0; j < n; j++) {
-      // from the log mass, not a difference of cumulative weights, which would cancel
-      double pieceWeight = Math.exp(pieces.logMass[j] - pieces.logScale);
+      double pieceWeight = weights[j];
       int at = PiecewiseExponential.STRIDE * j;
       double left = d[at + PiecewiseExponential.LEFT];
       double right = d[at + PiecewiseExponential.RIGHT];
@@ -97,12 +141,40 @@ final class SettledPieces {
       }
       double floor = Math.exp(-maximumGap);
       double share = -Math.expm1(-maximumGap);
-      if (floor > 0) {
-        add(j, left, right - left, -1, 0, pieceWeight * floor);
+      double inner = pieceWeight * floor;
+      int whole = (int) Math.min(inner / columnMass, equalColumns - fastColumns);
+      for (int c = 0; c < whole; c++) {
+        equal[2 * fastColumns] = left;
+        equal[2 * fastColumns + 1] = right - left;
+        fastColumns++;
+      }
+      double rest = inner - whole * columnMass;
+      if (rest > 0) {
+        add(j, left, right - left, -1, 0, rest);
       }
       add(j, left, right - left, floor, share, pieceWeight * share);
     }
+    for (int c = fastColumns; c < equalColumns; c++) {
+      equal[2 * c] = 0;
+      equal[2 * c + 1] = -1;
+    }
     buildAlias(columns);
+  }
+
+  /**
+   * Layer 1: the point of a fast column chosen by {@code bits}, or NaN on a slow column (the draw
+   * then goes to layer 2 with fresh random bits).
+   */
+  double fastPoint(long bits) {
+    int c = (int) (bits >>> equalShift);
+    double width = equal[2 * c + 1];
+    if (!(width > 0)) {
+      return Double.NaN;
+    }
+    double left = equal[2 * c];
+    double x = left + ((bits & POINT_MASK) * POINT_SCALE) * width;
+    // rounding of left + u width may pass the right end by an ulp
+    return x - left > width ? left + width : x;
   }
 
   private void add(int j, double left, double width, double floor, double share, double w) {
@@ -186,6 +258,20 @@ final class SettledPieces {
     double x = left + u * width;
     // rounding of left + u width may pass the right end by an ulp
     return x - left > width ? left + width : x;
+  }
+
+  /**
+   * One draw of x from the normalised envelope through both layers alone, without the acceptance
+   * test, as the sampler makes its proposals; for tests against the hull's distribution function.
+   */
+  double drawFromEnvelope(RandomGenerator rng, PiecewiseExponential pieces) {
+    double x = fastPoint(rng.nextLong());
+    if (!Double.isNaN(x)) {
+      return x;
+    }
+    int e = select(rng.nextLong());
+    int j = piece[e];
+    return pieces.uniform[j] ? uniformPoint(e, rng.nextDouble()) : pieces.position(j, rng.nextDouble());
   }
 
   /** The probability with which {@link #select} returns entry {@code e}, read off the table. */
