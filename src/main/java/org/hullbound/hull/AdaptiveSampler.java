@@ -66,7 +66,7 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
   public final double sample(RandomGenerator rng) {
     SettledPieces fast = settled;
     if (fast == null) {
-      return sampleFrom(rng, false);
+      return sampleFrom(rng, -1);
     }
     // an equal column of an inner rectangle lies under the squeeze on all its piece (Marsaglia
     // and Tsang 2000): the proposal is accepted at once, x uniform on the piece
@@ -75,17 +75,26 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
       innerAcceptances++;
       return x;
     }
-    return sampleFrom(rng, true);
+    return sampleRemainder(rng, fast);
+  }
+
+  /** A slow column was drawn: the proposal comes from the remainder's alias table. */
+  private double sampleRemainder(RandomGenerator rng, SettledPieces fast) {
+    int e = fast.select(rng.nextLong());
+    if (fast.isInner(e)) {
+      innerAcceptances++;
+      return fast.uniformPoint(e, rng.nextDouble());
+    }
+    return sampleFrom(rng, e);
   }
 
   /**
-   * The general draw loop. With a settled table, each proposal first tries an equal column; when
-   * {@code slowColumnDrawn}, the first proposal has already drawn a slow column and goes straight
-   * to the alias table of the remainder.
+   * The general draw loop. With a settled table, each proposal is drawn through its two layers;
+   * the first one from entry {@code entry} of its remainder when that is not -1.
    */
-  private double sampleFrom(RandomGenerator rng, boolean slowColumnDrawn) {
+  private double sampleFrom(RandomGenerator rng, int entry) {
     PiecewiseExponential p = pieces;
-    boolean skipColumns = slowColumnDrawn;
+    int e = entry;
     while (true) {
       refresh();
       proposals++;
@@ -96,15 +105,14 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
       double w;
       SettledPieces fast = settled;
       if (fast != null) {
-        if (!skipColumns) {
+        if (e < 0) {
           x = fast.fastPoint(rng.nextLong());
           if (!Double.isNaN(x)) {
             squeezeAcceptances++;
             return x;
           }
+          e = fast.select(rng.nextLong());
         }
-        skipColumns = false;
-        int e = fast.select(rng.nextLong());
         int at = SettledPieces.STRIDE * e;
         double[] d = fast.data;
         double floor = d[at + SettledPieces.FLOOR];
@@ -121,6 +129,7 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
           x = p.position(j, rng.nextDouble());
           w = rng.nextDouble();
         }
+        e = -1;
       } else {
         if (++quietProposals >= SETTLED_AFTER + p.size) {
           settle();
@@ -134,9 +143,8 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
       double offset = x - d[at + PiecewiseExponential.ANCHOR];
       double gap =
           d[at + PiecewiseExponential.GAP_VALUE] + d[at + PiecewiseExponential.GAP_SLOPE] * offset;
-      // squeezing test: accept when w <= exp(l_k(x*) - E_k(x*)), with no evaluation of h;
-      // 1 - gap <= exp(-gap) decides almost every case without the exponential
-      if (w < 1.0 - gap || w < Math.exp(-gap)) {
+      // squeezing test: accept when w <= exp(l_k(x*) - E_k(x*)), with no evaluation of h
+      if (belowExp(w, gap)) {
         squeezeAcceptances++;
         return x;
       }
@@ -145,7 +153,7 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
       double raise =
           d[at + PiecewiseExponential.RAISE_VALUE]
               + d[at + PiecewiseExponential.RAISE_SLOPE] * offset;
-      if (!(w < 1.0 - raise) && !(w < Math.exp(-raise))) {
+      if (!belowExp(w, raise)) {
         rejections++;
         continue;
       }
@@ -161,6 +169,26 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
       }
       rejections++;
     }
+  }
+
+  /**
+   * Whether w &lt; exp(-g), mostly without the exponential: 1 - g + g^2/2 - g^3/6 &lt;= exp(-g) for
+   * every g and exp(-g) &lt;= 1 - g + g^2/2 for g &gt;= 0 (Taylor's theorem with the remainder's
+   * sign), so only w in the thin band between the two needs exp.
+   */
+  static boolean belowExp(double w, double g) {
+    double linear = 1.0 - g;
+    if (w < linear) {
+      return true;
+    }
+    double quadratic = linear + 0.5 * g * g;
+    if (g >= 0 && w >= quadratic) {
+      return false;
+    }
+    if (w < quadratic - g * g * g * (1.0 / 6.0)) {
+      return true;
+    }
+    return w < Math.exp(-g);
   }
 
   /**

@@ -205,4 +205,31 @@ class SettledPiecesTest {
     // the column bits do not reach the point: 53 + column bits fit in the long
     assertTrue(Long.SIZE - table.equalShift <= SettledPieces.MAXIMUM_COLUMN_BITS);
   }
+
+  /**
+   * The Taylor bounds of {@link AdaptiveSampler#belowExp} decide as w &lt; exp(-g) itself, on a grid
+   * of gaps from -1e-3 (rounding below a chord) to 40 and on w at and around exp(-g).
+   */
+  @Test
+  void theSqueezeTestWithoutTheExponentialDecidesAsTheExponential() {
+    double[] gaps = {-1e-3, -1e-12, 0, 1e-300, 1e-12, 1e-6, 1e-3, 0.01, 0.1, 0.3, 0.5, 1, 2, 5, 40};
+    int disagreements = 0;
+    for (double g : gaps) {
+      double e = Math.exp(-g);
+      double[] ws = {0, 0.5 * e, e * (1 - 1e-9), Math.nextDown(e), e, Math.nextUp(e), e * (1 + 1e-9),
+          Math.min(Math.nextDown(1.0), 2 * e), Math.nextDown(1.0)};
+      for (double w : ws) {
+        if (w >= 1) {
+          continue;
+        }
+        if (AdaptiveSampler.belowExp(w, g) != (w < e)) {
+          // only within rounding of exp(-g) itself may the polynomial and exp disagree
+          assertTrue(Math.abs(w - e) <= 4 * Math.ulp(1.0), "w " + w + ", g " + g);
+          disagreements++;
+        }
+      }
+    }
+    assertTrue(disagreements <= 2, disagreements + " disagreements, all at rounding level");
+    assertTrue(!AdaptiveSampler.belowExp(0.0, Double.POSITIVE_INFINITY), "no squeeze: never below");
+  }
 }
