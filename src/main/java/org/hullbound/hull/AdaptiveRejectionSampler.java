@@ -21,8 +21,9 @@ import java.util.random.RandomGenerator;
  *       <td>secant hull from h alone</td></tr>
  * </table>
  *
- * <p>Each draw uses three uniforms of the given generator (piece, point in the piece, acceptance)
- * per proposal, so a seeded generator gives a reproducible sequence. Instances are not thread-safe;
+ * <p>While the hull still changes, each proposal uses three uniforms of the given generator (piece,
+ * point in the piece, acceptance); once it has settled, most draws use one random long (see {@code
+ * docs/hull.md}). Either way a seeded generator gives a reproducible sequence. Instances are not thread-safe;
  * they are cheap, make one per density (or per thread).
  */
 public interface AdaptiveRejectionSampler {

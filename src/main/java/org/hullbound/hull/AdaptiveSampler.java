@@ -15,6 +15,9 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
   /** Initial room for abscissae; arrays grow by doubling up to the cap. */
   private static final int INITIAL_CAPACITY = 4;
 
+  /** Proposals without a rebuild (plus one per piece) after which the alias table is built. */
+  static final int SETTLED_AFTER = 32;
+
   /** Where an automatic start falls outside a bound: this fraction of the way from the bound in. */
   private static final double INSIDE_BOUND = 0.1;
 
@@ -29,9 +32,17 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
   /** Set when abscissae were added: the pieces are rebuilt before the next proposal needs them. */
   private boolean stale;
 
+  /** The fast path over the current pieces, or null until the hull has settled. */
+  private SettledPieces settled;
+  /** The table's storage, kept across rebuilds. */
+  private SettledPieces spare;
+  private int quietProposals;
+
   long evaluations;
   long proposals;
   long squeezeAcceptances;
+  /** Proposals accepted on the fast path alone; counted in proposals and squeeze acceptances. */
+  long innerAcceptances;
   long densityAcceptances;
   long rejections;
 
@@ -53,22 +64,87 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
 
   @Override
   public final double sample(RandomGenerator rng) {
+    SettledPieces fast = settled;
+    if (fast == null) {
+      return sampleFrom(rng, -1);
+    }
+    // an equal column of an inner rectangle lies under the squeeze on all its piece (Marsaglia
+    // and Tsang 2000): the proposal is accepted at once, x uniform on the piece
+    double x = fast.fastPoint(rng.nextLong());
+    if (!Double.isNaN(x)) {
+      innerAcceptances++;
+      return x;
+    }
+    return sampleRemainder(rng, fast);
+  }
+
+  /** A slow column was drawn: the proposal comes from the remainder's alias table. */
+  private double sampleRemainder(RandomGenerator rng, SettledPieces fast) {
+    int e = fast.select(rng.nextLong());
+    if (fast.isInner(e)) {
+      innerAcceptances++;
+      return fast.uniformPoint(e, rng.nextDouble());
+    }
+    return sampleFrom(rng, e);
+  }
+
+  /**
+   * The general draw loop. With a settled table, each proposal is drawn through its two layers;
+   * the first one from entry {@code entry} of its remainder when that is not -1.
+   */
+  private double sampleFrom(RandomGenerator rng, int entry) {
     PiecewiseExponential p = pieces;
+    int e = entry;
     while (true) {
       refresh();
       proposals++;
-      // Gilks and Wild 1992, sampling step: draw x* from the normalised envelope exp(E_k)
-      int j = p.select(rng.nextDouble());
-      double x = p.position(j, rng.nextDouble());
-      double w = rng.nextDouble();
+      // Gilks and Wild 1992, sampling step: draw x* from the normalised envelope exp(E_k), with
+      // w uniform under it relative to E_k(x*)
+      int j;
+      double x;
+      double w;
+      SettledPieces fast = settled;
+      if (fast != null) {
+        if (e < 0) {
+          x = fast.fastPoint(rng.nextLong());
+          if (!Double.isNaN(x)) {
+            squeezeAcceptances++;
+            return x;
+          }
+          e = fast.select(rng.nextLong());
+        }
+        int at = SettledPieces.STRIDE * e;
+        double[] d = fast.data;
+        double floor = d[at + SettledPieces.FLOOR];
+        j = fast.piece[e];
+        if (floor < 0) {
+          squeezeAcceptances++;
+          return fast.uniformPoint(e, rng.nextDouble());
+        }
+        if (p.uniform[j]) {
+          // the outer rectangle: x uniform, w uniform on [floor, 1) above the inner one
+          x = fast.uniformPoint(e, rng.nextDouble());
+          w = floor + d[at + SettledPieces.SHARE] * rng.nextDouble();
+        } else {
+          x = p.position(j, rng.nextDouble());
+          w = rng.nextDouble();
+        }
+        e = -1;
+      } else {
+        if (++quietProposals >= SETTLED_AFTER + p.size) {
+          settle();
+        }
+        j = p.select(rng.nextDouble());
+        x = p.position(j, rng.nextDouble());
+        w = rng.nextDouble();
+      }
       double[] d = p.packed;
       int at = PiecewiseExponential.STRIDE * j;
       double offset = x - d[at + PiecewiseExponential.ANCHOR];
       double gap =
           d[at + PiecewiseExponential.GAP_VALUE] + d[at + PiecewiseExponential.GAP_SLOPE] * offset;
-      // squeezing test: accept when w <= exp(l_k(x*) - E_k(x*)), with no evaluation of h;
-      // 1 - gap <= exp(-gap) decides almost every case without the exponential
-      if (w < 1.0 - gap || w < Math.exp(-gap)) {
+      // squeezing test: accept when w <= exp(l_k(x*) - E_k(x*)), with no evaluation of h
+      if (belowExp(w, gap)) {
         squeezeAcceptances++;
         return x;
       }
@@ -77,7 +153,7 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
       double raise =
           d[at + PiecewiseExponential.RAISE_VALUE]
               + d[at + PiecewiseExponential.RAISE_SLOPE] * offset;
-      if (!(w < 1.0 - raise) && !(w < Math.exp(-raise))) {
+      if (!belowExp(w, raise)) {
         rejections++;
         continue;
       }
@@ -93,6 +169,38 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
       }
       rejections++;
     }
+  }
+
+  /**
+   * Whether w &lt; exp(-g), mostly without the exponential: 1 - g + g^2/2 - g^3/6 &lt;= exp(-g) for
+   * every g and exp(-g) &lt;= 1 - g + g^2/2 for g &gt;= 0 (Taylor's theorem with the remainder's
+   * sign), so only w in the thin band between the two needs exp.
+   */
+  static boolean belowExp(double w, double g) {
+    double linear = 1.0 - g;
+    if (w < linear) {
+      return true;
+    }
+    double quadratic = linear + 0.5 * g * g;
+    if (g >= 0 && w >= quadratic) {
+      return false;
+    }
+    if (w < quadratic - g * g * g * (1.0 / 6.0)) {
+      return true;
+    }
+    return w < Math.exp(-g);
+  }
+
+  /**
+   * Switches to the alias-table path once the hull has gone {@link #SETTLED_AFTER} plus its size
+   * proposals without a rebuild, so that a sampler used for a few draws never pays for the table.
+   */
+  private void settle() {
+    if (spare == null) {
+      spare = new SettledPieces();
+    }
+    spare.build(pieces);
+    settled = spare;
   }
 
   /**
@@ -116,19 +224,31 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
    */
   final void markStale() {
     stale = true;
+    settled = null;
   }
 
   private void refresh() {
     if (stale) {
       rebuild();
       stale = false;
+      quietProposals = 0;
     }
+  }
+
+  /** The settled table the draws go through now, or null while the hull still changes. */
+  final SettledPieces settledOrNull() {
+    return settled;
   }
 
   @Override
   public final SamplerStatistics statistics() {
     return new SamplerStatistics(
-        evaluations, proposals, squeezeAcceptances, densityAcceptances, rejections, k);
+        evaluations,
+        proposals + innerAcceptances,
+        squeezeAcceptances + innerAcceptances,
+        densityAcceptances,
+        rejections,
+        k);
   }
 
   @Override
