@@ -504,19 +504,35 @@ public final class FitCommand implements Callable<Integer> {
     }
   }
 
+  /** Chains as the user counts them, from 1: "chains 1, 2". */
+  private static String chainNames(int[] chains) {
+    StringBuilder names = new StringBuilder(chains.length == 1 ? "chain " : "chains ");
+    for (int i = 0; i < chains.length; i++) {
+      names.append(i == 0 ? "" : ", ").append(chains[i] + 1);
+    }
+    return names.toString();
+  }
+
   private static void report(
       BoundModel model, ModelSampler sampler, RunSettings settings, RunOutcome outcome,
       DrawStore store, Path folder, PrintWriter stdout, PrintWriter stderr, RunClock clock) {
     List<String> labels = sampler.labels();
     int kept = store.commonDraws();
+    int[] summarised = store.chainsWithDraws();
     if (outcome.stoppedEarly()) {
       stderr.printf("hullbound fit: stopped early after %d draws per chain%n", kept);
+      if (kept > 0 && summarised.length < settings.chains()) {
+        stderr.printf(
+            "hullbound fit: the summary covers the %d of %d chains that kept draws (%s); the"
+                + " others had not started%n",
+            summarised.length, settings.chains(), chainNames(summarised));
+      }
       stderr.flush();
     }
     Path drawsFile = folder.resolve(DrawsWriter.FILE_NAME);
     RunHeader header =
-        new RunHeader(model.name(), clock.startedAt(), settings.chains(), kept, settings.burnIn(),
-            settings.seed(), clock.elapsed());
+        new RunHeader(model.name(), clock.startedAt(), Math.max(1, summarised.length), kept,
+            settings.burnIn(), settings.seed(), clock.elapsed());
     if (kept == 0) {
       Path reportFile = writeReport(folder, new ReportInput(header,
           List.of("No draws were kept (the run stopped during burn-in), so there is no summary."),

@@ -1,6 +1,7 @@
 package org.hullbound.gibbs;
 
 import java.util.Arrays;
+import java.util.stream.IntStream;
 
 /**
  * Keeps every kept draw in memory, per quantity and chain, for the diagnostics at the end of a run.
@@ -56,20 +57,34 @@ public final class DrawStore implements DrawSink {
     return values.length;
   }
 
-  /** The draws of {@code quantity}, {@code [chain][draw]}, cut to the length all chains reached. */
+  /**
+   * The draws of {@code quantity}, {@code [chain][draw]}, of the chains that kept any draw (in
+   * chain order), cut to the length all of those reached.
+   *
+   * <p>A run stopped early may have chains that never started (more chains than threads); they
+   * are left out rather than making every other chain's draws unusable.
+   */
   public double[][] draws(int quantity) {
+    int[] chains = chainsWithDraws();
     int common = commonDraws();
-    double[][] out = new double[values[quantity].length][];
-    for (int chain = 0; chain < out.length; chain++) {
-      out[chain] = Arrays.copyOf(values[quantity][chain], common);
+    double[][] out = new double[chains.length][];
+    for (int i = 0; i < chains.length; i++) {
+      out[i] = Arrays.copyOf(values[quantity][chains[i]], common);
     }
     return out;
   }
 
-  /** The number of draws every chain has made. */
+  /** The chains (0-based) that have kept at least one draw, in chain order. */
+  public int[] chainsWithDraws() {
+    synchronized (kept) {
+      return IntStream.range(0, kept.length).filter(c -> kept[c] > 0).toArray();
+    }
+  }
+
+  /** The number of draws every chain that kept any has made; 0 when none has. */
   public int commonDraws() {
     synchronized (kept) {
-      return Arrays.stream(kept).min().orElse(0);
+      return Arrays.stream(kept).filter(n -> n > 0).min().orElse(0);
     }
   }
 }
