@@ -44,15 +44,12 @@ final class ConjugateUpdater implements Updater {
 
   @Override
   public UpdaterState save() {
-    return new UpdaterState.Writer().put(draws).done();
+    return UpdaterState.ofDrawCount(draws);
   }
 
   @Override
   public void restore(UpdaterState saved) {
-    UpdaterState.Reader in = new UpdaterState.Reader(saved, method());
-    long restoredDraws = in.nextLong();
-    in.end();
-    draws = restoredDraws;
+    draws = UpdaterState.drawCountOf(saved, method());
   }
 
   @Override

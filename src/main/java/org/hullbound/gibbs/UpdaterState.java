@@ -40,6 +40,19 @@ public record UpdaterState(long[] words, String note) {
     return 31 * Arrays.hashCode(words) + java.util.Objects.hashCode(note);
   }
 
+  /** The state of an updater whose only memory between draws is how many it made. */
+  static UpdaterState ofDrawCount(long draws) {
+    return new Writer().put(draws).done();
+  }
+
+  /** The draw count saved by {@link #ofDrawCount}, checked to be all there is. */
+  static long drawCountOf(UpdaterState saved, String owner) {
+    Reader in = new Reader(saved, owner);
+    long draws = in.nextLong();
+    in.end();
+    return draws;
+  }
+
   /** Collects words in order. */
   static final class Writer {
     private long[] words = new long[16];
