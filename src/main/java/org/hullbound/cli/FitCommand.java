@@ -74,9 +74,9 @@ import picocli.CommandLine.Parameters;
     mixinStandardHelpOptions = true,
     sortOptions = false,
     description = {
-      "Fit a model by Gibbs sampling: one exact or adaptive-rejection update per unknown,",
-      "parallel chains, draws streamed to DIR/draws.csv, summary to DIR/summary.csv,",
-      "a self-contained page to DIR/report.html."
+      "Fit a model by Gibbs sampling, one exact or adaptive-rejection update per unknown.",
+      "Chains run in parallel; draws stream to DIR/draws.csv, the summary goes to"
+          + " DIR/summary.csv and a self-contained page to DIR/report.html."
     })
 public final class FitCommand implements Callable<Integer> {
 
@@ -520,7 +520,10 @@ public final class FitCommand implements Callable<Integer> {
     int kept = store.commonDraws();
     int[] summarised = store.chainsWithDraws();
     if (outcome.stoppedEarly()) {
-      stderr.printf("hullbound fit: stopped early after %d draws per chain%n", kept);
+      stderr.printf(
+          "hullbound fit: stopped early; the summary uses the first %d draws of each chain"
+              + " (draws.csv keeps every draw)%n",
+          kept);
       if (kept > 0 && summarised.length < settings.chains()) {
         stderr.printf(
             "hullbound fit: the summary covers the %d of %d chains that kept draws (%s); the"
