@@ -1,18 +1,14 @@
 package org.hullbound.gibbs;
 
 import java.io.IOException;
-import java.lang.management.ManagementFactory;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
-import java.util.Arrays;
 import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import java.util.concurrent.TimeUnit;
 import java.util.random.RandomGenerator;
-import org.hullbound.diagnostics.PosteriorSummary;
-import org.hullbound.diagnostics.VariableSummary;
 import org.hullbound.io.CsvData;
 import org.hullbound.lang.Parser;
 import org.hullbound.lang.SourceText;
@@ -50,11 +46,7 @@ public class BlockNormalBenchmark {
   private ChainKernel kernel;
   private RandomGenerator rng;
   private List<String> labels;
-  private double[][] kept;
-  private double[] row;
-  private int count;
-  private long sweeps;
-  private long cpuStart;
+  private SweepRecord record;
 
   @Setup(Level.Trial)
   public void setUp() throws IOException {
@@ -73,49 +65,21 @@ public class BlockNormalBenchmark {
     for (int sweep = 0; sweep < BURN_IN; sweep++) {
       kernel.sweep(rng);
     }
-    kept = new double[labels.size()][MAX_KEPT];
-    row = new double[labels.size()];
-    count = 0;
-    sweeps = 0;
-    cpuStart = ManagementFactory.getThreadMXBean().getCurrentThreadCpuTime();
+    record = SweepRecord.start(labels, MAX_KEPT);
   }
 
   @Benchmark
   public double sweep() {
-    sweeps++;
-    kernel.sweep(rng);
-    kernel.record(row);
-    if (count < MAX_KEPT) {
-      for (int i = 0; i < row.length; i++) {
-        kept[i][count] = row[i];
-      }
-      count++;
-    }
-    return row[0];
+    return record.sweep(kernel, rng);
   }
 
   @TearDown(Level.Trial)
   public void report() {
-    double cpuSeconds =
-        (ManagementFactory.getThreadMXBean().getCurrentThreadCpuTime() - cpuStart) / 1e9;
-    double minimum = Double.POSITIVE_INFINITY;
-    String weakest = "";
-    double betaOne = Double.NaN;
-    for (int i = 0; i < labels.size(); i++) {
-      VariableSummary summary =
-          PosteriorSummary.of(labels.get(i), new double[][] {Arrays.copyOf(kept[i], count)});
-      if (summary.essBulk() < minimum) {
-        minimum = summary.essBulk();
-        weakest = labels.get(i);
-      }
-      if (labels.get(i).equals("beta[1]")) {
-        betaOne = summary.essBulk();
-      }
-    }
+    String weakest = record.weakest();
     System.out.printf(
         Locale.ROOT,
         "%n[%s] sweeps kept %d; ess/sweep beta[1] %.4f; min ess/sweep %.4f (%s);"
             + " sweeps per cpu-second %.1f%n",
-        update, count, betaOne / count, minimum / count, weakest, sweeps / cpuSeconds);
+        update, record.keptDraws(), record.essPerSweep("beta[1]"), record.essPerSweep(weakest), weakest, record.sweepsPerCpuSecond());
   }
 }

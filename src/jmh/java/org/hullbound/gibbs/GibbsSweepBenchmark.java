@@ -1,7 +1,6 @@
 package org.hullbound.gibbs;
 
 import java.io.IOException;
-import java.lang.management.ManagementFactory;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
@@ -12,7 +11,6 @@ import java.util.Map;
 import java.util.concurrent.TimeUnit;
 import java.util.random.RandomGenerator;
 import org.hullbound.diagnostics.PosteriorSummary;
-import org.hullbound.diagnostics.VariableSummary;
 import org.hullbound.io.CsvData;
 import org.hullbound.lang.Parser;
 import org.hullbound.lang.SourceText;
@@ -54,11 +52,7 @@ public class GibbsSweepBenchmark {
   private ChainKernel kernel;
   private RandomGenerator rng;
   private List<String> labels;
-  private double[][] kept;
-  private double[] row;
-  private int count;
-  private long sweeps;
-  private long cpuStart;
+  private SweepRecord record;
 
   @Setup(Level.Trial)
   public void setUp() throws IOException {
@@ -113,45 +107,17 @@ public class GibbsSweepBenchmark {
     for (int sweep = 0; sweep < BURN_IN; sweep++) {
       kernel.sweep(rng);
     }
-    kept = new double[n][MAX_KEPT];
-    row = new double[n];
-    count = 0;
-    sweeps = 0;
-    cpuStart = ManagementFactory.getThreadMXBean().getCurrentThreadCpuTime();
+    record = SweepRecord.start(labels, MAX_KEPT);
   }
 
   @Benchmark
   public double sweep() {
-    sweeps++;
-    kernel.sweep(rng);
-    kernel.record(row);
-    if (count < MAX_KEPT) {
-      for (int i = 0; i < row.length; i++) {
-        kept[i][count] = row[i];
-      }
-      count++;
-    }
-    return row[0];
+    return record.sweep(kernel, rng);
   }
 
   @TearDown(Level.Trial)
   public void report() {
-    double cpuSeconds =
-        (ManagementFactory.getThreadMXBean().getCurrentThreadCpuTime() - cpuStart) / 1e9;
-    double minimum = Double.POSITIVE_INFINITY;
-    String weakest = "";
-    double effectOne = Double.NaN;
-    for (int i = 0; i < labels.size(); i++) {
-      VariableSummary summary =
-          PosteriorSummary.of(labels.get(i), new double[][] {Arrays.copyOf(kept[i], count)});
-      if (summary.essBulk() < minimum) {
-        minimum = summary.essBulk();
-        weakest = labels.get(i);
-      }
-      if (labels.get(i).equals("effect[1]")) {
-        effectOne = summary.essBulk();
-      }
-    }
+    String weakest = record.weakest();
     double evaluations;
     if (kernel instanceof GibbsKernel gibbs) {
       long evaluationCount = 0;
@@ -168,8 +134,8 @@ public class GibbsSweepBenchmark {
         Locale.ROOT,
         "%n[%s] sweeps kept %d; ess/sweep effect[1] %.4f; min ess/sweep %.4f (%s);"
             + " evaluations per conditional draw %.2f; sweeps per cpu-second %.1f%s%n",
-        sampler, count, effectOne / count, minimum / count, weakest, evaluations,
-        sweeps / cpuSeconds,
+        sampler, record.keptDraws(), record.essPerSweep("effect[1]"), record.essPerSweep(weakest), weakest, evaluations,
+        record.sweepsPerCpuSecond(),
         kernel instanceof WithinGibbsBaseline baseline
                 && sampler.equals("random-walk-metropolis")
             ? String.format(Locale.ROOT, "; acceptance %.3f", baseline.acceptanceRate())
