@@ -1,17 +1,11 @@
 package org.hullbound.gibbs;
 
 import java.io.IOException;
-import java.nio.charset.StandardCharsets;
-import java.nio.file.Files;
-import java.nio.file.Path;
 import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import java.util.concurrent.TimeUnit;
 import java.util.random.RandomGenerator;
-import org.hullbound.io.CsvData;
-import org.hullbound.lang.Parser;
-import org.hullbound.lang.SourceText;
 import org.hullbound.model.BoundModel;
 import org.openjdk.jmh.annotations.Benchmark;
 import org.openjdk.jmh.annotations.BenchmarkMode;
@@ -50,12 +44,7 @@ public class BlockNormalBenchmark {
 
   @Setup(Level.Trial)
   public void setUp() throws IOException {
-    Path folder = Path.of(System.getProperty("hullbound.models", "models"));
-    String text = Files.readString(folder.resolve("orchard.hbm"), StandardCharsets.UTF_8);
-    BoundModel model =
-        BoundModel.bind(
-            Parser.parse(SourceText.of("orchard.hbm", text)),
-            List.of(CsvData.read(folder.resolve("orchard.csv"))));
+    BoundModel model = DemoModel.load("orchard");
     ModelSampler gibbs = update.equals("block")
         ? ModelSampler.of(model, Map.of())
         : ModelSampler.withoutBlocks(model, Map.of());

@@ -1,9 +1,6 @@
 package org.hullbound.gibbs;
 
 import java.io.IOException;
-import java.nio.charset.StandardCharsets;
-import java.nio.file.Files;
-import java.nio.file.Path;
 import java.util.Arrays;
 import java.util.List;
 import java.util.Locale;
@@ -11,9 +8,6 @@ import java.util.Map;
 import java.util.concurrent.TimeUnit;
 import java.util.random.RandomGenerator;
 import org.hullbound.diagnostics.PosteriorSummary;
-import org.hullbound.io.CsvData;
-import org.hullbound.lang.Parser;
-import org.hullbound.lang.SourceText;
 import org.hullbound.model.BoundModel;
 import org.openjdk.jmh.annotations.Benchmark;
 import org.openjdk.jmh.annotations.BenchmarkMode;
@@ -56,12 +50,7 @@ public class GibbsSweepBenchmark {
 
   @Setup(Level.Trial)
   public void setUp() throws IOException {
-    Path folder = Path.of(System.getProperty("hullbound.models", "models"));
-    String text = Files.readString(folder.resolve("clinics.hbm"), StandardCharsets.UTF_8);
-    BoundModel model =
-        BoundModel.bind(
-            Parser.parse(SourceText.of("clinics.hbm", text)),
-            List.of(CsvData.read(folder.resolve("clinics.csv"))));
+    BoundModel model = DemoModel.load("clinics");
     ModelSampler gibbs = ModelSampler.of(model, Map.of());
     labels = gibbs.labels();
     RandomGenerator[] generators = ChainSeeds.split(20261201L, 2);

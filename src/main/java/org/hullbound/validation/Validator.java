@@ -1,9 +1,5 @@
 package org.hullbound.validation;
 
-import java.io.IOException;
-import java.io.UncheckedIOException;
-import java.nio.charset.StandardCharsets;
-import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
@@ -17,6 +13,7 @@ import org.hullbound.gibbs.RunSettings;
 import org.hullbound.gibbs.StopSignal;
 import org.hullbound.gibbs.UpdateReport;
 import org.hullbound.io.CsvData;
+import org.hullbound.io.TextFiles;
 import org.hullbound.lang.ModelException;
 import org.hullbound.lang.Parser;
 import org.hullbound.lang.SourceText;
@@ -148,12 +145,7 @@ public final class Validator {
   }
 
   private static BoundModel bind(ValidationCase c) {
-    String text;
-    try {
-      text = Files.readString(c.model(), StandardCharsets.UTF_8);
-    } catch (IOException e) {
-      throw new UncheckedIOException(e);
-    }
+    String text = TextFiles.readUtf8(c.model(), "model file");
     List<DataTable> tables = new ArrayList<>();
     for (Path file : c.dataFiles()) {
       tables.add(CsvData.read(file));
