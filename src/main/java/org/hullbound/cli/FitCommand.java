@@ -534,7 +534,8 @@ public final class FitCommand implements Callable<Integer> {
     }
     Path drawsFile = folder.resolve(DrawsWriter.FILE_NAME);
     RunHeader header =
-        new RunHeader(model.name(), clock.startedAt(), Math.max(1, summarised.length), kept,
+        new RunHeader(model.name(), clock.startedAt(),
+            summarised.length > 0 ? summarised.length : settings.chains(), kept,
             settings.burnIn(), settings.seed(), clock.elapsed());
     if (kept == 0) {
       Path reportFile = writeReport(folder, new ReportInput(header,
