@@ -68,63 +68,66 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
     if (fast == null) {
       return sampleFrom(rng, -1);
     }
-    // an equal column of an inner rectangle lies under the squeeze on all its piece (Marsaglia
-    // and Tsang 2000): the proposal is accepted at once, x uniform on the piece
-    double x = fast.fastPoint(rng.nextLong());
+    // a column inside an inner rectangle lies under the squeeze on all its step (Marsaglia and
+    // Tsang 2000): the proposal is accepted at once
+    long bits = rng.nextLong();
+    double x = fast.fastPoint(bits);
+    if (x == x) {
+      innerAcceptances++;
+      return x;
+    }
+    return sampleRemainder(rng, fast, bits);
+  }
+
+  /** A column not inside one inner rectangle was drawn: its inner part, else the rest. */
+  private double sampleRemainder(RandomGenerator rng, SettledPieces fast, long bits) {
+    double x = fast.innerPoint(bits);
     if (!Double.isNaN(x)) {
       innerAcceptances++;
       return x;
     }
-    return sampleRemainder(rng, fast);
-  }
-
-  /** A slow column was drawn: the proposal comes from the remainder's alias table. */
-  private double sampleRemainder(RandomGenerator rng, SettledPieces fast) {
-    int e = fast.select(rng.nextLong());
-    if (fast.isInner(e)) {
-      innerAcceptances++;
-      return fast.uniformPoint(e, rng.nextDouble());
-    }
-    return sampleFrom(rng, e);
+    return sampleFrom(rng, fast.select(rng.nextLong()));
   }
 
   /**
    * The general draw loop. With a settled table, each proposal is drawn through its two layers;
-   * the first one from entry {@code entry} of its remainder when that is not -1.
+   * the first one from entry {@code entry} of its rest when that is not -1.
    */
   private double sampleFrom(RandomGenerator rng, int entry) {
     PiecewiseExponential p = pieces;
     int e = entry;
     while (true) {
       refresh();
+      SettledPieces fast = settled;
+      if (fast != null && e < 0) {
+        long bits = rng.nextLong();
+        double inner = fast.fastPoint(bits);
+        if (Double.isNaN(inner)) {
+          inner = fast.innerPoint(bits);
+        }
+        if (!Double.isNaN(inner)) {
+          innerAcceptances++;
+          return inner;
+        }
+        e = fast.select(rng.nextLong());
+      }
       proposals++;
       // Gilks and Wild 1992, sampling step: draw x* from the normalised envelope exp(E_k), with
       // w uniform under it relative to E_k(x*)
       int j;
       double x;
       double w;
-      SettledPieces fast = settled;
+      // how far the envelope lies below the piece's top E_k: a step of the settled staircase
+      double drop = 0;
       if (fast != null) {
-        if (e < 0) {
-          x = fast.fastPoint(rng.nextLong());
-          if (!Double.isNaN(x)) {
-            squeezeAcceptances++;
-            return x;
-          }
-          e = fast.select(rng.nextLong());
-        }
         int at = SettledPieces.STRIDE * e;
         double[] d = fast.data;
-        double floor = d[at + SettledPieces.FLOOR];
         j = fast.piece[e];
-        if (floor < 0) {
-          squeezeAcceptances++;
-          return fast.uniformPoint(e, rng.nextDouble());
-        }
         if (p.uniform[j]) {
-          // the outer rectangle: x uniform, w uniform on [floor, 1) above the inner one
+          // x uniform on the step, w uniform on [floor, 1) above its inner rectangle
           x = fast.uniformPoint(e, rng.nextDouble());
-          w = floor + d[at + SettledPieces.SHARE] * rng.nextDouble();
+          w = d[at + SettledPieces.FLOOR] + d[at + SettledPieces.SHARE] * rng.nextDouble();
+          drop = d[at + SettledPieces.DROP];
         } else {
           x = p.position(j, rng.nextDouble());
           w = rng.nextDouble();
@@ -142,7 +145,9 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
       int at = PiecewiseExponential.STRIDE * j;
       double offset = x - d[at + PiecewiseExponential.ANCHOR];
       double gap =
-          d[at + PiecewiseExponential.GAP_VALUE] + d[at + PiecewiseExponential.GAP_SLOPE] * offset;
+          d[at + PiecewiseExponential.GAP_VALUE]
+              + d[at + PiecewiseExponential.GAP_SLOPE] * offset
+              - drop;
       // squeezing test: accept when w <= exp(l_k(x*) - E_k(x*)), with no evaluation of h
       if (belowExp(w, gap)) {
         squeezeAcceptances++;
@@ -152,7 +157,8 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
       // by the hull itself, before h is evaluated
       double raise =
           d[at + PiecewiseExponential.RAISE_VALUE]
-              + d[at + PiecewiseExponential.RAISE_SLOPE] * offset;
+              + d[at + PiecewiseExponential.RAISE_SLOPE] * offset
+              - drop;
       if (!belowExp(w, raise)) {
         rejections++;
         continue;

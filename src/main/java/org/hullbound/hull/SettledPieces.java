@@ -3,75 +3,112 @@ package org.hullbound.hull;
 import java.util.random.RandomGenerator;
 
 /**
- * The fast draw path of a settled hull, in two layers over a {@link PiecewiseExponential}.
+ * The fast draw path of a settled hull: a staircase envelope over a {@link PiecewiseExponential},
+ * its inner rectangles cut into columns of equal mass, and an alias table for the rest.
  *
- * <p>Inner rectangles, as in the ziggurat (Marsaglia and Tsang 2000, The ziggurat method for
- * generating random variables, J. Stat. Softw. 5(8)): on a piece drawn uniformly under its top, the
- * rectangle of height exp(-max gap) of the top lies under the squeeze everywhere on the piece (the
- * squeeze is linear there), so a point drawn in it is accepted at once with x uniform on the piece
- * and no squeeze, exp or log. The outer rectangle, between that height and the top, keeps the usual
- * tests with the vertical uniform drawn above the inner height. Both are rectangles because the
- * envelope is flat on such a piece, so together they are exactly the region under the envelope.
- * Exponential pieces (and pieces without a squeeze) are one whole entry with the usual draw.
+ * <p>Staircase: a piece drawn uniformly is cut into steps of equal width, each flat at the top of
+ * the hull u on it (so the envelope still lies above u, hence above h), few enough that u rises by
+ * at most {@value #STEP_RISE} over a step. A step's inner rectangle, as in the ziggurat (Marsaglia
+ * and Tsang 2000, The ziggurat method for generating random variables, J. Stat. Softw. 5(8)), has
+ * the height of the lowest point of the squeeze on the step (the squeeze is linear there), so a
+ * point drawn in it is accepted at once with x uniform on the step: no squeeze, exp or log. The
+ * outer rectangle, between that height and the step's top, keeps the usual tests with the vertical
+ * uniform drawn above the inner height. Steps shrink both the outer rectangles and the part of them
+ * above u, which is rejected without an evaluation. Exponential pieces (and pieces without a
+ * squeeze) are one whole entry with the usual draw.
  *
- * <p>Layer 1, equal columns: the envelope's mass is cut into {@code 2^b} columns of equal mass. Each
- * inner rectangle gives as many whole columns as fit in its mass (n_j = floor(inner mass / column
- * mass)), each with x uniform on the piece; the columns left over are "slow". One random long
- * decides a fast draw: its top b bits (b at most {@value #MAXIMUM_COLUMN_BITS}) pick the column and
- * its low 53 bits, a disjoint field, place x, exactly as {@code nextDouble} would.
+ * <p>Layer 1, equal columns: the inner rectangles are laid end to end on a mass axis [0, inner
+ * mass), followed by the rest, and the whole axis is cut into {@code 2^b} columns of equal mass
+ * (b at most {@value #MAXIMUM_COLUMN_BITS}). One random long decides a draw: its top b bits pick
+ * the column and its low 52 bits place a point u in it (finer than the rounding of x itself). A
+ * column inside one rectangle maps u to x by one multiply-add; a column across two rectangles side
+ * by side adds a second, branch-free term past the point where it crosses; any other column (a
+ * rectangle boundary among tiny rectangles, the end of the inner mass, a bound of the support) finds
+ * its rectangle by a short search from the first one it touches (the guide table of Chen and Asau
+ * 1974). No inner mass is lost to rounding columns.
  *
- * <p>Layer 2, the remainder (what the fast columns leave: the rest of each inner rectangle, the outer
- * rectangles and the whole pieces, of total mass (slow columns) x (column mass)): an alias table
- * (Walker 1977, An efficient method for generating discrete random variables with general
- * distributions, ACM TOMS 3, 253-256; stable construction of Vose 1991, A linear algorithm for
- * generating random numbers with a given distribution, IEEE TSE 17, 972-975) picks an entry from a
- * fresh random long: its top bits choose a column, its low bits (at most 53, disjoint) are compared
- * with the column's threshold; the point and the vertical uniform come from separate draws.
- * Package-private and mutable: rebuilt in place when the hull has settled again.
+ * <p>Layer 2, the rest (a point past the inner mass): an alias table (Walker 1977, An efficient
+ * method for generating discrete random variables with general distributions, ACM TOMS 3, 253-256;
+ * stable construction of Vose 1991, A linear algorithm for generating random numbers with a given
+ * distribution, IEEE TSE 17, 972-975) over the outer rectangles and whole pieces picks an entry
+ * from a fresh random long: its top bits choose a column, its low bits (at most 53, disjoint) are
+ * compared with the column's threshold; the point and the vertical uniform come from separate
+ * draws. Package-private and mutable: rebuilt in place when the hull has settled again.
  */
 final class SettledPieces {
 
-  /** Most bits of the long compared with a column's threshold: the precision of a double. */
+  /** Most bits of the long compared with an alias column's threshold: the precision of a double. */
   static final int MAXIMUM_THRESHOLD_BITS = 53;
 
-  /** Most bits for an equal column, so that 53 bits of the same long remain for x. */
-  static final int MAXIMUM_COLUMN_BITS = Long.SIZE - 53;
+  /** Most bits that choose an equal column: 4096 columns of four doubles, 128 KiB. */
+  static final int MAXIMUM_COLUMN_BITS = 12;
 
-  /** Equal columns per piece aimed at, so that the part left to layer 2 stays small. */
-  private static final int COLUMNS_PER_PIECE = 16;
+  /** Fewest bits that choose an equal column. */
+  private static final int MINIMUM_COLUMN_BITS = 6;
 
-  /** The low 53 bits of a long, and their scale to [0, 1), as {@code nextDouble} uses them. */
-  static final long POINT_MASK = (1L << 53) - 1;
-  static final double POINT_SCALE = 0x1.0p-53;
+  /** Equal columns per inner rectangle aimed at, so that few columns straddle two of them. */
+  private static final int COLUMNS_PER_RECTANGLE = 64;
+
+  /** Largest rise of the hull u over one step of a staircase. */
+  static final double STEP_RISE = 0.02;
+
+  /** Most steps per piece. */
+  static final int MAXIMUM_STEPS = 16;
+
+  /** The low bits of the long that place a point in its column, and their scale to [0, 1). */
+  static final long POINT_MASK = (1L << (Long.SIZE - MAXIMUM_COLUMN_BITS)) - 1;
+  static final double POINT_SCALE = 1.0 / (1L << (Long.SIZE - MAXIMUM_COLUMN_BITS));
 
   /** Layer 1: top bits of the long that choose an equal column. */
-  int equalShift;
-  /** Layer 1: left end and width of each equal column's piece; width -1 on a slow column. */
-  double[] equal;
-  /** Layer 1: number of fast columns, and the number of columns. */
-  int fastColumns;
-  int equalColumns;
+  int columnShift;
+  int columnCount;
+  double columnMass;
+  /**
+   * Per column, {@value #COLUMN_STRIDE} doubles: the x where it starts, its width while in its
+   * first rectangle (both NaN on a slow column), the point u in [0, 1) where it crosses into a
+   * second rectangle (1 for none) and the change of width there.
+   */
+  double[] column;
+
+  static final int COLUMN_STRIDE = 4;
+  static final int BASE = 0;
+  static final int SPAN = 1;
+  static final int CUT = 2;
+  static final int BEND = 3;
+  /** Per column: the first inner rectangle it touches, -1 past the inner mass. */
+  int[] firstRectangle;
+
+  /** The inner rectangles on the mass axis: start (rectangles + 1 of them), left, right, mass per unit x. */
+  int rectangles;
+  double[] rectangleStart;
+  double[] rectangleLeft;
+  double[] rectangleRight;
+  double[] rectangleDensity;
+  /** A point of the mass axis below this is inner; +inf when there is no rest. */
+  double innerLimit;
+  double innerMass;
 
   /**
-   * Per entry: left end, width, and the range [floor, floor + share) of the vertical uniform: -1
-   * and 0 on an inner entry (no vertical test), [inner height, 1) on an outer one, [0, 1) on a
-   * whole piece.
+   * Per entry of the rest: left end, width, the range [floor, floor + share) of the vertical uniform
+   * relative to the step's top ([inner height, 1) on an outer rectangle, [0, 1) on a whole piece),
+   * and the drop of the step's top below the piece's envelope E (0 on a whole piece).
    */
-  static final int STRIDE = 4;
+  static final int STRIDE = 5;
   static final int LEFT = 0;
   static final int WIDTH = 1;
   static final int FLOOR = 2;
   static final int SHARE = 3;
+  static final int DROP = 4;
 
   int entries;
-  int columnShift;
+  int aliasShift;
   long thresholdMask;
   /** Column c keeps its own entry when the low bits are below threshold[c], else alias[c]. */
   long[] threshold;
   int[] alias;
   int[] piece;
   double[] data;
-  /** Weight of each entry, relative to the largest piece as in {@link PiecewiseExponential}. */
+  /** Mass of each entry, relative to the largest piece as in {@link PiecewiseExponential}. */
   double[] weight;
   double total;
   int thresholdBits;
@@ -82,102 +119,116 @@ final class SettledPieces {
   private int[] large;
 
   SettledPieces() {
-    allocate(8, 8);
-    equal = new double[0];
+    allocateEntries(8);
+    allocateAlias(8);
+    allocateRectangles(8);
+    column = new double[0];
+    firstRectangle = new int[0];
   }
 
-  private void allocate(int entryCapacity, int columnCapacity) {
-    piece = new int[entryCapacity];
-    data = new double[STRIDE * entryCapacity];
-    weight = new double[entryCapacity];
-    threshold = new long[columnCapacity];
-    alias = new int[columnCapacity];
-    scaled = new double[columnCapacity];
-    small = new int[columnCapacity];
-    large = new int[columnCapacity];
+  private void allocateEntries(int capacity) {
+    piece = new int[capacity];
+    data = new double[STRIDE * capacity];
+    weight = new double[capacity];
   }
 
-  /** Splits the sealed {@code pieces} into equal columns and alias entries for the rest. */
+  private void allocateAlias(int aliasCapacity) {
+    threshold = new long[aliasCapacity];
+    alias = new int[aliasCapacity];
+    scaled = new double[aliasCapacity];
+    small = new int[aliasCapacity];
+    large = new int[aliasCapacity];
+  }
+
+  private void allocateRectangles(int capacity) {
+    rectangleStart = new double[capacity + 1];
+    rectangleLeft = new double[capacity];
+    rectangleRight = new double[capacity];
+    rectangleDensity = new double[capacity];
+  }
+
+  /** Cuts the sealed {@code pieces} into a staircase, its inner rectangles into equal columns. */
   void build(PiecewiseExponential pieces) {
     int n = pieces.size;
-    int columns = Integer.highestOneBit(Math.max(2, 2 * n - 1)) << 1;
-    if (piece.length < 2 * n || threshold.length < columns) {
-      allocate(Math.max(2 * n, piece.length), Math.max(columns, threshold.length));
+    int mostSteps = MAXIMUM_STEPS * n;
+    if (rectangleLeft.length < mostSteps) {
+      allocateRectangles(mostSteps);
     }
-    int equalBits =
-        Math.min(
-            MAXIMUM_COLUMN_BITS,
-            Math.max(6, Long.SIZE - Long.numberOfLeadingZeros((long) COLUMNS_PER_PIECE * n - 1)));
-    equalColumns = 1 << equalBits;
-    equalShift = Long.SIZE - equalBits;
-    if (equal.length < 2 * equalColumns) {
-      equal = new double[2 * equalColumns];
+    if (piece.length < mostSteps + n) {
+      allocateEntries(mostSteps + n);
     }
-    double[] weights = new double[n];
-    double sumOfPieces = 0;
-    for (int j = 0; j < n; j++) {
-      // from the log mass, not a difference of cumulative weights, which would cancel
-      weights[j] = Math.exp(pieces.logMass[j] - pieces.logScale);
-      sumOfPieces += weights[j];
-    }
-    double columnMass = sumOfPieces / equalColumns;
-    fastColumns = 0;
+    rectangles = 0;
     entries = 0;
+    double innerSum = 0;
     double[] d = pieces.packed;
     for (int j = 0; j < n; j++) {
-      double pieceWeight = weights[j];
+      // from the log mass, not a difference of cumulative weights, which would cancel
+      double pieceWeight = Math.exp(pieces.logMass[j] - pieces.logScale);
       int at = PiecewiseExponential.STRIDE * j;
       double left = d[at + PiecewiseExponential.LEFT];
       double right = d[at + PiecewiseExponential.RIGHT];
-      double gapValue = d[at + PiecewiseExponential.GAP_VALUE];
-      double gapSlope = d[at + PiecewiseExponential.GAP_SLOPE];
-      double anchor = d[at + PiecewiseExponential.ANCHOR];
-      // the gap E - l is linear on the piece: its largest value is at one end
-      double maximumGap =
-          Math.max(gapValue + gapSlope * (left - anchor), gapValue + gapSlope * (right - anchor));
-      if (!pieces.uniform[j] || !(maximumGap < Double.POSITIVE_INFINITY)) {
-        add(j, left, right - left, 0, 1, pieceWeight);
+      double width = right - left;
+      if (!pieces.uniform[j] || !(pieces.gapValue[j] < Double.POSITIVE_INFINITY)) {
+        addEntry(j, left, width, 0, 1, 0, pieceWeight);
         continue;
       }
-      double floor = Math.exp(-maximumGap);
-      double share = -Math.expm1(-maximumGap);
-      double inner = pieceWeight * floor;
-      int whole = (int) Math.min(inner / columnMass, equalColumns - fastColumns);
-      for (int c = 0; c < whole; c++) {
-        equal[2 * fastColumns] = left;
-        equal[2 * fastColumns + 1] = right - left;
-        fastColumns++;
+      // E - u (the raise) and E - l (the gap) are linear on the piece: extremes at the ends
+      double rise = Math.max(raise(d, at, left), raise(d, at, right));
+      int steps = (int) Math.min(MAXIMUM_STEPS, Math.max(1, Math.ceil(rise / STEP_RISE)));
+      for (int s = 0; s < steps; s++) {
+        double a = s == 0 ? left : left + width * s / steps;
+        double b = s == steps - 1 ? right : left + width * (s + 1) / steps;
+        if (!(b > a)) {
+          continue;
+        }
+        double drop = Math.max(0.0, Math.min(raise(d, at, a), raise(d, at, b)));
+        double innerGap = Math.max(0.0, Math.max(gap(d, at, a), gap(d, at, b)) - drop);
+        double stepMass = pieceWeight * ((b - a) / width) * Math.exp(-drop);
+        double floor = Math.exp(-innerGap);
+        double share = -Math.expm1(-innerGap);
+        double inner = stepMass * floor;
+        if (inner > 0) {
+          addRectangle(a, b, innerSum, inner);
+          innerSum += inner;
+        }
+        if (stepMass * share > 0) {
+          addEntry(j, a, b - a, floor, share, drop, stepMass * share);
+        }
       }
-      double rest = inner - whole * columnMass;
-      if (rest > 0) {
-        add(j, left, right - left, -1, 0, rest);
-      }
-      add(j, left, right - left, floor, share, pieceWeight * share);
     }
-    for (int c = fastColumns; c < equalColumns; c++) {
-      equal[2 * c] = 0;
-      equal[2 * c + 1] = -1;
+    rectangleStart[rectangles] = innerSum;
+    innerMass = innerSum;
+    int aliasColumns = Integer.highestOneBit(Math.max(1, entries - 1)) << 1;
+    if (threshold.length < aliasColumns) {
+      allocateAlias(aliasColumns);
     }
-    buildAlias(columns);
+    double restMass = buildAlias(aliasColumns);
+    innerLimit = entries == 0 ? Double.POSITIVE_INFINITY : innerSum;
+    buildColumns(
+        innerSum + restMass, d[PiecewiseExponential.LEFT],
+        d[PiecewiseExponential.STRIDE * (n - 1) + PiecewiseExponential.RIGHT]);
   }
 
-  /**
-   * Layer 1: the point of a fast column chosen by {@code bits}, or NaN on a slow column (the draw
-   * then goes to layer 2 with fresh random bits).
-   */
-  double fastPoint(long bits) {
-    int c = (int) (bits >>> equalShift);
-    double width = equal[2 * c + 1];
-    if (!(width > 0)) {
-      return Double.NaN;
-    }
-    double left = equal[2 * c];
-    double x = left + ((bits & POINT_MASK) * POINT_SCALE) * width;
-    // rounding of left + u width may pass the right end by an ulp
-    return x - left > width ? left + width : x;
+  private static double raise(double[] d, int at, double x) {
+    return d[at + PiecewiseExponential.RAISE_VALUE]
+        + d[at + PiecewiseExponential.RAISE_SLOPE] * (x - d[at + PiecewiseExponential.ANCHOR]);
   }
 
-  private void add(int j, double left, double width, double floor, double share, double w) {
+  private static double gap(double[] d, int at, double x) {
+    return d[at + PiecewiseExponential.GAP_VALUE]
+        + d[at + PiecewiseExponential.GAP_SLOPE] * (x - d[at + PiecewiseExponential.ANCHOR]);
+  }
+
+  private void addRectangle(double left, double right, double start, double mass) {
+    int r = rectangles++;
+    rectangleStart[r] = start;
+    rectangleLeft[r] = left;
+    rectangleRight[r] = right;
+    rectangleDensity[r] = mass / (right - left);
+  }
+
+  private void addEntry(
+      int j, double left, double width, double floor, double share, double drop, double w) {
     int e = entries++;
     piece[e] = j;
     int at = STRIDE * e;
@@ -185,11 +236,115 @@ final class SettledPieces {
     data[at + WIDTH] = width;
     data[at + FLOOR] = floor;
     data[at + SHARE] = share;
+    data[at + DROP] = drop;
     weight[e] = w;
   }
 
-  /** Vose 1991: columns of equal probability, each split between its own entry and one alias. */
-  private void buildAlias(int columns) {
+  /**
+   * Cuts the mass axis [0, totalMass) into equal columns and maps those inside one rectangle, or
+   * two side by side, to x.
+   */
+  private void buildColumns(double totalMass, double supportLower, double supportUpper) {
+    int bits =
+        Math.min(
+            MAXIMUM_COLUMN_BITS,
+            Math.max(
+                MINIMUM_COLUMN_BITS,
+                Long.SIZE
+                    - Long.numberOfLeadingZeros((long) COLUMNS_PER_RECTANGLE * rectangles - 1)));
+    columnCount = 1 << bits;
+    columnShift = Long.SIZE - bits;
+    columnMass = totalMass / columnCount;
+    if (column.length < COLUMN_STRIDE * columnCount) {
+      column = new double[COLUMN_STRIDE * columnCount];
+      firstRectangle = new int[columnCount];
+    }
+    int r = 0;
+    for (int c = 0; c < columnCount; c++) {
+      double low = c * columnMass;
+      double high = (c + 1) * columnMass;
+      while (r < rectangles && rectangleStart[r + 1] <= low) {
+        r++;
+      }
+      int at = COLUMN_STRIDE * c;
+      // NaN makes the fast point NaN without a test of its own
+      column[at + BASE] = Double.NaN;
+      column[at + SPAN] = Double.NaN;
+      column[at + CUT] = 1;
+      column[at + BEND] = 0;
+      if (r >= rectangles || !(low < innerLimit)) {
+        firstRectangle[c] = -1;
+        continue;
+      }
+      firstRectangle[c] = r;
+      boolean one = high <= rectangleStart[r + 1];
+      boolean two =
+          !one
+              && r + 1 < rectangles
+              && high <= rectangleStart[r + 2]
+              && rectangleRight[r] == rectangleLeft[r + 1];
+      double left = rectangleLeft[r];
+      double right = one ? rectangleRight[r] : two ? rectangleRight[r + 1] : Double.NaN;
+      // at a bound of the support x must not pass it by an ulp: those columns take the slow
+      // path, which clamps; elsewhere an ulp over a rectangle's end is only rounding
+      if (!(one || two) || left == supportLower || right == supportUpper) {
+        continue;
+      }
+      double span = columnMass / rectangleDensity[r];
+      column[at + BASE] = left + (low - rectangleStart[r]) / rectangleDensity[r];
+      column[at + SPAN] = span;
+      if (two) {
+        // past u = cut the mass axis is in the next rectangle, from its left end at its rate
+        column[at + CUT] = (rectangleStart[r + 1] - low) / columnMass;
+        column[at + BEND] = columnMass / rectangleDensity[r + 1] - span;
+      }
+    }
+  }
+
+  /**
+   * Layer 1: the point of a column inside one inner rectangle, or two side by side, chosen by
+   * {@code bits}, or NaN on any other column (then {@link #innerPoint} with the same bits).
+   */
+  double fastPoint(long bits) {
+    int at = COLUMN_STRIDE * (int) (bits >>> columnShift);
+    double u = (bits & POINT_MASK) * POINT_SCALE;
+    // max(0, u - cut) without a branch, which would be mispredicted on two-rectangle columns:
+    // the sign bit of u - cut, spread over the word, clears a negative difference
+    long over = Double.doubleToRawLongBits(u - column[at + CUT]);
+    double past = Double.longBitsToDouble(over & ~(over >> 63));
+    return column[at + BASE] + u * column[at + SPAN] + past * column[at + BEND];
+  }
+
+  /**
+   * Layer 1 on a column that is not inside one rectangle: the point of the mass axis that
+   * {@code bits} chooses, mapped to x when it is inner, else NaN (a draw from the rest follows).
+   */
+  double innerPoint(long bits) {
+    int c = (int) (bits >>> columnShift);
+    double s = c * columnMass + ((bits & POINT_MASK) * POINT_SCALE) * columnMass;
+    if (!(s < innerLimit)) {
+      return Double.NaN;
+    }
+    int r = firstRectangle[c];
+    int last = rectangles - 1;
+    while (r < last && rectangleStart[r + 1] <= s) {
+      r++;
+    }
+    double left = rectangleLeft[r];
+    double x = left + (s - rectangleStart[r]) / rectangleDensity[r];
+    if (!(x >= left)) {
+      return left;
+    }
+    double right = rectangleRight[r];
+    return x > right ? right : x;
+  }
+
+  /**
+   * Vose 1991: columns of equal probability, each split between its own entry and one alias.
+   *
+   * @return the mass of the rest
+   */
+  private double buildAlias(int columns) {
     double sum = 0;
     for (int e = 0; e < entries; e++) {
       sum += weight[e];
@@ -197,8 +352,11 @@ final class SettledPieces {
     total = sum;
     int columnBits = Integer.numberOfTrailingZeros(columns);
     thresholdBits = Math.min(MAXIMUM_THRESHOLD_BITS, Long.SIZE - columnBits);
-    columnShift = Long.SIZE - columnBits;
+    aliasShift = Long.SIZE - columnBits;
     thresholdMask = (1L << thresholdBits) - 1;
+    if (entries == 0) {
+      return 0;
+    }
     double one = (double) (1L << thresholdBits);
     int smallCount = 0;
     int largeCount = 0;
@@ -234,23 +392,19 @@ final class SettledPieces {
       threshold[s] = 1L << thresholdBits;
       alias[s] = s;
     }
+    return sum;
   }
 
-  /** The entry chosen by the 64 random bits {@code bits}. */
+  /** The entry of the rest chosen by the 64 random bits {@code bits}. */
   int select(long bits) {
-    int c = (int) (bits >>> columnShift);
+    int c = (int) (bits >>> aliasShift);
     // without a branch, which would be mispredicted on a good share of draws: the sign of
     // (low bits - threshold) is all ones when the column keeps its own entry, else zero
     int own = (int) (((bits & thresholdMask) - threshold[c]) >> 63);
     return (c & own) | (alias[c] & ~own);
   }
 
-  /** True when entry {@code e} lies under the squeeze on all its piece. */
-  boolean isInner(int e) {
-    return data[STRIDE * e + FLOOR] < 0;
-  }
-
-  /** The point at {@code u} in [0, 1) of entry {@code e}'s piece, uniform over its width. */
+  /** The point at {@code u} in [0, 1) of entry {@code e}'s step or piece, uniform over its width. */
   double uniformPoint(int e, double u) {
     int at = STRIDE * e;
     double left = data[at + LEFT];
@@ -261,11 +415,16 @@ final class SettledPieces {
   }
 
   /**
-   * One draw of x from the normalised envelope through both layers alone, without the acceptance
-   * test, as the sampler makes its proposals; for tests against the hull's distribution function.
+   * One proposal x from the normalised staircase envelope through both layers, without the
+   * acceptance tests; for tests against the envelope's distribution.
    */
   double drawFromEnvelope(RandomGenerator rng, PiecewiseExponential pieces) {
-    double x = fastPoint(rng.nextLong());
+    long bits = rng.nextLong();
+    double x = fastPoint(bits);
+    if (!Double.isNaN(x)) {
+      return x;
+    }
+    x = innerPoint(bits);
     if (!Double.isNaN(x)) {
       return x;
     }
@@ -274,9 +433,37 @@ final class SettledPieces {
     return pieces.uniform[j] ? uniformPoint(e, rng.nextDouble()) : pieces.position(j, rng.nextDouble());
   }
 
+  /**
+   * One draw from the normalised linear hull exp(u) through both layers: proposals from the
+   * staircase, those above u rejected; for tests against the hull's own distribution.
+   */
+  double drawUnderHull(RandomGenerator rng, PiecewiseExponential pieces) {
+    while (true) {
+      long bits = rng.nextLong();
+      double x = fastPoint(bits);
+      if (Double.isNaN(x)) {
+        x = innerPoint(bits);
+      }
+      if (!Double.isNaN(x)) {
+        return x;
+      }
+      int e = select(rng.nextLong());
+      int j = piece[e];
+      if (!pieces.uniform[j]) {
+        return pieces.position(j, rng.nextDouble());
+      }
+      int at = STRIDE * e;
+      x = uniformPoint(e, rng.nextDouble());
+      double w = data[at + FLOOR] + data[at + SHARE] * rng.nextDouble();
+      if (w < Math.exp(data[at + DROP] - raise(pieces.packed, PiecewiseExponential.STRIDE * j, x))) {
+        return x;
+      }
+    }
+  }
+
   /** The probability with which {@link #select} returns entry {@code e}, read off the table. */
   double selectionProbability(int e) {
-    int columns = 1 << (Long.SIZE - columnShift);
+    int columns = 1 << (Long.SIZE - aliasShift);
     double one = (double) (1L << thresholdBits);
     double p = threshold[e] / one;
     for (int c = 0; c < columns; c++) {
