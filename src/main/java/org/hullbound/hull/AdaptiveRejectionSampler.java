@@ -24,7 +24,8 @@ import java.util.random.RandomGenerator;
  * <p>While the hull still changes, each proposal uses three uniforms of the given generator (piece,
  * point in the piece, acceptance); once it has settled, most draws use one random long (see {@code
  * docs/hull.md}). Either way a seeded generator gives a reproducible sequence. Instances are not thread-safe;
- * they are cheap, make one per density (or per thread).
+ * they are cheap, make one per density (or per thread), or {@link #restart(double...)} one for
+ * each new density.
  */
 public interface AdaptiveRejectionSampler {
 
@@ -78,6 +79,24 @@ public interface AdaptiveRejectionSampler {
    * @throws InvalidDensityException when h returns NaN or +inf
    */
   double sample(RandomGenerator rng);
+
+  /**
+   * Starts the hull over from {@code abscissae}, for the same density object standing now for
+   * another log-concave function on the same support (a Gibbs full conditional at the chain's next
+   * state). Every earlier point is forgotten; the starting points are evaluated, checked and
+   * searched outward as by the factories; the arrays are kept, so that one sampler serves a draw
+   * per sweep without allocating. The draws that follow are those of a new sampler made with
+   * {@link HullOptions#withStartingAbscissae(double...)} and this sampler's other options, bit for
+   * bit; the counters of {@link #statistics()} keep counting.
+   *
+   * @param abscissae finite and strictly inside the support, in any order, duplicates ignored
+   * @throws IllegalArgumentException when {@code abscissae} is empty or a point lies outside
+   * @throws NotLogConcaveException when the starting points already show h is not concave
+   * @throws InvalidDensityException when h is NaN, +inf or -inf at a starting point
+   * @throws NonIntegrableHullException when no falling slope is found on an unbounded side (a hull
+   *     of no finite mass is found at the next draw)
+   */
+  void restart(double... abscissae);
 
   /** Fills {@code draws} with independent draws. */
   default void sample(RandomGenerator rng, double[] draws) {

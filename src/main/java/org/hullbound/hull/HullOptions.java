@@ -86,10 +86,7 @@ public final class HullOptions {
    * unbounded side, points are added outward as in the automatic start.
    */
   public HullOptions withStartingAbscissae(double... abscissae) {
-    if (abscissae == null || abscissae.length == 0) {
-      throw new IllegalArgumentException("starting abscissae must not be empty");
-    }
-    double[] copy = abscissae.clone();
+    double[] copy = nonEmpty(abscissae).clone();
     for (int i = 0; i < copy.length; i++) {
       if (!Double.isFinite(copy[i])) {
         throw new IllegalArgumentException(
@@ -110,6 +107,14 @@ public final class HullOptions {
         maximumHullSize,
         logConcavityTolerance,
         maximumSearchSteps);
+  }
+
+  /** {@code abscissae}, checked to be neither null nor empty. */
+  static double[] nonEmpty(double[] abscissae) {
+    if (abscissae == null || abscissae.length == 0) {
+      throw new IllegalArgumentException("starting abscissae must not be empty");
+    }
+    return abscissae;
   }
 
   /**

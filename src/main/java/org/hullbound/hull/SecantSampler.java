@@ -14,10 +14,13 @@ final class SecantSampler extends AdaptiveSampler {
   static final double MINIMUM_SEPARATION = 1e-6;
 
   private final LogDensity density;
+  /** The options' spread: where points are added around fewer than three starting ones. */
+  private final double spread;
 
   SecantSampler(LogDensity density, Support support, HullOptions options) {
     super(support, options, 2);
     this.density = density;
+    this.spread = options.spread();
     double[] start =
         options.hasStartingAbscissae()
             ? checkedStart(options.startingAbscissaeOrNull())
@@ -25,12 +28,31 @@ final class SecantSampler extends AdaptiveSampler {
     for (double x : start) {
       insert(k, x, evaluate(x, false));
     }
-    completeToThree(options.spread());
+    initialise();
+    rebuild();
+  }
+
+  @Override
+  public void restart(double... abscissae) {
+    checkedStart(HullOptions.nonEmpty(abscissae));
+    k = 0;
+    for (double x : abscissae) {
+      int i = insertionIndex(x);
+      if (!isAbscissa(i, x)) {
+        insert(i, x, evaluate(x, false));
+      }
+    }
+    initialise();
+    markStale();
+  }
+
+  /** Completes the start to three points, checks them and makes the outer chords fall away. */
+  private void initialise() {
+    completeToThree(spread);
     for (int i = 0; i + 2 < k; i++) {
       checkTriple(i);
     }
-    searchOutward(initialStep(options.spread()));
-    rebuild();
+    searchOutward(initialStep(spread));
   }
 
   /** A caller may give fewer than three abscissae; add neighbours inside the support. */

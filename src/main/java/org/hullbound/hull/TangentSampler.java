@@ -11,12 +11,15 @@ package org.hullbound.hull;
 final class TangentSampler extends AdaptiveSampler {
 
   private final DifferentiableLogDensity density;
+  /** The options' spread: the first outward step from a single starting point. */
+  private final double spread;
   private double[] ds;
 
   TangentSampler(DifferentiableLogDensity density, Support support, HullOptions options) {
     super(support, options, 2);
     this.density = density;
     this.ds = new double[xs.length];
+    this.spread = options.spread();
     double[] start =
         options.hasStartingAbscissae()
             ? checkedStart(options.startingAbscissaeOrNull())
@@ -25,11 +28,31 @@ final class TangentSampler extends AdaptiveSampler {
       Evaluation e = evaluate(x, false);
       append(x, e.value(), e.slope());
     }
+    initialise();
+    rebuild();
+  }
+
+  @Override
+  public void restart(double... abscissae) {
+    checkedStart(HullOptions.nonEmpty(abscissae));
+    k = 0;
+    for (double x : abscissae) {
+      int i = insertionIndex(x);
+      if (!isAbscissa(i, x)) {
+        Evaluation e = evaluate(x, false);
+        insert(i, x, e.value(), e.slope());
+      }
+    }
+    initialise();
+    markStale();
+  }
+
+  /** Checks the starting tangents pairwise and brackets the mode. */
+  private void initialise() {
     for (int i = 0; i + 1 < k; i++) {
       checkPair(xs[i], hs[i], ds[i], xs[i + 1], hs[i + 1], ds[i + 1]);
     }
-    searchOutward(initialStep(options.spread()));
-    rebuild();
+    searchOutward(initialStep(spread));
   }
 
   /** Initialisation, Gilks and Wild 1992 section 2.2: bracket the mode on unbounded sides. */
