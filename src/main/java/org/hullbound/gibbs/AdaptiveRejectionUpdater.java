@@ -16,11 +16,14 @@ import org.hullbound.hull.Support;
  *
  * <p>Warm start: the previous sweep's evaluations locate the conditional's mode (where the slope
  * changes sign) and its curvature there; the next hull starts from two tangents one conditional
- * standard deviation either side of that mode, so that a draw costs about two or three
- * evaluations instead of a search. When the hull finds the conditional is not log-concave after
- * all ({@link NotLogConcaveException}), this unknown switches, for the rest of the chain, to
- * adaptive rejection Metropolis (Gilks, Best and Tan 1995), the draw is redone, and the switch is
- * reported.
+ * standard deviation either side of the mode, predicted from that and corrected by a Newton step
+ * from the first tangent, so that a draw costs about three evaluations instead of a search. One
+ * sampler serves every draw, started over on the new conditional ({@link
+ * AdaptiveRejectionSampler#restart(double...)}), so that a draw allocates almost nothing.
+ *
+ * <p>When the hull finds the conditional is not log-concave after all ({@link
+ * NotLogConcaveException}), this unknown switches, for the rest of the chain, to adaptive
+ * rejection Metropolis (Gilks, Best and Tan 1995), the draw is redone, and the switch is reported.
  */
 final class AdaptiveRejectionUpdater implements Updater {
   /**
@@ -33,6 +36,12 @@ final class AdaptiveRejectionUpdater implements Updater {
 
   private static final int HULL_CAP = 32;
 
+  /** A probe closer than this many spreads to the mode gets a starting point on either side. */
+  static final double NEAR_MODE = 0.25;
+
+  /** The longest Newton step from the probe that is trusted, in starting steps. */
+  static final double FARTHEST_SHIFT = 3.0;
+
   /** Weight kept per sweep by the mode predictor's running regression. */
   private static final double FADE = 0.98;
 
@@ -41,6 +50,13 @@ final class AdaptiveRejectionUpdater implements Updater {
   private final boolean smooth;
   private final String reason;
   private final Recorder recorder = new Recorder();
+  /**
+   * The hull of the last draw, started over for the next while the support stays the same; null
+   * before the first draw and after a failure.
+   */
+  private AdaptiveRejectionSampler sampler;
+  private double samplerLower;
+  private double samplerUpper;
   private double centre = Double.NaN;
   private double spread = 1.0;
   private double squaredMiss;
@@ -83,22 +99,17 @@ final class AdaptiveRejectionUpdater implements Updater {
     recorder.start(state);
     double u;
     try {
-      Support support = new Support(lower, upper);
-      double[] start = startingAbscissae(guess, spread, lower, upper);
+      double[] start =
+          smooth && Double.isFinite(centre) ? probedStart(guess, lower, upper) : null;
+      if (start == null) {
+        start = startingAbscissae(guess, lower, upper);
+      }
       if (smooth) {
         start = steepen(start, lower, upper);
       }
-      HullOptions options =
-          HullOptions.defaults()
-              .withAutomaticStart(guess, spread)
-              .withMaximumHullSize(HULL_CAP)
-              .withStartingAbscissae(start);
-      AdaptiveRejectionSampler sampler =
-          smooth
-              ? AdaptiveRejectionSampler.withDerivatives(recorder, support, options)
-              : AdaptiveRejectionSampler.derivativeFree((LogDensity) recorder::value, support, options);
-      u = sampler.sample(rng);
+      u = draw(start, guess, lower, upper, rng);
     } catch (NotLogConcaveException notConcave) {
+      sampler = null;
       evaluations += recorder.count;
       switchSweep = sweeps;
       switchNote =
@@ -111,6 +122,9 @@ final class AdaptiveRejectionUpdater implements Updater {
               spread);
       fallback.update(state, rng);
       return;
+    } catch (RuntimeException failure) {
+      sampler = null;
+      throw failure;
     }
     evaluations += recorder.count;
     draws++;
@@ -126,6 +140,34 @@ final class AdaptiveRejectionUpdater implements Updater {
     if (Double.isFinite(centre) && Double.isFinite(current)) {
       track(current, centre);
     }
+  }
+
+  /**
+   * One exact draw from the hull started at {@code start}. The sampler of the previous draw is
+   * started over on the new conditional (the recorder reads the current state) while the support
+   * is the same, which draws exactly what a new sampler would, without allocating one.
+   */
+  private double draw(double[] start, double guess, double lower, double upper,
+      RandomGenerator rng) {
+    if (sampler != null && lower == samplerLower && upper == samplerUpper) {
+      sampler.restart(start);
+    } else {
+      sampler = null;
+      Support support = new Support(lower, upper);
+      HullOptions options =
+          HullOptions.defaults()
+              .withAutomaticStart(guess, spread)
+              .withMaximumHullSize(HULL_CAP)
+              .withStartingAbscissae(start);
+      sampler =
+          smooth
+              ? AdaptiveRejectionSampler.withDerivatives(recorder, support, options)
+              : AdaptiveRejectionSampler.derivativeFree(
+                  (LogDensity) recorder::value, support, options);
+      samplerLower = lower;
+      samplerUpper = upper;
+    }
+    return sampler.sample(rng);
   }
 
   /**
@@ -199,9 +241,63 @@ final class AdaptiveRejectionUpdater implements Updater {
     return moved;
   }
 
+  /**
+   * Starting points about one conditional standard deviation either side of where the conditional
+   * peaks now, found with one probe: the tangent at the upper point of {@link #startingAbscissae}
+   * and the curvature learnt from the last draw give a Newton step to the mode (exact for a normal
+   * conditional), and the other point goes one spread beyond it. A probe within {@value
+   * #NEAR_MODE} spread of that mode has a nearly flat tangent, so then a point goes either side
+   * (three in all). About 3.0 evaluations per draw instead of 3.3 for the clinics demo's intercept
+   * and slope, whose predicted modes miss by about one spread; the same 2.84 for its group
+   * effects, whose predictions hardly miss. Null where a point would leave the support or h is
+   * not finite at the probe, for {@link #startingAbscissae} to place them instead. The hull is
+   * then built from these points as from any others, so the draw stays exact. Null also where the
+   * Newton step is longer than {@value #FARTHEST_SHIFT} starting steps.
+   */
+  private double[] probedStart(double guess, double lower, double upper) {
+    double step = startingStep();
+    double probe = guess + step;
+    if (!(probe > lower && probe < upper)) {
+      return null;
+    }
+    Evaluation atProbe = recorder.evaluate(probe);
+    if (!Double.isFinite(atProbe.value()) || !Double.isFinite(atProbe.slope())) {
+      return null;
+    }
+    // Newton: h'(mode) = 0 = h'(probe) - (mode - probe) / spread^2
+    double shift = atProbe.slope() * spread * spread;
+    if (!(Math.abs(shift) <= FARTHEST_SHIFT * step)) {
+      // the conditional is not curved as learnt (a Newton step of 1832 spreads was met in a
+      // fuzzed fit, whose hull then stalled at its cap): the plain start, the probe one of its
+      // points
+      return null;
+    }
+    double mode = probe + shift;
+    double[] points;
+    if (shift <= -NEAR_MODE * spread) {
+      points = new double[] {mode - START_OFFSET * spread, probe};
+    } else if (shift >= NEAR_MODE * spread) {
+      points = new double[] {probe, mode + START_OFFSET * spread};
+    } else {
+      points =
+          new double[] {mode - START_OFFSET * spread, probe, mode + START_OFFSET * spread};
+    }
+    for (double point : points) {
+      if (!(point > lower && point < upper)) {
+        return null;
+      }
+    }
+    return points;
+  }
+
+  /** The distance of the starting points from the predicted mode. */
+  private double startingStep() {
+    return START_OFFSET * Math.min(Math.sqrt(1 + squaredMiss), 2.0) * spread;
+  }
+
   /** Two points (three without derivatives) around the guess, strictly inside the support. */
-  private double[] startingAbscissae(double guess, double width, double lower, double upper) {
-    double step = START_OFFSET * Math.min(Math.sqrt(1 + squaredMiss), 2.0) * width;
+  private double[] startingAbscissae(double guess, double lower, double upper) {
+    double step = startingStep();
     double[] points =
         smooth
             ? new double[] {guess - step, guess + step}
@@ -238,10 +334,11 @@ final class AdaptiveRejectionUpdater implements Updater {
    */
   private void learn(double drawn) {
     int n = recorder.count;
-    double[] x = Arrays.copyOf(recorder.x, n);
-    double[] h = Arrays.copyOf(recorder.h, n);
-    double[] s = Arrays.copyOf(recorder.s, n);
-    sortTogether(x, h, s);
+    double[] x = recorder.x;
+    double[] h = recorder.h;
+    double[] s = recorder.s;
+    // in place: the recorder starts afresh at the next draw
+    sortTogether(x, h, s, n);
     double newCentre = Double.NaN;
     double curvature = Double.NaN;
     if (smooth) {
@@ -275,8 +372,8 @@ final class AdaptiveRejectionUpdater implements Updater {
     }
   }
 
-  private static void sortTogether(double[] x, double[] h, double[] s) {
-    for (int i = 1; i < x.length; i++) {
+  private static void sortTogether(double[] x, double[] h, double[] s, int n) {
+    for (int i = 1; i < n; i++) {
       double xi = x[i];
       double hi = h[i];
       double si = s[i];
