@@ -22,6 +22,12 @@ final class CompiledConditional implements ConditionalDensity {
   private final boolean[] aritiesUsed;
   private final Evaluator lower;
   private final Evaluator upper;
+  /**
+   * The bounds on the sampling scale where they are constants, NaN where they move with the
+   * state: adaptive rejection asks for them before every draw.
+   */
+  private final double constantLower;
+  private final double constantUpper;
   private final boolean smooth;
 
   CompiledConditional(
@@ -41,6 +47,10 @@ final class CompiledConditional implements ConditionalDensity {
     }
     this.lower = Evaluator.compile(lower, -1);
     this.upper = Evaluator.compile(upper, -1);
+    this.constantLower =
+        lower instanceof Formula.Constant c ? toSamplingScale(c.value()) : Double.NaN;
+    this.constantUpper =
+        upper instanceof Formula.Constant c ? toSamplingScale(c.value()) : Double.NaN;
     this.smooth = smooth;
   }
 
@@ -145,11 +155,17 @@ final class CompiledConditional implements ConditionalDensity {
 
   @Override
   public double lowerBound(double[] state) {
+    if (!Double.isNaN(constantLower)) {
+      return constantLower;
+    }
     return toSamplingScale(lower.eval(new Frame(Double.NaN, state)));
   }
 
   @Override
   public double upperBound(double[] state) {
+    if (!Double.isNaN(constantUpper)) {
+      return constantUpper;
+    }
     return toSamplingScale(upper.eval(new Frame(Double.NaN, state)));
   }
 
