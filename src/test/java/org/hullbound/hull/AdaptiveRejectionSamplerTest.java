@@ -343,7 +343,7 @@ class AdaptiveRejectionSamplerTest {
   // ---- not log-concave
 
   /** 0.5 N(-2, 1) + 0.5 N(2, 1): two modes 4 sd apart, log-convex between them. */
-  private static Target twoModes() {
+  static Target twoModes() {
     return new Target(
         "two modes",
         x -> {

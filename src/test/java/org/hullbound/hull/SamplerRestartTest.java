@@ -115,20 +115,7 @@ class SamplerRestartTest {
     assertThrows(
         IllegalArgumentException.class, () -> sampler.restart(Double.POSITIVE_INFINITY, 1));
     // a density that turned bimodal is caught by the start, as by a new sampler
-    density.target =
-        new Target(
-            "two modes",
-            x -> {
-              double a = -0.5 * (x + 2) * (x + 2);
-              double b = -0.5 * (x - 2) * (x - 2);
-              double top = Math.max(a, b);
-              double wa = Math.exp(a - top);
-              double wb = Math.exp(b - top);
-              return new Evaluation(
-                  top + Math.log(wa + wb), (wa * -(x + 2) + wb * -(x - 2)) / (wa + wb));
-            },
-            Support.real(),
-            x -> x);
+    density.target = AdaptiveRejectionSamplerTest.twoModes();
     assertThrows(NotLogConcaveException.class, () -> sampler.restart(-1, 0, 1));
   }
 }
