@@ -34,6 +34,12 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
 
   /** The fast path over the current pieces, or null until the hull has settled. */
   private SettledPieces settled;
+  /**
+   * The settled table's columns and shift, held here as well so that a fast draw reads one array
+   * reached from this sampler rather than through the table: null while {@link #settled} is.
+   */
+  private double[] settledColumns;
+  private int settledShift;
   /** The table's storage, kept across rebuilds. */
   private SettledPieces spare;
   private int quietProposals;
@@ -64,19 +70,22 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
 
   @Override
   public final double sample(RandomGenerator rng) {
-    SettledPieces fast = settled;
-    if (fast == null) {
+    double[] columns = settledColumns;
+    if (columns == null) {
       return sampleFrom(rng, -1);
     }
     // a column inside an inner rectangle lies under the squeeze on all its step (Marsaglia and
     // Tsang 2000): the proposal is accepted at once
     long bits = rng.nextLong();
-    double x = fast.fastPoint(bits);
-    if (x == x) {
+    int at = SettledPieces.COLUMN_STRIDE * (int) (bits >>> settledShift);
+    // decided on the column's width alone, before the point is computed: a slow column is
+    // known one load after the random bits
+    double span = columns[at + SettledPieces.SPAN];
+    if (span == span) {
       innerAcceptances++;
-      return x;
+      return SettledPieces.columnPoint(columns, at, span, bits);
     }
-    return sampleRemainder(rng, fast, bits);
+    return sampleRemainder(rng, settled, bits);
   }
 
   /** A column not inside one inner rectangle was drawn: its inner part, else the rest. */
@@ -207,6 +216,8 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
     }
     spare.build(pieces);
     settled = spare;
+    settledColumns = spare.column;
+    settledShift = spare.columnShift;
   }
 
   /**
@@ -231,6 +242,7 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
   final void markStale() {
     stale = true;
     settled = null;
+    settledColumns = null;
   }
 
   private void refresh() {

@@ -307,12 +307,17 @@ final class SettledPieces {
    */
   double fastPoint(long bits) {
     int at = COLUMN_STRIDE * (int) (bits >>> columnShift);
+    return columnPoint(column, at, column[at + SPAN], bits);
+  }
+
+  /** The point of the column at {@code at} (of width {@code span} there) that {@code bits} place. */
+  static double columnPoint(double[] column, int at, double span, long bits) {
     double u = (bits & POINT_MASK) * POINT_SCALE;
     // max(0, u - cut) without a branch, which would be mispredicted on two-rectangle columns:
     // the sign bit of u - cut, spread over the word, clears a negative difference
     long over = Double.doubleToRawLongBits(u - column[at + CUT]);
     double past = Double.longBitsToDouble(over & ~(over >> 63));
-    return column[at + BASE] + u * column[at + SPAN] + past * column[at + BEND];
+    return column[at + BASE] + u * span + past * column[at + BEND];
   }
 
   /**
