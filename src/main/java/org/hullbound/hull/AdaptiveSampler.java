@@ -220,6 +220,26 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
     settledShift = spare.columnShift;
   }
 
+  @Override
+  public final void restart(double... abscissae) {
+    checkedStart(HullOptions.nonEmpty(abscissae));
+    k = 0;
+    for (double x : abscissae) {
+      int i = insertionIndex(x);
+      if (!isAbscissa(i, x)) {
+        insertEvaluated(i, x);
+      }
+    }
+    initialise();
+    markStale();
+  }
+
+  /** Evaluates h (and h') at a starting point x and inserts it at index i of the abscissae. */
+  abstract void insertEvaluated(int i, double x);
+
+  /** Checks the starting points and searches outward until the hull can be integrated. */
+  abstract void initialise();
+
   /**
    * Evaluates h at a proposal that failed the squeeze test, checks it against the hull, adds it
    * when there is room, and returns h(x).

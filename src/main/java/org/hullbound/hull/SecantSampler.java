@@ -33,21 +33,13 @@ final class SecantSampler extends AdaptiveSampler {
   }
 
   @Override
-  public void restart(double... abscissae) {
-    checkedStart(HullOptions.nonEmpty(abscissae));
-    k = 0;
-    for (double x : abscissae) {
-      int i = insertionIndex(x);
-      if (!isAbscissa(i, x)) {
-        insert(i, x, evaluate(x, false));
-      }
-    }
-    initialise();
-    markStale();
+  void insertEvaluated(int i, double x) {
+    insert(i, x, evaluate(x, false));
   }
 
   /** Completes the start to three points, checks them and makes the outer chords fall away. */
-  private void initialise() {
+  @Override
+  void initialise() {
     completeToThree(spread);
     for (int i = 0; i + 2 < k; i++) {
       checkTriple(i);

@@ -33,22 +33,14 @@ final class TangentSampler extends AdaptiveSampler {
   }
 
   @Override
-  public void restart(double... abscissae) {
-    checkedStart(HullOptions.nonEmpty(abscissae));
-    k = 0;
-    for (double x : abscissae) {
-      int i = insertionIndex(x);
-      if (!isAbscissa(i, x)) {
-        Evaluation e = evaluate(x, false);
-        insert(i, x, e.value(), e.slope());
-      }
-    }
-    initialise();
-    markStale();
+  void insertEvaluated(int i, double x) {
+    Evaluation e = evaluate(x, false);
+    insert(i, x, e.value(), e.slope());
   }
 
   /** Checks the starting tangents pairwise and brackets the mode. */
-  private void initialise() {
+  @Override
+  void initialise() {
     for (int i = 0; i + 1 < k; i++) {
       checkPair(xs[i], hs[i], ds[i], xs[i + 1], hs[i + 1], ds[i + 1]);
     }
