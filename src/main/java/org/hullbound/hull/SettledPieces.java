@@ -330,7 +330,9 @@ final class SettledPieces {
     if (!(s < innerLimit)) {
       return Double.NaN;
     }
-    int r = firstRectangle[c];
+    // -1 past the last rectangle's start, reached here only by rounding when nothing follows the
+    // inner mass (innerLimit +inf)
+    int r = Math.max(0, firstRectangle[c]);
     int last = rectangles - 1;
     while (r < last && rectangleStart[r + 1] <= s) {
       r++;

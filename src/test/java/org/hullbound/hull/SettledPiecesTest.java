@@ -13,6 +13,7 @@ import org.junit.jupiter.api.Test;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.CsvSource;
 import org.junit.jupiter.params.provider.MethodSource;
+import org.junit.jupiter.params.provider.ValueSource;
 
 /**
  * The fast path of a settled hull ({@link SettledPieces}): its staircase holds between the hull and
@@ -351,6 +352,30 @@ class SettledPiecesTest {
     settled(target, derivativeFree).sample(rng(5), first);
     settled(target, derivativeFree).sample(rng(5), second);
     assertArrayEquals(first, second);
+  }
+
+  /**
+   * A flat density (beta(1, 1), h = 0 on (0, 1)): between the outermost abscissae the squeeze
+   * meets the hull, so the only rest is the two end pieces, which have no squeeze; draws stay
+   * uniform (KS at level 0.001).
+   */
+  @ParameterizedTest(name = "derivative-free {0}")
+  @ValueSource(booleans = {false, true})
+  void aFlatDensityLeavesOnlyItsEndPiecesToTheRest(boolean derivativeFree) {
+    Target flat = Target.beta(1, 1);
+    AdaptiveSampler sampler = (AdaptiveSampler) flat.sampler(derivativeFree, HullOptions.defaults());
+    RandomGenerator rng = rng(12);
+    double[] draws = new double[N];
+    sampler.sample(rng, draws);
+    sampler.sample(rng, draws);
+    SettledPieces table = sampler.settledOrNull();
+    assertNotNull(table, "a flat hull settles at once");
+    assertEquals(2, table.entries, "the end pieces only");
+    for (int e = 0; e < table.entries; e++) {
+      assertEquals(0.0, table.data[SettledPieces.STRIDE * e + SettledPieces.FLOOR], "whole piece");
+    }
+    double p = flat.reference().ksPValue(draws);
+    assertTrue(p >= ALPHA, "KS p-value " + p);
   }
 
   @Test
