@@ -109,11 +109,7 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
       refresh();
       SettledPieces fast = settled;
       if (fast != null && e < 0) {
-        long bits = rng.nextLong();
-        double inner = fast.fastPoint(bits);
-        if (Double.isNaN(inner)) {
-          inner = fast.innerPoint(bits);
-        }
+        double inner = fast.innerDraw(rng.nextLong());
         if (!Double.isNaN(inner)) {
           innerAcceptances++;
           return inner;

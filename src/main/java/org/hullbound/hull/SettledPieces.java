@@ -345,6 +345,12 @@ final class SettledPieces {
     double right = rectangleRight[r];
     return x > right ? right : x;
   }
+  /** Layer 1 whole: the inner point that {@code bits} choose, fast or searched, or NaN for the rest. */
+  double innerDraw(long bits) {
+    double x = fastPoint(bits);
+    return Double.isNaN(x) ? innerPoint(bits) : x;
+  }
+
 
   /**
    * Vose 1991: columns of equal probability, each split between its own entry and one alias.
@@ -426,12 +432,7 @@ final class SettledPieces {
    * acceptance tests; for tests against the envelope's distribution.
    */
   double drawFromEnvelope(RandomGenerator rng, PiecewiseExponential pieces) {
-    long bits = rng.nextLong();
-    double x = fastPoint(bits);
-    if (!Double.isNaN(x)) {
-      return x;
-    }
-    x = innerPoint(bits);
+    double x = innerDraw(rng.nextLong());
     if (!Double.isNaN(x)) {
       return x;
     }
@@ -446,11 +447,7 @@ final class SettledPieces {
    */
   double drawUnderHull(RandomGenerator rng, PiecewiseExponential pieces) {
     while (true) {
-      long bits = rng.nextLong();
-      double x = fastPoint(bits);
-      if (Double.isNaN(x)) {
-        x = innerPoint(bits);
-      }
+      double x = innerDraw(rng.nextLong());
       if (!Double.isNaN(x)) {
         return x;
       }
