@@ -98,6 +98,15 @@ final class GammaFamily {
     }
 
     @Override
+    public double logArgumentSlope(double x, double[] args, int k, double[] gradient) {
+      if (k != 1 || !(args[1] > 0) || !inSupport(x, args)) {
+        return super.logArgumentSlope(x, args, k, gradient);
+      }
+      // rate d/drate (shape log rate - rate x) = shape - rate x, finite where shape/rate is not.
+      return args[0] - args[1] * x;
+    }
+
+    @Override
     double cdfSensitivity(int k, double x, double[] args) {
       // z = rate x: dz/drate / dz/dx = x/rate.
       return x / args[1];
@@ -139,6 +148,15 @@ final class GammaFamily {
         gradient[2] = (x / scale - shape) / scale;
       }
       return -shape * Math.log(scale) - Gamma.logGamma(shape) + (shape - 1.0) * logX - x / scale;
+    }
+
+    @Override
+    public double logArgumentSlope(double x, double[] args, int k, double[] gradient) {
+      if (k != 1 || !(args[1] > 0) || !inSupport(x, args)) {
+        return super.logArgumentSlope(x, args, k, gradient);
+      }
+      // scale d/dscale (-shape log scale - x/scale) = x/scale - shape, finite where x/scale^2 is not.
+      return x / args[1] - args[0];
     }
 
     @Override

@@ -38,6 +38,15 @@ final class InverseGamma {
     }
 
     @Override
+    public double logArgumentSlope(double x, double[] args, int k, double[] gradient) {
+      if (k != 1 || !(args[1] > 0) || !inSupport(x, args)) {
+        return super.logArgumentSlope(x, args, k, gradient);
+      }
+      // scale d/dscale (shape log scale - scale/x) = shape - scale/x, finite where shape/scale is not.
+      return args[0] - args[1] / x;
+    }
+
+    @Override
     double logLowerTail(double x, double[] args) {
       return IncompleteGamma.logUpper(args[0], args[1] / x);
     }

@@ -35,6 +35,16 @@ final class Weibull {
       return Math.log(shape / scale) + (shape - 1.0) * logRatio - t;
     }
 
+    @Override
+    public double logArgumentSlope(double x, double[] args, int k, double[] gradient) {
+      if (k != 1 || !(args[1] > 0) || !inSupport(x, args)) {
+        return super.logArgumentSlope(x, args, k, gradient);
+      }
+      // scale d/dscale (-shape log scale - (x/scale)^shape) = shape (t - 1) with t = (x/scale)^shape,
+      // finite while t is, unlike shape (t - 1)/scale.
+      return args[0] * (t(x, args) - 1.0);
+    }
+
     private static double t(double x, double[] args) {
       return Math.exp(args[0] * Math.log(x / args[1]));
     }

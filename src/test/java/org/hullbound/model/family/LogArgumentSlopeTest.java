@@ -40,6 +40,11 @@ class LogArgumentSlopeTest {
       {form("lognormal", "meanlog", "sdlog"), 1.3, new double[] {0.2, 0.7}, 1},
       {form("student_t", "df", "location", "scale"), 1.3, new double[] {3, 0.2, 0.7}, 2},
       {form("normal", "mean", "sd"), 1.3, new double[] {0.2, 0.7}, 0},
+      {form("gamma", "shape", "rate"), 1.3, new double[] {2.5, 0.7}, 1},
+      {form("gamma", "shape", "scale"), 1.3, new double[] {2.5, 0.7}, 1},
+      {form("inv_gamma", "shape", "scale"), 1.3, new double[] {2.5, 0.7}, 1},
+      {form("weibull", "shape", "scale"), 1.3, new double[] {1.5, 0.7}, 1},
+      {form("gamma", "shape", "rate"), 1.3, new double[] {2.5, 0.7}, 0},
     };
     for (Object[] c : cases) {
       Parametrisation p = (Parametrisation) c[0];
@@ -76,6 +81,33 @@ class LogArgumentSlopeTest {
         1e-12 * l * l);
     assertTrue(Double.isFinite(
         slope(form("student_t", "df", "location", "scale"), 1.0, new double[] {3, 0.2, s}, 2)));
+  }
+
+  /**
+   * Scales and rates of the gamma, inverse gamma and Weibull at the ends of the double range: the
+   * gradient overflows, the log-argument slope keeps its closed form (gamma rate r: shape - r x;
+   * gamma scale s: x/s - shape; inv_gamma scale s: shape - s/x; Weibull scale s: shape (t - 1),
+   * t = (x/s)^shape).
+   */
+  @Test
+  void scalesAndRatesStayFiniteWhereTheGradientOverflows() {
+    double tiny = Double.MIN_NORMAL / 100;
+    Parametrisation byRate = form("gamma", "shape", "rate");
+    assertEquals(Double.POSITIVE_INFINITY, product(byRate, 1.0, new double[] {2.5, tiny}, 1),
+        "the default would overflow here");
+    assertEquals(2.5, slope(byRate, 1.0, new double[] {2.5, tiny}, 1), 1e-12);
+    double s = Math.exp(-360);
+    Parametrisation byScale = form("gamma", "shape", "scale");
+    assertEquals(Double.POSITIVE_INFINITY, product(byScale, 1.0, new double[] {2.5, s}, 1));
+    assertEquals(1 / s - 2.5, slope(byScale, 1.0, new double[] {2.5, s}, 1), 1e-12 / s);
+    Parametrisation inverse = form("inv_gamma", "shape", "scale");
+    assertEquals(Double.POSITIVE_INFINITY, product(inverse, 1.0, new double[] {2.5, tiny}, 1));
+    assertEquals(2.5, slope(inverse, 1.0, new double[] {2.5, tiny}, 1), 1e-12);
+    double w = Math.exp(-240);
+    Parametrisation weibull = form("weibull", "shape", "scale");
+    assertEquals(Double.POSITIVE_INFINITY, product(weibull, 1.0, new double[] {2.0, w}, 1));
+    double t = Math.exp(480);
+    assertEquals(2.0 * (t - 1), slope(weibull, 1.0, new double[] {2.0, w}, 1), 1e-12 * 2 * t);
   }
 
   @Test
