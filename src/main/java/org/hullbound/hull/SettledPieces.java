@@ -23,9 +23,9 @@ import java.util.random.RandomGenerator;
  * the column and its low 52 bits place a point u in it (finer than the rounding of x itself). A
  * column inside one rectangle maps u to x by one multiply-add; a column across two rectangles side
  * by side adds a second, branch-free term past the point where it crosses; any other column (a
- * rectangle boundary among tiny rectangles, the end of the inner mass, a bound of the support) finds
- * its rectangle by a short search from the first one it touches (the guide table of Chen and Asau
- * 1974). No inner mass is lost to rounding columns.
+ * rectangle boundary among tiny rectangles, the end of the inner mass, a bound of the support)
+ * finds its rectangle by a short search from the first one it touches (the guide table of Chen and
+ * Asau 1974). No inner mass is lost to rounding columns.
  *
  * <p>Layer 2, the rest (a point past the inner mass): an alias table (Walker 1977, An efficient
  * method for generating discrete random variables with general distributions, ACM TOMS 3, 253-256;
@@ -78,7 +78,10 @@ final class SettledPieces {
   /** Per column: the first inner rectangle it touches, -1 past the inner mass. */
   int[] firstRectangle;
 
-  /** The inner rectangles on the mass axis: start (rectangles + 1 of them), left, right, mass per unit x. */
+  /**
+   * The inner rectangles on the mass axis: where each starts (rectangles + 1 entries, the last the
+   * inner mass), its left and right ends, and its mass per unit of x.
+   */
   int rectangles;
   double[] rectangleStart;
   double[] rectangleLeft;
