@@ -348,12 +348,12 @@ final class SettledPieces {
     double right = rectangleRight[r];
     return x > right ? right : x;
   }
-  /** Layer 1 whole: the inner point that {@code bits} choose, fast or searched, or NaN for the rest. */
+
+  /** Layer 1 whole: the inner point {@code bits} choose, fast or searched; NaN for the rest. */
   double innerDraw(long bits) {
     double x = fastPoint(bits);
     return Double.isNaN(x) ? innerPoint(bits) : x;
   }
-
 
   /**
    * Vose 1991: columns of equal probability, each split between its own entry and one alias.
@@ -431,20 +431,6 @@ final class SettledPieces {
   }
 
   /**
-   * One proposal x from the normalised staircase envelope through both layers, without the
-   * acceptance tests; for tests against the envelope's distribution.
-   */
-  double drawFromEnvelope(RandomGenerator rng, PiecewiseExponential pieces) {
-    double x = innerDraw(rng.nextLong());
-    if (!Double.isNaN(x)) {
-      return x;
-    }
-    int e = select(rng.nextLong());
-    int j = piece[e];
-    return pieces.uniform[j] ? uniformPoint(e, rng.nextDouble()) : pieces.position(j, rng.nextDouble());
-  }
-
-  /**
    * One draw from the normalised linear hull exp(u) through both layers: proposals from the
    * staircase, those above u rejected; for tests against the hull's own distribution.
    */
@@ -462,7 +448,8 @@ final class SettledPieces {
       int at = STRIDE * e;
       x = uniformPoint(e, rng.nextDouble());
       double w = data[at + FLOOR] + data[at + SHARE] * rng.nextDouble();
-      if (w < Math.exp(data[at + DROP] - raise(pieces.packed, PiecewiseExponential.STRIDE * j, x))) {
+      double raise = raise(pieces.packed, PiecewiseExponential.STRIDE * j, x);
+      if (w < Math.exp(data[at + DROP] - raise)) {
         return x;
       }
     }
