@@ -25,6 +25,7 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
   final int maximumHullSize;
   final double tolerance;
   final int maximumSearchSteps;
+  private final long maximumProposals;
   final PiecewiseExponential pieces;
   double[] xs;
   double[] hs;
@@ -63,6 +64,7 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
     this.maximumHullSize = options.maximumHullSize();
     this.tolerance = options.logConcavityTolerance();
     this.maximumSearchSteps = options.maximumSearchSteps();
+    this.maximumProposals = options.maximumProposals();
     this.pieces = new PiecewiseExponential(piecesPerPoint * INITIAL_CAPACITY + 2);
     this.xs = new double[INITIAL_CAPACITY];
     this.hs = new double[INITIAL_CAPACITY];
@@ -105,7 +107,14 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
   private double sampleFrom(RandomGenerator rng, int entry) {
     PiecewiseExponential p = pieces;
     int e = entry;
+    // a cap on proposals per draw, so that a hull far above the density cannot spin for hours
+    long left = maximumProposals;
+    double last = Double.NaN;
     while (true) {
+      if (left-- == 0) {
+        throw new ProposalLimitException(
+            maximumProposals, abscissae(), java.util.Arrays.copyOf(hs, k), last);
+      }
       refresh();
       SettledPieces fast = settled;
       if (fast != null && e < 0) {
@@ -146,6 +155,7 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
         x = p.position(j, rng.nextDouble());
         w = rng.nextDouble();
       }
+      last = x;
       double[] d = p.packed;
       int at = PiecewiseExponential.STRIDE * j;
       double offset = x - d[at + PiecewiseExponential.ANCHOR];

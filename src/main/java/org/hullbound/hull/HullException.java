@@ -9,7 +9,8 @@ package org.hullbound.hull;
  * type to fall back to another updater.
  */
 public abstract sealed class HullException extends RuntimeException
-    permits NotLogConcaveException, InvalidDensityException, NonIntegrableHullException {
+    permits NotLogConcaveException, InvalidDensityException, NonIntegrableHullException,
+        ProposalLimitException {
 
   private final double x;
 

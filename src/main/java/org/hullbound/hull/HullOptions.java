@@ -17,6 +17,7 @@ import java.util.Arrays;
  *   <tr><td>{@link #maximumHullSize()}</td><td>64 abscissae</td></tr>
  *   <tr><td>{@link #logConcavityTolerance()}</td><td>1e-8</td></tr>
  *   <tr><td>{@link #maximumSearchSteps()}</td><td>64 doublings per side</td></tr>
+ *   <tr><td>{@link #maximumProposals()}</td><td>100 000 proposals per draw</td></tr>
  * </table>
  */
 public final class HullOptions {
@@ -30,9 +31,19 @@ public final class HullOptions {
   /** Default number of outward doubling steps per side before giving up. */
   public static final int DEFAULT_MAXIMUM_SEARCH_STEPS = 64;
 
+  /**
+   * Default cap on proposals per draw. A draw whose proposals are each accepted with probability
+   * at least 1e-3 makes more with probability (1 - 1e-3)^100000 = e^-100, about 4e-44; adaptive
+   * rejection accepts far more often (Gilks and Wild 1992 report about three density evaluations
+   * per draw), so a correct sampler never reaches it, while a stuck one gives up within a second
+   * or so of evaluations.
+   */
+  public static final long DEFAULT_MAXIMUM_PROPOSALS = 100_000;
+
   private static final HullOptions DEFAULTS =
       new HullOptions(
-          null, 0.0, 1.0, DEFAULT_MAXIMUM_HULL_SIZE, DEFAULT_TOLERANCE, DEFAULT_MAXIMUM_SEARCH_STEPS);
+          null, 0.0, 1.0, DEFAULT_MAXIMUM_HULL_SIZE, DEFAULT_TOLERANCE,
+          DEFAULT_MAXIMUM_SEARCH_STEPS, DEFAULT_MAXIMUM_PROPOSALS);
 
   private final double[] startingAbscissae;
   private final double guess;
@@ -40,6 +51,7 @@ public final class HullOptions {
   private final int maximumHullSize;
   private final double logConcavityTolerance;
   private final int maximumSearchSteps;
+  private final long maximumProposals;
 
   private HullOptions(
       double[] startingAbscissae,
@@ -47,13 +59,15 @@ public final class HullOptions {
       double spread,
       int maximumHullSize,
       double logConcavityTolerance,
-      int maximumSearchSteps) {
+      int maximumSearchSteps,
+      long maximumProposals) {
     this.startingAbscissae = startingAbscissae;
     this.guess = guess;
     this.spread = spread;
     this.maximumHullSize = maximumHullSize;
     this.logConcavityTolerance = logConcavityTolerance;
     this.maximumSearchSteps = maximumSearchSteps;
+    this.maximumProposals = maximumProposals;
   }
 
   /** Automatic start from guess 0 with spread 1, cap 64, tolerance 1e-8. */
@@ -77,7 +91,8 @@ public final class HullOptions {
       throw new IllegalArgumentException("spread must be finite and > 0, got " + spread);
     }
     return new HullOptions(
-        null, guess, spread, maximumHullSize, logConcavityTolerance, maximumSearchSteps);
+        null, guess, spread, maximumHullSize, logConcavityTolerance, maximumSearchSteps,
+        maximumProposals);
   }
 
   /**
@@ -106,7 +121,8 @@ public final class HullOptions {
         spread,
         maximumHullSize,
         logConcavityTolerance,
-        maximumSearchSteps);
+        maximumSearchSteps,
+        maximumProposals);
   }
 
   /** {@code abscissae}, checked to be neither null nor empty. */
@@ -128,7 +144,8 @@ public final class HullOptions {
       throw new IllegalArgumentException("maximumHullSize must be >= 3, got " + maximumHullSize);
     }
     return new HullOptions(
-        startingAbscissae, guess, spread, maximumHullSize, logConcavityTolerance, maximumSearchSteps);
+        startingAbscissae, guess, spread, maximumHullSize, logConcavityTolerance, maximumSearchSteps,
+        maximumProposals);
   }
 
   /**
@@ -144,7 +161,8 @@ public final class HullOptions {
           "logConcavityTolerance must be finite and >= 0, got " + tolerance);
     }
     return new HullOptions(
-        startingAbscissae, guess, spread, maximumHullSize, tolerance, maximumSearchSteps);
+        startingAbscissae, guess, spread, maximumHullSize, tolerance, maximumSearchSteps,
+        maximumProposals);
   }
 
   /**
@@ -158,7 +176,23 @@ public final class HullOptions {
       throw new IllegalArgumentException("maximumSearchSteps must be >= 1, got " + steps);
     }
     return new HullOptions(
-        startingAbscissae, guess, spread, maximumHullSize, logConcavityTolerance, steps);
+        startingAbscissae, guess, spread, maximumHullSize, logConcavityTolerance, steps,
+        maximumProposals);
+  }
+
+  /**
+   * Proposals one draw may make before it gives up with {@link ProposalLimitException}, so that a
+   * draw never spins without end on a hull and density that disagree.
+   *
+   * @param proposals at least 1
+   */
+  public HullOptions withMaximumProposals(long proposals) {
+    if (proposals < 1) {
+      throw new IllegalArgumentException("maximumProposals must be >= 1, got " + proposals);
+    }
+    return new HullOptions(
+        startingAbscissae, guess, spread, maximumHullSize, logConcavityTolerance,
+        maximumSearchSteps, proposals);
   }
 
   /** True when the start is caller-given abscissae, false for the automatic start. */
@@ -200,6 +234,11 @@ public final class HullOptions {
     return maximumSearchSteps;
   }
 
+  /** Proposals one draw may make before it gives up. */
+  public long maximumProposals() {
+    return maximumProposals;
+  }
+
   @Override
   public String toString() {
     return "HullOptions["
@@ -212,6 +251,8 @@ public final class HullOptions {
         + logConcavityTolerance
         + ", maximumSearchSteps "
         + maximumSearchSteps
+        + ", maximumProposals "
+        + maximumProposals
         + "]";
   }
 }
