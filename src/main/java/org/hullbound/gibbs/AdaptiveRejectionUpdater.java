@@ -8,6 +8,7 @@ import org.hullbound.hull.Evaluation;
 import org.hullbound.hull.HullOptions;
 import org.hullbound.hull.LogDensity;
 import org.hullbound.hull.NotLogConcaveException;
+import org.hullbound.hull.ProposalLimitException;
 import org.hullbound.hull.Support;
 
 /**
@@ -122,6 +123,9 @@ final class AdaptiveRejectionUpdater implements Updater {
               spread);
       fallback.update(state, rng);
       return;
+    } catch (ProposalLimitException stuck) {
+      sampler = null;
+      throw new DegenerateConditionalException(current, lower, upper, stuck);
     } catch (RuntimeException failure) {
       sampler = null;
       throw failure;

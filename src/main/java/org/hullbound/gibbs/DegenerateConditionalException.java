@@ -1,0 +1,45 @@
+package org.hullbound.gibbs;
+
+import org.hullbound.hull.ProposalLimitException;
+
+/**
+ * One unknown's full conditional is numerically degenerate: its adaptive rejection draw gave up
+ * after its cap of proposals ({@link ProposalLimitException}), because the hull could not follow a
+ * conditional far narrower than where it started (extreme data such as 1e15 binomial trials) or
+ * rounding kept the density far under it.
+ *
+ * <p>The message names the values a practitioner needs to see the degeneracy: the unknown's
+ * current value, its support, and where the hull's abscissae lay with the log-density at the
+ * highest of them, all on the sampling scale.
+ */
+public final class DegenerateConditionalException extends RuntimeException {
+  private static final long serialVersionUID = 1L;
+
+  DegenerateConditionalException(
+      double current, double lower, double upper, ProposalLimitException stuck) {
+    super(describe(current, lower, upper, stuck), stuck);
+  }
+
+  private static String describe(
+      double current, double lower, double upper, ProposalLimitException stuck) {
+    double[] xs = stuck.abscissae();
+    double[] hs = stuck.values();
+    int top = 0;
+    for (int i = 1; i < hs.length; i++) {
+      if (hs[i] > hs[top]) {
+        top = i;
+      }
+    }
+    StringBuilder around = new StringBuilder();
+    for (int i = Math.max(0, top - 1); i <= Math.min(hs.length - 1, top + 1); i++) {
+      around.append(around.length() == 0 ? "" : ", ")
+          .append("h(").append(xs[i]).append(") = ").append(hs[i]);
+    }
+    return "the full conditional is numerically degenerate: no proposal accepted in "
+        + stuck.proposals() + " proposals of one draw from current value " + current
+        + " on support (" + lower + ", " + upper + ") (sampling scale); the hull's "
+        + xs.length + " abscissae run from " + xs[0] + " to " + xs[xs.length - 1]
+        + ", near its highest point " + around
+        + "; check the data for extreme values (such as a count of 1e15) or rescale";
+  }
+}
