@@ -1,5 +1,6 @@
 package org.hullbound.gibbs;
 
+import java.util.function.BooleanSupplier;
 import java.util.random.RandomGenerator;
 
 /**
@@ -16,6 +17,16 @@ public interface ChainKernel {
 
   /** Advances the chain by one full sweep, taking every random number from {@code rng}. */
   void sweep(RandomGenerator rng);
+
+  /**
+   * Like {@link #sweep(RandomGenerator)}, but asks {@code giveUp} between two updates and gives
+   * the sweep up when it says so: returns false then, with the state partly updated (the caller
+   * goes back to a state it saved). A kernel of one indivisible step never gives up.
+   */
+  default boolean sweep(RandomGenerator rng, BooleanSupplier giveUp) {
+    sweep(rng);
+    return true;
+  }
 
   /** Writes the current values of the reported quantities (natural scale) into {@code out}. */
   void record(double[] out);

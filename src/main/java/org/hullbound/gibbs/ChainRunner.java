@@ -8,6 +8,7 @@ import java.util.concurrent.ExecutorService;
 import java.util.concurrent.Executors;
 import java.util.concurrent.Future;
 import java.util.concurrent.atomic.AtomicInteger;
+import java.util.function.BooleanSupplier;
 import java.util.random.RandomGenerator;
 
 /**
@@ -18,19 +19,35 @@ import java.util.random.RandomGenerator;
  * before the threads start, so that a seed and a chain count give the same draws bit for bit with
  * one thread or many. The stop signal is read at the end of each sweep: a stopped run has handed on
  * only whole draws.
+ *
+ * <p>A stop is honoured within a bounded time even when one sweep is slow: between two updates a
+ * sweep still running {@link #STOP_GRACE_NANOS} after the request is given up, and the chain goes
+ * back to the last whole sweep it saved (at its start, then at most every {@link
+ * #SAVE_INTERVAL_NANOS} of sweeping, and before every sweep once sweeps take longer than that).
+ * Its checkpoint is then that sweep; draws handed on after it stay in the sink and are made again,
+ * the same, by a resumed run. One update is bounded in turn by its sampler's cap on proposals.
  */
 public final class ChainRunner {
   /** How often, at most, each chain reports progress. */
   private static final long PROGRESS_INTERVAL_NANOS = 250_000_000L;
 
+  /** How long a sweep in progress at a stop request may still run before it is given up. */
+  static final long STOP_GRACE_NANOS = 1_000_000_000L;
+
+  /** Sweeping time between two saved states a given-up sweep goes back to. */
+  static final long SAVE_INTERVAL_NANOS = 1_000_000_000L;
+
   private final RunSettings settings;
   private final ProgressListener listener;
   private final StopSignal stop;
+  private final long stopGraceNanos;
 
-  private ChainRunner(RunSettings settings, ProgressListener listener, StopSignal stop) {
+  private ChainRunner(
+      RunSettings settings, ProgressListener listener, StopSignal stop, long stopGraceNanos) {
     this.settings = settings;
     this.listener = listener;
     this.stop = stop;
+    this.stopGraceNanos = stopGraceNanos;
   }
 
   /** A runner for {@code settings} that reports to {@code listener} and obeys {@code stop}. */
@@ -44,7 +61,12 @@ public final class ChainRunner {
     if (stop == null) {
       throw new IllegalArgumentException("stop must not be null");
     }
-    return new ChainRunner(settings, listener, stop);
+    return new ChainRunner(settings, listener, stop, STOP_GRACE_NANOS);
+  }
+
+  /** This runner with another grace for a sweep in progress at a stop (tests). */
+  ChainRunner withStopGrace(long nanos) {
+    return new ChainRunner(settings, listener, stop, nanos);
   }
 
   /**
@@ -173,17 +195,29 @@ public final class ChainRunner {
     long lastReport = start;
     int draws = firstDraws;
     long sweep = firstSweep;
+    ChainState saved = save(kernel, rng, sweep, draws);
+    long lastSave = start;
+    BooleanSupplier giveUp = () -> stop.requestedLongerAgoThan(stopGraceNanos);
+    boolean gaveUp = false;
     try {
       while (sweep < total && !stop.isRequested() && !abort.isRequested()) {
+        long now = System.nanoTime();
+        if (saved != null && now - lastSave >= SAVE_INTERVAL_NANOS) {
+          saved = save(kernel, rng, sweep, draws);
+          lastSave = now;
+        }
         sweep++;
-        kernel.sweep(rng);
+        if (!kernel.sweep(rng, giveUp)) {
+          gaveUp = true;
+          break;
+        }
         long afterBurnIn = sweep - settings.burnIn();
         if (afterBurnIn > 0 && afterBurnIn % settings.thin() == 0) {
           draws++;
           kernel.record(row);
           sink.accept(chain, draws, row);
         }
-        long now = System.nanoTime();
+        now = System.nanoTime();
         if (now - lastReport >= PROGRESS_INTERVAL_NANOS) {
           lastReport = now;
           listener.progress(progress(chain, sweep, firstSweep, draws, now - start, false));
@@ -195,11 +229,25 @@ public final class ChainRunner {
           progress(chain, sweep, firstSweep, draws, System.nanoTime() - start, true));
       throw new ChainFailedException(chain, sweep, failure);
     }
-    if (kernel instanceof ResumableKernel resumable && rng instanceof ChainRandom generator) {
-      ends[chain] = new ChainState(sweep, draws, generator.state(), resumable.save());
+    if (!gaveUp) {
+      ends[chain] = save(kernel, rng, sweep, draws);
+    } else if (saved != null) {
+      // back to the last whole sweep saved: the checkpoint continues from there
+      ((ResumableKernel) kernel).restore(saved.kernel());
+      sweep = saved.sweep();
+      draws = saved.draws();
+      ends[chain] = saved;
     }
     listener.progress(progress(chain, sweep, firstSweep, draws, System.nanoTime() - start, true));
     return draws;
+  }
+
+  /** The chain's state between two sweeps, or null when its kernel or generator cannot be saved. */
+  private static ChainState save(ChainKernel kernel, RandomGenerator rng, long sweep, int draws) {
+    if (kernel instanceof ResumableKernel resumable && rng instanceof ChainRandom generator) {
+      return new ChainState(sweep, draws, generator.state(), resumable.save());
+    }
+    return null;
   }
 
   private ChainProgress progress(

@@ -1,6 +1,7 @@
 package org.hullbound.gibbs;
 
 import java.util.List;
+import java.util.function.BooleanSupplier;
 import java.util.random.RandomGenerator;
 
 /**
@@ -25,7 +26,16 @@ public final class GibbsKernel implements ResumableKernel {
 
   @Override
   public void sweep(RandomGenerator rng) {
+    sweep(rng, () -> false);
+  }
+
+  /** Asks {@code giveUp} before each update, so that a stop need not wait for a slow sweep. */
+  @Override
+  public boolean sweep(RandomGenerator rng, BooleanSupplier giveUp) {
     for (Updater updater : updaters) {
+      if (giveUp.getAsBoolean()) {
+        return false;
+      }
       try {
         updater.update(state, rng);
       } catch (UpdateFailedException already) {
@@ -34,6 +44,7 @@ public final class GibbsKernel implements ResumableKernel {
         throw new UpdateFailedException(nameOf(updater), updater.method(), failure);
       }
     }
+    return true;
   }
 
   @Override
