@@ -13,8 +13,6 @@ import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
 import java.util.concurrent.Callable;
-import java.util.concurrent.CountDownLatch;
-import java.util.concurrent.TimeUnit;
 import org.hullbound.diagnostics.Draws;
 import org.hullbound.diagnostics.PosteriorSummary;
 import org.hullbound.diagnostics.VariableSummary;
@@ -149,6 +147,13 @@ public final class FitCommand implements Callable<Integer> {
 
   @Override
   public Integer call() throws IOException {
+    // first, so that a signal while reading or compiling finds the hook (see SignalStop)
+    try (SignalStop signals = SignalStop.install(spec.commandLine().getErr())) {
+      return fit(signals);
+    }
+  }
+
+  private Integer fit(SignalStop signals) throws IOException {
     PrintWriter stdout = spec.commandLine().getOut();
     PrintWriter stderr = spec.commandLine().getErr();
     String problem = checkOptions();
@@ -198,13 +203,13 @@ public final class FitCommand implements Callable<Integer> {
       stderr.flush();
       return ErrorReporting.USER_ERROR;
     }
+    StopSignal stop = StopSignal.create();
+    if (!signals.beginSampling(stop)) {
+      return ErrorReporting.FAILURE; // the JVM is ending with the signal's status
+    }
     if (checkpoint == null) {
       clearEarlierRun(folder);
     }
-    StopSignal stop = StopSignal.create();
-    CountDownLatch finished = new CountDownLatch(1);
-    Thread interruptHook = new Thread(() -> stopAndWait(stop, finished), "hullbound-interrupt");
-    Runtime.getRuntime().addShutdownHook(interruptHook);
     ProgressDisplay display =
         ProgressDisplay.of(stderr, System.console() != null, settings.chains());
     ProgressListener listener = quiet ? ProgressListener.none() : display;
@@ -261,12 +266,7 @@ public final class FitCommand implements Callable<Integer> {
       return 0;
     } finally {
       // Only now may an interrupted JVM exit: the files are written.
-      finished.countDown();
-      try {
-        Runtime.getRuntime().removeShutdownHook(interruptHook);
-      } catch (IllegalStateException shuttingDown) {
-        // The JVM is already exiting (Ctrl-C): the hook is running and waits for us.
-      }
+      signals.filesWritten();
     }
   }
 
@@ -489,18 +489,6 @@ public final class FitCommand implements Callable<Integer> {
 
     Duration elapsed() {
       return Duration.ofNanos(Math.max(0, System.nanoTime() - startNanos));
-    }
-  }
-
-  /** On Ctrl-C: ask the chains to stop, then give the run a few seconds to write its files. */
-  private static void stopAndWait(StopSignal stop, CountDownLatch finished) {
-    stop.request();
-    try {
-      // Writing the summary and report of a large run on a loaded machine can take a while;
-      // a bounded wait still lets a hung run end.
-      finished.await(2, TimeUnit.MINUTES);
-    } catch (InterruptedException interrupted) {
-      Thread.currentThread().interrupt();
     }
   }
 

@@ -43,12 +43,11 @@ public final class Main implements Runnable {
    * unless {@code --debug} was given.
    */
   static int run(String[] args) {
+    CommandLine line = commandLine();
     try {
-      return commandLine().execute(args);
+      return line.execute(args);
     } catch (OutOfMemoryError e) {
-      System.err.println(
-          "hullbound: out of memory; give the JVM more, e.g. HULLBOUND_JAVA_OPTS=-Xmx8g, or keep"
-              + " fewer draws (--draws, --thin)");
+      System.err.println(outOfMemory(commandName(line)));
       return ErrorReporting.FAILURE;
     } catch (Error e) {
       System.err.println("hullbound: internal error: " + e);
@@ -57,6 +56,33 @@ public final class Main implements Runnable {
       }
       return ErrorReporting.FAILURE;
     }
+  }
+
+  /**
+   * The out-of-memory message for {@code command} (its name, or null when none was parsed): more
+   * heap always, and the options that shrink what that command holds, where it has any.
+   */
+  static String outOfMemory(String command) {
+    String fewer =
+        command == null ? null : switch (command) {
+          case "fit" -> "keep fewer draws (--draws, or --thin K to keep every K-th sweep)";
+          case "calibrate" -> "make fewer or smaller fits (--replicates, --draws, --thin)";
+          case "validate" -> "run fewer draws or cases (--draws, --case)";
+          case "draw" -> "make fewer draws (--draws)";
+          default -> null;
+        };
+    return "hullbound" + (command == null ? "" : " " + command)
+        + ": out of memory; give the JVM more, e.g. HULLBOUND_JAVA_OPTS=-Xmx8g"
+        + (fewer == null ? "" : ", or " + fewer);
+  }
+
+  /** The subcommand that ran, or null when parsing did not get that far. */
+  private static String commandName(CommandLine line) {
+    CommandLine.ParseResult parsed = line.getParseResult();
+    if (parsed == null || parsed.subcommand() == null) {
+      return null;
+    }
+    return parsed.subcommand().commandSpec().name();
   }
 
   /** The configured command line, shared by {@link #main} and the tests. */

@@ -1,0 +1,95 @@
+package org.hullbound.cli;
+
+import java.io.PrintWriter;
+import java.util.concurrent.CountDownLatch;
+import java.util.concurrent.TimeUnit;
+import org.hullbound.gibbs.StopSignal;
+
+/**
+ * What {@code fit} does on Ctrl-C (SIGINT) or SIGTERM, whenever it comes: before sampling, one
+ * line saying nothing was written and an immediate end; while sampling, a stop request to the
+ * chains and a bounded wait until the run has written its files. The JVM then ends with the
+ * signal's own status (130 for SIGINT, 143 for SIGTERM).
+ *
+ * <p>Installed as the first thing the command does, so that a signal during reading or compiling
+ * finds it: adding a shutdown hook while the JVM already shuts down throws "Shutdown in progress",
+ * which used to surface as an internal error.
+ */
+final class SignalStop implements AutoCloseable {
+  /** How long the hook waits for the files of a stopped run (a large report can take a while). */
+  private static final long WRITE_WAIT_MINUTES = 2;
+
+  private final PrintWriter stderr;
+  private final CountDownLatch finished = new CountDownLatch(1);
+  private final Thread hook;
+  /** The chains' stop, once sampling began; guarded by this. */
+  private StopSignal sampling;
+  /** Set when a signal came before sampling; guarded by this. */
+  private boolean signalled;
+
+  private SignalStop(PrintWriter stderr) {
+    this.stderr = stderr;
+    this.hook = new Thread(this::onSignal, "hullbound-interrupt");
+  }
+
+  /** Registers the hook now; when the JVM is already shutting down, one that reports so. */
+  static SignalStop install(PrintWriter stderr) {
+    SignalStop stop = new SignalStop(stderr);
+    try {
+      Runtime.getRuntime().addShutdownHook(stop.hook);
+    } catch (IllegalStateException shuttingDown) {
+      stop.onSignal();
+    }
+    return stop;
+  }
+
+  /**
+   * Hands the chains' stop to the hook before the run changes any file; false when a signal
+   * already came, and the caller must end without writing.
+   */
+  synchronized boolean beginSampling(StopSignal stop) {
+    if (signalled) {
+      return false;
+    }
+    sampling = stop;
+    return true;
+  }
+
+  private void onSignal() {
+    StopSignal stop;
+    synchronized (this) {
+      stop = sampling;
+      if (stop == null) {
+        if (!signalled) {
+          signalled = true;
+          stderr.println("hullbound fit: stopped by a signal before sampling began; no file was"
+              + " written");
+          stderr.flush();
+        }
+        return;
+      }
+    }
+    stop.request();
+    try {
+      finished.await(WRITE_WAIT_MINUTES, TimeUnit.MINUTES);
+    } catch (InterruptedException interrupted) {
+      Thread.currentThread().interrupt();
+    }
+  }
+
+  /** The run's files are written: a JVM ending on a signal may end now. */
+  void filesWritten() {
+    finished.countDown();
+  }
+
+  /** Releases a waiting hook and removes it unless it already runs. */
+  @Override
+  public void close() {
+    finished.countDown();
+    try {
+      Runtime.getRuntime().removeShutdownHook(hook);
+    } catch (IllegalStateException shuttingDown) {
+      // The JVM is already exiting (a signal): the hook is running and has just been released.
+    }
+  }
+}

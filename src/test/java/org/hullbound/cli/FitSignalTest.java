@@ -1,0 +1,85 @@
+package org.hullbound.cli;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertFalse;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.io.FileOutputStream;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.List;
+import java.util.concurrent.CompletableFuture;
+import java.util.concurrent.TimeUnit;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+
+/**
+ * {@code fit} and signals, in a child JVM: SIGTERM before sampling (while the model is still being
+ * read) ends the run at once with SIGTERM's status, 128 + 15 = 143 (the POSIX shell convention,
+ * which the JVM follows), and one line saying nothing was written; and a conditional the sampler
+ * cannot follow ends the run with a sampling failure instead of hanging.
+ */
+class FitSignalTest {
+  @TempDir Path folder;
+
+  private Process fit(String... args) throws Exception {
+    List<String> command =
+        new java.util.ArrayList<>(List.of(
+            Path.of(System.getProperty("java.home"), "bin", "java").toString(),
+            "-cp", System.getProperty("java.class.path"), "org.hullbound.cli.Main", "fit"));
+    command.addAll(List.of(args));
+    return new ProcessBuilder(command)
+        .redirectOutput(folder.resolve("out.txt").toFile())
+        .redirectError(folder.resolve("err.txt").toFile())
+        .start();
+  }
+
+  @Test
+  void sigtermWhileTheModelIsReadEndsWithStatus143AndOneLine() throws Exception {
+    // a named pipe as the model file: the child blocks reading it until this test writes, so the
+    // signal is known to arrive during start-up, after the command began
+    Path model = folder.resolve("model.hbm");
+    Process mkfifo = new ProcessBuilder("mkfifo", model.toString()).start();
+    assertEquals(0, mkfifo.waitFor());
+    Path out = folder.resolve("run");
+    Process child = fit(model.toString(), "--out", out.toString(), "--quiet");
+    // opening the pipe for writing returns once the child has opened it for reading
+    CompletableFuture<FileOutputStream> opened =
+        CompletableFuture.supplyAsync(() -> {
+          try {
+            return new FileOutputStream(model.toFile());
+          } catch (java.io.IOException e) {
+            throw new java.io.UncheckedIOException(e);
+          }
+        });
+    try (FileOutputStream writer = opened.get(60, TimeUnit.SECONDS)) {
+      child.destroy(); // SIGTERM
+      assertTrue(child.waitFor(30, TimeUnit.SECONDS), "the child ended");
+    }
+    String err = Files.readString(folder.resolve("err.txt"));
+    assertEquals(143, child.exitValue(), err);
+    assertEquals(
+        "hullbound fit: stopped by a signal before sampling began; no file was written\n", err);
+    assertFalse(Files.exists(out), "nothing written");
+  }
+
+  @Test
+  void aConditionalTheHullCannotFollowFailsTheRunInsteadOfHanging() throws Exception {
+    // issue 14: the seedlings data with tray 1 planted with 1e15 seeds hung this fit at full CPU
+    Path data = folder.resolve("seedlings.csv");
+    List<String> lines = new java.util.ArrayList<>(Files.readAllLines(Path.of("models", "seedlings.csv")));
+    lines.set(1, "1e15,1,16");
+    Files.write(data, lines);
+    Process child =
+        fit("models/seedlings.hbm", "--data", data.toString(), "--seed", "1", "--quiet",
+            "--out", folder.resolve("run").toString());
+    assertTrue(child.waitFor(3, TimeUnit.MINUTES), "the run ended");
+    String err = Files.readString(folder.resolve("err.txt"));
+    assertEquals(1, child.exitValue(), err);
+    String first = err.lines().findFirst().orElse("");
+    assertTrue(first.startsWith("hullbound fit: sampling failed: chain 1 failed in sweep 1:"
+        + " updating effect[1] (adaptive rejection): the full conditional is numerically"
+        + " degenerate"), err);
+    assertFalse(err.contains("Exception"), err);
+  }
+}
