@@ -122,7 +122,7 @@ public final class ConjugateDraws {
     // Step 1: d = a - 1/3, c = 1 / sqrt(9 d).
     double d = shape - 1.0 / 3.0;
     double c = 1.0 / Math.sqrt(9.0 * d);
-    while (true) {
+    for (int tries = 0; tries < GAMMA_TRIES; tries++) {
       // Step 2: x normal, v = (1 + c x)^3, retry when 1 + c x <= 0.
       double x = rng.nextGaussian();
       double v = 1.0 + c * x;
@@ -141,7 +141,15 @@ public final class ConjugateDraws {
         return d * v;
       }
     }
+    throw new RejectionLimitException("gamma draw of shape " + shape, GAMMA_TRIES);
   }
+
+  /**
+   * Tries one Marsaglia-Tsang gamma draw may make: each is accepted with probability above 0.95
+   * for shape &gt;= 1 (Marsaglia and Tsang 2000, recalled from memory), so a correct draw needs
+   * more with probability below 0.05^1000; only a shape that is not a number could reach it.
+   */
+  private static final int GAMMA_TRIES = 1000;
 
   /** log of a {@code Gamma(shape)} draw for shape {@code < 1}: Gamma(a + 1) U^(1/a). */
   private static double logStandardGammaBelowOne(RandomGenerator rng, double shape) {

@@ -37,6 +37,11 @@ public final class FixedEnvelopeRejection {
   private final Proposal proposal;
   private final double logBound;
   private final double violationLevel;
+  /**
+   * Proposals one draw may make: 100 times the expected M of a normalised target, at least
+   * 100000, so that a correct envelope needs more with probability (1 - 1/M)^(100 M) &lt; e^-100.
+   */
+  private final long proposalCap;
 
   private long draws;
   private long proposals;
@@ -51,6 +56,8 @@ public final class FixedEnvelopeRejection {
     this.proposal = proposal;
     this.logBound = logBound;
     this.violationLevel = logBound + ROUNDING * Math.max(1.0, Math.abs(logBound));
+    // a cast saturates at Long.MAX_VALUE for a huge M: such an envelope is useless, never capped
+    this.proposalCap = (long) Math.max(100_000.0, 100.0 * Math.exp(logBound));
   }
 
   /**
@@ -92,7 +99,7 @@ public final class FixedEnvelopeRejection {
 
   /** One exact, independent draw from the target. */
   public double sample(RandomGenerator rng) {
-    while (true) {
+    for (long made = 0; made < proposalCap; made++) {
       proposals++;
       // Step 1: x ~ g.
       double x = proposal.draw(rng);
@@ -119,6 +126,7 @@ public final class FixedEnvelopeRejection {
         return x;
       }
     }
+    throw new RejectionLimitException("fixed-envelope rejection", proposalCap);
   }
 
   /** {@code log M}, the envelope's log scale. */

@@ -3,6 +3,7 @@ package org.hullbound.sampling;
 import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertThrows;
+import static org.junit.jupiter.api.Assertions.assertTimeoutPreemptively;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.util.function.DoubleUnaryOperator;
@@ -199,6 +200,24 @@ class FixedEnvelopeRejectionTest {
         sampler.sample(rng);
       }
     });
+  }
+
+  /**
+   * A target with no mass where the envelope proposes (zero beyond TAIL + 1e-9, which an
+   * exponential proposal from TAIL reaches with probability 1e-9) gives up after the cap of
+   * 100000 proposals, with a typed error, instead of spinning.
+   */
+  @Test
+  void aTargetWithNoMassWhereTheEnvelopeProposesGivesUpAfterTheCap() {
+    FixedEnvelopeRejection sampler = FixedEnvelopeRejection.of(
+        x -> x < TAIL + 1e-9 ? 0.0 : Double.NEGATIVE_INFINITY, TAIL, Double.POSITIVE_INFINITY,
+        Proposal.exponentialTail(TAIL, 1), 0.0);
+    RejectionLimitException stuck =
+        assertTimeoutPreemptively(java.time.Duration.ofMinutes(1),
+            () -> assertThrows(RejectionLimitException.class, () -> sampler.sample(rng(3))));
+    // log M = 0: the cap is max(100000, 100 e^0) = 100000
+    assertEquals(100_000, stuck.proposals());
+    assertTrue(stuck.getMessage().startsWith("fixed-envelope rejection: no proposal accepted"));
   }
 
   @Test
