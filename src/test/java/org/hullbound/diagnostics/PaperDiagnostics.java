@@ -1,5 +1,7 @@
 package org.hullbound.diagnostics;
 
+import static org.junit.jupiter.api.Assertions.assertEquals;
+
 import java.util.Arrays;
 import java.util.Comparator;
 import java.util.stream.IntStream;
@@ -251,5 +253,35 @@ public final class PaperDiagnostics {
     int lower = (int) Math.max(Math.floor(a1 * s), 1);
     int upper = (int) Math.min(Math.ceil(a2 * s), s);
     return (sorted[upper - 1] - sorted[lower - 1]) / 2;
+  }
+
+  /** Relative agreement required of the production diagnostics. */
+  public static final double RELATIVE = 1e-10;
+
+  /** Checks every production diagnostic of {@code chains} against this implementation. */
+  public static void assertAgreement(double[][] chains, String what) {
+    Draws draws = Draws.of(chains);
+    RankNormalizedRhat rhat = Rhat.rankNormalized(draws);
+    close(rhatBulk(chains), rhat.bulk(), what + ": bulk R-hat");
+    close(rhatTail(chains), rhat.tail(), what + ": tail R-hat");
+    close(essBulk(chains), EffectiveSampleSize.bulk(draws), what + ": bulk ESS");
+    close(essTail(chains), EffectiveSampleSize.tail(draws), what + ": tail ESS");
+    close(essMean(chains), EffectiveSampleSize.mean(draws), what + ": mean ESS");
+    close(
+        mcseMean(chains), MonteCarloStandardError.mean(draws), what + ": MCSE mean");
+    for (double p : new double[] {0.05, 0.5, 0.95}) {
+      close(
+          essQuantile(chains, p),
+          EffectiveSampleSize.quantile(draws, p),
+          what + ": ESS of the " + p + " quantile");
+      close(
+          mcseQuantile(chains, p),
+          MonteCarloStandardError.quantile(draws, p),
+          what + ": MCSE of the " + p + " quantile");
+    }
+  }
+
+  private static void close(double expected, double actual, String what) {
+    assertEquals(expected, actual, RELATIVE * Math.abs(expected), what);
   }
 }
