@@ -21,15 +21,15 @@ import org.junit.jupiter.params.provider.MethodSource;
  * alpha = {@value #ALPHA}, and fails only when more than {@value #ALLOWED_FAILURES} of them reject.
  *
  * <p>False-alarm rate of one case for an exact sampler: the count of rejections is Binomial(10,
- * 0.01), so P(count &gt;= 3) = 1 - (0.99^10 + 10 * 0.01 * 0.99^9 + 45 * 0.01^2 * 0.99^8) = 1 -
- * (0.904382 + 0.091352 + 0.004152) = 1.1e-4; over the {@code 2 * 11} cases about 2.5e-3. Seeds are
- * fixed, so the outcome is reproducible.
+ * 0.01), so P(count &gt;= 4) = sum over k &gt;= 4 of C(10, k) 0.01^k 0.99^(10 - k) = 1.98e-6 (the
+ * k = 4 term, 210 * 1e-8 * 0.99^6 = 1.977e-6, is nearly all of it); over the {@code 2 * 11} cases
+ * 4.4e-5. Seeds are fixed, so the outcome is reproducible.
  *
  * <p>Power: at n = 5000 the KS critical distance for alpha = 0.01 is 1.628 / sqrt(n) = 0.023
  * (asymptotic Kolmogorov quantile, common practice). A sampler whose CDF is off by 0.04 somewhere
  * has, at that point, an empirical CDF with standard deviation at most 0.5 / sqrt(n) = 0.0071, so
- * each test rejects with probability above P(Z &gt; -2.4) = 0.99 and 3 or more of 10 reject with
- * probability above 0.9999. (Checked by hand once: a reference normal with a 25% wider sd, a CDF
+ * each test rejects with probability above P(Z &gt; -2.4) = 0.99 and 4 or more of 10 reject with
+ * probability above 0.99999. (Checked by hand once: a reference normal with a 25% wider sd, a CDF
  * error of about 0.05, made both normal cases fail with 10 of 10 rejections.)
  */
 class GoodnessOfFitSuiteTest {
@@ -37,7 +37,7 @@ class GoodnessOfFitSuiteTest {
   static final int REPLICATES = 10;
   static final int SAMPLE_SIZE = 5000;
   static final double ALPHA = 0.01;
-  static final int ALLOWED_FAILURES = 2;
+  static final int ALLOWED_FAILURES = 3;
 
   static Stream<Arguments> cases() {
     List<Target> targets =

@@ -6,6 +6,7 @@ import org.apache.commons.math3.distribution.GammaDistribution;
 import org.apache.commons.math3.distribution.GumbelDistribution;
 import org.apache.commons.math3.distribution.LogisticDistribution;
 import org.apache.commons.math3.distribution.NormalDistribution;
+import org.apache.commons.math3.special.Erf;
 
 /**
  * A log-concave test density in both forms with its support and a reference distribution function
@@ -108,5 +109,42 @@ record Target(
         },
         support,
         reference::cumulativeProbability);
+  }
+
+  /**
+   * A flat top on [-1, 1] with normal shoulders of sd {@code sd} out to the bounds -b and b (b &gt;
+   * 1): h = 0 on the plateau and -(|x| - 1)^2 / (2 sd^2) beyond, concave with a continuous slope.
+   * Its CDF in closed form: the plateau is linear and each shoulder is a normal integral, sd
+   * sqrt(2 pi) (Phi((|x| - 1) / sd) - 1/2), with Phi from commons-math3 {@link Erf#erf}
+   * (Phi(z) = (1 + erf(z / sqrt 2)) / 2, Abramowitz and Stegun 1964, 7.1.1 and 26.2.29).
+   */
+  static Target plateau(double sd, double b) {
+    double shoulder = sd * Math.sqrt(Math.PI / 2) * Erf.erf((b - 1) / (sd * Math.sqrt(2)));
+    double total = 2 + 2 * shoulder;
+    DoubleUnaryOperator outer =
+        t -> sd * Math.sqrt(Math.PI / 2) * Erf.erf(t / (sd * Math.sqrt(2)));
+    return new Target(
+        "plateau(sd " + sd + ") on [" + -b + ", " + b + "]",
+        x -> {
+          double t = Math.abs(x) - 1;
+          if (t <= 0) {
+            return new Evaluation(0, 0);
+          }
+          return new Evaluation(-0.5 * t * t / (sd * sd), -Math.signum(x) * t / (sd * sd));
+        },
+        Support.between(-b, b),
+        x -> {
+          if (x <= -b) {
+            return 0;
+          }
+          if (x >= b) {
+            return 1;
+          }
+          double below =
+              x < -1
+                  ? shoulder - outer.applyAsDouble(-x - 1)
+                  : x <= 1 ? shoulder + (x + 1) : shoulder + 2 + outer.applyAsDouble(x - 1);
+          return below / total;
+        });
   }
 }

@@ -59,32 +59,32 @@ class SliceSamplerTest {
   @ParameterizedTest(name = "{0}")
   @MethodSource("targets")
   void oneTransitionFromExactDrawsKeepsTheTarget(Target target) {
-    // n = 20000 exact starts from commons-math3, one transition each, seed from the target's
+    // n = 32000 exact starts from commons-math3, one transition each, seed from the target's
     // name. (A first version used seed 1003 for every target and saw p = 7.6e-4 for the gamma;
     // five runs with n = 200000, ten times the sample, gave p between 0.35 and 0.95, so that was
     // the 1-in-1000 false alarm the level allows, not a bias.)
     SliceSampler slice = SliceSampler.of(target.logDensity(), target.lower(), target.upper(),
         target.width(), 50);
     MarkovChecks.Pairs pairs = MarkovChecks.oneStepFromExactStarts(
-        slice, target.reference()::sample, 20_000, MarkovChecks.rng(target.name().hashCode()));
+        slice, target.reference()::sample, 32_000, MarkovChecks.rng(target.name().hashCode()));
     double p = MarkovChecks.pValue(pairs, target.reference()::cumulativeProbability);
     assertTrue(p > GoodnessOfFit.LEVEL, "KS p-value " + p);
     // A slice transition moves with probability one.
-    assertEquals(20_000, pairs.moves());
+    assertEquals(32_000, pairs.moves());
     assertTrue(pairs.signTestPasses(), "up " + pairs.movesUp() + " of " + pairs.moves());
   }
 
   @ParameterizedTest(name = "{0}")
   @MethodSource("chainTargets")
   void longChainFromAFixedStartMatchesTheTarget(Target target, double start) {
-    // One chain, seed 77, 200 transitions of burn-in, then 5000 draws kept at thinning 20.
-    // KS at level 0.001 assumes independence: the test also requires the kept draws' lag-one
+    // One chain, seed 77, 200 transitions of burn-in, then 8000 draws kept at thinning 20.
+    // KS at level 1e-5 assumes independence: the test also requires the kept draws' lag-one
     // autocorrelation to be below 0.05, where the KS statistic's variance is inflated by at most
-    // (1 + 0.05) / (1 - 0.05) = 1.1, so the actual level stays of order 0.001-0.002. Power 0.99
-    // against a CDF error of 3.1 / sqrt(5000) = 0.044.
+    // (1 + 0.05) / (1 - 0.05) = 1.1, so the actual level stays below 2 exp(-2 * 2.47^2 / 1.1) =
+    // 3e-5. Power 0.99 against a CDF error of 3.64 / sqrt(8000) = 0.041.
     SliceSampler slice = SliceSampler.of(target.logDensity(), target.lower(), target.upper(),
         target.width(), 50);
-    double[] draws = MarkovChecks.thinnedChain(slice, start, 200, 20, 5000, MarkovChecks.rng(77));
+    double[] draws = MarkovChecks.thinnedChain(slice, start, 200, 20, 8000, MarkovChecks.rng(77));
     double rho = MarkovChecks.lagOneAutocorrelation(draws);
     assertTrue(Math.abs(rho) < 0.05, "lag-one autocorrelation of thinned draws " + rho);
     double p = GoodnessOfFit.ksPValue(draws, target.reference());
