@@ -11,6 +11,7 @@ import org.hullbound.io.TextFiles;
 import org.hullbound.lang.ModelFile;
 import org.hullbound.lang.Parser;
 import org.hullbound.lang.SourceText;
+import org.hullbound.model.BoundModel;
 import org.hullbound.model.DataTable;
 import org.hullbound.model.SimulationException;
 import org.hullbound.validation.Calibration;
@@ -88,7 +89,7 @@ public final class CalibrateCommand implements Callable<Integer> {
     ModelFile parsed = Parser.parse(SourceText.of(modelFile.toString(), text));
     List<DataTable> tables = new ArrayList<>();
     for (Path file : dataFiles) {
-      tables.add(CsvData.read(file));
+      tables.add(CsvData.read(file, BoundModel.readsColumn(parsed)));
     }
     CalibrationResult result;
     try {

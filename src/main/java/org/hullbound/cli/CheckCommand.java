@@ -56,7 +56,7 @@ public final class CheckCommand implements Callable<Integer> {
     ModelFile parsed = Parser.parse(SourceText.of(modelFile.toString(), text));
     List<DataTable> tables = new ArrayList<>();
     for (Path file : dataFiles) {
-      tables.add(CsvData.read(file));
+      tables.add(CsvData.read(file, BoundModel.readsColumn(parsed)));
     }
     BoundModel model = BoundModel.bind(parsed, tables);
     PrintWriter out = spec.commandLine().getOut();

@@ -476,7 +476,7 @@ public final class FitCommand implements Callable<Integer> {
     ModelFile parsed = Parser.parse(SourceText.of(modelFile.toString(), text));
     List<DataTable> tables = new ArrayList<>();
     for (Path file : dataFiles) {
-      tables.add(CsvData.read(file));
+      tables.add(CsvData.read(file, BoundModel.readsColumn(parsed)));
     }
     return BoundModel.bind(parsed, tables);
   }

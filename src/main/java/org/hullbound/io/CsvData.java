@@ -6,104 +6,150 @@ import java.io.StringReader;
 import java.io.UncheckedIOException;
 import java.nio.file.Path;
 import java.util.ArrayList;
-import java.util.Arrays;
 import java.util.List;
-import org.apache.commons.csv.CSVFormat;
-import org.apache.commons.csv.CSVParser;
-import org.apache.commons.csv.CSVRecord;
+import java.util.function.Predicate;
 import org.hullbound.lang.ModelException;
 import org.hullbound.lang.SourcePosition;
 import org.hullbound.model.DataTable;
 
 /**
- * Reads a data file (CSV with a header row, RFC 4180) into a {@link DataTable} for binding.
+ * Reads a data file (CSV with a header row, RFC 4180) into a {@link DataTable} for binding,
+ * streaming: the file is never held as text, and only the columns asked for are kept, as numbers.
  *
- * <p>Cells stay text, each row keeps the line it starts on, so that every later complaint can
- * name the file, the line and the cell. A row with a different number of cells than the header
- * is reported here, where the shape is known; what the columns mean is the binder's job.
+ * <p>Each row keeps the line it starts on, so that every later complaint can name the file, the
+ * line and the cell. A row with a different number of cells than the header is reported here,
+ * where the shape is known, for skipped columns too; what the columns mean is the binder's job.
+ *
+ * <p>Cells are split by {@link CsvRecords}, a tokenizer written for this rather than commons-csv's
+ * parser: it counts lines itself (a row's line is exact across quoted line breaks and skipped
+ * blank lines, with no table of line starts), names the line and cell of a quote never closed,
+ * and makes no string for a cell of a skipped column.
  */
 public final class CsvData {
-
-  private static final CSVFormat FORMAT =
-      CSVFormat.RFC4180.builder().setIgnoreEmptyLines(true).setTrim(true).get();
 
   private CsvData() {}
 
   /**
-   * Reads {@code file}; its name as given is used in messages.
+   * Reads {@code file} keeping every column; its name as given is used in messages.
    *
    * @throws UncheckedIOException when the file cannot be read
    * @throws ModelException when it is not valid CSV or a row is ragged
    */
   public static DataTable read(Path file) {
-    return parse(file.toString(), TextFiles.readUtf8(file, "data file"));
+    return read(file, column -> true);
   }
 
-  /** Reads CSV {@code text} as if it were the file called {@code fileName}. */
+  /**
+   * Reads {@code file} keeping the columns whose header cell {@code keep} accepts (as from {@code
+   * BoundModel.readsColumn}); the others are checked for shape only.
+   *
+   * @throws UncheckedIOException when the file cannot be read
+   * @throws ModelException when it is not valid CSV or a row is ragged
+   */
+  public static DataTable read(Path file, Predicate<String> keep) {
+    try (Reader reader = TextFiles.openUtf8(file, "data file")) {
+      return parse(file.toString(), reader, keep);
+    } catch (IOException e) {
+      throw new UncheckedIOException("cannot read data file " + file + ": " + e.getMessage(), e);
+    }
+  }
+
+  /** Reads CSV {@code text} as if it were the file called {@code fileName}, keeping every column. */
   public static DataTable parse(String fileName, String text) {
-    if (text.startsWith("\uFEFF")) {
-      text = text.substring(1);
+    return parse(fileName, new StringReader(text), column -> true);
+  }
+
+  /** A record of a CSV file as text: the line it starts on and its trimmed cells. */
+  public record TextRow(int line, List<String> cells) {
+    public TextRow {
+      cells = List.copyOf(cells);
     }
-    int[] lineStarts = lineStarts(text);
-    List<String> header = null;
-    List<DataTable.Row> rows = new ArrayList<>();
-    try (Reader reader = new StringReader(text);
-        CSVParser parser = CSVParser.builder().setReader(reader).setFormat(FORMAT).get()) {
-      for (CSVRecord record : parser) {
-        int line = lineOf(lineStarts, firstNonBlank(text, record.getCharacterPosition()));
-        List<String> cells = record.toList();
-        if (header == null) {
-          header = cells;
-          continue;
-        }
-        if (cells.size() != header.size()) {
-          int column = Math.min(cells.size(), header.size()) + 1;
-          throw new ModelException(
-              new SourcePosition(fileName, line, column),
-              null,
-              "this row has " + cells.size() + " cells but the header has " + header.size()
-                  + " columns, so the column lengths disagree",
-              "every row needs one cell per column; leave a cell empty or write NA when it is"
-                  + " missing");
-        }
-        rows.add(new DataTable.Row(line, cells));
-      }
-    } catch (IOException | UncheckedIOException | IllegalStateException e) {
-      throw new ModelException(
-          new SourcePosition(fileName, 1, 1), null, "not a valid CSV file: " + e.getMessage(),
-          null);
+  }
+
+  /**
+   * Every record of a small CSV file as text, the header first, for files of names and words
+   * rather than data (such as a validation case's reference values).
+   *
+   * @throws UncheckedIOException when the file cannot be read
+   * @throws ModelException when it is not valid CSV
+   */
+  public static List<TextRow> readText(Path file) {
+    List<TextRow> rows = new ArrayList<>();
+    List<String> cells = new ArrayList<>();
+    CsvRecords.Sink sink =
+        new CsvRecords.Sink() {
+          @Override
+          public boolean wants(int column) {
+            return true;
+          }
+
+          @Override
+          public void cell(int column, String text) {
+            cells.add(text.trim());
+          }
+
+          @Override
+          public void endRecord(int line, int cellCount) {
+            rows.add(new TextRow(line, cells));
+            cells.clear();
+          }
+        };
+    try (Reader reader = TextFiles.openUtf8(file, "file")) {
+      CsvRecords.read(reader, file.toString(), sink);
+    } catch (IOException e) {
+      throw new UncheckedIOException("cannot read " + file + ": " + e.getMessage(), e);
     }
-    if (header == null) {
+    return rows;
+  }
+
+  private static DataTable parse(String fileName, Reader reader, Predicate<String> keep) {
+    TableSink sink = new TableSink(fileName, keep);
+    try {
+      CsvRecords.read(reader, fileName, sink);
+    } catch (IOException e) {
+      throw new UncheckedIOException("cannot read data file " + fileName + ": " + e.getMessage(), e);
+    }
+    if (sink.table == null) {
       throw new ModelException(
           new SourcePosition(fileName, 1, 1), null, "the data file is empty; a header row is"
               + " needed", null);
     }
-    return new DataTable(fileName, header, rows);
+    return sink.table.build();
   }
 
-  private static int[] lineStarts(String text) {
-    List<Integer> starts = new ArrayList<>();
-    starts.add(0);
-    for (int i = 0; i < text.length(); i++) {
-      char c = text.charAt(i);
-      if (c == '\n' || (c == '\r' && (i + 1 >= text.length() || text.charAt(i + 1) != '\n'))) {
-        starts.add(i + 1);
+  /** Takes the first record as the header, then hands the kept cells of each row to a table. */
+  private static final class TableSink implements CsvRecords.Sink {
+    private final String fileName;
+    private final Predicate<String> keep;
+    private final List<String> header = new ArrayList<>();
+    private DataTable.Builder table;
+
+    TableSink(String fileName, Predicate<String> keep) {
+      this.fileName = fileName;
+      this.keep = keep;
+    }
+
+    @Override
+    public boolean wants(int column) {
+      return table == null || table.holds(column);
+    }
+
+    @Override
+    public void cell(int column, String text) {
+      if (table == null) {
+        header.add(text.trim());
+      } else {
+        table.cell(column, text);
       }
     }
-    return starts.stream().mapToInt(Integer::intValue).toArray();
-  }
 
-  /** Skips the blank lines the parser passed over before the record it reports at position. */
-  private static long firstNonBlank(String text, long position) {
-    int at = (int) position;
-    while (at < text.length() && (text.charAt(at) == '\n' || text.charAt(at) == '\r')) {
-      at++;
+    @Override
+    public void endRecord(int line, int cellCount) {
+      if (table == null) {
+        table = DataTable.builder(fileName, header, keep);
+      } else {
+        table.endRow(line, cellCount);
+      }
     }
-    return at;
-  }
-
-  private static int lineOf(int[] lineStarts, long position) {
-    int at = Arrays.binarySearch(lineStarts, (int) position);
-    return (at >= 0 ? at : -at - 2) + 1;
   }
 }

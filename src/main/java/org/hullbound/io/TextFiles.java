@@ -1,6 +1,8 @@
 package org.hullbound.io;
 
 import java.io.IOException;
+import java.io.InputStream;
+import java.io.Reader;
 import java.io.UncheckedIOException;
 import java.nio.ByteBuffer;
 import java.nio.CharBuffer;
@@ -17,7 +19,8 @@ import java.nio.file.Path;
  *
  * <p>The JDK's own failures say only "Is a directory" or "Input length = 1", which leave a user
  * guessing which of several files was meant; every reader of model, data and starting-value files
- * goes through here instead.
+ * goes through here instead. Data files, which may be far larger than the heap's share for text,
+ * are streamed through {@link #openUtf8} with the same checks and messages.
  */
 public final class TextFiles {
   private TextFiles() {}
@@ -58,6 +61,98 @@ public final class TextFiles {
     }
     decoder.flush(out);
     return out.flip().toString();
+  }
+
+  /**
+   * A reader of {@code file} as UTF-8 that decodes as it goes, so the text is never held whole;
+   * it fails as {@link #readUtf8} does, naming the file, when the file cannot be opened, is a
+   * folder, or holds bytes that are not UTF-8 (with their offset, found when reached).
+   *
+   * @param what what the file is, for messages ("data file")
+   * @throws UncheckedIOException naming the file, here or from the reader's methods
+   */
+  public static Reader openUtf8(Path file, String what) {
+    if (file == null || what == null) {
+      throw new IllegalArgumentException("file and what must not be null");
+    }
+    if (Files.isDirectory(file)) {
+      throw failure(file, what, "it is a folder, not a file", null);
+    }
+    try {
+      return new Utf8Reader(file, what, Files.newInputStream(file), Files.size(file));
+    } catch (IOException e) {
+      throw failure(file, what, String.valueOf(e.getMessage()), e);
+    }
+  }
+
+  /** Decodes UTF-8 from a stream, counting the bytes passed so an invalid one can be named. */
+  private static final class Utf8Reader extends Reader {
+    private final Path file;
+    private final String what;
+    private final InputStream in;
+    private final long total;
+    private final CharsetDecoder decoder =
+        StandardCharsets.UTF_8
+            .newDecoder()
+            .onMalformedInput(CodingErrorAction.REPORT)
+            .onUnmappableCharacter(CodingErrorAction.REPORT);
+    private final ByteBuffer bytes = ByteBuffer.allocate(1 << 16).flip();
+    private long passed;
+    private boolean endOfInput;
+    private boolean flushed;
+
+    Utf8Reader(Path file, String what, InputStream in, long total) {
+      this.file = file;
+      this.what = what;
+      this.in = in;
+      this.total = total;
+    }
+
+    @Override
+    public int read(char[] target, int offset, int length) {
+      if (length == 0) {
+        return 0;
+      }
+      CharBuffer out = CharBuffer.wrap(target, offset, length);
+      while (out.position() == offset && !flushed) {
+        CoderResult result = decoder.decode(bytes, out, endOfInput);
+        if (result.isError()) {
+          throw failure(file, what, "it is not UTF-8 text (byte " + (passed + bytes.position() + 1)
+              + " of " + total + " starts an invalid sequence)", null);
+        }
+        if (out.position() > offset) {
+          break;
+        }
+        if (endOfInput) {
+          decoder.flush(out);
+          flushed = true;
+        } else {
+          fill();
+        }
+      }
+      return out.position() > offset ? out.position() - offset : -1;
+    }
+
+    private void fill() {
+      passed += bytes.position();
+      bytes.compact();
+      try {
+        int n = in.read(bytes.array(), bytes.position(), bytes.remaining());
+        if (n < 0) {
+          endOfInput = true;
+        } else {
+          bytes.position(bytes.position() + n);
+        }
+      } catch (IOException e) {
+        throw failure(file, what, String.valueOf(e.getMessage()), e);
+      }
+      bytes.flip();
+    }
+
+    @Override
+    public void close() throws IOException {
+      in.close();
+    }
   }
 
   private static UncheckedIOException failure(Path file, String what, String why, IOException cause) {

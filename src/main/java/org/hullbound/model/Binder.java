@@ -1,6 +1,7 @@
 package org.hullbound.model;
 
 import java.util.ArrayList;
+import java.util.Arrays;
 import java.util.HashMap;
 import java.util.HashSet;
 import java.util.LinkedHashMap;
@@ -10,6 +11,7 @@ import java.util.Map;
 import java.util.Optional;
 import java.util.Set;
 import java.util.TreeSet;
+import java.util.function.Predicate;
 import org.hullbound.lang.Argument;
 import org.hullbound.lang.Declarator;
 import org.hullbound.lang.Distribution;
@@ -48,8 +50,6 @@ final class Binder {
       List<DataSummary> data,
       Map<String, Integer> nodeCounts) {}
 
-  private static final Set<String> MISSING_WORDS = Set.of("", "NA");
-
   private final ModelFile model;
   private final SourceText source;
   private final List<DataTable> tables;
@@ -58,6 +58,7 @@ final class Binder {
   private final Map<String, Node> nodes = new LinkedHashMap<>();
   private final Map<Node, Formula[]> letCache = new HashMap<>();
   private final List<DataSummary> summaries = new ArrayList<>();
+  private final Map<Node, List<ColumnBinding>> fileColumns = new HashMap<>();
   private String modelName;
 
   private Binder(ModelFile model, List<DataTable> tables) {
@@ -68,6 +69,24 @@ final class Binder {
 
   static Result bind(ModelFile model, List<DataTable> tables) {
     return new Binder(model, tables).run();
+  }
+
+  static Predicate<String> readsColumn(ModelFile model) {
+    Set<String> names = new HashSet<>();
+    for (Statement statement : model.statements()) {
+      if (statement instanceof Statement.Data data && data.inlineValues() == null) {
+        for (Declarator target : data.targets()) {
+          names.add(target.name().text());
+        }
+      }
+    }
+    return header -> names.contains(columnBase(header.trim()));
+  }
+
+  /** The data name a column's header cell refers to: the text before any {@code [}. */
+  private static String columnBase(String header) {
+    int bracket = header.indexOf('[');
+    return bracket < 0 ? header : header.substring(0, bracket).trim();
   }
 
   private Result run() {
@@ -82,6 +101,7 @@ final class Binder {
     bindInlineScalars();
     sizeDeclaredSets();
     Map<Node, List<ColumnBinding>> columns = readTableHeaders();
+    fileColumns.putAll(columns);
     sizeSetsFromInlineVectors();
     for (Map.Entry<String, Statement.Index> entry : indexStatements.entrySet()) {
       if (!sets.containsKey(entry.getKey())) {
@@ -401,7 +421,8 @@ final class Binder {
     node.values = new double[node.size];
     node.present = new boolean[node.size];
     node.missing = new boolean[node.size];
-    node.cells = new SourcePosition[node.size];
+    // Cells read from files find their position through the table's row lines instead (cellOf).
+    node.cells = from != null ? new SourcePosition[node.size] : null;
     node.source = from;
   }
 
@@ -463,11 +484,10 @@ final class Binder {
         if (!seen.add(header)) {
           throw error(at, "column '" + header + "' appears twice in the header", null);
         }
-        String base = header;
+        String base = columnBase(header);
         int[] trailing = new int[0];
         int bracket = header.indexOf('[');
         if (bracket >= 0) {
-          base = header.substring(0, bracket).trim();
           trailing = parseColumnIndexes(header, bracket, at);
         }
         Node node = nodes.get(base);
@@ -538,18 +558,7 @@ final class Binder {
       if (fileSet == null) {
         continue;
       }
-      for (DataTable.Row row : table.rows()) {
-        if (row.cells().size() != table.header().size()) {
-          int column = Math.min(row.cells().size(), table.header().size()) + 1;
-          throw error(
-              new SourcePosition(table.fileName(), row.line(), column),
-              "this row has " + row.cells().size() + " cells but the header has "
-                  + table.header().size() + " columns, so the column lengths disagree",
-              "every row needs one cell per column; leave a cell empty or write NA when it is"
-                  + " missing");
-        }
-      }
-      int rows = table.rows().size();
+      int rows = table.rowCount();
       IndexSet bound = sets.get(fileSet);
       SourcePosition fileStart = new SourcePosition(table.fileName(), 1, 1);
       if (bound != null) {
@@ -677,35 +686,29 @@ final class Binder {
       }
       int[] index = new int[node.indexSets.size()];
       for (ColumnBinding binding : bindings) {
-        node.source = binding.table().fileName();
-        List<DataTable.Row> rows = binding.table().rows();
-        for (int r = 0; r < rows.size(); r++) {
-          DataTable.Row row = rows.get(r);
+        DataTable table = binding.table();
+        node.source = table.fileName();
+        DataColumn column = table.column(binding.column());
+        for (int r = 0; r < table.rowCount(); r++) {
           index[0] = node.indexSets.get(0).lower() + r;
           System.arraycopy(binding.trailing(), 0, index, 1, binding.trailing().length);
           int e = node.offset(index);
-          SourcePosition at =
-              new SourcePosition(binding.table().fileName(), row.line(), binding.column() + 1);
-          String cell = binding.column() < row.cells().size()
-              ? row.cells().get(binding.column()).trim() : "";
-          boolean missing = MISSING_WORDS.contains(cell);
-          double value = Double.NaN;
-          if (!missing) {
-            try {
-              value = Double.parseDouble(cell);
-            } catch (NumberFormatException ex) {
-              value = Double.NaN;
-            }
-            if (!Double.isFinite(value)) {
-              throw error(
-                  at,
-                  "'" + cell + "' in column '" + binding.table().header().get(binding.column())
-                      + "' is not a number",
-                  "write a finite number, or NA (or leave the cell empty) for a missing"
-                      + " observation");
-            }
+          boolean missing = column.missing(r);
+          double value = column.value(r);
+          if (column.invalid(r)) {
+            throw error(
+                cellAt(binding, r),
+                "'" + column.firstInvalidText() + "' in column '"
+                    + table.header().get(binding.column()) + "' is not a number",
+                "write a finite number, or NA (or leave the cell empty) for a missing"
+                    + " observation");
           }
-          store(node, e, missing, value, at, cell.isEmpty() ? "an empty cell" : "'" + cell + "'");
+          if (missing && !node.modelled()) {
+            throw missingCovariate(node, e, cellAt(binding, r), column.shown(r));
+          }
+          node.present[e] = true;
+          node.missing[e] = missing;
+          node.values[e] = value;
         }
       }
       for (int e = 0; e < node.size; e++) {
@@ -737,16 +740,43 @@ final class Binder {
   private void store(
       Node node, int e, boolean missing, double value, SourcePosition at, String shown) {
     if (missing && !node.modelled()) {
-      throw error(
-          at,
-          "missing value (" + shown + ") for covariate '" + node.label(e)
-              + "'; only modelled data (with a ~ line) may be missing",
-          "fill in the value, or drop the row");
+      throw missingCovariate(node, e, at, shown);
     }
     node.present[e] = true;
     node.missing[e] = missing;
     node.values[e] = value;
     node.cells[e] = at;
+  }
+
+  private ModelException missingCovariate(Node node, int e, SourcePosition at, String shown) {
+    return error(
+        at,
+        "missing value (" + shown + ") for covariate '" + node.label(e)
+            + "'; only modelled data (with a ~ line) may be missing",
+        "fill in the value, or drop the row");
+  }
+
+  private static SourcePosition cellAt(ColumnBinding binding, int row) {
+    return new SourcePosition(
+        binding.table().fileName(), binding.table().line(row), binding.column() + 1);
+  }
+
+  /**
+   * Where element {@code e} of data {@code node} was written: its inline value, or the cell of
+   * the last column read into it (rows give the first index, the column the others).
+   */
+  private SourcePosition cellOf(Node node, int e) {
+    if (node.cells != null) {
+      return node.cells[e];
+    }
+    int[] index = node.index(e);
+    ColumnBinding found = null;
+    for (ColumnBinding binding : fileColumns.getOrDefault(node, List.of())) {
+      if (Arrays.equals(binding.trailing(), 0, binding.trailing().length, index, 1, index.length)) {
+        found = binding;
+      }
+    }
+    return found == null ? null : cellAt(found, index[0] - node.indexSets.get(0).lower());
   }
 
   private String exampleColumn(Node node) {
@@ -936,7 +966,7 @@ final class Binder {
         if (node.missing[offset]) {
           return new Formula.Slot(node.slots[offset]);
         }
-        return new Formula.Constant(node.values[offset], node.cells[offset]);
+        return new Formula.Constant(node.values[offset], cellOf(node, offset));
       case PARAM:
         return new Formula.Slot(node.slots[offset]);
       default:
@@ -1076,13 +1106,14 @@ final class Binder {
       value = new Formula.Slot(slot);
     } else {
       double y = node.values[e];
-      value = new Formula.Constant(y, node.cells[e]);
+      SourcePosition cell = cellOf(node, e);
+      value = new Formula.Constant(y, cell);
       String problem = outsideSupport(y, p, known, allKnown);
       if (problem == null && truncated && !(y >= lower && y <= upper)) {
         problem = "it lies outside within " + number(lower) + " .. " + number(upper);
       }
       if (problem != null) {
-        SourcePosition at = node.cells[e] != null ? node.cells[e] : node.position();
+        SourcePosition at = cell != null ? cell : node.position();
         throw error(at, "'" + label + "' = " + number(y) + " is not a valid value of "
             + p.family().name() + ": " + problem, null);
       }

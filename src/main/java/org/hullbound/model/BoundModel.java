@@ -6,6 +6,7 @@ import java.util.List;
 import java.util.Map;
 import java.util.Set;
 import java.util.concurrent.atomic.AtomicReferenceArray;
+import java.util.function.Predicate;
 import org.hullbound.lang.ModelException;
 import org.hullbound.lang.ModelFile;
 
@@ -143,6 +144,15 @@ public final class BoundModel {
       throw new IllegalArgumentException("data must not be null (use an empty list)");
     }
     return new BoundModel(Binder.bind(model, data));
+  }
+
+  /**
+   * Which header cells of a data file name a column {@code model} reads: those whose name (before
+   * any {@code [..]}) is data declared without inline values. A reader keeps only these; every
+   * other column is a fault that binding reports from the header alone, so nothing is lost.
+   */
+  public static Predicate<String> readsColumn(ModelFile model) {
+    return Binder.readsColumn(model);
   }
 
   /** The model's name, from its {@code model} statement or its file name. */

@@ -11,6 +11,7 @@ import org.apache.commons.math3.distribution.CauchyDistribution;
 import org.apache.commons.math3.distribution.NormalDistribution;
 import org.apache.commons.math3.distribution.TDistribution;
 import org.hullbound.io.CsvData;
+import org.hullbound.model.DataColumn;
 import org.hullbound.model.DataTable;
 
 /**
@@ -187,9 +188,15 @@ final class QuadratureReferences {
       throw new IllegalArgumentException(
           table.fileName() + " must have a column '" + name + "', got " + header);
     }
-    double[] values = new double[table.rows().size()];
+    DataColumn column = table.column(k);
+    double[] values = new double[table.rowCount()];
     for (int r = 0; r < values.length; r++) {
-      values[r] = Double.parseDouble(table.rows().get(r).cells().get(k).trim());
+      if (Double.isNaN(column.value(r))) {
+        throw new IllegalArgumentException(
+            table.fileName() + ":" + table.line(r) + ": column '" + name + "' holds "
+                + column.shown(r) + ", not a number");
+      }
+      values[r] = column.value(r);
     }
     return values;
   }

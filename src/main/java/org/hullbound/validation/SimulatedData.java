@@ -19,7 +19,7 @@ import org.hullbound.model.SimulationException;
  * line and column of the cell) and in the model's inline data (by position), so that the model can
  * be bound again to data simulated from itself.
  *
- * <p>Why at the text level: binding folds data into constants, so the honest way to a model of
+ * <p>Why at the level of the tables: binding folds data into constants, so the honest way to a model of
  * the simulated data is to bind it afresh, exactly as a user's data would be.
  */
 final class SimulatedData {
@@ -42,20 +42,31 @@ final class SimulatedData {
     Set<SourcePosition> used = new HashSet<>();
     List<DataTable> newTables = new ArrayList<>();
     for (DataTable table : tables) {
-      List<DataTable.Row> rows = new ArrayList<>();
-      for (DataTable.Row row : table.rows()) {
-        List<String> cells = new ArrayList<>(row.cells());
-        for (int j = 0; j < cells.size(); j++) {
-          SourcePosition at = new SourcePosition(table.fileName(), row.line(), j + 1);
+      List<Integer> rows = new ArrayList<>();
+      List<Integer> columns = new ArrayList<>();
+      List<Double> numbers = new ArrayList<>();
+      for (int r = 0; r < table.rowCount(); r++) {
+        for (int j = 0; j < table.header().size(); j++) {
+          SourcePosition at = new SourcePosition(table.fileName(), table.line(r), j + 1);
           SimulatedValue v = byOrigin.get(at);
           if (v != null) {
-            cells.set(j, text(v.value()));
+            if (!Double.isFinite(v.value()) || !table.holds(j)) {
+              throw new SimulationException(
+                  "cannot write the simulated value " + v.value() + " of '" + v.label()
+                      + "' back to " + at);
+            }
+            rows.add(r);
+            columns.add(j);
+            numbers.add(v.value());
             used.add(at);
           }
         }
-        rows.add(new DataTable.Row(row.line(), cells));
       }
-      newTables.add(new DataTable(table.fileName(), table.header(), rows));
+      newTables.add(
+          table.withNumbers(
+              rows.stream().mapToInt(Integer::intValue).toArray(),
+              columns.stream().mapToInt(Integer::intValue).toArray(),
+              numbers.stream().mapToDouble(Double::doubleValue).toArray()));
     }
     List<Statement> statements = new ArrayList<>();
     for (Statement statement : model.statements()) {
@@ -140,13 +151,5 @@ final class SimulatedData {
     } else if (e instanceof Expression.Sum sum) {
       collect(sum.body(), into);
     }
-  }
-
-  /** Whole numbers without a decimal point (counts), others exactly (shortest round trip). */
-  private static String text(double v) {
-    if (v == Math.rint(v) && Math.abs(v) < 1e15) {
-      return Long.toString((long) v);
-    }
-    return Double.toString(v);
   }
 }

@@ -4,7 +4,9 @@ import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
+import java.io.IOException;
 import java.io.UncheckedIOException;
+import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.List;
 import org.hullbound.lang.ModelException;
@@ -12,12 +14,15 @@ import org.hullbound.lang.Parser;
 import org.hullbound.model.BoundModel;
 import org.hullbound.model.DataTable;
 import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
 
 /**
  * Reading data CSV (RFC 4180) into tables, and data errors end to end: each names the file, the
  * line of the row and the column number of the cell.
  */
 class CsvDataTest {
+
+  @TempDir Path folder;
 
   private static final String MODEL =
       String.join(
@@ -46,14 +51,99 @@ class CsvDataTest {
   @Test
   void readsHeaderRowsAndTheLineOfEachRow() {
     DataTable table =
-        CsvData.parse("a.csv", "\uFEFFx,\"label, quoted\"\n1,\"two\nlines\"\n\n3, four \n");
-    assertEquals(List.of("x", "label, quoted"), table.header());
-    assertEquals(2, table.rows().size());
-    assertEquals(2, table.rows().get(0).line());
-    assertEquals(List.of("1", "two\nlines"), table.rows().get(0).cells());
+        CsvData.parse("a.csv", "\uFEFFx,\"y, quoted\"\n1,\" 2\n\"\n\n3, 4.5 \nNA,\n");
+    assertEquals(List.of("x", "y, quoted"), table.header());
+    assertEquals(3, table.rowCount());
+    assertEquals(2, table.line(0));
+    assertEquals(1.0, table.column(0).value(0));
+    assertEquals(2.0, table.column(1).value(0));
     // The quoted newline and the blank line are counted: the third record starts on line 5.
-    assertEquals(5, table.rows().get(1).line());
-    assertEquals(List.of("3", "four"), table.rows().get(1).cells());
+    assertEquals(5, table.line(1));
+    assertEquals(4.5, table.column(1).value(1));
+    assertEquals(6, table.line(2));
+    assertTrue(table.column(0).missing(2));
+    assertEquals("'NA'", table.column(0).shown(2));
+    assertEquals("an empty cell", table.column(1).shown(2));
+  }
+
+  @Test
+  void everyLineBreakCountsOnceInsideAndOutsideQuotes() {
+    // RFC 4180 section 2: CRLF ends a record, a quoted cell may hold line breaks; LF and a lone
+    // CR are read as line breaks too (common practice, as commons-csv does).
+    DataTable table = CsvData.parse("a.csv", "x,y\r\n1,\"a\r\nb\rc\"\r2,3\n\r\n4,5");
+    assertEquals(3, table.rowCount());
+    assertEquals(2, table.line(0));
+    assertEquals(5, table.line(1));
+    assertEquals(7, table.line(2));
+    assertTrue(table.column(1).invalid(0));
+    assertEquals("'a\r\nb\rc'", table.column(1).shown(0));
+  }
+
+  @Test
+  void keepsOnlyTheColumnsAskedForAsPrimitiveNumbers() {
+    StringBuilder csv = new StringBuilder("c1,c2,c3,c4,c5,c6,c7,c8,c9,c10\n");
+    for (int r = 0; r < 3; r++) {
+      for (int j = 1; j <= 10; j++) {
+        csv.append(j == 1 ? "" : ",").append(j == 7 ? "\"text, with a comma\"" : r * 10 + j);
+      }
+      csv.append('\n');
+    }
+    Path file = write(csv.toString());
+    DataTable table = CsvData.read(file, column -> column.equals("c2") || column.equals("c9"));
+    assertEquals(10, table.header().size());
+    assertEquals(2, table.heldColumnCount());
+    assertTrue(table.holds(1) && table.holds(8) && !table.holds(0) && !table.holds(6));
+    assertEquals(22.0, table.column(1).value(2));
+    assertEquals(19.0, table.column(8).value(1));
+    assertThrows(IllegalArgumentException.class, () -> table.column(6));
+  }
+
+  @Test
+  void aRaggedRowIsReportedEvenWhenItsColumnsAreSkipped() {
+    Path file = write("x,y,z\n1,2,3\n4,5\n");
+    ModelException e =
+        assertThrows(ModelException.class, () -> CsvData.read(file, column -> column.equals("x")));
+    at(e, file.toString(), 3, 3, "this row has 2 cells but the header has 3 columns");
+  }
+
+  @Test
+  void aQuoteNeverClosedIsReportedWhereItOpens() {
+    ModelException e =
+        assertThrows(ModelException.class, () -> CsvData.parse("a.csv", "x,y\n1,2\n3,\"4\n5,6\n"));
+    at(e, "a.csv", 3, 2, "not a valid CSV file: the quote that opens this cell is never closed");
+  }
+
+  @Test
+  void textAfterAClosingQuoteIsReportedAtItsCell() {
+    ModelException e =
+        assertThrows(ModelException.class, () -> CsvData.parse("a.csv", "x,y\n1,\"2\"3\n"));
+    at(e, "a.csv", 2, 2, "'3' follows the closing quote of this cell");
+    // Blanks after the closing quote are allowed (commons-csv's RFC 4180 format does the same).
+    assertEquals(2.0, CsvData.parse("a.csv", "x,y\n1,\"2\"  \n").column(1).value(0));
+  }
+
+  @Test
+  void bytesThatAreNotUtf8AreNamedByTheirOffset() throws IOException {
+    Path file = Files.createTempFile(folder, "bytes", ".csv");
+    Files.write(file, new byte[] {'x', '\n', '1', '\n', (byte) 0xC3, '(', '\n'});
+    UncheckedIOException e = assertThrows(UncheckedIOException.class, () -> CsvData.read(file));
+    assertTrue(e.getMessage().contains("not UTF-8 text (byte 5 of 7"), e.getMessage());
+  }
+
+  @Test
+  void aNonNumberCellIsReportedWithItsTextAtItsCell() {
+    ModelException e = dataError("planted,bench_of,survived\n10,1,3\n10,2,4\n1O,2,4\n");
+    at(e, "trays.csv", 4, 1, "'1O' in column 'planted' is not a number");
+  }
+
+  private Path write(String text) {
+    try {
+      Path file = Files.createTempFile(folder, "data", ".csv");
+      Files.writeString(file, text);
+      return file;
+    } catch (IOException e) {
+      throw new UncheckedIOException(e);
+    }
   }
 
   @Test
