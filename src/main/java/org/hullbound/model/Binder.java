@@ -59,6 +59,7 @@ final class Binder {
   private final Map<Node, Formula[]> letCache = new HashMap<>();
   private final List<DataSummary> summaries = new ArrayList<>();
   private final Map<Node, List<ColumnBinding>> fileColumns = new HashMap<>();
+  private Formula.Slot[] slotFormulas = new Formula.Slot[16];
   private String modelName;
 
   private Binder(ModelFile model, List<DataTable> tables) {
@@ -964,11 +965,11 @@ final class Binder {
               + " here", null);
         }
         if (node.missing[offset]) {
-          return new Formula.Slot(node.slots[offset]);
+          return slot(node.slots[offset]);
         }
         return new Formula.Constant(node.values[offset], cellOf(node, offset));
       case PARAM:
-        return new Formula.Slot(node.slots[offset]);
+        return slot(node.slots[offset]);
       default:
         Formula[] cache = letCache.computeIfAbsent(node, k -> new Formula[k.size]);
         if (cache[offset] == null) {
@@ -980,6 +981,20 @@ final class Binder {
         }
         return cache[offset];
     }
+  }
+
+  /**
+   * The one {@link Formula.Slot} of unknown {@code index}: a term per data row refers to the same
+   * few unknowns, and a copy per reference would cost 16 bytes each.
+   */
+  private Formula.Slot slot(int index) {
+    if (index >= slotFormulas.length) {
+      slotFormulas = Arrays.copyOf(slotFormulas, Math.max(index + 1, 2 * slotFormulas.length));
+    }
+    if (slotFormulas[index] == null) {
+      slotFormulas[index] = new Formula.Slot(index);
+    }
+    return slotFormulas[index];
   }
 
   // ---- terms ----
@@ -1103,7 +1118,7 @@ final class Binder {
     int slot = node.slots[e];
     Formula value;
     if (slot >= 0) {
-      value = new Formula.Slot(slot);
+      value = slot(slot);
     } else {
       double y = node.values[e];
       SourcePosition cell = cellOf(node, e);
