@@ -54,7 +54,7 @@ public final class CsvData {
     }
   }
 
-  /** Reads CSV {@code text} as if it were the file called {@code fileName}, keeping every column. */
+  /** Reads CSV {@code text} as if it were the file {@code fileName}, keeping every column. */
   public static DataTable parse(String fileName, String text) {
     return parse(fileName, new StringReader(text), column -> true);
   }
@@ -107,7 +107,8 @@ public final class CsvData {
     try {
       CsvRecords.read(reader, fileName, sink);
     } catch (IOException e) {
-      throw new UncheckedIOException("cannot read data file " + fileName + ": " + e.getMessage(), e);
+      throw new UncheckedIOException(
+          "cannot read data file " + fileName + ": " + e.getMessage(), e);
     }
     if (sink.table == null) {
       throw new ModelException(

@@ -47,11 +47,7 @@ public final class TextFiles {
     } catch (OutOfMemoryError tooLarge) {
       throw failure(file, what, "it is too large to read into memory", null);
     }
-    CharsetDecoder decoder =
-        StandardCharsets.UTF_8
-            .newDecoder()
-            .onMalformedInput(CodingErrorAction.REPORT)
-            .onUnmappableCharacter(CodingErrorAction.REPORT);
+    CharsetDecoder decoder = strictDecoder();
     ByteBuffer in = ByteBuffer.wrap(bytes);
     CharBuffer out = CharBuffer.allocate(bytes.length);
     CoderResult result = decoder.decode(in, out, true);
@@ -91,11 +87,7 @@ public final class TextFiles {
     private final String what;
     private final InputStream in;
     private final long total;
-    private final CharsetDecoder decoder =
-        StandardCharsets.UTF_8
-            .newDecoder()
-            .onMalformedInput(CodingErrorAction.REPORT)
-            .onUnmappableCharacter(CodingErrorAction.REPORT);
+    private final CharsetDecoder decoder = strictDecoder();
     private final ByteBuffer bytes = ByteBuffer.allocate(1 << 16).flip();
     private long passed;
     private boolean endOfInput;
@@ -153,6 +145,14 @@ public final class TextFiles {
     public void close() throws IOException {
       in.close();
     }
+  }
+
+  /** A UTF-8 decoder that reports malformed input instead of replacing it. */
+  private static CharsetDecoder strictDecoder() {
+    return StandardCharsets.UTF_8
+        .newDecoder()
+        .onMalformedInput(CodingErrorAction.REPORT)
+        .onUnmappableCharacter(CodingErrorAction.REPORT);
   }
 
   private static UncheckedIOException failure(Path file, String what, String why, IOException cause) {

@@ -2,6 +2,7 @@ package org.hullbound.model;
 
 import java.util.Arrays;
 import java.util.BitSet;
+import java.util.function.Supplier;
 
 /**
  * One column of a data file as numbers, row by row: each cell is a finite number, missing (empty
@@ -13,8 +14,9 @@ import java.util.BitSet;
  * keeps its text: binding stops at it with a message quoting it, so later ones are never shown.
  */
 public final class DataColumn {
-  private static final int CHUNK_BITS = 14;
-  private static final int CHUNK = 1 << CHUNK_BITS;
+  /** Rows per chunk, as a power of two: 16,384 rows, 128 KB of doubles. */
+  static final int CHUNK_BITS = 14;
+  static final int CHUNK = 1 << CHUNK_BITS;
 
   private final double[][] chunks;
   private final int size;
@@ -126,6 +128,18 @@ public final class DataColumn {
         copy, size, newMissing, newNa, invalidRow, invalidRow < 0 ? null : firstInvalidText);
   }
 
+  /**
+   * {@code chunks}, doubled in length when {@code index} is past its end, with chunk {@code index}
+   * made by {@code make} when absent: storage that grows without copying the rows it holds.
+   */
+  static <A> A[] withChunk(A[] chunks, int index, Supplier<A> make) {
+    A[] grown = index < chunks.length ? chunks : Arrays.copyOf(chunks, 2 * chunks.length);
+    if (grown[index] == null) {
+      grown[index] = make.get();
+    }
+    return grown;
+  }
+
   private void checkRow(int row) {
     if (row < 0 || row >= size) {
       throw new IndexOutOfBoundsException("row " + row + " of " + size);
@@ -157,14 +171,8 @@ public final class DataColumn {
           firstInvalidText = cell;
         }
       }
-      int chunk = size >>> CHUNK_BITS;
-      if (chunk == chunks.length) {
-        chunks = Arrays.copyOf(chunks, 2 * chunks.length);
-      }
-      if (chunks[chunk] == null) {
-        chunks[chunk] = new double[CHUNK];
-      }
-      chunks[chunk][size & (CHUNK - 1)] = value;
+      chunks = withChunk(chunks, size >>> CHUNK_BITS, () -> new double[CHUNK]);
+      chunks[size >>> CHUNK_BITS][size & (CHUNK - 1)] = value;
       size++;
     }
 

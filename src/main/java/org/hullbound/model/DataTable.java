@@ -23,8 +23,8 @@ import org.hullbound.lang.SourcePosition;
  * </table>
  */
 public final class DataTable {
-  private static final int CHUNK_BITS = 14;
-  private static final int CHUNK = 1 << CHUNK_BITS;
+  private static final int CHUNK_BITS = DataColumn.CHUNK_BITS;
+  private static final int CHUNK = DataColumn.CHUNK;
 
   private final String fileName;
   private final List<String> header;
@@ -193,14 +193,8 @@ public final class DataTable {
             "every row needs one cell per column; leave a cell empty or write NA when it is"
                 + " missing");
       }
-      int chunk = rowCount >>> CHUNK_BITS;
-      if (chunk == lineChunks.length) {
-        lineChunks = Arrays.copyOf(lineChunks, 2 * lineChunks.length);
-      }
-      if (lineChunks[chunk] == null) {
-        lineChunks[chunk] = new int[CHUNK];
-      }
-      lineChunks[chunk][rowCount & (CHUNK - 1)] = line;
+      lineChunks = DataColumn.withChunk(lineChunks, rowCount >>> CHUNK_BITS, () -> new int[CHUNK]);
+      lineChunks[rowCount >>> CHUNK_BITS][rowCount & (CHUNK - 1)] = line;
       rowCount++;
     }
 
