@@ -75,7 +75,7 @@ public final class DataTable {
     return fileName;
   }
 
-  /** The header cells, as written (trimmed). */
+  /** The header cells, as read (a reader trims them). */
   public List<String> header() {
     return header;
   }

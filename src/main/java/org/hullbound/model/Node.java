@@ -39,6 +39,7 @@ final class Node {
   double[] values;
   boolean[] present;
   boolean[] missing;
+  /** Positions of inline values; {@code null} for data read from files (see Binder.cellOf). */
   SourcePosition[] cells;
   int[] slots;
   String source;
