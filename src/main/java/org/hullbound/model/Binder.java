@@ -1,6 +1,7 @@
 package org.hullbound.model;
 
 import java.util.ArrayList;
+import java.util.Arrays;
 import java.util.HashMap;
 import java.util.HashSet;
 import java.util.LinkedHashMap;
@@ -446,6 +447,7 @@ final class Binder {
     Map<String, String> setRowsFrom = new HashMap<>();
     Map<String, Integer> setRows = new HashMap<>();
     Map<String, Integer> trailingMax = new HashMap<>();
+    Map<String, String> fileOfColumn = new HashMap<>();
     Set<String> dataNames = new TreeSet<>();
     for (Node n : nodes.values()) {
       if (n.kind == Node.Kind.DATA) {
@@ -530,6 +532,15 @@ final class Binder {
             }
             trailingMax.merge(trailingSet, trailing[t], Math::max);
           }
+        }
+        String earlierFile =
+            fileOfColumn.putIfAbsent(base + Arrays.toString(trailing), table.fileName());
+        if (earlierFile != null && !earlierFile.equals(table.fileName())) {
+          // Reading both would let the order of the --data options decide which values count.
+          throw error(
+              at,
+              "column '" + header + "' is in both " + earlierFile + " and " + table.fileName(),
+              "give each column in one data file only");
         }
         columns.computeIfAbsent(node, k -> new ArrayList<>())
             .add(new ColumnBinding(table, j, node, trailing));
@@ -1046,6 +1057,17 @@ final class Binder {
     double[] known = new double[args.size()];
     for (int k = 0; k < known.length; k++) {
       known[k] = args.get(k) instanceof Formula.Constant c ? c.value() : Double.NaN;
+    }
+    for (int k = 0; k < known.length; k++) {
+      String problem = args.get(k) instanceof Formula.Constant c ? p.checkArgument(k, c.value())
+          : null;
+      if (problem != null) {
+        SourcePosition origin = ((Formula.Constant) args.get(k)).origin();
+        throw error(
+            origin != null ? origin : node.argumentExpressions[k].position(),
+            "invalid arguments of " + p.family().name() + " for '" + label + "': " + problem,
+            null);
+      }
     }
     if (allKnown) {
       String problem = p.checkArguments(known);
