@@ -11,6 +11,7 @@ import org.apache.commons.csv.CSVFormat;
 import org.apache.commons.csv.CSVParser;
 import org.apache.commons.csv.CSVRecord;
 import org.hullbound.lang.ModelException;
+import org.hullbound.lang.NumberSyntax;
 import org.hullbound.lang.SourceText;
 
 /**
@@ -66,11 +67,13 @@ public final class InitialValuesFile {
         }
         double number;
         try {
-          number = Double.parseDouble(value);
-        } catch (NumberFormatException notNumber) {
+          number = NumberSyntax.parse(value);
+        } catch (NumberSyntax.InvalidNumberException notNumber) {
           throw ModelException.at(
               source, source.position(lineNumber, columnOfSecondField(source, lineNumber)),
-              "expected a number as the value of '" + name + "', got '" + value + "'", null);
+              "expected a number as the value of '" + name + "', got '" + value + "', which "
+                  + notNumber.reason(),
+              notNumber.hint());
         }
         if (!Double.isFinite(number)) {
           throw ModelException.at(

@@ -20,6 +20,7 @@ import org.hullbound.lang.Identifier;
 import org.hullbound.lang.ModelException;
 import org.hullbound.lang.ModelFile;
 import org.hullbound.lang.NameSuggestion;
+import org.hullbound.lang.NumberSyntax;
 import org.hullbound.lang.SourcePosition;
 import org.hullbound.lang.SourceText;
 import org.hullbound.lang.Statement;
@@ -702,18 +703,20 @@ final class Binder {
           boolean missing = MISSING_WORDS.contains(cell);
           double value = Double.NaN;
           if (!missing) {
+            String reason;
             try {
-              value = Double.parseDouble(cell);
-            } catch (NumberFormatException ex) {
-              value = Double.NaN;
+              value = NumberSyntax.parse(cell);
+              reason = Double.isFinite(value) ? null : "is not a finite number";
+            } catch (NumberSyntax.InvalidNumberException ex) {
+              reason = ex.reason();
             }
-            if (!Double.isFinite(value)) {
+            if (reason != null) {
               throw error(
                   at,
                   "'" + cell + "' in column '" + binding.table().header().get(binding.column())
-                      + "' is not a number",
-                  "write a finite number, or NA (or leave the cell empty) for a missing"
-                      + " observation");
+                      + "' " + reason,
+                  "write a finite number (" + NumberSyntax.FORMS + "), or NA (or leave the cell"
+                      + " empty) for a missing observation");
             }
           }
           store(node, e, missing, value, at, cell.isEmpty() ? "an empty cell" : "'" + cell + "'");

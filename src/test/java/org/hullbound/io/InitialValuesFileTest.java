@@ -42,4 +42,17 @@ class InitialValuesFileTest {
     assertTrue(short_.problem().contains("two fields"));
     assertThrows(ModelException.class, () -> InitialValuesFile.parse("i.csv", "a,inf\n"));
   }
+
+  @org.junit.jupiter.params.ParameterizedTest
+  @org.junit.jupiter.params.provider.ValueSource(strings = {"22d", "2.2e1f", "0x1.6p4", "1e999"})
+  void javaNumberFormsAndOverflowAreRefusedAtTheValue(String written) {
+    // Double.parseDouble reads the first three as 22 and the last as infinity (Java SE
+    // Double.valueOf grammar); the model language's grammar (docs/model-language.md) has none.
+    ModelException e =
+        assertThrows(
+            ModelException.class,
+            () -> InitialValuesFile.parse("init.csv", "spread," + written + "\n"));
+    assertEquals("init.csv:1:8", e.position().toString());
+    assertTrue(e.problem().contains("'" + written + "'"), e.problem());
+  }
 }
