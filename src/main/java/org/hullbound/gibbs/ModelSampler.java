@@ -57,6 +57,7 @@ public final class ModelSampler {
 
   private static ModelSampler build(BoundModel model, Map<String, Double> given, boolean blocks) {
     List<Unknown> unknowns = model.unknowns();
+    model.requireUnknowns();
     List<String> labels = new ArrayList<>();
     for (Unknown unknown : unknowns) {
       labels.add(unknown.label());

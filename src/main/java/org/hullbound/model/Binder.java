@@ -41,6 +41,7 @@ final class Binder {
   /** What binding produces, consumed by {@link BoundModel}. */
   record Result(
       String name,
+      String fileName,
       List<IndexSet> indexSets,
       List<Term> terms,
       List<String> labels,
@@ -95,13 +96,25 @@ final class Binder {
     }
     for (Node node : nodes.values()) {
       node.indexSets = new ArrayList<>();
-      int size = 1;
+      long size = 1;
+      List<String> factors = new ArrayList<>();
       for (Identifier set : node.target.indexSets()) {
         IndexSet bound = sets.get(set.text());
         node.indexSets.add(bound);
-        size *= bound.size();
+        factors.add(Integer.toString(bound.size()));
+        // Both factors are below 2^31, so the product of the running size (capped at 2^31 below)
+        // and the next one fits in a long.
+        size = Math.min(size * bound.size(), Integer.MAX_VALUE + 1L);
       }
-      node.size = size;
+      if (size > Integer.MAX_VALUE) {
+        throw error(
+            node.target.position(),
+            "'" + node.name() + "' runs over " + setList(node.target.indexSets()) + " with "
+                + String.join(" x ", factors) + " elements, more than the " + Integer.MAX_VALUE
+                + " one quantity can hold",
+            "use smaller index sets");
+      }
+      node.size = (int) size;
     }
     bindDataValues(columns);
     return build();
@@ -1023,6 +1036,7 @@ final class Binder {
     }
     return new Result(
         modelName,
+        source.fileName(),
         orderedSets,
         terms,
         labels,

@@ -8,6 +8,7 @@ import java.util.Set;
 import java.util.concurrent.atomic.AtomicReferenceArray;
 import org.hullbound.lang.ModelException;
 import org.hullbound.lang.ModelFile;
+import org.hullbound.lang.SourcePosition;
 
 /**
  * A model bound to its data: index sets sized, data read and checked, and a graph of data,
@@ -33,6 +34,7 @@ import org.hullbound.lang.ModelFile;
  */
 public final class BoundModel {
   private final String name;
+  private final String fileName;
   private final List<IndexSet> indexSets;
   private final List<Term> terms;
   private final List<Unknown> unknowns;
@@ -53,6 +55,7 @@ public final class BoundModel {
 
   private BoundModel(Binder.Result result) {
     this.name = result.name();
+    this.fileName = result.fileName();
     this.indexSets = List.copyOf(result.indexSets());
     this.terms = List.copyOf(result.terms());
     this.ownTerm = result.ownTerm();
@@ -148,6 +151,21 @@ public final class BoundModel {
   /** The model's name, from its {@code model} statement or its file name. */
   public String name() {
     return name;
+  }
+
+  /**
+   * Returns normally when the model has at least one unknown, the condition for sampling it.
+   *
+   * @throws ModelException naming the model file when it has none
+   */
+  public void requireUnknowns() {
+    if (unknowns.isEmpty()) {
+      throw new ModelException(
+          new SourcePosition(fileName, 1, 1), null,
+          "model " + name + " has no unknowns (no param and no missing data), so there is"
+              + " nothing to draw",
+          "declare a param with a prior, or mark unobserved data NA");
+    }
   }
 
   /**
