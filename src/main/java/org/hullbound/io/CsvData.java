@@ -69,9 +69,7 @@ public final class CsvData {
         rows.add(new DataTable.Row(line, cells));
       }
     } catch (IOException | UncheckedIOException | IllegalStateException e) {
-      throw new ModelException(
-          new SourcePosition(fileName, 1, 1), null, "not a valid CSV file: " + e.getMessage(),
-          null);
+      throw CsvQuotes.error(fileName, text, e);
     }
     if (header == null) {
       throw new ModelException(

@@ -86,9 +86,8 @@ public final class InitialValuesFile {
               "'" + name + "' is given more than once", null);
         }
       }
-    } catch (IOException | UncheckedIOException e) {
-      throw ModelException.at(
-          source, source.position(1, 1), "not a valid CSV file: " + e.getMessage(), null);
+    } catch (IOException | UncheckedIOException | IllegalStateException e) {
+      throw CsvQuotes.error(fileName, text, e);
     }
     return Collections.unmodifiableMap(values);
   }

@@ -55,4 +55,15 @@ class InitialValuesFileTest {
     assertEquals("init.csv:1:8", e.position().toString());
     assertTrue(e.problem().contains("'" + written + "'"), e.problem());
   }
+
+  @Test
+  void anUnterminatedQuoteIsReportedAtItsOpeningQuote() {
+    ModelException e =
+        assertThrows(
+            ModelException.class,
+            () -> InitialValuesFile.parse("init.csv", "mu,1\nspread,\"0.5\n"));
+    assertEquals("init.csv:2:8", e.position().toString());
+    assertTrue(e.problem().contains("never closed"), e.problem());
+    assertTrue(!e.render().contains("Exception"), e.render());
+  }
 }
