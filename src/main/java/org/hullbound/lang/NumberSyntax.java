@@ -26,7 +26,7 @@ public final class NumberSyntax {
     private final String hint;
 
     InvalidNumberException(String text, String reason, String hint) {
-      super("'" + text + "' " + reason);
+      super("'" + shortened(text) + "' " + reason);
       this.reason = reason;
       this.hint = hint;
     }
@@ -40,6 +40,11 @@ public final class NumberSyntax {
     public String hint() {
       return hint;
     }
+  }
+
+  /** {@code text}, or for a huge one its start and end around "...", to keep messages short. */
+  public static String shortened(String text) {
+    return text.length() <= 40 ? text : text.substring(0, 24) + "..." + text.substring(text.length() - 12);
   }
 
   /** What a number is, for hints. */

@@ -726,8 +726,8 @@ final class Binder {
             if (reason != null) {
               throw error(
                   at,
-                  "'" + cell + "' in column '" + binding.table().header().get(binding.column())
-                      + "' " + reason,
+                  "'" + NumberSyntax.shortened(cell) + "' in column '"
+                      + binding.table().header().get(binding.column()) + "' " + reason,
                   "write a finite number (" + NumberSyntax.FORMS + "), or NA (or leave the cell"
                       + " empty) for a missing observation");
             }
