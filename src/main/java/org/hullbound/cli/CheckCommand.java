@@ -119,6 +119,9 @@ public final class CheckCommand implements Callable<Integer> {
         model.termCount());
     out.println();
     out.println("unknowns: scale, update, terms in the conditional; then why");
+    if (model.unknowns().isEmpty()) {
+      out.println("  none: the model has no param and no missing data, so fit has nothing to draw");
+    }
     List<List<Unknown>> groups = groups(model);
     int labelWidth = 0;
     for (List<Unknown> group : groups) {

@@ -23,6 +23,7 @@ import org.hullbound.hull.SamplerStatistics;
 import org.hullbound.hull.Support;
 import org.hullbound.io.AtomicFiles;
 import org.hullbound.io.AtomicOutputFile;
+import org.hullbound.lang.NumberSyntax;
 import org.hullbound.model.UnivariateExpression;
 import org.hullbound.report.EnvelopePlot;
 import picocli.CommandLine;
@@ -201,27 +202,14 @@ public final class DrawCommand implements Callable<Integer> {
     return 0;
   }
 
-  /** A bound as typed: a decimal number, or inf / -inf (also +inf, infinity). */
+  /** A bound as typed: a number of the model language, inf or -inf. */
   static double bound(String option, String text) {
-    String t = text.strip().toLowerCase(Locale.ROOT);
-    switch (t) {
-      case "inf", "+inf", "infinity", "+infinity":
-        return Double.POSITIVE_INFINITY;
-      case "-inf", "-infinity":
-        return Double.NEGATIVE_INFINITY;
-      default:
-        break;
-    }
-    if (t.matches("[+-]?(?:\\d+(?:\\.\\d*)?|\\.\\d+)(?:e[+-]?\\d+)?")) {
-      double value = Double.parseDouble(t);
-      if (Double.isFinite(value)) {
-        return value;
-      }
+    try {
+      return NumberSyntax.parse(text.strip());
+    } catch (NumberSyntax.InvalidNumberException e) {
       throw new IllegalArgumentException(
-          option + " " + text + " is beyond the range of a double; write inf or -inf for no bound");
+          option + " must be a number, inf or -inf: " + e.getMessage());
     }
-    throw new IllegalArgumentException(
-        option + " must be a number, inf or -inf, got '" + text + "'");
   }
 
   private static int fail(PrintWriter stderr, int status, String problem, String hint) {

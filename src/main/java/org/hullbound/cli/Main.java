@@ -87,7 +87,7 @@ public final class Main implements Runnable {
 
   /** The configured command line, shared by {@link #main} and the tests. */
   public static CommandLine commandLine() {
-    return ErrorReporting.install(new CommandLine(new Main()));
+    return ErrorReporting.install(NumberOptions.register(new CommandLine(new Main())));
   }
 
   @Override

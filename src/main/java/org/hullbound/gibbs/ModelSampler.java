@@ -57,6 +57,7 @@ public final class ModelSampler {
 
   private static ModelSampler build(BoundModel model, Map<String, Double> given, boolean blocks) {
     List<Unknown> unknowns = model.unknowns();
+    model.requireUnknowns();
     List<String> labels = new ArrayList<>();
     for (Unknown unknown : unknowns) {
       labels.add(unknown.label());
@@ -164,7 +165,20 @@ public final class ModelSampler {
         }
         return new UpdateRule.Fallback(index, conditional, "no exact draw for " + family);
       }
-      return new UpdateRule.Conjugate(index, family, conjugateDraw(conjugate, family, names));
+      UpdateRule.ConjugateDraw exact = conjugateDraw(conjugate, family, names);
+      return new UpdateRule.Conjugate(
+          index, family,
+          (state, rng) -> {
+            double value = exact.draw(state, rng);
+            if (!Double.isFinite(density.toSamplingScale(value))) {
+              throw new IllegalStateException(
+                  "the exact " + family + " draw is " + value + ", on the edge of the support "
+                      + unknown.support() + " and so outside it: the posterior "
+                      + conjugate.posterior(state) + " puts its mass closer to the edge than a"
+                      + " double can tell apart from it");
+            }
+            return value;
+          });
     }
     if (update instanceof Update.AdaptiveRejection && !unknown.discrete()) {
       return new UpdateRule.AdaptiveRejection(index, conditional, update.reason());
@@ -213,7 +227,18 @@ public final class ModelSampler {
 
       @Override
       public double toNatural(double u) {
-        return density.toNatural(u);
+        double value = density.toNatural(u);
+        // exp(u) underflows to 0 below u = -745 (and inv_logit(u) rounds to 0 or 1 past
+        // |u| = 745 or 37): a draw there would leave the open support silently.
+        if (Double.isFinite(u) && !Double.isFinite(density.toSamplingScale(value))) {
+          throw new IllegalStateException(
+              "the draw " + u + " on the " + density.unknown().scale().name().toLowerCase(
+                  java.util.Locale.ROOT) + " scale is " + value + " on the natural scale, on the"
+                  + " edge of the support " + density.unknown().support() + " and so outside it:"
+                  + " the conditional puts its mass closer to the edge than a double can tell"
+                  + " apart from it");
+        }
+        return value;
       }
 
       @Override

@@ -94,9 +94,11 @@ final class ModelStartingValues implements StartingValues {
     Unknown fault = zeroDensityAt(state);
     if (fault != null) {
       String origin = given.containsKey(fault.label()) ? "given" : "model's";
+      String term = model.termWithoutDensity(fault.index(), state);
       throw new StartingValueException(
           "the " + origin + " starting value " + fault.label() + " = " + state[fault.index()]
-              + " has zero density (support " + fault.support() + ")");
+              + " has zero density (support " + fault.support() + ")"
+              + (term == null ? "" : ": " + term));
     }
   }
 

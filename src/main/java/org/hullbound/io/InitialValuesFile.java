@@ -11,6 +11,7 @@ import org.apache.commons.csv.CSVFormat;
 import org.apache.commons.csv.CSVParser;
 import org.apache.commons.csv.CSVRecord;
 import org.hullbound.lang.ModelException;
+import org.hullbound.lang.NumberSyntax;
 import org.hullbound.lang.SourceText;
 
 /**
@@ -66,11 +67,13 @@ public final class InitialValuesFile {
         }
         double number;
         try {
-          number = Double.parseDouble(value);
-        } catch (NumberFormatException notNumber) {
+          number = NumberSyntax.parse(value);
+        } catch (NumberSyntax.InvalidNumberException notNumber) {
           throw ModelException.at(
               source, source.position(lineNumber, columnOfSecondField(source, lineNumber)),
-              "expected a number as the value of '" + name + "', got '" + value + "'", null);
+              "expected a number as the value of '" + name + "', got '" + value + "', which "
+                  + notNumber.reason(),
+              notNumber.hint());
         }
         if (!Double.isFinite(number)) {
           throw ModelException.at(
@@ -83,9 +86,8 @@ public final class InitialValuesFile {
               "'" + name + "' is given more than once", null);
         }
       }
-    } catch (IOException | UncheckedIOException e) {
-      throw ModelException.at(
-          source, source.position(1, 1), "not a valid CSV file: " + e.getMessage(), null);
+    } catch (IOException | UncheckedIOException | IllegalStateException e) {
+      throw CsvQuotes.error(fileName, text, e);
     }
     return Collections.unmodifiableMap(values);
   }

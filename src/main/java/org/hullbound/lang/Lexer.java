@@ -186,33 +186,13 @@ public final class Lexer {
       skipDigits();
     }
     String written = text.substring(start, offset);
-    double value = Double.parseDouble(written);
-    if (Double.isInfinite(value)) {
-      throw error(
-          at,
-          "the number '" + written + "' is too large to represent (the largest is about 1.8e308)",
-          "write 'inf' for infinity");
-    }
-    if (value == 0 && hasNonZeroDigit(written)) {
-      throw error(
-          at,
-          "the number '" + written + "' is too small to represent; it would become 0",
-          "the smallest positive number is about 4.9e-324");
+    double value;
+    try {
+      value = NumberSyntax.parse(written);
+    } catch (NumberSyntax.InvalidNumberException e) {
+      throw error(at, "the number " + e.getMessage(), e.hint());
     }
     return new Token(Token.Kind.NUMBER, written, value, at);
-  }
-
-  private static boolean hasNonZeroDigit(String written) {
-    for (int i = 0; i < written.length(); i++) {
-      char c = written.charAt(i);
-      if (c == 'e' || c == 'E') {
-        return false;
-      }
-      if (c >= '1' && c <= '9') {
-        return true;
-      }
-    }
-    return false;
   }
 
   private Token operator(char c) {

@@ -8,6 +8,11 @@ package org.hullbound.lang;
  * #render()} and exits with status 2, never a stack trace.
  */
 public class ModelException extends RuntimeException {
+  /** Code points of a source line shown at most; a longer line is cut around the column. */
+  private static final int SHOWN_WIDTH = 100;
+
+  private static final String ELLIPSIS = "...";
+
   private final SourcePosition position;
   private final String sourceLine;
   private final String problem;
@@ -51,8 +56,22 @@ public class ModelException extends RuntimeException {
     StringBuilder text = new StringBuilder();
     text.append(position).append(": ").append(problem).append('\n');
     if (sourceLine != null) {
-      text.append("  | ").append(sourceLine).append('\n');
-      text.append("  | ").append(caretPadding()).append("^\n");
+      // A long line (a huge literal, a minified file) is cut to a window around the column, so
+      // that the message stays readable and the caret still points at the fault.
+      int length = sourceLine.codePointCount(0, sourceLine.length());
+      int first = 0;
+      int last = length;
+      if (length > SHOWN_WIDTH) {
+        first = Math.max(0, Math.min(position.column() - 1 - SHOWN_WIDTH / 2, length - SHOWN_WIDTH));
+        last = first + SHOWN_WIDTH;
+      }
+      String shown = sourceLine.substring(
+          sourceLine.offsetByCodePoints(0, first), sourceLine.offsetByCodePoints(0, last));
+      String before = first > 0 ? ELLIPSIS : "";
+      text.append("  | ").append(before).append(shown)
+          .append(last < length ? ELLIPSIS : "").append('\n');
+      text.append("  | ").append(" ".repeat(before.length()))
+          .append(caretPadding(shown, position.column() - first)).append("^\n");
     }
     if (hint != null) {
       text.append("  = ").append(hint).append('\n');
@@ -61,20 +80,21 @@ public class ModelException extends RuntimeException {
   }
 
   /**
-   * Spaces up to the column, counted in code points as the lexer counts them; a tab in the line
-   * is copied as a tab, so the caret lines up whatever width the terminal gives tabs.
+   * Spaces up to {@code column} of {@code line}, counted in code points as the lexer counts them;
+   * a tab in the line is copied as a tab, so the caret lines up whatever width the terminal gives
+   * tabs.
    */
-  private String caretPadding() {
+  private static String caretPadding(String line, int column) {
     StringBuilder pad = new StringBuilder();
-    int column = 1;
+    int at = 1;
     int offset = 0;
-    while (column < position.column() && offset < sourceLine.length()) {
-      int codePoint = sourceLine.codePointAt(offset);
+    while (at < column && offset < line.length()) {
+      int codePoint = line.codePointAt(offset);
       pad.append(codePoint == '\t' ? '\t' : ' ');
       offset += Character.charCount(codePoint);
-      column++;
+      at++;
     }
-    for (; column < position.column(); column++) {
+    for (; at < column; at++) {
       pad.append(' ');
     }
     return pad.toString();

@@ -21,6 +21,7 @@ import org.hullbound.lang.Identifier;
 import org.hullbound.lang.ModelException;
 import org.hullbound.lang.ModelFile;
 import org.hullbound.lang.NameSuggestion;
+import org.hullbound.lang.NumberSyntax;
 import org.hullbound.lang.SourcePosition;
 import org.hullbound.lang.SourceText;
 import org.hullbound.lang.Statement;
@@ -41,6 +42,7 @@ final class Binder {
   /** What binding produces, consumed by {@link BoundModel}. */
   record Result(
       String name,
+      String fileName,
       List<IndexSet> indexSets,
       List<Term> terms,
       List<String> labels,
@@ -114,13 +116,25 @@ final class Binder {
     }
     for (Node node : nodes.values()) {
       node.indexSets = new ArrayList<>();
-      int size = 1;
+      long size = 1;
+      List<String> factors = new ArrayList<>();
       for (Identifier set : node.target.indexSets()) {
         IndexSet bound = sets.get(set.text());
         node.indexSets.add(bound);
-        size *= bound.size();
+        factors.add(Integer.toString(bound.size()));
+        // Both factors are below 2^31, so the product of the running size (capped at 2^31 below)
+        // and the next one fits in a long.
+        size = Math.min(size * bound.size(), Integer.MAX_VALUE + 1L);
       }
-      node.size = size;
+      if (size > Integer.MAX_VALUE) {
+        throw error(
+            node.target.position(),
+            "'" + node.name() + "' runs over " + setList(node.target.indexSets()) + " with "
+                + String.join(" x ", factors) + " elements, more than the " + Integer.MAX_VALUE
+                + " one quantity can hold",
+            "use smaller index sets");
+      }
+      node.size = (int) size;
     }
     bindDataValues(columns);
     return build();
@@ -468,6 +482,7 @@ final class Binder {
     Map<String, String> setRowsFrom = new HashMap<>();
     Map<String, Integer> setRows = new HashMap<>();
     Map<String, Integer> trailingMax = new HashMap<>();
+    Map<String, String> fileOfColumn = new HashMap<>();
     Set<String> dataNames = new TreeSet<>();
     for (Node n : nodes.values()) {
       if (n.kind == Node.Kind.DATA) {
@@ -551,6 +566,15 @@ final class Binder {
             }
             trailingMax.merge(trailingSet, trailing[t], Math::max);
           }
+        }
+        String earlierFile =
+            fileOfColumn.putIfAbsent(base + Arrays.toString(trailing), table.fileName());
+        if (earlierFile != null && !earlierFile.equals(table.fileName())) {
+          // Reading both would let the order of the --data options decide which values count.
+          throw error(
+              at,
+              "column '" + header + "' is in both " + earlierFile + " and " + table.fileName(),
+              "give each column in one data file only");
         }
         columns.computeIfAbsent(node, k -> new ArrayList<>())
             .add(new ColumnBinding(table, j, node, trailing));
@@ -697,12 +721,19 @@ final class Binder {
           boolean missing = column.missing(r);
           double value = column.value(r);
           if (column.invalid(r)) {
+            String cell = column.firstInvalidText();
+            String reason = "is not a finite number";
+            try {
+              NumberSyntax.parse(cell);
+            } catch (NumberSyntax.InvalidNumberException ex) {
+              reason = ex.reason();
+            }
             throw error(
                 cellAt(binding, r),
-                "'" + column.firstInvalidText() + "' in column '"
-                    + table.header().get(binding.column()) + "' is not a number",
-                "write a finite number, or NA (or leave the cell empty) for a missing"
-                    + " observation");
+                "'" + NumberSyntax.shortened(cell) + "' in column '"
+                    + table.header().get(binding.column()) + "' " + reason,
+                "write a finite number (" + NumberSyntax.FORMS + "), or NA (or leave the cell"
+                    + " empty) for a missing observation");
           }
           if (missing && !node.modelled()) {
             throw missingCovariate(node, e, cellAt(binding, r), column.shown(r));
@@ -1054,6 +1085,7 @@ final class Binder {
     }
     return new Result(
         modelName,
+        source.fileName(),
         orderedSets,
         terms,
         labels,
@@ -1091,6 +1123,17 @@ final class Binder {
     double[] known = new double[args.size()];
     for (int k = 0; k < known.length; k++) {
       known[k] = args.get(k) instanceof Formula.Constant c ? c.value() : Double.NaN;
+    }
+    for (int k = 0; k < known.length; k++) {
+      String problem = args.get(k) instanceof Formula.Constant c ? p.checkArgument(k, c.value())
+          : null;
+      if (problem != null) {
+        SourcePosition origin = ((Formula.Constant) args.get(k)).origin();
+        throw error(
+            origin != null ? origin : node.argumentExpressions[k].position(),
+            "invalid arguments of " + p.family().name() + " for '" + label + "': " + problem,
+            null);
+      }
     }
     if (allKnown) {
       String problem = p.checkArguments(known);

@@ -9,6 +9,7 @@ import java.util.concurrent.atomic.AtomicReferenceArray;
 import java.util.function.Predicate;
 import org.hullbound.lang.ModelException;
 import org.hullbound.lang.ModelFile;
+import org.hullbound.lang.SourcePosition;
 
 /**
  * A model bound to its data: index sets sized, data read and checked, and a graph of data,
@@ -34,6 +35,7 @@ import org.hullbound.lang.ModelFile;
  */
 public final class BoundModel {
   private final String name;
+  private final String fileName;
   private final List<IndexSet> indexSets;
   private final List<Term> terms;
   private final List<Unknown> unknowns;
@@ -54,6 +56,7 @@ public final class BoundModel {
 
   private BoundModel(Binder.Result result) {
     this.name = result.name();
+    this.fileName = result.fileName();
     this.indexSets = List.copyOf(result.indexSets());
     this.terms = List.copyOf(result.terms());
     this.ownTerm = result.ownTerm();
@@ -158,6 +161,21 @@ public final class BoundModel {
   /** The model's name, from its {@code model} statement or its file name. */
   public String name() {
     return name;
+  }
+
+  /**
+   * Returns normally when the model has at least one unknown, the condition for sampling it.
+   *
+   * @throws ModelException naming the model file when it has none
+   */
+  public void requireUnknowns() {
+    if (unknowns.isEmpty()) {
+      throw new ModelException(
+          new SourcePosition(fileName, 1, 1), null,
+          "model " + name + " has no unknowns (no param and no missing data), so there is"
+              + " nothing to draw",
+          "declare a param with a prior, or mark unobserved data NA");
+    }
   }
 
   /**
@@ -276,6 +294,84 @@ public final class BoundModel {
           "state must hold " + unknowns.size() + " values, got "
               + (state == null ? "null" : state.length));
     }
+    Evaluator[][] compiled = compiledTerms();
+    double total = 0;
+    Frame frame = new Frame(Double.NaN, state);
+    for (int i = 0; i < compiled.length; i++) {
+      double term = termLogDensity(i, compiled[i], frame);
+      if (term == Double.NEGATIVE_INFINITY && terms.get(i).truncated()) {
+        return term;
+      }
+      total += term;
+    }
+    return total;
+  }
+
+  /**
+   * Which term of unknown {@code index}'s conditional (its own term or one that depends on it)
+   * has a log-density of {@code -inf}, {@code +inf} or NaN at {@code state}, and why, as in {@code
+   * "y ~ uniform(lower = 0, upper = 1) at m.hbm:3:6 has log-density -inf: a uniform value must
+   * lie in [lower, upper] = [0, 1], got 2"}; {@code null} when every one is finite.
+   */
+  public String termWithoutDensity(int index, double[] state) {
+    checkIndex(index);
+    Evaluator[][] compiled = compiledTerms();
+    Frame frame = new Frame(Double.NaN, state);
+    List<Integer> blanket = new ArrayList<>();
+    blanket.add(ownTerm[index]);
+    for (int t : dependents[index]) {
+      blanket.add(t);
+    }
+    for (int i : blanket) {
+      double value = termLogDensity(i, compiled[i], frame);
+      if (Double.isFinite(value)) {
+        continue;
+      }
+      Term t = terms.get(i);
+      double y = compiled[i][0].eval(frame);
+      double[] a = new double[t.arguments().size()];
+      StringBuilder call = new StringBuilder(t.familyName()).append('(');
+      for (int k = 0; k < a.length; k++) {
+        a[k] = compiled[i][1 + k].eval(frame);
+        call.append(k == 0 ? "" : ", ").append(t.argumentName(k)).append(" = ")
+            .append(Binder.number(a[k]));
+      }
+      call.append(')');
+      String why = t.family().checkArguments(a);
+      if (why == null) {
+        why = t.family().checkValue(y, a);
+      }
+      if (why == null && t.truncated() && !(y >= t.lower() && y <= t.upper())) {
+        why = "the value lies outside within " + Binder.number(t.lower()) + " .. "
+            + Binder.number(t.upper());
+      }
+      return t.label() + " = " + Binder.number(y) + " ~ " + call + " at " + t.position()
+          + " has log-density " + (Double.isNaN(value) ? "NaN" : value > 0 ? "+inf" : "-inf")
+          + (why == null ? "" : ": " + why);
+    }
+    return null;
+  }
+
+  /** The term's log-density at the frame's state, truncation normaliser included. */
+  private double termLogDensity(int i, Evaluator[] compiled, Frame frame) {
+    Term t = terms.get(i);
+    double y = compiled[0].eval(frame);
+    double[] a = new double[t.arguments().size()];
+    for (int k = 0; k < a.length; k++) {
+      a[k] = compiled[1 + k].eval(frame);
+    }
+    double value = t.family().logDensity(y, a);
+    if (t.truncated()) {
+      if (!(y >= t.lower() && y <= t.upper())) {
+        return Double.NEGATIVE_INFINITY;
+      }
+      value -= t.family().logProbabilityBetween(t.lower(), t.upper(), a, new double[a.length]);
+    }
+    return value;
+  }
+
+  /** Value and argument evaluators of every term, compiled on first use. */
+  private Evaluator[][] compiledTerms() {
     Evaluator[][] compiled = joint;
     if (compiled == null) {
       compiled = new Evaluator[terms.size()][];
@@ -289,24 +385,7 @@ public final class BoundModel {
       }
       joint = compiled;
     }
-    double total = 0;
-    Frame frame = new Frame(Double.NaN, state);
-    for (int i = 0; i < compiled.length; i++) {
-      Term t = terms.get(i);
-      double y = compiled[i][0].eval(frame);
-      double[] a = new double[t.arguments().size()];
-      for (int k = 0; k < a.length; k++) {
-        a[k] = compiled[i][1 + k].eval(frame);
-      }
-      if (t.truncated()) {
-        if (!(y >= t.lower() && y <= t.upper())) {
-          return Double.NEGATIVE_INFINITY;
-        }
-        total -= t.family().logProbabilityBetween(t.lower(), t.upper(), a, new double[a.length]);
-      }
-      total += t.family().logDensity(y, a);
-    }
-    return total;
+    return compiled;
   }
 
   /** Every element-level term, in binding order (for {@link PriorSimulation}). */

@@ -90,6 +90,19 @@ final class ConjugatePairs {
           return v;
       }
     }
+
+    /** The standard deviation, without squaring, so that it is exact where sd^2 would overflow. */
+    double sd(double[] state) {
+      double v = at(value, 0, state);
+      switch (name) {
+        case "sd":
+          return v;
+        case "var":
+          return Math.sqrt(v);
+        default:
+          return 1 / Math.sqrt(v);
+      }
+    }
   }
 
   private record NormalChild(Evaluator value, Evaluator mean, Spread spread) {}
@@ -111,8 +124,13 @@ final class ConjugatePairs {
     Spread priorSpread = Spread.of(own, s);
     Update.PosteriorRule rule =
         state -> {
-          double precision = priorSpread.precision(state);
-          double weighted = precision * at(priorMean, 0, state);
+          double priorPrecision = priorSpread.precision(state);
+          double mean = at(priorMean, 0, state);
+          // A prior precision that underflows to 0 (sd above about 1e154) is below rounding
+          // beside any data's, so the data alone decide, as they should.
+          double precision = priorPrecision;
+          double weighted = priorPrecision * mean;
+          double fromData = 0;
           Frame frame = new Frame(0, state);
           for (NormalChild child : children) {
             double y = child.value().eval(frame);
@@ -120,7 +138,15 @@ final class ConjugatePairs {
             double b = frame.slope;
             double p = child.spread().precision(state);
             precision += p * b * b;
+            fromData += p * b * b;
             weighted += p * b * (y - a);
+          }
+          // Where the data carry no information, or the prior's precision overflows (sd below
+          // about 1e-154), the posterior is the prior: read its sd directly, since 1 / sd^2 may
+          // be 0 or infinite although sd is representable.
+          if (fromData == 0 || priorPrecision == Double.POSITIVE_INFINITY) {
+            return new Posterior(
+                "normal", List.of("mean", "sd"), new double[] {mean, priorSpread.sd(state)});
           }
           return new Posterior(
               "normal", List.of("mean", "sd"),

@@ -3,6 +3,7 @@ package org.hullbound.model;
 import java.util.Arrays;
 import java.util.BitSet;
 import java.util.function.Supplier;
+import org.hullbound.lang.NumberSyntax;
 
 /**
  * One column of a data file as numbers, row by row: each cell is a finite number, missing (empty
@@ -48,8 +49,9 @@ public final class DataColumn {
   static double parseCell(String cell) {
     double value;
     try {
-      value = Double.parseDouble(cell);
-    } catch (NumberFormatException notANumber) {
+      // The language's own number forms only: Java's parser would take 22d or 0x1.6p4.
+      value = NumberSyntax.parse(cell);
+    } catch (NumberSyntax.InvalidNumberException notANumber) {
       return Double.NaN;
     }
     return Double.isFinite(value) ? value : Double.NaN;

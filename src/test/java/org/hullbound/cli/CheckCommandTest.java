@@ -125,6 +125,20 @@ class CheckCommandTest {
   }
 
   @Test
+  void aModelWithoutUnknownsIsCheckedAndSaidSoButNotFitted(@TempDir Path dir) throws IOException {
+    Path model = dir.resolve("known.hbm");
+    Files.writeString(model, "model known\ndata x = 3\n");
+    Run check = run("check", model.toString());
+    assertEquals(0, check.status(), check.err());
+    assertTrue(check.out().contains("none: the model has no param and no missing data"),
+        check.out());
+    Run fit = run("fit", model.toString(), "--out", dir.resolve("out").toString(), "--seed", "1");
+    assertEquals(2, fit.status(), fit.err());
+    assertTrue(fit.err().startsWith(model + ":1:1: model known has no unknowns"), fit.err());
+    assertFalse(fit.err().contains("internal error"), fit.err());
+  }
+
+  @Test
   void aDataErrorNamesTheFileRowAndColumn(@TempDir Path dir) throws IOException {
     Path data = dir.resolve("trays.csv");
     Files.writeString(data, "planted,bench_of,survived\n20,1,15\n22,9,11\n");

@@ -215,11 +215,11 @@ class DrawCommandTest {
   @Test
   void badBoundsAreUsageErrors() {
     String[][] cases = {
-      {"--lower", "zero", "hullbound draw: --lower must be a number, inf or -inf, got 'zero'"},
-      {"--upper", "NaN", "hullbound draw: --upper must be a number, inf or -inf, got 'NaN'"},
+      {"--lower", "zero", "hullbound draw: --lower must be a number, inf or -inf: 'zero' is not a number"},
+      {"--upper", "NaN", "hullbound draw: --upper must be a number, inf or -inf: 'NaN' is not a number"},
       {"--lower", "inf", "hullbound draw: --lower must be below inf, got inf"},
       {"--upper", "-inf", "hullbound draw: --upper must be above -inf, got -inf"},
-      {"--lower", "1e999", "hullbound draw: --lower 1e999 is beyond the range of a double"},
+      {"--lower", "1e999", "hullbound draw: --lower must be a number, inf or -inf: '1e999' is too large to represent"},
     };
     for (String[] c : cases) {
       CliRun run = CliRun.of("draw", "--log-density", "-x^2/2", c[0], c[1]);

@@ -131,7 +131,13 @@ class SummarizeCommandTest {
         rhat.err());
     CliRun ess = CliRun.of("summarize", drawsFile.toString(), "--min-ess", "NaN");
     assertEquals(2, ess.exit());
-    assertTrue(ess.err().contains("--min-ess must be a finite number above 0, got NaN"));
+    // NaN is no number of the language's grammar (docs/model-language.md), so the option's
+    // converter refuses it before the range check.
+    assertTrue(ess.err().contains("'NaN' is not a number"), ess.err());
+    CliRun infinite = CliRun.of("summarize", drawsFile.toString(), "--min-ess", "inf");
+    assertEquals(2, infinite.exit());
+    assertTrue(infinite.err().contains("--min-ess must be a finite number above 0, got Infinity"),
+        infinite.err());
     CliRun unknown = CliRun.of("summarize", drawsFile.toString(), "--columns", "mu,sigam");
     assertEquals(2, unknown.exit());
     assertEquals(

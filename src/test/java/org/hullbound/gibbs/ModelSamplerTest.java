@@ -69,6 +69,18 @@ class ModelSamplerTest {
   }
 
   @Test
+  void anExactDrawOnTheEdgeOfAnOpenSupportIsAnErrorNamingTheUnknown() {
+    // Gamma(1e-8, 1) is below 4.9e-324 (the smallest positive double) with probability about
+    // 1 - 1e-8 * 744 (P(X < x) ~ x^shape / Gamma(shape + 1) for small x, closed form), so its draw
+    // rounds to 0, outside the open support (0, inf) of a gamma; it must not be stored silently.
+    ModelSampler model = sampler("param g ~ gamma(shape = 1e-8, rate = 1)\n");
+    ChainFailedException failure =
+        assertThrows(ChainFailedException.class, () -> Fits.run(model.sampler(), SETTINGS));
+    assertTrue(failure.getMessage().contains("updating g (conjugate gamma): the exact gamma draw"
+        + " is 0.0, on the edge of the support (0, inf)"), failure.getMessage());
+  }
+
+  @Test
   void aLogConcaveNonConjugateConditionalGoesThroughAdaptiveRejection() {
     // A normal mean with a logistic prior: not conjugate, log-concave (both terms are).
     ModelSampler model =

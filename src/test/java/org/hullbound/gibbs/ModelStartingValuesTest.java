@@ -95,4 +95,38 @@ class ModelStartingValuesTest {
     }
     assertTrue(Arrays.stream(a).mapToDouble(s -> s[0]).distinct().count() > 5);
   }
+
+  @Test
+  void aStartWithZeroDensityNamesTheTermAndItsStatement() {
+    // At m = 0 the observation y = 2 lies outside uniform(0, 1): the likelihood term, declared at
+    // line 3 column 6, is what makes the joint density zero, not the prior of m.
+    BoundModel model =
+        bind(
+            "param m ~ normal(mean = 0, sd = 1)\n"
+                + "# the observation\n"
+                + "data y = 2 ~ uniform(lower = m, upper = m + 1)\n");
+    StartingValueException e =
+        org.junit.jupiter.api.Assertions.assertThrows(
+            StartingValueException.class,
+            () -> ModelStartingValues.of(model, model.initialState(), Map.of()));
+    assertTrue(
+        e.getMessage().contains("y = 2 ~ uniform(lower = 0, upper = 1) at test.hbm:3:6 has"
+            + " log-density -inf: a uniform value must lie in [lower, upper] = [0, 1], got 2"),
+        e.getMessage());
+  }
+
+  @Test
+  void aStartWithAnUndefinedArgumentNamesTheTermAndTheArgument() {
+    // log(m - 5) at m = 0 is NaN, so the term's mean is not a number.
+    BoundModel model =
+        bind(
+            "param m ~ normal(mean = 0, sd = 1) within -1 .. 1\n"
+                + "data y = 1 ~ normal(mean = log(m - 5), sd = 1)\n");
+    StartingValueException e =
+        org.junit.jupiter.api.Assertions.assertThrows(
+            StartingValueException.class,
+            () -> ModelStartingValues.of(model, model.initialState(), Map.of()));
+    assertTrue(e.getMessage().contains("at test.hbm:2:6 has log-density NaN: mean must be a"
+        + " finite number, got NaN"), e.getMessage());
+  }
 }

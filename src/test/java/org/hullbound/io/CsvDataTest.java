@@ -204,4 +204,19 @@ class CsvDataTest {
             List.of(CsvData.parse("trays.csv", "planted,bench_of,survived\n10,1,3\n12,2,NA\n")));
     assertTrue(model.unknown("survived[2]").imputed());
   }
+
+  @Test
+  void anUnterminatedQuoteIsReportedAtItsOpeningQuoteWithoutAJavaClassName() {
+    // RFC 4180, 2.5-2.7: a quoted field runs to the next lone quote; here none follows the one
+    // at line 3, column 1, so the field would swallow the rest of the file.
+    ModelException e =
+        assertThrows(
+            ModelException.class,
+            () -> CsvData.parse("q.csv", "a,b\n1,\"x\"\"y\"\n\"25,2\n3,4\n"));
+    assertEquals("q.csv:3:1", e.position().toString());
+    assertTrue(
+        e.problem().contains("never closed"), e.problem());
+    org.junit.jupiter.api.Assertions.assertFalse(e.render().contains("Exception"), e.render());
+    org.junit.jupiter.api.Assertions.assertFalse(e.render().contains("org."), e.render());
+  }
 }

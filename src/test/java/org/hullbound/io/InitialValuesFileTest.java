@@ -42,4 +42,28 @@ class InitialValuesFileTest {
     assertTrue(short_.problem().contains("two fields"));
     assertThrows(ModelException.class, () -> InitialValuesFile.parse("i.csv", "a,inf\n"));
   }
+
+  @org.junit.jupiter.params.ParameterizedTest
+  @org.junit.jupiter.params.provider.ValueSource(strings = {"22d", "2.2e1f", "0x1.6p4", "1e999"})
+  void javaNumberFormsAndOverflowAreRefusedAtTheValue(String written) {
+    // Double.parseDouble reads the first three as 22 and the last as infinity (Java SE
+    // Double.valueOf grammar); the model language's grammar (docs/model-language.md) has none.
+    ModelException e =
+        assertThrows(
+            ModelException.class,
+            () -> InitialValuesFile.parse("init.csv", "spread," + written + "\n"));
+    assertEquals("init.csv:1:8", e.position().toString());
+    assertTrue(e.problem().contains("'" + written + "'"), e.problem());
+  }
+
+  @Test
+  void anUnterminatedQuoteIsReportedAtItsOpeningQuote() {
+    ModelException e =
+        assertThrows(
+            ModelException.class,
+            () -> InitialValuesFile.parse("init.csv", "mu,1\nspread,\"0.5\n"));
+    assertEquals("init.csv:2:8", e.position().toString());
+    assertTrue(e.problem().contains("never closed"), e.problem());
+    assertTrue(!e.render().contains("Exception"), e.render());
+  }
 }

@@ -69,4 +69,31 @@ class ModelExceptionTest {
     assertEquals("f:1:6: past the end\n  | ab\n  |      ^\n  = a hint\n", e.render());
     assertEquals("f:1:6: past the end (a hint)", e.getMessage());
   }
+
+  @Test
+  void aHugeLiteralIsShortenedInTheProblemAndTheLine() {
+    // 1e2000 written out: too large for a double, reported at its first digit (column 10).
+    String rendered = renderedError("data x = " + "9".repeat(2000) + "\n");
+    String[] lines = rendered.split("\n");
+    assertEquals(true, lines[0].length() < 200, lines[0]);
+    assertEquals(true, lines[0].startsWith("m.hbm:1:10: the number '999"), lines[0]);
+    String shown = lines[1].substring("  | ".length());
+    assertEquals("data x = " + "9".repeat(91) + "...", shown);
+    assertEquals(" ".repeat(9) + "^", lines[2].substring("  | ".length()));
+  }
+
+  @Test
+  void aLongLineCutOnBothSidesKeepsTheCaretUnderTheFault() {
+    String line = "let x = " + "1 + ".repeat(100) + "1 ) " + "+ 2 ".repeat(100);
+    String rendered = renderedError(line + "\n");
+    String[] lines = rendered.split("\n");
+    int column = Integer.parseInt(lines[0].split(":")[2]);
+    assertEquals(')', line.charAt(column - 1), rendered);
+    String shown = lines[1].substring("  | ".length());
+    String caret = lines[2].substring("  | ".length());
+    assertEquals(true, shown.startsWith("...") && shown.endsWith("..."), shown);
+    assertEquals(3 + 100 + 3, shown.length(), shown);
+    assertEquals(')', shown.charAt(caret.indexOf('^')), rendered);
+    assertEquals(caret.length() - 1, caret.indexOf('^'));
+  }
 }

@@ -61,6 +61,36 @@ class ConjugatePairsTest {
     conditionalMatches(model, "mu", model.initialState(), exact::logDensity);
   }
 
+  @org.junit.jupiter.params.ParameterizedTest
+  @org.junit.jupiter.params.provider.ValueSource(doubles = {1e300, 1e-200, 1.5e154, 1e-160})
+  void normalMeanWhoseSpreadSquaredOverflowsOrUnderflowsKeepsItsPrior(double sd) {
+    // With no dependent term the posterior is the prior itself (BDA3 section 2.5 with n = 0);
+    // sd^2 overflows above about 1.34e154 and underflows below about 1.5e-162 (IEEE 754 binary64
+    // range, common practice), which made the mean 0 * inf or 0 / 0 = NaN.
+    BoundModel model =
+        bind("param m ~ normal(mean = 2, sd = " + sd + ")");
+    Posterior p = conjugate(model, "m").posterior(model.initialState());
+    assertEquals(2.0, p.argument("mean"));
+    assertEquals(sd, p.argument("sd"), 1e-15 * sd);
+  }
+
+  @Test
+  void normalMeanWithAVagueButRepresentablePriorFollowsTheData() {
+    // Prior precision 1e-600 underflows to 0; its true contribution to the posterior precision
+    // 1/4 + 1e-600 is below rounding, so the posterior is N(ybar, 2/sqrt(n)) to the last bit
+    // (BDA3 eq. 2.11-2.12 with 1/tau_0^2 -> 0).
+    BoundModel model =
+        bind(
+            String.join(
+                "\n",
+                "index obs",
+                "data y[obs] = [4.0, 6.0] ~ normal(mean = m, sd = 2)",
+                "param m ~ normal(mean = 0, sd = 1e300)"));
+    Posterior p = conjugate(model, "m").posterior(model.initialState());
+    assertEquals(5.0, p.argument("mean"), 1e-15);
+    assertEquals(Math.sqrt(2.0), p.argument("sd"), 1e-15);
+  }
+
   @Test
   void normalCoefficientOfAnAffineMeanWithVarianceAndPrecisionForms() {
     BoundModel model =

@@ -102,11 +102,18 @@ abstract class BaseParametrisation implements Parametrisation {
       return signature() + " takes " + arity() + " arguments, got " + args.length;
     }
     for (int k = 0; k < arity(); k++) {
-      if (!domains[k].accepts(args[k])) {
-        return names.get(k) + " " + domains[k].requirement() + ", got " + format(args[k]);
+      String problem = checkArgument(k, args[k]);
+      if (problem != null) {
+        return problem;
       }
     }
     return checkJointly(args);
+  }
+
+  @Override
+  public final String checkArgument(int k, double value) {
+    return domains[k].accepts(value)
+        ? null : names.get(k) + " " + domains[k].requirement() + ", got " + format(value);
   }
 
   @Override

@@ -67,6 +67,14 @@ public interface Parametrisation {
   String checkArguments(double[] args);
 
   /**
+   * {@code null} when {@code value} lies in the domain of argument {@code k} alone (checks that
+   * involve several arguments are left to {@link #checkArguments}), else a message such as {@code
+   * "trials must be a whole number >= 0, got 22.5"}. Lets a known argument be checked while others
+   * are still unknown.
+   */
+  String checkArgument(int k, double value);
+
+  /**
    * {@code null} when {@code x} is a valid value for these (valid) arguments, else a message, e.g.
    * {@code "a count must be a whole number >= 0, got 2.5"}.
    */

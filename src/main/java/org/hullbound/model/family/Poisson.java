@@ -147,6 +147,15 @@ final class Poisson {
         gradient[0] = 0.0;
         gradient[1] = x - rate;
       }
+      if (logRate < 0) {
+        // x log_rate - rate - lgamma(x + 1): all three terms are <= 0 here, so the sum does not
+        // cancel, and stays finite where exp(log_rate) underflows (below about -745).
+        return (x == 0 ? 0.0 : x * logRate) - rate - Gamma.logGamma(x + 1.0);
+      }
+      if (rate == Double.POSITIVE_INFINITY) {
+        // Beyond log_rate 709.78 the log mass is below -e^709.78 = -1.8e308: it overflows.
+        return Double.NEGATIVE_INFINITY;
+      }
       return logMass(x, rate);
     }
 

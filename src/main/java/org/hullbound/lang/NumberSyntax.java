@@ -1,0 +1,143 @@
+package org.hullbound.lang;
+
+/**
+ * The one grammar of numbers that hullbound reads, wherever they come from: literals of a model
+ * file, cells of a data file, starting values, and command options that take numbers.
+ *
+ * <p>A number is the language's literal, {@code digits [. digits?] | . digits}, then an optional
+ * exponent {@code e} or {@code E}, optional sign, digits; or the word {@code inf}. Written alone
+ * (a cell, an option) it may carry one leading {@code -}. Nothing else is a number: Java's suffixes
+ * and hexadecimal forms ({@code 22d}, {@code 2.2e1f}, {@code 0x1.6p4}), which
+ * {@link Double#parseDouble} would read as 22, are refused, as are {@code +1}, {@code NaN} and
+ * {@code Infinity}. A value too large to represent ({@code 1e999}) or too small to tell from zero
+ * ({@code 1e-999}) is refused rather than silently made infinite or zero. Whether {@code inf} or a
+ * missing-value word is allowed at a place is for the caller to say.
+ */
+public final class NumberSyntax {
+  private NumberSyntax() {}
+
+  /**
+   * A text that is not a number of the grammar, or one outside the range of a double.
+   * {@link #reason()} completes a sentence that starts with the text, as in {@code "'22d' " +
+   * reason()}.
+   */
+  public static final class InvalidNumberException extends IllegalArgumentException {
+    private final String reason;
+    private final String hint;
+
+    InvalidNumberException(String text, String reason, String hint) {
+      super("'" + shortened(text) + "' " + reason);
+      this.reason = reason;
+      this.hint = hint;
+    }
+
+    /** What is wrong, e.g. {@code "is not a number"}. */
+    public String reason() {
+      return reason;
+    }
+
+    /** How to write it instead. */
+    public String hint() {
+      return hint;
+    }
+  }
+
+  /** {@code text}, or for a huge one its start and end around "...", to keep messages short. */
+  public static String shortened(String text) {
+    return text.length() <= 40 ? text : text.substring(0, 24) + "..." + text.substring(text.length() - 12);
+  }
+
+  /** What a number is, for hints. */
+  public static final String FORMS = "digits with an optional point and exponent, as in 22, -0.5,"
+      + " 2.5e-3";
+
+  /**
+   * The value of {@code text}: a literal or {@code inf}, optionally preceded by {@code -}.
+   *
+   * @throws InvalidNumberException when it is not of that form, or too large or too small to
+   *     represent
+   */
+  public static double parse(String text) {
+    int start = text.startsWith("-") ? 1 : 0;
+    if (text.startsWith("inf", start) && text.length() == start + 3) {
+      return start == 0 ? Double.POSITIVE_INFINITY : Double.NEGATIVE_INFINITY;
+    }
+    if (start == text.length() || literalEnd(text, start) != text.length()) {
+      throw new InvalidNumberException(text, "is not a number", "write a number as " + FORMS);
+    }
+    // The grammar is a subset of Java's, so parseDouble reads it exactly (correctly rounded).
+    double value = Double.parseDouble(text);
+    if (Double.isInfinite(value)) {
+      throw new InvalidNumberException(
+          text, "is too large to represent (the largest is about 1.8e308)", "write 'inf' for"
+              + " infinity");
+    }
+    if (value == 0 && hasNonZeroDigit(text)) {
+      throw new InvalidNumberException(
+          text, "is too small to represent; it would become 0", "the smallest positive number is"
+              + " about 4.9e-324");
+    }
+    return value;
+  }
+
+  /**
+   * The end of the literal that starts at {@code from} in {@code text}: past its digits, point and
+   * exponent; {@code from} itself when none starts there. A point followed by another point is not
+   * part of it ({@code 1..8} is a range).
+   */
+  private static int literalEnd(String text, int from) {
+    int at = skipDigits(text, from);
+    boolean digits = at > from;
+    if (charAt(text, at) == '.' && charAt(text, at + 1) != '.') {
+      int afterPoint = skipDigits(text, at + 1);
+      if (!digits && afterPoint == at + 1) {
+        return from;
+      }
+      digits = true;
+      at = afterPoint;
+    }
+    if (!digits) {
+      return from;
+    }
+    char e = charAt(text, at);
+    if (e == 'e' || e == 'E') {
+      int sign = at + 1;
+      if (charAt(text, sign) == '+' || charAt(text, sign) == '-') {
+        sign++;
+      }
+      int exponentEnd = skipDigits(text, sign);
+      if (exponentEnd > sign) {
+        at = exponentEnd;
+      }
+    }
+    return at;
+  }
+
+  private static int skipDigits(String text, int at) {
+    while (isDigit(charAt(text, at))) {
+      at++;
+    }
+    return at;
+  }
+
+  private static char charAt(String text, int at) {
+    return at < text.length() ? text.charAt(at) : '\0';
+  }
+
+  private static boolean isDigit(char c) {
+    return c >= '0' && c <= '9';
+  }
+
+  private static boolean hasNonZeroDigit(String written) {
+    for (int i = 0; i < written.length(); i++) {
+      char c = written.charAt(i);
+      if (c == 'e' || c == 'E') {
+        return false;
+      }
+      if (c >= '1' && c <= '9') {
+        return true;
+      }
+    }
+    return false;
+  }
+}

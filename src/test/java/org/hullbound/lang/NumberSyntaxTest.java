@@ -1,0 +1,71 @@
+package org.hullbound.lang;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertThrows;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import org.junit.jupiter.params.ParameterizedTest;
+import org.junit.jupiter.params.provider.CsvSource;
+import org.junit.jupiter.params.provider.ValueSource;
+
+/**
+ * The number grammar of docs/model-language.md ("Numbers"): the forms it lists are read with the
+ * value it lists; the forms Java's {@code Double.parseDouble} also takes (type suffixes,
+ * hexadecimal, {@code NaN}, {@code Infinity}, a leading {@code +}) are refused.
+ */
+class NumberSyntaxTest {
+
+  @ParameterizedTest(name = "{0} = {1}")
+  @CsvSource({
+    "42, 42", "0, 0", "2.5, 2.5", "2., 2", ".5, 0.5", "1e-3, 0.001", "2.5E+2, 250",
+    "6.02e23, 6.02e23", "-3, -3", "-.5, -0.5", "1.0E-5, 0.00001",
+    // Long integers are rounded to the nearest double (docs/model-language.md).
+    "999999999999999999999, 1e21",
+    // The smallest subnormal is representable (IEEE 754 binary64, common practice).
+    "4.9e-324, 4.9e-324"
+  })
+  void readsTheDocumentedForms(String text, double value) {
+    assertEquals(value, NumberSyntax.parse(text));
+  }
+
+  @ParameterizedTest
+  @ValueSource(strings = {"inf", "-inf"})
+  void readsInfinity(String text) {
+    assertEquals(
+        text.startsWith("-") ? Double.NEGATIVE_INFINITY : Double.POSITIVE_INFINITY,
+        NumberSyntax.parse(text));
+  }
+
+  @ParameterizedTest
+  @ValueSource(strings = {
+    "22d", "2.2e1f", "0x1.6p4", "22D", "1F", "NaN", "Infinity", "-Infinity", "+1", "1e", "1e+",
+    ".", "-", "", " 1", "1 ", "1_000", "1,5", "--1", "1..2", "e3", "0x10", "1.2.3", "-inf2", "INF"
+  })
+  void refusesEverythingElse(String text) {
+    NumberSyntax.InvalidNumberException e =
+        assertThrows(NumberSyntax.InvalidNumberException.class, () -> NumberSyntax.parse(text));
+    assertEquals("'" + text + "' is not a number", e.getMessage());
+  }
+
+  @ParameterizedTest
+  @ValueSource(strings = {"1e999", "-1e400", "2e308"})
+  void refusesWhatOverflows(String text) {
+    NumberSyntax.InvalidNumberException e =
+        assertThrows(NumberSyntax.InvalidNumberException.class, () -> NumberSyntax.parse(text));
+    assertTrue(e.getMessage().contains("too large to represent"), e.getMessage());
+  }
+
+  @ParameterizedTest
+  @ValueSource(strings = {"1e-999", "-2.5e-400"})
+  void refusesWhatUnderflowsToZero(String text) {
+    NumberSyntax.InvalidNumberException e =
+        assertThrows(NumberSyntax.InvalidNumberException.class, () -> NumberSyntax.parse(text));
+    assertTrue(e.getMessage().contains("too small to represent"), e.getMessage());
+  }
+
+  @ParameterizedTest
+  @ValueSource(strings = {"0", "0.0", "0e-999", "-0.000"})
+  void zeroWrittenAsZeroIsZero(String text) {
+    assertEquals(0.0, Math.abs(NumberSyntax.parse(text)));
+  }
+}
