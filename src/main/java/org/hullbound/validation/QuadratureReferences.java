@@ -1,6 +1,7 @@
 package org.hullbound.validation;
 
 import java.nio.file.Path;
+import java.util.Arrays;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
@@ -21,8 +22,10 @@ import org.hullbound.model.DataTable;
  * <p>Why by hand: a reference computed from hullbound's own compiled densities would share their
  * faults. Each reference below restates its case's {@code model.hbm} (the two must be kept in
  * step; {@code docs/validation.md} says so) and reads the same data files. Unknowns that a closed
- * form removes exactly are integrated out analytically (the school effects of the eight schools);
- * what is left is integrated on a Simpson grid ({@link Quadrature}).
+ * form removes exactly are integrated out analytically (the school effects of the eight schools,
+ * and the location given the scale in the two normal models); what is left is integrated on a
+ * Simpson grid ({@link Quadrature}), or, for a scale whose posterior has a power-law tail, over its
+ * whole range by Gauss-Legendre after a substitution ({@link ScaleMixture}).
  */
 final class QuadratureReferences {
   private static final int POINTS_1D = 20_001;
@@ -35,27 +38,46 @@ final class QuadratureReferences {
     if (!NAMES.contains(name)) {
       return Optional.empty();
     }
-    return Optional.of(folder -> compute(name, folder, POINTS_1D, POINTS_2D));
+    return Optional.of(folder -> compute(name, folder, POINTS_1D, POINTS_2D, 1, Double.POSITIVE_INFINITY));
   }
 
-  /** The same values on grids with twice the resolution: to check the grid error in tests. */
+  /**
+   * The same values computed another way, to check the integration error in tests: grids with
+   * twice the resolution; for the cases integrated over a whole scale range, Gauss nodes placed
+   * by a substitution whose midpoint sits at four times the scale.
+   */
   static Map<String, Double> refined(String name, Path folder) {
-    return compute(name, folder, 2 * POINTS_1D - 1, 2 * POINTS_2D - 1);
+    return compute(name, folder, 2 * POINTS_1D - 1, 2 * POINTS_2D - 1, 4, Double.POSITIVE_INFINITY);
+  }
+
+  /**
+   * The values of a case integrated over a whole scale range ({@code eight_schools},
+   * {@code sleep_normal}) with the scale cut at {@code upper}: to show in tests what the cut-off
+   * tail is worth.
+   */
+  static Map<String, Double> withScaleCutAt(String name, Path folder, double upper) {
+    if (!SCALE_MIXTURES.contains(name)) {
+      throw new IllegalArgumentException(name + " is not integrated over a scale range");
+    }
+    return compute(name, folder, POINTS_1D, POINTS_2D, 1, upper);
   }
 
   private static final List<String> NAMES =
       List.of("eight_schools", "bliss_beetles", "darwin_student_t", "sleep_normal");
 
-  private static Map<String, Double> compute(String name, Path folder, int points1, int points2) {
+  private static final List<String> SCALE_MIXTURES = List.of("eight_schools", "sleep_normal");
+
+  private static Map<String, Double> compute(
+      String name, Path folder, int points1, int points2, double scaleFactor, double upper) {
     switch (name) {
       case "eight_schools":
-        return eightSchools(folder, points2);
+        return eightSchools(folder, 25 * scaleFactor, upper);
       case "bliss_beetles":
         return blissBeetles(folder, points2);
       case "darwin_student_t":
         return darwinStudentT(folder, points1);
       default:
-        return sleepNormal(folder, points2);
+        return sleepNormal(folder, scaleFactor, upper);
     }
   }
 
@@ -63,46 +85,67 @@ final class QuadratureReferences {
    * Eight schools (Rubin 1981): {@code mu ~ normal(0, 50)}, {@code tau ~ half_cauchy(25)},
    * {@code theta[j] ~ normal(mu, tau)}, {@code y[j] ~ normal(theta[j], sigma[j])}. With the
    * thetas integrated out, {@code y[j] | mu, tau ~ normal(mu, sqrt(sigma[j]^2 + tau^2))} (Gelman
-   * et al., BDA3, 5.4); {@code theta[1] | mu, tau, y} is normal with precision-weighted mean,
-   * which gives {@code E theta[1]} as an expectation over the (mu, tau) grid.
+   * et al., BDA3, 5.4), and {@code mu} given {@code tau} is normal ({@link #normalMeanGivenScale});
+   * {@code theta[1] | mu, tau, y} is normal with the precision-weighted mean
+   * {@code (tau^2 y[1] + sigma[1]^2 mu) / (sigma[1]^2 + tau^2)}, linear in {@code mu}, so its
+   * expectation given {@code tau} puts {@code mu}'s conditional mean in place of {@code mu}.
    */
-  private static Map<String, Double> eightSchools(Path folder, int points) {
+  private static Map<String, Double> eightSchools(Path folder, double typicalScale, double upper) {
     DataTable table = CsvData.read(folder.resolve("schools.csv"));
     double[] y = column(table, "y");
     double[] sigma = column(table, "sigma");
     NormalDistribution muPrior = new NormalDistribution(null, 0, 50);
     CauchyDistribution tauPrior = new CauchyDistribution(null, 0, 25);
-    DoubleBinaryOperator logPosterior =
-        (mu, tau) -> {
-          if (!(tau > 0)) {
-            // The density is finite at tau = 0; use the limit so the grid may start there.
-            tau = 0;
-          }
-          double total = muPrior.logDensity(mu) + Math.log(2) + tauPrior.logDensity(tau);
-          for (int j = 0; j < y.length; j++) {
-            total += new NormalDistribution(null, mu, Math.sqrt(sigma[j] * sigma[j] + tau * tau))
-                .logDensity(y[j]);
-          }
-          return total;
-        };
-    Quadrature.Grid2 grid = Quadrature.posterior2(logPosterior, -150, 150, 0, 400, points);
-    double theta1 =
-        grid.expectation(
-            (mu, tau) -> {
-              double dataPrecision = 1 / (sigma[0] * sigma[0]);
-              if (tau == 0) {
-                return mu;
+    ScaleMixture mixture =
+        ScaleMixture.over(
+            tau -> {
+              double[] sd = new double[y.length];
+              for (int j = 0; j < y.length; j++) {
+                sd[j] = Math.sqrt(sigma[j] * sigma[j] + tau * tau);
               }
-              double priorPrecision = 1 / (tau * tau);
-              return (dataPrecision * y[0] + priorPrecision * mu) / (dataPrecision + priorPrecision);
+              return normalMeanGivenScale(tau, Math.log(2) + tauPrior.logDensity(tau), muPrior, y, sd);
+            },
+            typicalScale,
+            upper);
+    double firstVariance = sigma[0] * sigma[0];
+    double theta1 =
+        mixture.expectation(
+            c -> {
+              double tauSquared = c.scale() * c.scale();
+              return (tauSquared * y[0] + firstVariance * c.mean()) / (firstVariance + tauSquared);
             });
     Map<String, Double> values = new LinkedHashMap<>();
-    values.put("mean(mu)", grid.meanX());
-    values.put("sd(mu)", grid.sdX());
-    values.put("mean(tau)", grid.meanY());
-    values.put("sd(tau)", grid.sdY());
+    values.put("mean(mu)", mixture.meanMu());
+    values.put("sd(mu)", mixture.sdMu());
+    values.put("mean(tau)", mixture.meanScale());
+    values.put("sd(tau)", mixture.sdScale());
     values.put("mean(theta[1])", theta1);
     return values;
+  }
+
+  /**
+   * {@code mu ~ muPrior}, {@code y[j] ~ normal(mu, sd[j])}, the sds fixed by the scale: {@code mu}
+   * given the scale is normal with precision {@code P = 1/A + sum 1/sd[j]^2} and mean
+   * {@code m = (sum y[j]/sd[j]^2) / P} ({@code A} the prior variance, prior mean 0; BDA3 2.5), and
+   * the integral over {@code mu} of a density Gaussian in {@code mu} is its value at the peak
+   * {@code m} times {@code sqrt(2 pi / P)}: the scale's log-weight is the model's log-density at
+   * {@code mu = m} plus {@code log sqrt(2 pi / P)}.
+   */
+  private static ScaleMixture.GivenScale normalMeanGivenScale(
+      double scale, double logScalePrior, NormalDistribution muPrior, double[] y, double[] sd) {
+    double priorVariance = muPrior.getStandardDeviation() * muPrior.getStandardDeviation();
+    double precision = 1 / priorVariance;
+    double weighted = muPrior.getMean() / priorVariance;
+    for (int j = 0; j < y.length; j++) {
+      precision += 1 / (sd[j] * sd[j]);
+      weighted += y[j] / (sd[j] * sd[j]);
+    }
+    double m = weighted / precision;
+    double logWeight = logScalePrior + muPrior.logDensity(m) + 0.5 * Math.log(2 * Math.PI / precision);
+    for (int j = 0; j < y.length; j++) {
+      logWeight += new NormalDistribution(null, m, sd[j]).logDensity(y[j]);
+    }
+    return new ScaleMixture.GivenScale(scale, logWeight, m, 1 / precision);
   }
 
   /**
@@ -156,28 +199,25 @@ final class QuadratureReferences {
 
   /**
    * The sleep data of Cushny and Peebles (1905) as given by Student (1908): {@code y[i] ~
-   * normal(mu, sigma)}, {@code mu ~ normal(0, 10)}, {@code sigma ~ half_normal(5)}.
+   * normal(mu, sigma)}, {@code mu ~ normal(0, 10)}, {@code sigma ~ half_normal(5)}; {@code mu}
+   * given {@code sigma} is normal ({@link #normalMeanGivenScale}).
    */
-  private static Map<String, Double> sleepNormal(Path folder, int points) {
+  private static Map<String, Double> sleepNormal(Path folder, double typicalScale, double upper) {
     double[] y = column(CsvData.read(folder.resolve("sleep.csv")), "difference");
     NormalDistribution muPrior = new NormalDistribution(null, 0, 10);
     NormalDistribution sigmaPrior = new NormalDistribution(null, 0, 5);
-    DoubleBinaryOperator logPosterior =
-        (mu, sigma) -> {
-          if (!(sigma > 0)) {
-            return Double.NEGATIVE_INFINITY;
-          }
-          double total = muPrior.logDensity(mu) + Math.log(2) + sigmaPrior.logDensity(sigma);
-          NormalDistribution likelihood = new NormalDistribution(null, mu, sigma);
-          for (double v : y) {
-            total += likelihood.logDensity(v);
-          }
-          return total;
-        };
-    Quadrature.Grid2 grid = Quadrature.posterior2(logPosterior, -20, 20, 0, 30, points);
+    ScaleMixture mixture =
+        ScaleMixture.over(
+            sigma -> {
+              double[] sd = new double[y.length];
+              Arrays.fill(sd, sigma);
+              return normalMeanGivenScale(sigma, Math.log(2) + sigmaPrior.logDensity(sigma), muPrior, y, sd);
+            },
+            typicalScale,
+            upper);
     return Map.of(
-        "mean(mu)", grid.meanX(), "sd(mu)", grid.sdX(),
-        "mean(sigma)", grid.meanY(), "sd(sigma)", grid.sdY());
+        "mean(mu)", mixture.meanMu(), "sd(mu)", mixture.sdMu(),
+        "mean(sigma)", mixture.meanScale(), "sd(sigma)", mixture.sdScale());
   }
 
   /** The numbers of column {@code name}, in row order. */

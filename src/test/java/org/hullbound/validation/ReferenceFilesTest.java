@@ -163,6 +163,65 @@ final class ReferenceFilesTest {
     }
   }
 
+  /**
+   * The two normal models with a scale, against an independent recomputation (issue 9:
+   * high-precision quadrature, confirmed by a second method to 1e-10), given there to 6 significant
+   * digits, so the tolerance is half a unit in the last digit given. The grid of mean +- 14 sd that
+   * these references used before stopped tau at 73.7 and sigma at 7.2 and was off by more than the
+   * floors (sd(tau) 4.84529, sd(sigma) 0.410344).
+   */
+  @Test
+  void scaleModelsAgreeWithAnIndependentRecomputation() {
+    Map<String, Double> schools = computed("eight_schools");
+    assertEquals(4.92472, schools.get("sd(mu)"), 5e-6);
+    assertEquals(5.88289, schools.get("mean(tau)"), 5e-6);
+    assertEquals(4.84722, schools.get("sd(tau)"), 5e-6);
+    Map<String, Double> sleep = computed("sleep_normal");
+    assertEquals(0.470469, sleep.get("sd(mu)"), 5e-7);
+    assertEquals(1.432465, sleep.get("mean(sigma)"), 5e-7);
+    assertEquals(0.410506, sleep.get("sd(sigma)"), 5e-7);
+    // Every quantity, against mpmath 1.3.0's tanh-sinh quadrature at 30 digits over (0, inf) of the
+    // same closed-form marginal (mu integrated out given the scale), run once for this test.
+    assertEquals(7.82735104587, schools.get("mean(mu)"), 1e-9);
+    assertEquals(4.92472090553, schools.get("sd(mu)"), 1e-9);
+    assertEquals(5.88288994659, schools.get("mean(tau)"), 1e-9);
+    assertEquals(4.84722401962, schools.get("sd(tau)"), 1e-9);
+    assertEquals(10.8714715348, schools.get("mean(theta[1])"), 1e-9);
+    assertEquals(1.5765029031, sleep.get("mean(mu)"), 1e-9);
+    assertEquals(0.470468584311, sleep.get("sd(mu)"), 1e-9);
+    assertEquals(1.43246454053, sleep.get("mean(sigma)"), 1e-9);
+    assertEquals(0.410505786475, sleep.get("sd(sigma)"), 1e-9);
+  }
+
+  /**
+   * The scale is integrated over its whole range: cutting it anywhere past 1e3 (hundreds of
+   * posterior sds) moves no value by a quarter of its floor, while the cut of the old grid (tau at
+   * 73.7, sigma at 7.2) moves some value past its floor, so this check can see a lost tail.
+   */
+  @Test
+  void wideningTheScaleRangeMovesNoValueBeyondTheFloor() {
+    Map<String, Double> oldCut = Map.of("eight_schools", 73.7, "sleep_normal", 7.2);
+    for (String name : List.of("eight_schools", "sleep_normal")) {
+      Map<String, Double> whole = computed(name);
+      List<Quantity> quantities = ValidationCase.read(SUITE.resolve(name)).quantities();
+      for (double upper : new double[] {1e3, 1e5}) {
+        Map<String, Double> cut = QuadratureReferences.withScaleCutAt(name, SUITE.resolve(name), upper);
+        for (Quantity q : quantities) {
+          double difference = Math.abs(whole.get(q.name()) - cut.get(q.name()));
+          assertTrue(difference < q.floor() / 4, name + " " + q.name() + " cut at " + upper + " moved by " + difference);
+        }
+      }
+      Map<String, Double> short_ = QuadratureReferences.withScaleCutAt(name, SUITE.resolve(name), oldCut.get(name));
+      assertTrue(
+          quantities.stream().anyMatch(q -> Math.abs(whole.get(q.name()) - short_.get(q.name())) > q.floor()),
+          name + ": the old cut should have lost more than a floor");
+    }
+  }
+
+  private static Map<String, Double> computed(String name) {
+    return QuadratureReferences.forCase(name).orElseThrow().values(SUITE.resolve(name));
+  }
+
   /** A reference 10 MCSE away from the truth fails: the rule can fail. */
   @Test
   void aWrongReferenceFails(@TempDir Path suite) throws IOException {
