@@ -148,16 +148,28 @@ public final class CheckCommand implements Callable<Integer> {
   }
 
   private static String updateName(Update update) {
-    if (update instanceof Update.LinearNormalBlock block) {
-      return "exact block normal (" + block.size() + " jointly)";
-    }
-    if (update instanceof Update.Conjugate conjugate) {
-      return "exact " + conjugate.kind().name().toLowerCase(Locale.ROOT);
-    }
-    if (update instanceof Update.AdaptiveRejection ars) {
-      return ars.smooth() ? "adaptive rejection" : "adaptive rejection, no slopes";
-    }
-    return "fallback";
+    return update.accept(
+        new Update.Visitor<String>() {
+          @Override
+          public String conjugate(Update.Conjugate conjugate) {
+            return "exact " + conjugate.kind().name().toLowerCase(Locale.ROOT);
+          }
+
+          @Override
+          public String adaptiveRejection(Update.AdaptiveRejection ars) {
+            return ars.smooth() ? "adaptive rejection" : "adaptive rejection, no slopes";
+          }
+
+          @Override
+          public String fallback(Update.Fallback fallback) {
+            return "fallback";
+          }
+
+          @Override
+          public String linearNormalBlock(Update.LinearNormalBlock block) {
+            return "exact block normal (" + block.size() + " jointly)";
+          }
+        });
   }
 
   /** Consecutive unknowns of one node with the same scale, kind of update and reason. */
