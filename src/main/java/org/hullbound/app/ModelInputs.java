@@ -37,11 +37,14 @@ public record ModelInputs(Path modelFile, List<Path> dataFiles) {
     return Parser.parse(SourceText.of(modelFile.toString(), text));
   }
 
-  /** Every data file read. */
-  public List<DataTable> tables() {
+  /**
+   * Every data file read, keeping the columns {@code parsed} reads ({@link
+   * BoundModel#readsColumn}); the others are checked for shape only.
+   */
+  public List<DataTable> tables(ModelFile parsed) {
     List<DataTable> tables = new ArrayList<>();
     for (Path file : dataFiles) {
-      tables.add(CsvData.read(file));
+      tables.add(CsvData.read(file, BoundModel.readsColumn(parsed)));
     }
     return tables;
   }
@@ -49,7 +52,7 @@ public record ModelInputs(Path modelFile, List<Path> dataFiles) {
   /** The model bound to its data. */
   public BoundModel bind() {
     ModelFile parsed = parse();
-    return BoundModel.bind(parsed, tables());
+    return BoundModel.bind(parsed, tables(parsed));
   }
 
   /** SHA-256 of the model and data texts as read now (see {@link CheckpointFile#inputHash}). */
