@@ -148,7 +148,6 @@ public final class FitRun implements AutoCloseable {
         settings =
             settingsOf(request, request.seed() != null ? request.seed() : new SecureRandom().nextLong());
         refuseToReplace(folder, request.overwrite());
-        clearEarlierRun(folder, request.overwrite());
       }
       if (request.threads() != null) {
         settings = settings.withThreads(request.threads());
@@ -204,6 +203,10 @@ public final class FitRun implements AutoCloseable {
     RunOutcome outcome;
     OffsetDateTime startedAt;
     long startNanos;
+    if (checkpoint == null) {
+      // Here, not in prepare: a run stopped before it samples leaves the earlier run's files.
+      clearEarlierRun(folder, request.overwrite());
+    }
     try (DrawsWriter writer = openDraws(folder, store)) {
       sampled = true;
       DrawSink both =
