@@ -1,19 +1,11 @@
 package org.hullbound.cli;
 
-import java.io.IOException;
 import java.io.PrintWriter;
 import java.nio.file.Path;
-import java.util.ArrayList;
 import java.util.List;
 import java.util.concurrent.Callable;
-import org.hullbound.io.CsvData;
-import org.hullbound.io.TextFiles;
+import org.hullbound.app.ModelInputs;
 import org.hullbound.lang.ModelFile;
-import org.hullbound.lang.Parser;
-import org.hullbound.lang.SourceText;
-import org.hullbound.model.BoundModel;
-import org.hullbound.model.DataTable;
-import org.hullbound.model.SimulationException;
 import org.hullbound.validation.Calibration;
 import org.hullbound.validation.CalibrationFiles;
 import org.hullbound.validation.CalibrationResult;
@@ -22,8 +14,8 @@ import org.hullbound.validation.CalibrationText;
 import org.hullbound.validation.PosteriorFitter;
 import picocli.CommandLine;
 import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
-import picocli.CommandLine.Parameters;
 
 /**
  * {@code hullbound calibrate MODEL}: simulation-based calibration (Talts et al. 2018) of a model
@@ -38,15 +30,13 @@ import picocli.CommandLine.Parameters;
     description = {
       "Simulation-based calibration of a model (Talts et al. 2018).",
       "Draws the unknowns from the prior, simulates the data, fits, and tests the ranks",
-      "of the prior draws among the posterior draws for uniformity."
+      "of the prior draws among the posterior draws for uniformity. The model's priors",
+      "must be proper; of the data files, covariates and index sizes are kept and the",
+      "modelled columns are simulated."
     })
 public final class CalibrateCommand implements Callable<Integer> {
 
-  @Parameters(index = "0", paramLabel = "MODEL", description = "The model file (.hbm); its priors must be proper.")
-  Path modelFile;
-
-  @Option(names = "--data", paramLabel = "FILE", description = "A data file: covariates and index sizes are kept, modelled columns are simulated.")
-  List<Path> dataFiles = new ArrayList<>();
+  @Mixin ModelOptions model;
 
   @Option(names = "--replicates", paramLabel = "N", required = true, description = "Prior draws, each with a simulated data set and a fit.")
   int replicates;
@@ -63,48 +53,41 @@ public final class CalibrateCommand implements Callable<Integer> {
   @Option(names = "--bins", paramLabel = "B", description = "Chi-square bins, a divisor of L + 1 (default: chosen, >= 5 ranks expected per bin).")
   int bins;
 
-  @Option(names = "--seed", paramLabel = "S", description = "Seed of the whole run (default: ${DEFAULT-VALUE}).")
-  long seed = 1;
+  @Mixin SeedOption seed;
 
-  @Option(names = "--out", paramLabel = "DIR", description = "Folder for ranks.csv and the histograms (default: calibrate-out/<model name>).")
-  Path out;
+  @Mixin OutputFolder out;
+
+  /** The seed when none is given: calibration repeats exactly unless asked otherwise. */
+  static final long DEFAULT_SEED = 1;
 
   @CommandLine.Spec CommandLine.Model.CommandSpec spec;
 
   @Override
-  public Integer call() throws IOException {
+  public Integer call() {
     PrintWriter stdout = spec.commandLine().getOut();
     PrintWriter stderr = spec.commandLine().getErr();
     CalibrationSettings settings;
     try {
-      settings = new CalibrationSettings(replicates, draws, thin, burnIn, bins, seed);
+      settings = new CalibrationSettings(replicates, draws, thin, burnIn, bins, seed.orElse(() -> DEFAULT_SEED));
       settings.binCount();
     } catch (IllegalArgumentException invalid) {
-      return userError(stderr, invalid.getMessage()
+      return ErrorReporting.userError(spec.commandLine(), invalid.getMessage()
           .replace("replicates must", "--replicates must").replace("draws must", "--draws must")
           .replace("thin must", "--thin must").replace("burnIn must", "--burn-in must")
           .replace("bins must", "--bins must"));
     }
-    String text = TextFiles.readUtf8(modelFile, "model file");
-    ModelFile parsed = Parser.parse(SourceText.of(modelFile.toString(), text));
-    List<DataTable> tables = new ArrayList<>();
-    for (Path file : dataFiles) {
-      tables.add(CsvData.read(file, BoundModel.readsColumn(parsed)));
-    }
-    CalibrationResult result;
-    try {
-      Calibration calibration = Calibration.of(parsed, tables, PosteriorFitter.gibbs());
-      int every = Math.max(1, replicates / 10);
-      result = calibration.run(settings, done -> {
-        if (done % every == 0 || done == replicates) {
-          stderr.printf("hullbound calibrate: %d of %d replicates%n", done, replicates);
-          stderr.flush();
-        }
-      });
-    } catch (SimulationException cannot) {
-      return userError(stderr, cannot.getMessage());
-    }
-    Path folder = out != null ? out : Path.of("calibrate-out", result.modelName());
+    ModelInputs inputs = model.inputs();
+    ModelFile parsed = inputs.parse();
+    Calibration calibration =
+        Calibration.of(parsed, inputs.tables(parsed), PosteriorFitter.gibbs());
+    int every = Math.max(1, replicates / 10);
+    CalibrationResult result = calibration.run(settings, done -> {
+      if (done % every == 0 || done == replicates) {
+        stderr.printf("hullbound calibrate: %d of %d replicates%n", done, replicates);
+        stderr.flush();
+      }
+    });
+    Path folder = out.orDefault("calibrate", result.modelName());
     List<Path> pictures = CalibrationFiles.write(result, folder);
     stdout.print(CalibrationText.of(result));
     stdout.println();
@@ -114,9 +97,4 @@ public final class CalibrateCommand implements Callable<Integer> {
     return result.passes(CalibrationText.LEVEL) ? 0 : ErrorReporting.FAILURE;
   }
 
-  private static int userError(PrintWriter stderr, String message) {
-    stderr.println("hullbound calibrate: " + message);
-    stderr.flush();
-    return ErrorReporting.USER_ERROR;
-  }
 }

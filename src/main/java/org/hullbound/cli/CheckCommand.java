@@ -1,27 +1,18 @@
 package org.hullbound.cli;
 
-import java.io.IOException;
 import java.io.PrintWriter;
-import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
 import java.util.concurrent.Callable;
-import org.hullbound.io.CsvData;
-import org.hullbound.io.TextFiles;
-import org.hullbound.lang.ModelFile;
-import org.hullbound.lang.Parser;
-import org.hullbound.lang.SourceText;
 import org.hullbound.model.BoundModel;
 import org.hullbound.model.DataSummary;
-import org.hullbound.model.DataTable;
 import org.hullbound.model.IndexSet;
 import org.hullbound.model.Unknown;
 import org.hullbound.model.Update;
 import picocli.CommandLine;
 import picocli.CommandLine.Command;
-import picocli.CommandLine.Option;
-import picocli.CommandLine.Parameters;
+import picocli.CommandLine.Mixin;
 
 /**
  * {@code hullbound check MODEL [--data FILE]...}: parses and binds a model and prints its graph,
@@ -39,28 +30,15 @@ import picocli.CommandLine.Parameters;
             + " sampling scale, the update it will get and why, and the data that was read.")
 public final class CheckCommand implements Callable<Integer> {
 
-  @Parameters(index = "0", paramLabel = "MODEL", description = "The model file (.hbm).")
-  Path modelFile;
-
-  @Option(
-      names = "--data",
-      paramLabel = "FILE",
-      description = "A data file (CSV with a header row); repeat for one file per index set.")
-  List<Path> dataFiles = new ArrayList<>();
+  @Mixin ModelOptions inputs;
 
   @CommandLine.Spec CommandLine.Model.CommandSpec spec;
 
   @Override
-  public Integer call() throws IOException {
-    String text = TextFiles.readUtf8(modelFile, "model file");
-    ModelFile parsed = Parser.parse(SourceText.of(modelFile.toString(), text));
-    List<DataTable> tables = new ArrayList<>();
-    for (Path file : dataFiles) {
-      tables.add(CsvData.read(file, BoundModel.readsColumn(parsed)));
-    }
-    BoundModel model = BoundModel.bind(parsed, tables);
+  public Integer call() {
+    BoundModel model = inputs.inputs().bind();
     PrintWriter out = spec.commandLine().getOut();
-    print(model, modelFile.toString(), out);
+    print(model, inputs.modelFile.toString(), out);
     out.flush();
     return 0;
   }
@@ -151,16 +129,28 @@ public final class CheckCommand implements Callable<Integer> {
   }
 
   private static String updateName(Update update) {
-    if (update instanceof Update.LinearNormalBlock block) {
-      return "exact block normal (" + block.size() + " jointly)";
-    }
-    if (update instanceof Update.Conjugate conjugate) {
-      return "exact " + conjugate.kind().name().toLowerCase(Locale.ROOT);
-    }
-    if (update instanceof Update.AdaptiveRejection ars) {
-      return ars.smooth() ? "adaptive rejection" : "adaptive rejection, no slopes";
-    }
-    return "fallback";
+    return update.accept(
+        new Update.Visitor<String>() {
+          @Override
+          public String conjugate(Update.Conjugate conjugate) {
+            return "exact " + conjugate.kind().name().toLowerCase(Locale.ROOT);
+          }
+
+          @Override
+          public String adaptiveRejection(Update.AdaptiveRejection ars) {
+            return ars.smooth() ? "adaptive rejection" : "adaptive rejection, no slopes";
+          }
+
+          @Override
+          public String fallback(Update.Fallback fallback) {
+            return "fallback";
+          }
+
+          @Override
+          public String linearNormalBlock(Update.LinearNormalBlock block) {
+            return "exact block normal (" + block.size() + " jointly)";
+          }
+        });
   }
 
   /** Consecutive unknowns of one node with the same scale, kind of update and reason. */

@@ -4,13 +4,23 @@ import java.io.IOException;
 import java.io.PrintWriter;
 import java.io.UncheckedIOException;
 import java.nio.file.NoSuchFileException;
+import java.util.List;
+import org.hullbound.app.RunRefusedException;
+import org.hullbound.app.SamplingFailedException;
+import org.hullbound.gibbs.StartingValueException;
+import org.hullbound.io.CheckpointException;
 import org.hullbound.lang.ModelException;
+import org.hullbound.model.SimulationException;
+import org.hullbound.validation.InvalidCaseException;
 import picocli.CommandLine;
 
 /**
  * Turns every failure of every command into a message and an exit status, shared by all
- * subcommands: a model or data error prints its positioned rendering and exits 2, an unreadable
- * file exits 2, anything else exits 1; a stack trace is printed only under {@code --debug}.
+ * subcommands: a model or data error prints its positioned rendering and exits 2; a refused run,
+ * an unusable starting value, checkpoint, validation case or simulation, or an unreadable file
+ * exits 2 with its message; a failed sampling run exits 1 and says where its draws are; anything
+ * else exits 1 as an internal error. A stack trace is printed only under {@code --debug}, and then
+ * on every path.
  *
  * <p>Installed once on the top-level command line by {@link Main#commandLine()}, so a new command
  * (such as {@code fit}) gets the same behaviour by being registered as a subcommand.
@@ -36,9 +46,17 @@ public final class ErrorReporting implements CommandLine.IExecutionExceptionHand
       Exception exception, CommandLine commandLine, CommandLine.ParseResult parseResult) {
     PrintWriter err = commandLine.getErr();
     int status;
+    String command = "hullbound " + commandLine.getCommandName() + ": ";
     if (exception instanceof ModelException model) {
       err.print(model.render());
       status = USER_ERROR;
+    } else if (isUserError(exception)) {
+      err.println(command + exception.getMessage());
+      status = USER_ERROR;
+    } else if (exception instanceof SamplingFailedException failed) {
+      err.println(command + failed.getMessage());
+      err.println("  the draws made before the failure are in " + failed.drawsFile());
+      status = FAILURE;
     } else if (exception instanceof UncheckedIOException io) {
       err.println("hullbound: " + describe(io.getCause(), io.getMessage()));
       status = USER_ERROR;
@@ -56,6 +74,27 @@ public final class ErrorReporting implements CommandLine.IExecutionExceptionHand
     }
     err.flush();
     return status;
+  }
+
+  /**
+   * The typed failures that mean the input or the options must change: exit 2 with the message
+   * alone. One list, so that every command maps them the same way.
+   */
+  private static final List<Class<? extends RuntimeException>> USER_ERRORS =
+      List.of(
+          RunRefusedException.class, StartingValueException.class, CheckpointException.class,
+          InvalidCaseException.class, SimulationException.class);
+
+  private static boolean isUserError(Exception exception) {
+    return USER_ERRORS.stream().anyMatch(type -> type.isInstance(exception));
+  }
+
+  /** Prints a usage error found by a command itself (an option out of range) and returns 2. */
+  static int userError(CommandLine commandLine, String message) {
+    PrintWriter err = commandLine.getErr();
+    err.println("hullbound " + commandLine.getCommandName() + ": " + message);
+    err.flush();
+    return USER_ERROR;
   }
 
   private static String describe(IOException io, String message) {

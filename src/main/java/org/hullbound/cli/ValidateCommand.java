@@ -6,12 +6,12 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.concurrent.Callable;
 import org.hullbound.validation.CaseOutcome;
-import org.hullbound.validation.InvalidCaseException;
 import org.hullbound.validation.ValidationSettings;
 import org.hullbound.validation.ValidationText;
 import org.hullbound.validation.Validator;
 import picocli.CommandLine;
 import picocli.CommandLine.Command;
+import picocli.CommandLine.Mixin;
 import picocli.CommandLine.Option;
 
 /**
@@ -41,8 +41,7 @@ public final class ValidateCommand implements Callable<Integer> {
   @Option(names = "--burn-in", paramLabel = "N", description = "Sweeps discarded per chain (default: ${DEFAULT-VALUE}).")
   int burnIn = ValidationSettings.DEFAULT_BURN_IN;
 
-  @Option(names = "--seed", paramLabel = "S", description = "Seed of the suite's runs (default: ${DEFAULT-VALUE}).")
-  long seed = ValidationSettings.DEFAULT_SEED;
+  @Mixin SeedOption seed;
 
   @Option(names = "--suite", paramLabel = "DIR", description = "The folder of cases (default: ${DEFAULT-VALUE}).")
   Path suite = Path.of("validation");
@@ -55,33 +54,24 @@ public final class ValidateCommand implements Callable<Integer> {
   @Override
   public Integer call() {
     PrintWriter out = spec.commandLine().getOut();
-    PrintWriter err = spec.commandLine().getErr();
     if (draws < 100) {
-      err.println("hullbound validate: --draws must be at least 100, got " + draws);
-      err.flush();
-      return ErrorReporting.USER_ERROR;
+      return ErrorReporting.userError(
+          spec.commandLine(), "--draws must be at least 100, got " + draws);
     }
     if (burnIn < 0) {
-      err.println("hullbound validate: --burn-in must be at least 0, got " + burnIn);
-      err.flush();
-      return ErrorReporting.USER_ERROR;
+      return ErrorReporting.userError(
+          spec.commandLine(), "--burn-in must be at least 0, got " + burnIn);
     }
     ValidationSettings settings =
-        ValidationSettings.defaults().withDraws(draws).withBurnIn(burnIn).withSeed(seed);
-    List<CaseOutcome> outcomes;
-    try {
-      Validator validator = Validator.of(suite, settings);
-      if (list) {
-        validator.caseNames().forEach(out::println);
-        out.flush();
-        return 0;
-      }
-      outcomes = validator.run(cases);
-    } catch (InvalidCaseException invalid) {
-      err.println("hullbound validate: " + invalid.getMessage());
-      err.flush();
-      return ErrorReporting.USER_ERROR;
+        ValidationSettings.defaults().withDraws(draws).withBurnIn(burnIn)
+            .withSeed(seed.orElse(() -> ValidationSettings.DEFAULT_SEED));
+    Validator validator = Validator.of(suite, settings);
+    if (list) {
+      validator.caseNames().forEach(out::println);
+      out.flush();
+      return 0;
     }
+    List<CaseOutcome> outcomes = validator.run(cases);
     out.print(ValidationText.of(outcomes, settings));
     out.flush();
     return outcomes.stream().allMatch(CaseOutcome::pass) ? 0 : ErrorReporting.FAILURE;

@@ -100,15 +100,27 @@ public final class GibbsSampler implements KernelFactory {
   }
 
   private Updater updaterFor(UpdateRule rule) {
-    if (rule instanceof UpdateRule.Conjugate conjugate) {
-      return new ConjugateUpdater(conjugate);
-    }
-    if (rule instanceof UpdateRule.BlockNormal block) {
-      return new BlockNormalUpdater(block);
-    }
-    if (rule instanceof UpdateRule.AdaptiveRejection rejection) {
-      return new AdaptiveRejectionUpdater(rejection, adaptationSweeps);
-    }
-    return new FallbackUpdater((UpdateRule.Fallback) rule, adaptationSweeps, Double.NaN, 1.0);
+    return rule.accept(
+        new UpdateRule.Visitor<Updater>() {
+          @Override
+          public Updater conjugate(UpdateRule.Conjugate conjugate) {
+            return new ConjugateUpdater(conjugate);
+          }
+
+          @Override
+          public Updater blockNormal(UpdateRule.BlockNormal block) {
+            return new BlockNormalUpdater(block);
+          }
+
+          @Override
+          public Updater adaptiveRejection(UpdateRule.AdaptiveRejection rejection) {
+            return new AdaptiveRejectionUpdater(rejection, adaptationSweeps);
+          }
+
+          @Override
+          public Updater fallback(UpdateRule.Fallback fallback) {
+            return new FallbackUpdater(fallback, adaptationSweeps, Double.NaN, 1.0);
+          }
+        });
   }
 }

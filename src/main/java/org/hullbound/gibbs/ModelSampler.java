@@ -3,6 +3,7 @@ package org.hullbound.gibbs;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
+import java.util.Optional;
 import java.util.random.RandomGenerator;
 import org.hullbound.model.BoundModel;
 import org.hullbound.model.ConditionalDensity;
@@ -77,14 +78,7 @@ public final class ModelSampler {
       int index = unknown.index();
       Update update = blocks ? model.update(index) : model.singleUpdate(index);
       reasons.add(update.reason());
-      if (update instanceof Update.LinearNormalBlock block) {
-        // The block's rule goes in the sweep where its first member would be.
-        if (block.members()[0] == index) {
-          rules.add(blockRule(block));
-        }
-        continue;
-      }
-      rules.add(ruleFor(unknown, model.conditional(index), update, base));
+      ruleFor(model, unknown, update, base).ifPresent(rules::add);
     }
     StartingValues starts = ModelStartingValues.of(model, base, given);
     return new ModelSampler(
@@ -141,49 +135,80 @@ public final class ModelSampler {
         });
   }
 
-  private static UpdateRule ruleFor(
-      Unknown unknown, ConditionalDensity density, Update update, double[] base) {
+  /**
+   * The rule of {@code unknown}, or none for a block member after the first: the block's rule goes
+   * in the sweep where its first member would be.
+   */
+  private static Optional<UpdateRule> ruleFor(
+      BoundModel model, Unknown unknown, Update update, double[] base) {
     int index = unknown.index();
-    ScalarConditional conditional = adapt(density);
-    if (update instanceof Update.Conjugate conjugate) {
-      Posterior sample = conjugate.posterior(base);
-      String family = sample.family();
-      List<String> names = sample.argumentNames();
-      if (conjugate.kind() == Update.ConjugateKind.PREDICTIVE) {
-        if (PredictiveDraw.supports(family, names)) {
-          double lower = unknown.lower();
-          double upper = unknown.upper();
-          return new UpdateRule.Conjugate(
-              index, "predictive " + family,
-              (state, rng) -> {
-                Posterior posterior = conjugate.posterior(state);
-                return PredictiveDraw.draw(
-                    family, names, posterior.arguments(),
-                    Double.isNaN(lower) ? Double.NEGATIVE_INFINITY : lower,
-                    Double.isNaN(upper) ? Double.POSITIVE_INFINITY : upper, rng);
-              });
-        }
-        return new UpdateRule.Fallback(index, conditional, "no exact draw for " + family);
+    return update.accept(
+        new Update.Visitor<Optional<UpdateRule>>() {
+          @Override
+          public Optional<UpdateRule> conjugate(Update.Conjugate conjugate) {
+            return Optional.of(conjugateRule(unknown, model, conjugate, base));
+          }
+
+          @Override
+          public Optional<UpdateRule> adaptiveRejection(Update.AdaptiveRejection rejection) {
+            ScalarConditional conditional = adapt(model.conditional(index));
+            return Optional.of(
+                unknown.discrete()
+                    ? new UpdateRule.Fallback(index, conditional, rejection.reason())
+                    : new UpdateRule.AdaptiveRejection(index, conditional, rejection.reason()));
+          }
+
+          @Override
+          public Optional<UpdateRule> fallback(Update.Fallback fallback) {
+            return Optional.of(
+                new UpdateRule.Fallback(index, adapt(model.conditional(index)), fallback.reason()));
+          }
+
+          @Override
+          public Optional<UpdateRule> linearNormalBlock(Update.LinearNormalBlock block) {
+            return block.members()[0] == index ? Optional.of(blockRule(block)) : Optional.empty();
+          }
+        });
+  }
+
+  private static UpdateRule conjugateRule(
+      Unknown unknown, BoundModel model, Update.Conjugate conjugate, double[] base) {
+    int index = unknown.index();
+    Posterior sample = conjugate.posterior(base);
+    String family = sample.family();
+    List<String> names = sample.argumentNames();
+    if (conjugate.kind() == Update.ConjugateKind.PREDICTIVE) {
+      if (PredictiveDraw.supports(family, names)) {
+        double lower = unknown.lower();
+        double upper = unknown.upper();
+        return new UpdateRule.Conjugate(
+            index, "predictive " + family,
+            (state, rng) -> {
+              Posterior posterior = conjugate.posterior(state);
+              return PredictiveDraw.draw(
+                  family, names, posterior.arguments(),
+                  Double.isNaN(lower) ? Double.NEGATIVE_INFINITY : lower,
+                  Double.isNaN(upper) ? Double.POSITIVE_INFINITY : upper, rng);
+            });
       }
-      UpdateRule.ConjugateDraw exact = conjugateDraw(conjugate, family, names);
-      return new UpdateRule.Conjugate(
-          index, family,
-          (state, rng) -> {
-            double value = exact.draw(state, rng);
-            if (!Double.isFinite(density.toSamplingScale(value))) {
-              throw new IllegalStateException(
-                  "the exact " + family + " draw is " + value + ", on the edge of the support "
-                      + unknown.support() + " and so outside it: the posterior "
-                      + conjugate.posterior(state) + " puts its mass closer to the edge than a"
-                      + " double can tell apart from it");
-            }
-            return value;
-          });
+      return new UpdateRule.Fallback(
+          index, adapt(model.conditional(index)), "no exact draw for " + family);
     }
-    if (update instanceof Update.AdaptiveRejection && !unknown.discrete()) {
-      return new UpdateRule.AdaptiveRejection(index, conditional, update.reason());
-    }
-    return new UpdateRule.Fallback(index, conditional, update.reason());
+    ConditionalDensity density = model.conditional(index);
+    UpdateRule.ConjugateDraw exact = conjugateDraw(conjugate, family, names);
+    return new UpdateRule.Conjugate(
+        index, family,
+        (state, rng) -> {
+          double value = exact.draw(state, rng);
+          if (!Double.isFinite(density.toSamplingScale(value))) {
+            throw new IllegalStateException(
+                "the exact " + family + " draw is " + value + ", on the edge of the support "
+                    + unknown.support() + " and so outside it: the posterior "
+                    + conjugate.posterior(state) + " puts its mass closer to the edge than a"
+                    + " double can tell apart from it");
+          }
+          return value;
+        });
   }
 
   private static UpdateRule.ConjugateDraw conjugateDraw(

@@ -8,18 +8,39 @@ import java.util.function.Function;
  * a closed set of kinds from exact to approximate.
  *
  * <p>A rule is shared by all chains; {@link GibbsSampler} turns it into one {@link Updater} per
- * chain, which holds the chain's warm-start state and counters.
+ * chain, which holds the chain's warm-start state and counters. Code that treats each kind its
+ * own way goes through {@link #accept(Visitor)}, so that a new kind cannot compile until every
+ * such place handles it.
  */
 public sealed interface UpdateRule {
 
   /** The state entries this rule updates. */
   int[] indices();
 
+  /** Calls the method of {@code visitor} for this kind of rule and returns its result. */
+  <R> R accept(Visitor<R> visitor);
+
+  /** One method per kind of rule; see {@link #accept(Visitor)}. */
+  interface Visitor<R> {
+    R conjugate(Conjugate rule);
+
+    R blockNormal(BlockNormal rule);
+
+    R adaptiveRejection(AdaptiveRejection rule);
+
+    R fallback(Fallback rule);
+  }
+
   /** An exact draw from a conjugate full conditional; uses no density evaluation. */
   record Conjugate(int index, String family, ConjugateDraw draw) implements UpdateRule {
     @Override
     public int[] indices() {
       return new int[] {index};
+    }
+
+    @Override
+    public <R> R accept(Visitor<R> visitor) {
+      return visitor.conjugate(this);
     }
   }
 
@@ -34,6 +55,11 @@ public sealed interface UpdateRule {
     public int[] indices() {
       return block.clone();
     }
+
+    @Override
+    public <R> R accept(Visitor<R> visitor) {
+      return visitor.blockNormal(this);
+    }
   }
 
   /** Adaptive rejection on a conditional known to be log-concave (Gilks and Wild 1992). */
@@ -42,6 +68,11 @@ public sealed interface UpdateRule {
     @Override
     public int[] indices() {
       return new int[] {index};
+    }
+
+    @Override
+    public <R> R accept(Visitor<R> visitor) {
+      return visitor.adaptiveRejection(this);
     }
   }
 
@@ -53,6 +84,11 @@ public sealed interface UpdateRule {
     @Override
     public int[] indices() {
       return new int[] {index};
+    }
+
+    @Override
+    public <R> R accept(Visitor<R> visitor) {
+      return visitor.fallback(this);
     }
   }
 

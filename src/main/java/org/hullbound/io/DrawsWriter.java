@@ -1,8 +1,9 @@
 package org.hullbound.io;
 
-import java.io.BufferedWriter;
 import java.io.IOException;
 import java.io.UncheckedIOException;
+import java.nio.ByteBuffer;
+import java.nio.channels.FileChannel;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
@@ -20,6 +21,12 @@ import org.hullbound.gibbs.DrawSink;
  * <p>Each row is written whole under one lock, and the file is flushed at least every half second
  * and on close, so that an interrupted run leaves a valid CSV of every completed draw; rows of
  * different chains may interleave. Chains and draws are numbered from 1 in the file.
+ *
+ * <p>Rows are buffered here, not in a {@link java.io.BufferedWriter} (which writes whenever its
+ * buffer fills, in the middle of a row), and written to the file in whole rows; the writer keeps
+ * the length of the file's whole rows, and when a write fails (the disk is full) it cuts the file
+ * back to that length, so that the file holds whole rows only, every row written before the
+ * failure.
  */
 public final class DrawsWriter implements DrawSink, AutoCloseable {
   /** The file name inside the output folder. */
@@ -27,18 +34,33 @@ public final class DrawsWriter implements DrawSink, AutoCloseable {
 
   private static final long FLUSH_INTERVAL_MILLIS = 500;
 
+  /** Rows held before a write; a multiple of the usual page size, far above one row. */
+  private static final int BUFFER_CHARS = 1 << 16;
+
   private final Path file;
-  private final BufferedWriter out;
+  private final FileChannel out;
+  private final Writes writes;
   private final int width;
   private final ScheduledExecutorService flusher;
   private final StringBuilder row = new StringBuilder(256);
+  private final StringBuilder pending = new StringBuilder(BUFFER_CHARS + 256);
+  /** Bytes of the file that end with a whole row: where a failed write is cut back to. */
+  private long whole;
   private IOException failure;
   private boolean closed;
 
-  private DrawsWriter(Path file, BufferedWriter out, int width) {
+  /** How bytes reach the file: {@link FileChannel#write}, or a failing one in tests. */
+  @FunctionalInterface
+  interface Writes {
+    int write(FileChannel channel, ByteBuffer bytes) throws IOException;
+  }
+
+  private DrawsWriter(Path file, FileChannel out, Writes writes, int width) throws IOException {
     this.file = file;
     this.out = out;
+    this.writes = writes;
     this.width = width;
+    this.whole = out.size();
     this.flusher =
         Executors.newSingleThreadScheduledExecutor(
             task -> {
@@ -57,18 +79,41 @@ public final class DrawsWriter implements DrawSink, AutoCloseable {
    * @param columns the labels of the recorded quantities, in the order of each draw's values
    */
   public static DrawsWriter open(Path directory, List<String> columns) {
+    return open(directory, columns, FileChannel::write);
+  }
+
+  /** {@link #open(Path, List)} writing through {@code writes}: tests inject a failing disk. */
+  static DrawsWriter open(Path directory, List<String> columns, Writes writes) {
     if (directory == null || columns == null) {
       throw new IllegalArgumentException("directory and columns must not be null");
     }
     Path file = directory.resolve(FILE_NAME);
+    DrawsWriter writer = null;
     try {
       Files.createDirectories(directory);
-      BufferedWriter out = Files.newBufferedWriter(file, StandardCharsets.UTF_8);
-      out.write(header(columns));
-      out.flush();
-      return new DrawsWriter(file, out, columns.size());
-    } catch (IOException e) {
-      throw new UncheckedIOException("cannot write " + file + ": " + e.getMessage(), e);
+      writer =
+          new DrawsWriter(
+              file,
+              FileChannel.open(file, StandardOpenOption.CREATE, StandardOpenOption.WRITE,
+                  StandardOpenOption.TRUNCATE_EXISTING),
+              writes, columns.size());
+      writer.pending.append(header(columns));
+      writer.flush();
+      return writer;
+    } catch (IOException | UncheckedIOException e) {
+      // Not even the header could be written: leave no empty draws file behind.
+      if (writer != null) {
+        writer.flusher.shutdownNow();
+        closeQuietly(writer.out);
+      }
+      try {
+        Files.deleteIfExists(file);
+      } catch (IOException cannotDelete) {
+        e.addSuppressed(cannotDelete);
+      }
+      throw e instanceof UncheckedIOException unchecked
+          ? unchecked
+          : new UncheckedIOException("cannot write " + file + ": " + e.getMessage(), (IOException) e);
     }
   }
 
@@ -148,9 +193,8 @@ public final class DrawsWriter implements DrawSink, AutoCloseable {
       if (keptText.length() != text.length()) {
         AtomicFiles.write(file, keptText.toString());
       }
-      BufferedWriter out =
-          Files.newBufferedWriter(file, StandardCharsets.UTF_8, StandardOpenOption.APPEND);
-      return new DrawsWriter(file, out, columns.size());
+      FileChannel out = FileChannel.open(file, StandardOpenOption.WRITE, StandardOpenOption.APPEND);
+      return new DrawsWriter(file, out, FileChannel::write, columns.size());
     } catch (IOException e) {
       throw new UncheckedIOException("cannot write " + file + ": " + e.getMessage(), e);
     }
@@ -208,10 +252,9 @@ public final class DrawsWriter implements DrawSink, AutoCloseable {
       Csv.appendNumber(row, value);
     }
     row.append('\n');
-    try {
-      out.append(row);
-    } catch (IOException e) {
-      failure = e;
+    pending.append(row);
+    if (pending.length() >= BUFFER_CHARS) {
+      writePending();
       rethrowFailure();
     }
   }
@@ -221,11 +264,7 @@ public final class DrawsWriter implements DrawSink, AutoCloseable {
     if (closed) {
       return;
     }
-    try {
-      out.flush();
-    } catch (IOException e) {
-      failure = e;
-    }
+    writePending();
     rethrowFailure();
   }
 
@@ -237,6 +276,7 @@ public final class DrawsWriter implements DrawSink, AutoCloseable {
       if (closed) {
         return;
       }
+      writePending();
       closed = true;
       try {
         out.close();
@@ -250,13 +290,44 @@ public final class DrawsWriter implements DrawSink, AutoCloseable {
   }
 
   private synchronized void flushQuietly() {
-    if (closed || failure != null) {
+    if (!closed) {
+      writePending();
+    }
+  }
+
+  /**
+   * Writes the buffered rows; when the write fails, remembers the failure and cuts the file back
+   * to its whole rows (a full disk has room for a cut: it frees space).
+   */
+  private void writePending() {
+    if (failure != null || pending.length() == 0) {
+      return;
+    }
+    ByteBuffer bytes = ByteBuffer.wrap(pending.toString().getBytes(StandardCharsets.UTF_8));
+    pending.setLength(0);
+    try {
+      while (bytes.hasRemaining()) {
+        writes.write(out, bytes);
+      }
+      whole += bytes.limit();
+    } catch (IOException e) {
+      failure = e;
+      try {
+        out.truncate(whole);
+      } catch (IOException cannotCut) {
+        e.addSuppressed(cannotCut);
+      }
+    }
+  }
+
+  private static void closeQuietly(FileChannel channel) {
+    if (channel == null) {
       return;
     }
     try {
-      out.flush();
-    } catch (IOException e) {
-      failure = e;
+      channel.close();
+    } catch (IOException ignored) {
+      // The failure that made us close is the one reported.
     }
   }
 

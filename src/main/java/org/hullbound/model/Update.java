@@ -7,11 +7,29 @@ package org.hullbound.model;
  * <p>A closed set of kinds: an exact draw from a conjugate posterior, adaptive rejection sampling
  * (Gilks and Wild 1992) when the conditional is provably log-concave on the unknown's sampling
  * scale, or a fallback sampler when the rules cannot prove it. {@code hullbound check} prints it.
+ *
+ * <p>Code that treats each kind its own way goes through {@link #accept(Visitor)}: a new kind
+ * adds a method to {@link Visitor}, so it cannot compile until every such place handles it (Java
+ * 17 has no pattern-matching switch over a sealed interface without preview features).
  */
 public sealed interface Update {
 
   /** One line a user can read: why this update was chosen. */
   String reason();
+
+  /** Calls the method of {@code visitor} for this kind of update and returns its result. */
+  <R> R accept(Visitor<R> visitor);
+
+  /** One method per kind of update; see {@link #accept(Visitor)}. */
+  interface Visitor<R> {
+    R conjugate(Conjugate update);
+
+    R adaptiveRejection(AdaptiveRejection update);
+
+    R fallback(Fallback update);
+
+    R linearNormalBlock(LinearNormalBlock update);
+  }
 
   /** An exact draw: {@link #posterior(double[])} gives the conditional's family and arguments. */
   record Conjugate(ConjugateKind kind, String reason, PosteriorRule rule) implements Update {
@@ -19,16 +37,31 @@ public sealed interface Update {
     public Posterior posterior(double[] state) {
       return rule.posterior(state);
     }
+
+    @Override
+    public <R> R accept(Visitor<R> visitor) {
+      return visitor.conjugate(this);
+    }
   }
 
   /**
    * Adaptive rejection sampling on the sampling scale; {@code smooth} is false when a term is not
    * differentiable (laplace, abs, min, max), so the derivative-free hull must be used.
    */
-  record AdaptiveRejection(String reason, boolean smooth) implements Update {}
+  record AdaptiveRejection(String reason, boolean smooth) implements Update {
+    @Override
+    public <R> R accept(Visitor<R> visitor) {
+      return visitor.adaptiveRejection(this);
+    }
+  }
 
   /** Not provably log-concave (or discrete): a fallback sampler; {@code reason} says why. */
-  record Fallback(String reason, boolean smooth) implements Update {}
+  record Fallback(String reason, boolean smooth) implements Update {
+    @Override
+    public <R> R accept(Visitor<R> visitor) {
+      return visitor.fallback(this);
+    }
+  }
 
   /**
    * An exact joint draw of several unknowns (the {@code members}, in state order) whose joint
@@ -54,6 +87,11 @@ public sealed interface Update {
     /** The joint full conditional at {@code state} (natural-scale values of all unknowns). */
     public Canonical canonical(double[] state) {
       return rule.canonical(state);
+    }
+
+    @Override
+    public <R> R accept(Visitor<R> visitor) {
+      return visitor.linearNormalBlock(this);
     }
   }
 

@@ -1,12 +1,7 @@
 package org.hullbound.validation;
 
-import java.util.Map;
-import org.hullbound.gibbs.ChainRunner;
-import org.hullbound.gibbs.DrawStore;
-import org.hullbound.gibbs.ModelSampler;
-import org.hullbound.gibbs.ProgressListener;
+import org.hullbound.app.InMemoryFit;
 import org.hullbound.gibbs.RunSettings;
-import org.hullbound.gibbs.StopSignal;
 import org.hullbound.model.BoundModel;
 
 /**
@@ -30,14 +25,10 @@ public interface PosteriorFitter {
   /** hullbound's Gibbs driver, one chain. */
   static PosteriorFitter gibbs() {
     return (model, draws, thin, burnIn, seed) -> {
-      ModelSampler sampler = ModelSampler.of(model, Map.of());
-      RunSettings settings = new RunSettings(1, burnIn, draws, thin, seed, 1);
-      DrawStore store = DrawStore.create(1, draws, sampler.labels().size());
-      ChainRunner.of(settings, ProgressListener.none(), StopSignal.create())
-          .run(sampler.sampler().withAdaptation(burnIn), store);
-      double[][] out = new double[sampler.labels().size()][];
+      InMemoryFit fit = InMemoryFit.of(model, new RunSettings(1, burnIn, draws, thin, seed, 1));
+      double[][] out = new double[fit.labels().size()][];
       for (int i = 0; i < out.length; i++) {
-        out[i] = store.draws(i)[0];
+        out[i] = fit.draws(i)[0];
       }
       return out;
     };

@@ -4,21 +4,12 @@ import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
-import org.hullbound.gibbs.ChainRunner;
-import org.hullbound.gibbs.DrawStore;
-import org.hullbound.gibbs.ModelSampler;
-import org.hullbound.gibbs.ProgressListener;
-import org.hullbound.gibbs.RunOutcome;
+import org.hullbound.app.InMemoryFit;
+import org.hullbound.app.ModelInputs;
 import org.hullbound.gibbs.RunSettings;
-import org.hullbound.gibbs.StopSignal;
 import org.hullbound.gibbs.UpdateReport;
-import org.hullbound.io.CsvData;
-import org.hullbound.io.TextFiles;
 import org.hullbound.lang.ModelException;
-import org.hullbound.lang.Parser;
-import org.hullbound.lang.SourceText;
 import org.hullbound.model.BoundModel;
-import org.hullbound.model.DataTable;
 
 /**
  * Runs the validation suite: fits each case's model with the Gibbs driver at a fixed seed and
@@ -89,23 +80,20 @@ public final class Validator {
       String message = failed instanceof ModelException m ? m.render() : failed.getMessage();
       return new CaseOutcome(c.name(), List.of(), message);
     }
-    ModelSampler sampler = ModelSampler.of(model, Map.of());
     RunSettings run = RunSettings.of(settings.chains(), settings.burnIn(), settings.draws(), 1, seed);
-    DrawStore store = DrawStore.create(run.chains(), run.draws(), sampler.labels().size());
-    RunOutcome outcome =
-        ChainRunner.of(run, ProgressListener.none(), StopSignal.create())
-            .run(sampler.sampler().withAdaptation(run.burnIn()), store);
-    List<UpdateReport> updates = UpdateReport.of(sampler.labels().size(), outcome.kernels());
+    InMemoryFit fit = InMemoryFit.of(model, run);
+    List<String> labels = fit.labels();
+    List<UpdateReport> updates = fit.updates();
     List<QuantityCheck> checks = new ArrayList<>();
     for (Quantity q : quantities) {
-      int index = sampler.labels().indexOf(q.unknown());
+      int index = labels.indexOf(q.unknown());
       if (index < 0) {
         return new CaseOutcome(
             c.name(), checks,
             q.name() + " names '" + q.unknown() + "', which is not an unknown of the model; unknowns are "
-                + String.join(", ", sampler.labels()));
+                + String.join(", ", labels));
       }
-      Estimates estimate = Estimates.of(q.statistic(), store.draws(index));
+      Estimates estimate = Estimates.of(q.statistic(), fit.draws(index));
       double tolerance = settings.k() * estimate.mcse() + q.floor();
       boolean pass = Math.abs(estimate.value() - q.reference()) <= tolerance;
       checks.add(
@@ -145,11 +133,6 @@ public final class Validator {
   }
 
   private static BoundModel bind(ValidationCase c) {
-    String text = TextFiles.readUtf8(c.model(), "model file");
-    List<DataTable> tables = new ArrayList<>();
-    for (Path file : c.dataFiles()) {
-      tables.add(CsvData.read(file));
-    }
-    return BoundModel.bind(Parser.parse(SourceText.of(c.model().toString(), text)), tables);
+    return new ModelInputs(c.model(), c.dataFiles()).bind();
   }
 }

@@ -5,6 +5,7 @@ import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.io.IOException;
+import java.io.UncheckedIOException;
 import java.io.Reader;
 import java.nio.file.Files;
 import java.nio.file.Path;
@@ -124,5 +125,58 @@ class DrawsWriterTest {
           assertThrows(IllegalArgumentException.class, () -> writer.accept(0, 1, new double[1]));
       assertTrue(e.getMessage().contains("2 values"));
     }
+  }
+
+  /**
+   * A disk that fills after {@code room} bytes: the write that crosses it puts down what fits (as
+   * a real full disk does) and fails with ENOSPC's message.
+   */
+  private static DrawsWriter.Writes diskWithRoomFor(long room) {
+    long[] used = {0};
+    return (channel, bytes) -> {
+      long left = room - used[0];
+      if (bytes.remaining() <= left) {
+        int written = channel.write(bytes);
+        used[0] += written;
+        return written;
+      }
+      java.nio.ByteBuffer part = bytes.duplicate();
+      part.limit(part.position() + (int) left);
+      used[0] += channel.write(part);
+      throw new IOException("No space left on device");
+    };
+  }
+
+  @Test
+  void aWriteThatFailsMidRowLeavesWholeRowsOnlyAndEveryRowBeforeTheFailedWrite()
+      throws IOException {
+    // 200 kB of room: rows of about 60 bytes, so the failure falls inside the fourth 64 KiB
+    // write, in the middle of a row (checked below: the room is not a whole number of rows).
+    long room = 200_000;
+    DrawsWriter writer = DrawsWriter.open(folder, List.of("a", "b", "c"), diskWithRoomFor(room));
+    UncheckedIOException failure = assertThrows(UncheckedIOException.class, () -> {
+      for (int draw = 1; draw <= 100_000; draw++) {
+        writer.accept(0, draw, new double[] {Math.PI * draw, -Math.E / draw, 1e-7 * draw});
+      }
+    });
+    assertTrue(failure.getMessage().contains("No space left on device"), failure.getMessage());
+    assertThrows(UncheckedIOException.class, writer::close);
+    String text = Files.readString(folder.resolve(DrawsWriter.FILE_NAME));
+    assertTrue(text.length() < room, "the cut-off part was removed");
+    assertTrue(text.endsWith("\n"), "ends with a whole row");
+    List<CSVRecord> rows = read(folder.resolve(DrawsWriter.FILE_NAME));
+    for (int i = 1; i < rows.size(); i++) {
+      assertEquals(5, rows.get(i).size(), "row " + i);
+      assertEquals(i, Integer.parseInt(rows.get(i).get(1)), "draws in order, none missing");
+    }
+    assertTrue(rows.size() > 1000, "the rows written before the failed write are kept");
+  }
+
+  @Test
+  void aDiskWithNoRoomForTheHeaderLeavesNoDrawsFile() {
+    Path out = folder.resolve("none");
+    assertThrows(UncheckedIOException.class,
+        () -> DrawsWriter.open(out, List.of("a"), diskWithRoomFor(3)));
+    assertTrue(!Files.exists(out.resolve(DrawsWriter.FILE_NAME)));
   }
 }

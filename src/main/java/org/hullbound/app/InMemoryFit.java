@@ -1,0 +1,73 @@
+package org.hullbound.app;
+
+import java.util.List;
+import java.util.Map;
+import org.hullbound.gibbs.ChainRunner;
+import org.hullbound.gibbs.ChainState;
+import org.hullbound.gibbs.DrawSink;
+import org.hullbound.gibbs.DrawStore;
+import org.hullbound.gibbs.ModelSampler;
+import org.hullbound.gibbs.ProgressListener;
+import org.hullbound.gibbs.RunOutcome;
+import org.hullbound.gibbs.RunSettings;
+import org.hullbound.gibbs.StopSignal;
+import org.hullbound.gibbs.UpdateReport;
+import org.hullbound.model.BoundModel;
+
+/**
+ * A fit whose draws are kept in memory only: the validation suite and simulation-based
+ * calibration fit many small models and compare draws with references, without files.
+ *
+ * <p>The chains run exactly as in {@link FitRun} (the same sampler, adaptation over the burn-in,
+ * seeds split per chain), so what validation checks is what {@code fit} runs.
+ */
+public final class InMemoryFit {
+  private final ModelSampler sampler;
+  private final DrawStore store;
+  private final RunOutcome outcome;
+
+  private InMemoryFit(ModelSampler sampler, DrawStore store, RunOutcome outcome) {
+    this.sampler = sampler;
+    this.store = store;
+    this.outcome = outcome;
+  }
+
+  /**
+   * Fits {@code model} from dispersed starting values with {@code settings}, to the end.
+   *
+   * @throws org.hullbound.gibbs.ChainFailedException when a chain fails
+   */
+  public static InMemoryFit of(BoundModel model, RunSettings settings) {
+    if (model == null || settings == null) {
+      throw new IllegalArgumentException("model and settings must not be null");
+    }
+    ModelSampler sampler = ModelSampler.of(model, Map.of());
+    DrawStore store = DrawStore.create(settings.chains(), settings.draws(), sampler.labels().size());
+    RunOutcome outcome =
+        runChains(sampler, settings, store, ProgressListener.none(), StopSignal.create(), List.of());
+    return new InMemoryFit(sampler, store, outcome);
+  }
+
+  /** The one way every fit runs its chains: adaptation over the burn-in, then the kept draws. */
+  static RunOutcome runChains(
+      ModelSampler sampler, RunSettings settings, DrawSink sink, ProgressListener listener,
+      StopSignal stop, List<ChainState> from) {
+    return ChainRunner.of(settings, listener, stop)
+        .resume(sampler.sampler().withAdaptation(settings.burnIn()), sink, from);
+  }
+
+  /** The unknowns' labels, in state order. */
+  public List<String> labels() {
+    return sampler.labels();
+  }
+
+  /** The draws of unknown {@code index}: {@code [chain][draw]}. */
+  public double[][] draws(int index) {
+    return store.draws(index);
+  }
+
+  /** What each unknown's update did, in state order. */
+  public List<UpdateReport> updates() {
+    return UpdateReport.of(sampler.labels().size(), outcome.kernels());
+  }
+}

@@ -1,0 +1,66 @@
+package org.hullbound.app;
+
+import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.List;
+import org.hullbound.io.CheckpointFile;
+import org.hullbound.io.CsvData;
+import org.hullbound.io.TextFiles;
+import org.hullbound.lang.ModelFile;
+import org.hullbound.lang.Parser;
+import org.hullbound.lang.SourceText;
+import org.hullbound.model.BoundModel;
+import org.hullbound.model.DataTable;
+
+/**
+ * A model file and its data files, as named on a command line: read, parsed and bound the same
+ * way by every command.
+ *
+ * @param modelFile the model (.hbm)
+ * @param dataFiles the data CSV files, in the order given
+ */
+public record ModelInputs(Path modelFile, List<Path> dataFiles) {
+  public ModelInputs {
+    if (modelFile == null || dataFiles == null) {
+      throw new IllegalArgumentException("modelFile and dataFiles must not be null");
+    }
+    dataFiles = List.copyOf(dataFiles);
+  }
+
+  /**
+   * The parsed model.
+   *
+   * @throws org.hullbound.lang.ModelException when the text is not a model
+   */
+  public ModelFile parse() {
+    String text = TextFiles.readUtf8(modelFile, "model file");
+    return Parser.parse(SourceText.of(modelFile.toString(), text));
+  }
+
+  /**
+   * Every data file read, keeping the columns {@code parsed} reads ({@link
+   * BoundModel#readsColumn}); the others are checked for shape only.
+   */
+  public List<DataTable> tables(ModelFile parsed) {
+    List<DataTable> tables = new ArrayList<>();
+    for (Path file : dataFiles) {
+      tables.add(CsvData.read(file, BoundModel.readsColumn(parsed)));
+    }
+    return tables;
+  }
+
+  /** The model bound to its data. */
+  public BoundModel bind() {
+    ModelFile parsed = parse();
+    return BoundModel.bind(parsed, tables(parsed));
+  }
+
+  /** SHA-256 of the model and data texts as read now (see {@link CheckpointFile#inputHash}). */
+  public String inputHash() {
+    List<String> dataTexts = new ArrayList<>();
+    for (Path file : dataFiles) {
+      dataTexts.add(TextFiles.readUtf8(file, "data file"));
+    }
+    return CheckpointFile.inputHash(TextFiles.readUtf8(modelFile, "model file"), dataTexts);
+  }
+}
