@@ -52,6 +52,8 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
   /** The table's storage, kept across rebuilds. */
   private SettledPieces spare;
   private int quietProposals;
+  /** Why the last restart failed, or null: draws are refused until a restart succeeds. */
+  private RuntimeException restartFailure;
 
   long evaluations;
   long proposals;
@@ -235,16 +237,36 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
 
   @Override
   public final void restart(double... abscissae) {
-    checkedStart(HullOptions.nonEmpty(abscissae));
-    k = 0;
-    for (double x : abscissae) {
-      int i = insertionIndex(x);
-      if (!isAbscissa(i, x)) {
-        insertEvaluated(i, x);
-      }
-    }
-    initialise();
+    // unusable until the new start has passed every check: the old hull (and its settled table)
+    // belongs to the old density and must never serve a draw of the new one
     markStale();
+    restartFailure = new IllegalStateException("a restart is under way");
+    try {
+      checkedStart(HullOptions.nonEmpty(abscissae));
+      k = 0;
+      for (double x : abscissae) {
+        int i = insertionIndex(x);
+        if (!isAbscissa(i, x)) {
+          insertEvaluated(i, x);
+        }
+      }
+      initialise();
+    } catch (RuntimeException failure) {
+      restartFailure = failure;
+      throw failure;
+    }
+    restartFailure = null;
+  }
+
+  /** Throws while the last restart has failed: the hull is left half built. */
+  private void requireUsable() {
+    if (restartFailure != null) {
+      throw new IllegalStateException(
+          "the last restart failed ("
+              + restartFailure.getMessage()
+              + "); restart the sampler with a valid start before drawing from it",
+          restartFailure);
+    }
   }
 
   /** Evaluates h (and h') at a starting point x and inserts it at index i of the abscissae. */
@@ -281,6 +303,7 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
   }
 
   private void refresh() {
+    requireUsable();
     if (stale) {
       rebuild();
       stale = false;
@@ -306,6 +329,7 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
 
   @Override
   public final double[] abscissae() {
+    requireUsable();
     double[] copy = new double[k];
     System.arraycopy(xs, 0, copy, 0, k);
     return copy;
