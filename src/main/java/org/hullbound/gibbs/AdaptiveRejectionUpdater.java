@@ -6,6 +6,7 @@ import org.hullbound.hull.AdaptiveRejectionSampler;
 import org.hullbound.hull.DifferentiableLogDensity;
 import org.hullbound.hull.Evaluation;
 import org.hullbound.hull.HullOptions;
+import org.hullbound.hull.ImpreciseDensityException;
 import org.hullbound.hull.LogDensity;
 import org.hullbound.hull.NotLogConcaveException;
 import org.hullbound.hull.ProposalLimitException;
@@ -23,8 +24,10 @@ import org.hullbound.hull.Support;
  * AdaptiveRejectionSampler#restart(double...)}), so that a draw allocates almost nothing.
  *
  * <p>When the hull finds the conditional is not log-concave after all ({@link
- * NotLogConcaveException}), this unknown switches, for the rest of the chain, to adaptive
- * rejection Metropolis (Gilks, Best and Tan 1995), the draw is redone, and the switch is reported.
+ * NotLogConcaveException}), or its values too coarsely rounded to tell ({@link
+ * ImpreciseDensityException}, a huge constant in the log-density), this unknown switches, for the
+ * rest of the chain, to adaptive rejection Metropolis (Gilks, Best and Tan 1995), the draw is
+ * redone, and the switch is reported.
  */
 final class AdaptiveRejectionUpdater implements Updater {
   /**
@@ -109,16 +112,20 @@ final class AdaptiveRejectionUpdater implements Updater {
         start = steepen(start, lower, upper);
       }
       u = draw(start, guess, lower, upper, rng);
-    } catch (NotLogConcaveException notConcave) {
+    } catch (NotLogConcaveException | ImpreciseDensityException refused) {
       sampler = null;
       evaluations += recorder.count;
       switchSweep = sweeps;
       switchNote =
           "switched to adaptive rejection Metropolis at sweep " + sweeps + ": "
-              + notConcave.getMessage();
+              + refused.getMessage();
+      String reason =
+          refused instanceof ImpreciseDensityException
+              ? "too coarsely rounded for the hull at run time"
+              : "not log-concave at run time";
       fallback =
           new FallbackUpdater(
-              new UpdateRule.Fallback(index, conditional, "not log-concave at run time"),
+              new UpdateRule.Fallback(index, conditional, reason),
               Math.max(0, adaptationSweeps - sweeps), Double.isFinite(centre) ? centre : current,
               spread);
       fallback.update(state, rng);

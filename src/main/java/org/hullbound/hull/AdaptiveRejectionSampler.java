@@ -77,6 +77,9 @@ public interface AdaptiveRejectionSampler {
    *
    * @throws NotLogConcaveException when an evaluation shows h is not concave
    * @throws InvalidDensityException when h returns NaN or +inf
+   * @throws ImpreciseDensityException when the values of h are rounded more coarsely than the
+   *     log-concavity tolerance (a large constant in h)
+   * @throws IllegalStateException while the last {@link #restart(double...)} has failed
    */
   double sample(RandomGenerator rng);
 
@@ -89,12 +92,18 @@ public interface AdaptiveRejectionSampler {
    * {@link HullOptions#withStartingAbscissae(double...)} and this sampler's other options, bit for
    * bit; the counters of {@link #statistics()} keep counting.
    *
+   * <p>After a restart that throws, the sampler refuses to draw (and to give its abscissae or
+   * snapshot) with an {@link IllegalStateException} naming the failure, until a restart succeeds:
+   * the old hull belongs to the old density and never serves a draw of the new one.
+   *
    * @param abscissae finite and strictly inside the support, in any order, duplicates ignored
    * @throws IllegalArgumentException when {@code abscissae} is empty or a point lies outside
    * @throws NotLogConcaveException when the starting points already show h is not concave
    * @throws InvalidDensityException when h is NaN, +inf or -inf at a starting point
    * @throws NonIntegrableHullException when no falling slope is found on an unbounded side (a hull
    *     of no finite mass is found at the next draw)
+   * @throws ImpreciseDensityException when the values of h are rounded more coarsely than the
+   *     log-concavity tolerance
    */
   void restart(double... abscissae);
 

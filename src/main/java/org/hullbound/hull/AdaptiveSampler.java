@@ -18,6 +18,14 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
   /** Proposals without a rebuild (plus one per piece) after which the alias table is built. */
   static final int SETTLED_AFTER = 32;
 
+  /**
+   * Rounding of a comparison among values of h, in ulps of the largest: half an ulp from the last
+   * rounding inside h of each of the two values compared, and as much again for the hull's own
+   * arithmetic on them (common practice: a difference of two rounded values is good to about one
+   * ulp of the larger).
+   */
+  static final int ROUNDING_ULPS = 2;
+
   /** Where an automatic start falls outside a bound: this fraction of the way from the bound in. */
   private static final double INSIDE_BOUND = 0.1;
 
@@ -44,6 +52,8 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
   /** The table's storage, kept across rebuilds. */
   private SettledPieces spare;
   private int quietProposals;
+  /** Why the last restart failed, or null: draws are refused until a restart succeeds. */
+  private RuntimeException restartFailure;
 
   long evaluations;
   long proposals;
@@ -180,10 +190,9 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
       }
       double hullTerm = p.slope[j] * offset;
       double upper = p.value[j] + hullTerm;
-      double termScale = Math.abs(p.value[j]) + Math.abs(hullTerm);
-      // rejection test: evaluate h(x*) and accept when w <= exp(h(x*) - E_k(x*));
-      // updating step: the subclass adds x* to the abscissae
-      double h = evaluateAndRefine(j, x, upper, upper - (gap - raise), termScale);
+      // rejection test: evaluate h(x*) and accept when w <= exp(h(x*) - E_k(x*)), both measured
+      // from the hull's reference value; updating step: the subclass adds x* to the abscissae
+      double h = evaluateAndRefine(j, x, upper, upper - (gap - raise), hullTerm);
       if (w < Math.exp(h - upper - raise)) {
         densityAcceptances++;
         return x;
@@ -228,16 +237,36 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
 
   @Override
   public final void restart(double... abscissae) {
-    checkedStart(HullOptions.nonEmpty(abscissae));
-    k = 0;
-    for (double x : abscissae) {
-      int i = insertionIndex(x);
-      if (!isAbscissa(i, x)) {
-        insertEvaluated(i, x);
-      }
-    }
-    initialise();
+    // unusable until the new start has passed every check: the old hull (and its settled table)
+    // belongs to the old density and must never serve a draw of the new one
     markStale();
+    restartFailure = new IllegalStateException("a restart is under way");
+    try {
+      checkedStart(HullOptions.nonEmpty(abscissae));
+      k = 0;
+      for (double x : abscissae) {
+        int i = insertionIndex(x);
+        if (!isAbscissa(i, x)) {
+          insertEvaluated(i, x);
+        }
+      }
+      initialise();
+    } catch (RuntimeException failure) {
+      restartFailure = failure;
+      throw failure;
+    }
+    restartFailure = null;
+  }
+
+  /** Throws while the last restart has failed: the hull is left half built. */
+  private void requireUsable() {
+    if (restartFailure != null) {
+      throw new IllegalStateException(
+          "the last restart failed ("
+              + restartFailure.getMessage()
+              + "); restart the sampler with a valid start before drawing from it",
+          restartFailure);
+    }
   }
 
   /** Evaluates h (and h') at a starting point x and inserts it at index i of the abscissae. */
@@ -248,15 +277,17 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
 
   /**
    * Evaluates h at a proposal that failed the squeeze test, checks it against the hull, adds it
-   * when there is room, and returns h(x).
+   * when there is room, and returns h(x) less the hull's reference value (-inf where h is).
    *
    * @param piece the piece of the hull that x was drawn from
-   * @param upper the hull at x before the update
-   * @param squeeze the squeeze at x before the update (-inf where there is none)
-   * @param termScale magnitude of the terms that made {@code upper}, for the rounding tolerance
+   * @param upper the hull at x before the update, less the reference
+   * @param squeeze the squeeze at x before the update, less the reference (-inf where there is
+   *     none)
+   * @param hullTerm slope times the distance from the piece's anchor, the term that made {@code
+   *     upper} from the anchor's value
    */
   abstract double evaluateAndRefine(
-      int piece, double x, double upper, double squeeze, double termScale);
+      int piece, double x, double upper, double squeeze, double hullTerm);
 
   /** Rebuilds {@link #pieces} from the abscissae. */
   abstract void rebuild();
@@ -272,6 +303,7 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
   }
 
   private void refresh() {
+    requireUsable();
     if (stale) {
       rebuild();
       stale = false;
@@ -297,6 +329,7 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
 
   @Override
   public final double[] abscissae() {
+    requireUsable();
     double[] copy = new double[k];
     System.arraycopy(xs, 0, copy, 0, k);
     return copy;
@@ -349,40 +382,99 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
     array[i] = value;
   }
 
-  /** The tolerance for a value comparison among log-density values of the given magnitude. */
-  final double valueTolerance(double magnitude) {
-    return tolerance * Math.max(1.0, magnitude);
+  /**
+   * The excess tolerated when log-density values are compared: the tolerance relative to the
+   * differences compared, {@code tolerance * max(1, differences)}, plus the rounding of the values
+   * themselves, {@value #ROUNDING_ULPS} ulps of the largest of them. Both are unchanged by a
+   * constant added to h, up to the rounding that constant causes in h.
+   *
+   * @param differences the largest difference between the values (or terms) compared
+   * @param magnitude the largest |h| among the values compared, as h returned them
+   */
+  final double allowance(double differences, double magnitude) {
+    return tolerance * Math.max(1.0, differences) + ROUNDING_ULPS * Math.ulp(magnitude);
   }
 
-  /** Throws when h(x) lies above the hull or below the squeeze beyond the tolerance. */
-  final void checkAgainstEnvelope(double x, double h, double upper, double squeeze, double terms) {
-    double allowed = valueTolerance(Math.max(Math.max(Math.abs(h), Math.abs(upper)), terms));
-    if (h > upper + allowed) {
+  /**
+   * Throws {@link ImpreciseDensityException} when the values compared are rounded more coarsely
+   * than the tolerance for their differences, so that an excess within the tolerance could not be
+   * told from rounding. Called after the log-concavity test, which an excess beyond rounding fails
+   * first whatever the rounding.
+   */
+  final void requirePrecision(double x, double h, double differences, double magnitude) {
+    double rounding = ROUNDING_ULPS * Math.ulp(magnitude);
+    double strict = tolerance * Math.max(1.0, differences);
+    if (rounding > strict) {
+      throw new ImpreciseDensityException(
+          "h(x) = "
+              + h
+              + " near x = "
+              + x
+              + " is rounded to "
+              + rounding
+              + " ("
+              + ROUNDING_ULPS
+              + " ulps of "
+              + magnitude
+              + "), coarser than the log-concavity tolerance "
+              + strict
+              + " for values that differ by "
+              + differences
+              + ": a constant of that size added to h swamps the density's variation; subtract"
+              + " it (a log-density needs no constant) or raise logConcavityTolerance above "
+              + rounding / Math.max(1.0, differences),
+          x);
+    }
+  }
+
+  /**
+   * Throws when h(x) lies above the hull or below the squeeze beyond the tolerance; returns h(x)
+   * less the reference.
+   *
+   * @param h h(x) as the density returned it
+   * @param upper the hull at x, less the reference
+   * @param squeeze the squeeze at x, less the reference (-inf where there is none)
+   * @param hullTerm the term that made {@code upper} from its anchor's value
+   */
+  final double checkAgainstEnvelope(
+      double x, double h, double upper, double squeeze, double hullTerm) {
+    double reference = pieces.reference;
+    double relative = h - reference;
+    double anchorValue = upper - hullTerm;
+    double differences = Math.max(Math.abs(relative - anchorValue), Math.abs(hullTerm));
+    if (squeeze > Double.NEGATIVE_INFINITY) {
+      differences = Math.max(differences, upper - squeeze);
+    }
+    double magnitude = Math.max(Math.abs(h), Math.abs(reference + anchorValue));
+    double allowed = allowance(differences, magnitude);
+    if (relative > upper + allowed) {
       throw new NotLogConcaveException(
           "h is not log-concave: at x = "
               + x
               + ", h(x) = "
               + h
               + " lies above the upper hull value "
-              + upper
+              + (reference + upper)
               + " (tolerance "
               + allowed
               + ")",
           x);
     }
-    if (h < squeeze - allowed) {
+    if (relative < squeeze - allowed) {
       throw new NotLogConcaveException(
           "h is not log-concave: at x = "
               + x
               + ", h(x) = "
               + h
               + " lies below the chord (squeeze) value "
-              + squeeze
+              + (reference + squeeze)
               + " (tolerance "
               + allowed
               + ")",
           x);
     }
+    requirePrecision(x, h, differences, magnitude);
+    return relative;
   }
 
   /** Throws for NaN or +inf; -inf is allowed where {@code allowMinusInfinity}. */

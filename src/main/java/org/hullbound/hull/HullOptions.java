@@ -25,7 +25,10 @@ public final class HullOptions {
   /** Default cap on the number of abscissae. */
   public static final int DEFAULT_MAXIMUM_HULL_SIZE = 64;
 
-  /** Default log-concavity tolerance, in log-density units relative to max(1, |values|). */
+  /**
+   * Default log-concavity tolerance, in log-density units relative to max(1, the differences
+   * between the values compared); see {@link #withLogConcavityTolerance(double)}.
+   */
   public static final double DEFAULT_TOLERANCE = 1e-8;
 
   /** Default number of outward doubling steps per side before giving up. */
@@ -150,8 +153,15 @@ public final class HullOptions {
 
   /**
    * How far h may exceed the hull (or fall below a chord) before it is called not log-concave: an
-   * excess above {@code tolerance * max(1, |h(x)|, |terms of the hull at x|)} throws {@link
-   * NotLogConcaveException}. Smaller excesses, from rounding in h, are tolerated.
+   * excess above {@code tolerance * max(1, d) + 2 ulp(m)} throws {@link NotLogConcaveException},
+   * where d is the largest difference between the values compared (h(x) less the value at the
+   * hull's anchor, the hull's rise from it, the gap to the squeeze; between two abscissae, the
+   * difference of their values and the tangents' rises) and m the largest |h| among them. A
+   * constant added to h changes neither, beyond the rounding it causes in h: a log-density is
+   * defined only up to one. Where that rounding, {@code 2 ulp(m)}, exceeds {@code tolerance *
+   * max(1, d)}, an excess within the tolerance could not be told from rounding, and the sampler
+   * throws {@link ImpreciseDensityException} (with the default 1e-8, from constants of about 3e7
+   * on; a tolerance of 1e-3 admits 1e12).
    *
    * @param tolerance finite and &gt;= 0
    */

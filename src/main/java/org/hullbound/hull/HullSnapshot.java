@@ -62,13 +62,15 @@ public final class HullSnapshot {
   /** log of each segment's mass, the integral of exp(envelope) over it. */
   public double[] logSegmentMasses() {
     double[] masses = new double[pieces.size];
-    System.arraycopy(pieces.logMass, 0, masses, 0, pieces.size);
+    for (int j = 0; j < pieces.size; j++) {
+      masses[j] = pieces.reference + pieces.logMass[j];
+    }
     return masses;
   }
 
   /** log of the envelope's total mass. */
   public double logTotalMass() {
-    return pieces.logScale + Math.log(pieces.total);
+    return pieces.reference + pieces.logScale + Math.log(pieces.total);
   }
 
   /**
@@ -77,13 +79,15 @@ public final class HullSnapshot {
    */
   public double logHull(double x) {
     int j = pieces.pieceOf(x);
-    return j < 0 ? Double.NEGATIVE_INFINITY : pieces.envelope(j, x);
+    return j < 0 ? Double.NEGATIVE_INFINITY : pieces.reference + pieces.envelope(j, x);
   }
 
   /** The piecewise-linear hull u(x) of tangents (or secants) itself; -inf outside the support. */
   public double logLinearHull(double x) {
     int j = pieces.pieceOf(x);
-    return j < 0 ? Double.NEGATIVE_INFINITY : pieces.value[j] + pieces.slope[j] * (x - pieces.anchor[j]);
+    return j < 0
+        ? Double.NEGATIVE_INFINITY
+        : pieces.reference + pieces.value[j] + pieces.slope[j] * (x - pieces.anchor[j]);
   }
 
   /** True when segment {@code i} is drawn from uniformly under the top of the hull there. */
@@ -98,7 +102,10 @@ public final class HullSnapshot {
       return Double.NEGATIVE_INFINITY;
     }
     double offset = x - pieces.anchor[j];
-    return pieces.value[j] + pieces.slope[j] * offset - (pieces.gapValue[j] + pieces.gapSlope[j] * offset);
+    return pieces.reference
+        + pieces.value[j]
+        + pieces.slope[j] * offset
+        - (pieces.gapValue[j] + pieces.gapSlope[j] * offset);
   }
 
   /** The squeeze computed directly from the abscissae by linear interpolation (cross-check). */

@@ -72,6 +72,12 @@ final class PiecewiseExponential {
   int size;
   double total;
   double logScale;
+  /**
+   * The log-density value every {@link #value} is measured from: the largest h at the abscissae, so
+   * that a constant added to h (a log-density is defined only up to one) never enters the hull's
+   * arithmetic; values, masses and the tests are differences from it.
+   */
+  double reference;
 
   PiecewiseExponential(int capacity) {
     allocate(capacity);
@@ -94,17 +100,36 @@ final class PiecewiseExponential {
     packed = new double[STRIDE * capacity];
   }
 
-  /** Empties the pieces and makes room for at least {@code capacity} of them. */
+  /** Empties the pieces and makes room for at least {@code capacity} of them; reference 0. */
   void reset(int capacity) {
+    reset(capacity, 0.0);
+  }
+
+  /**
+   * Empties the pieces, makes room for at least {@code capacity} of them and measures the values
+   * added next from {@code referenceValue}.
+   */
+  void reset(int capacity, double referenceValue) {
     if (left.length < capacity) {
       allocate(Math.max(capacity, 2 * left.length));
     }
     size = 0;
+    reference = referenceValue;
+  }
+
+  /** The largest of {@code hs[0..k)}: the reference of a hull through those values. */
+  static double highest(double[] hs, int k) {
+    double top = hs[0];
+    for (int i = 1; i < k; i++) {
+      top = Math.max(top, hs[i]);
+    }
+    return top;
   }
 
   /**
    * Appends a piece on [lower, upper] (pieces come in increasing order); a piece of zero width is
-   * dropped since it has no mass.
+   * dropped since it has no mass. {@code valueAtAnchor} is h itself: it is stored less the
+   * reference.
    */
   void add(
       double lower,
@@ -121,7 +146,7 @@ final class PiecewiseExponential {
     left[j] = lower;
     right[j] = upper;
     anchor[j] = anchorAt;
-    value[j] = valueAtAnchor;
+    value[j] = valueAtAnchor - reference;
     slope[j] = slopeOfHull;
     gapValue[j] = gapAtAnchor;
     gapSlope[j] = gapAtAnchor == Double.POSITIVE_INFINITY ? 0.0 : slopeOfGap;
@@ -352,6 +377,7 @@ final class PiecewiseExponential {
     c.size = size;
     c.total = total;
     c.logScale = logScale;
+    c.reference = reference;
     System.arraycopy(left, 0, c.left, 0, size);
     System.arraycopy(right, 0, c.right, 0, size);
     System.arraycopy(anchor, 0, c.anchor, 0, size);

@@ -15,7 +15,7 @@ final class SecantHull {
 
   /** Writes the hull of {@code k >= 3} abscissae into {@code pieces} and seals it. */
   static void build(double[] xs, double[] hs, int k, Support support, PiecewiseExponential pieces) {
-    pieces.reset(2 * k + 2);
+    pieces.reset(2 * k + 2, PiecewiseExponential.highest(hs, k));
     double inf = Double.POSITIVE_INFINITY;
     // left of x_0: chord (x_0, x_1) extended; no squeeze
     double first = chord(xs, hs, 0);

@@ -94,16 +94,16 @@ final class SecantSampler extends AdaptiveSampler {
 
   @Override
   double evaluateAndRefine(
-      int piece, double x, double upper, double squeeze, double termScale) {
+      int piece, double x, double upper, double squeeze, double hullTerm) {
     double h = evaluate(x, true);
     if (h == Double.NEGATIVE_INFINITY) {
       return h; // outside where f > 0: rejected, and no chord to add
     }
-    checkAgainstEnvelope(x, h, upper, squeeze, termScale);
+    double relative = checkAgainstEnvelope(x, h, upper, squeeze, hullTerm);
     int i = insertionIndex(x);
     if (isAbscissa(i, x)) {
       refineInstead(piece);
-      return h;
+      return relative;
     }
     // concavity of the new point with its neighbours, checked whether or not it is added
     if (i >= 2) {
@@ -123,7 +123,7 @@ final class SecantSampler extends AdaptiveSampler {
         refineInstead(piece);
       }
     }
-    return h;
+    return relative;
   }
 
   /**
@@ -164,8 +164,7 @@ final class SecantSampler extends AdaptiveSampler {
     if (hm == Double.NEGATIVE_INFINITY) {
       return;
     }
-    checkAgainstEnvelope(
-        m, hm, hullAtM, hullAtM - gapAtM, Math.abs(pieces.value[j]) + Math.abs(hullTerm));
+    checkAgainstEnvelope(m, hm, hullAtM, hullAtM - gapAtM, hullTerm);
     if (i >= 2) {
       checkTriple(xs[i - 2], hs[i - 2], xs[i - 1], hs[i - 1], m, hm);
     }
@@ -219,12 +218,17 @@ final class SecantSampler extends AdaptiveSampler {
     checkTriple(xs[i], hs[i], xs[i + 1], hs[i + 1], xs[i + 2], hs[i + 2]);
   }
 
-  /** Concavity of three points a &lt; b &lt; c: the chord slopes do not increase. */
+  /**
+   * Concavity of three points a &lt; b &lt; c: the chord slopes do not increase beyond the
+   * tolerance; then the values' rounding must fit within it. The differences compared are hb - ha
+   * and hc - hb.
+   */
   private void checkTriple(double xa, double ha, double xb, double hb, double xc, double hc) {
     double first = Squeeze.chordSlope(xa, ha, xb, hb);
     double second = Squeeze.chordSlope(xb, hb, xc, hc);
-    double values =
-        valueTolerance(Math.max(Math.abs(ha), Math.max(Math.abs(hb), Math.abs(hc))));
+    double differences = Math.max(Math.abs(hb - ha), Math.abs(hc - hb));
+    double magnitude = Math.max(Math.abs(ha), Math.max(Math.abs(hb), Math.abs(hc)));
+    double values = allowance(differences, magnitude);
     double slopes =
         tolerance * (Math.abs(first) + Math.abs(second))
             + values * (1.0 / (xb - xa) + 1.0 / (xc - xb));
@@ -234,6 +238,7 @@ final class SecantSampler extends AdaptiveSampler {
               + "] to " + second + " on [" + xb + ", " + xc + "] (tolerance " + slopes + ")",
           xb);
     }
+    requirePrecision(xb, hb, differences, magnitude);
   }
 
   @Override

@@ -84,17 +84,17 @@ final class TangentSampler extends AdaptiveSampler {
 
   @Override
   double evaluateAndRefine(
-      int piece, double x, double upper, double squeeze, double termScale) {
+      int piece, double x, double upper, double squeeze, double hullTerm) {
     Evaluation e = evaluate(x, true);
     double h = e.value();
     if (h == Double.NEGATIVE_INFINITY) {
       return h; // outside where f > 0: rejected, and no tangent to add
     }
-    checkAgainstEnvelope(x, h, upper, squeeze, termScale);
+    double relative = checkAgainstEnvelope(x, h, upper, squeeze, hullTerm);
     double d = e.slope();
     int i = insertionIndex(x);
     if (isAbscissa(i, x)) {
-      return h;
+      return relative;
     }
     if (i > 0) {
       checkPair(xs[i - 1], hs[i - 1], ds[i - 1], x, h, d);
@@ -106,7 +106,7 @@ final class TangentSampler extends AdaptiveSampler {
       insert(i, x, h, d);
       markStale();
     }
-    return h;
+    return relative;
   }
 
   @Override
@@ -148,13 +148,15 @@ final class TangentSampler extends AdaptiveSampler {
 
   /**
    * Concavity of two tangent points a &lt; b: slopes do not increase, and neither value lies above
-   * the other's tangent, each beyond the tolerance.
+   * the other's tangent, each beyond the tolerance; then the values' rounding must fit within it.
+   * The differences compared are hb - ha and the tangents' rises over the interval.
    */
   private void checkPair(double xa, double ha, double da, double xb, double hb, double db) {
     double width = xb - xa;
-    double values = valueTolerance(
-        Math.max(Math.max(Math.abs(ha), Math.abs(hb)),
-            Math.max(Math.abs(da * width), Math.abs(db * width))));
+    double differences =
+        Math.max(Math.abs(hb - ha), Math.max(Math.abs(da * width), Math.abs(db * width)));
+    double magnitude = Math.max(Math.abs(ha), Math.abs(hb));
+    double values = allowance(differences, magnitude);
     double slopes = tolerance * (Math.abs(da) + Math.abs(db)) + values / width;
     if (db > da + slopes) {
       throw new NotLogConcaveException(
@@ -176,6 +178,7 @@ final class TangentSampler extends AdaptiveSampler {
               + ", whose value there is " + tangentB + " (tolerance " + values + ")",
           xa);
     }
+    requirePrecision(xb, hb, differences, magnitude);
   }
 
   @Override

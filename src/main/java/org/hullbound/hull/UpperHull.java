@@ -17,7 +17,7 @@ final class UpperHull {
   /** Writes the hull of {@code k >= 1} abscissae into {@code pieces} and seals it. */
   static void build(
       double[] xs, double[] hs, double[] ds, int k, Support support, PiecewiseExponential pieces) {
-    pieces.reset(2 * k);
+    pieces.reset(2 * k, PiecewiseExponential.highest(hs, k));
     double previousBreak = support.lower();
     for (int i = 0; i < k; i++) {
       double nextBreak = i + 1 < k ? intersection(xs, hs, ds, i) : support.upper();

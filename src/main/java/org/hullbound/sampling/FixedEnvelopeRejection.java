@@ -21,22 +21,29 @@ import java.util.random.RandomGenerator;
  * </table>
  *
  * <p>Every proposal is checked against the bound: if {@code log f - log g} exceeds {@code log M}
- * (beyond rounding), {@link EnvelopeViolationException} is thrown rather than a wrong draw
+ * by more than 1e-9 plus two ulps of the values compared (their rounding, whatever constant
+ * {@code log f} carries), {@link EnvelopeViolationException} is thrown rather than a wrong draw
  * returned. The support is the open interval {@code (lower, upper)}: draws never land on a finite
  * end (where a density may be infinite); the bound search does look at the ends, as limits. The
  * configuration is immutable; the counters behind {@link #statistics()} are not
  * synchronised, so use one instance per thread.
  */
 public final class FixedEnvelopeRejection {
-  /** Relative excess of the log ratio over log M that is put down to rounding. */
+  /**
+   * Excess of the log ratio over log M that is put down to rounding: this much in log units, plus
+   * {@value #ROUNDING_ULPS} ulps of the largest of log f, log g and log M, the rounding of the
+   * values compared. Neither grows with a constant added to log f beyond the rounding that
+   * constant causes (a tolerance relative to |log M| did: 1e-9 of a constant of 1e12 let the
+   * ratio pass the bound by 1000).
+   */
   private static final double ROUNDING = 1e-9;
+  private static final int ROUNDING_ULPS = 2;
 
   private final DoubleUnaryOperator logDensity;
   private final double lower;
   private final double upper;
   private final Proposal proposal;
   private final double logBound;
-  private final double violationLevel;
   /**
    * Proposals one draw may make: 100 times the expected M of a normalised target, at least
    * 100000, so that a correct envelope needs more with probability (1 - 1/M)^(100 M) &lt; e^-100.
@@ -55,7 +62,6 @@ public final class FixedEnvelopeRejection {
     this.upper = upper;
     this.proposal = proposal;
     this.logBound = logBound;
-    this.violationLevel = logBound + ROUNDING * Math.max(1.0, Math.abs(logBound));
     // a cast saturates at Long.MAX_VALUE for a huge M: such an envelope is useless, never capped
     this.proposalCap = (long) Math.max(100_000.0, 100.0 * Math.exp(logBound));
   }
@@ -118,7 +124,9 @@ public final class FixedEnvelopeRejection {
             logProposal);
       }
       double logRatio = logTarget - logProposal;
-      if (logRatio > violationLevel) {
+      double magnitude =
+          Math.max(Math.abs(logBound), Math.max(Math.abs(logTarget), Math.abs(logProposal)));
+      if (logRatio - logBound > ROUNDING + ROUNDING_ULPS * Math.ulp(magnitude)) {
         throw new EnvelopeViolationException(x, logRatio, logBound);
       }
       if (Math.log(rng.nextDouble()) < logRatio - logBound) {

@@ -264,6 +264,20 @@ class DrawCommandTest {
   }
 
   @Test
+  void aConstantAddedToADensityThatIsNotLogConcaveDoesNotHideIt() {
+    // a log-density is defined up to a constant: + 1e9 must be refused as + 0 is (it used to
+    // write 20000 draws and exit 0)
+    for (String constant : new String[] {"0", "1e9", "-1e9", "3e8", "1e12"}) {
+      CliRun run = CliRun.of("draw", "--log-density",
+          "log(exp(-(x+3)^2/2) + exp(-(x-3)^2/2)) + " + constant, "-n", "20000", "--seed", "1");
+      assertEquals(1, run.exit(), constant + ": " + run);
+      assertTrue(run.err().startsWith("hullbound draw: the density is not log-concave at x = "),
+          constant + ": " + run.err());
+      assertTrue(run.errorIsPlain(), run.toString());
+    }
+  }
+
+  @Test
   void aDensityThatCannotBeNormalisedExitsOne() {
     CliRun run = CliRun.of("draw", "--log-density", "-x", "-n", "10", "--seed", "1");
     assertEquals(1, run.exit(), run.toString());

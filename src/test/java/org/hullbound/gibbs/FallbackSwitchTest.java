@@ -107,4 +107,34 @@ class FallbackSwitchTest {
     double p = new KolmogorovSmirnovTest().kolmogorovSmirnovTest(new Mixture(), fit.store().draws(0)[0]);
     assertTrue(p > 1e-5, "KS p = " + p);
   }
+
+  /**
+   * A normal conditional carrying a constant of 1e12, whose values the hull cannot check to its
+   * tolerance (2 ulp(1e12) = 2.4e-4 against 1e-8): the refusal ({@code ImpreciseDensityException})
+   * switches it to the fallback as a violation does, and the draws follow N(0, 1) (commons-math3);
+   * same settings and level as above.
+   */
+  @Test
+  void valuesTooCoarseForTheHullSwitchToTheFallbackAndIsReported() {
+    ScalarConditional swamped =
+        (u, state, slope) -> {
+          if (slope != null) {
+            slope[0] = -u;
+          }
+          return -0.5 * u * u + 1e12;
+        };
+    GibbsSampler sampler =
+        GibbsSampler.of(
+            1,
+            List.of(new UpdateRule.AdaptiveRejection(0, swamped, "claimed log-concave in this test")),
+            (state, rng) -> state[0] = rng.nextDouble(-2, 2));
+    Fits.Fit fit = Fits.run(sampler, new RunSettings(1, 100, 3200, 10, 5L, 1));
+    UpdateReport report = fit.reports().get(0);
+    assertEquals(1, report.switches().size(), report.switches().toString());
+    assertTrue(report.switches().get(0).contains("swamps"), report.switches().get(0));
+    double p =
+        new KolmogorovSmirnovTest()
+            .kolmogorovSmirnovTest(new NormalDistribution(null, 0, 1), fit.store().draws(0)[0]);
+    assertTrue(p > 1e-5, "KS p = " + p);
+  }
 }

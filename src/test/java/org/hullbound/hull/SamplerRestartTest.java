@@ -118,4 +118,61 @@ class SamplerRestartTest {
     density.target = AdaptiveRejectionSamplerTest.twoModes();
     assertThrows(NotLogConcaveException.class, () -> sampler.restart(-1, 0, 1));
   }
+
+  /**
+   * A restart that throws leaves no usable hull: the old one (and the settled table, built here by
+   * 20000 draws first) belongs to the old density, so every draw, the abscissae and the snapshot
+   * are refused, naming the failed restart, until a restart succeeds; then the draws are those of
+   * a new sampler bit for bit.
+   */
+  @ParameterizedTest(name = "derivative-free {0}")
+  @ValueSource(booleans = {false, true})
+  void aFailedRestartRefusesToDrawUntilARestartSucceeds(boolean derivativeFree) {
+    Switchable density = new Switchable();
+    density.target = Target.normal(0, 1);
+    AdaptiveSampler sampler = (AdaptiveSampler) make(density, derivativeFree, HullOptions.defaults());
+    RandomGenerator rng = rng(5);
+    for (int i = 0; i < 20_000; i++) {
+      sampler.sample(rng);
+    }
+    assertTrue(sampler.settledOrNull() != null, "the settled table was built before the restart");
+    List<Runnable> failures =
+        List.of(
+            () -> {
+              density.target = AdaptiveRejectionSamplerTest.twoModes();
+              sampler.restart(-1, 0, 1);
+            },
+            () -> {
+              density.target =
+                  new Target("NaN", x -> new Evaluation(Double.NaN, 0), Support.real(), x -> x);
+              sampler.restart(-1, 1);
+            },
+            () -> {
+              density.target = Target.normal(0, 1);
+              sampler.restart(Double.NaN);
+            });
+    for (Runnable failure : failures) {
+      assertThrows(RuntimeException.class, failure::run);
+      for (Runnable use :
+          List.<Runnable>of(
+              () -> sampler.sample(rng), sampler::snapshot, sampler::abscissae,
+              () -> sampler.sample(rng, new double[3]))) {
+        IllegalStateException refused = assertThrows(IllegalStateException.class, use::run);
+        assertTrue(refused.getMessage().startsWith("the last restart failed"), refused.getMessage());
+      }
+    }
+    density.target = Target.normal(40, 0.01);
+    sampler.restart(39.9, 40.1);
+    Switchable fresh = new Switchable();
+    fresh.target = Target.normal(40, 0.01);
+    AdaptiveRejectionSampler expected =
+        make(fresh, derivativeFree, HullOptions.defaults().withStartingAbscissae(39.9, 40.1));
+    RandomGenerator expectedRng = rng(6);
+    RandomGenerator restartedRng = rng(6);
+    for (int i = 0; i < 100; i++) {
+      assertEquals(
+          Double.doubleToRawLongBits(expected.sample(expectedRng)),
+          Double.doubleToRawLongBits(sampler.sample(restartedRng)));
+    }
+  }
 }

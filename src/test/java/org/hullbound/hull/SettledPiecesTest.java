@@ -191,7 +191,8 @@ class SettledPiecesTest {
       for (int i = 0; i <= 20; i++) {
         double x = left + i / 20.0 * (right - left);
         // the squeeze from the chords themselves, independent of the pieces
-        double below = snapshot.logSqueezeFromChords(x) - pieces.envelope(j, x);
+        double below =
+            snapshot.logSqueezeFromChords(x) - pieces.reference - pieces.envelope(j, x);
         assertTrue(logHeight <= below + 1e-12,
             "rectangle " + r + " above the squeeze at " + x + ": " + logHeight + " > " + below);
       }
@@ -333,7 +334,9 @@ class SettledPiecesTest {
     }
     SettledPieces table = sampler.settledOrNull();
     assertNotNull(table);
-    double expected = table.innerMass * Math.exp(sampler.pieces.logScale) / Math.sqrt(2 * Math.PI);
+    double expected =
+        table.innerMass * Math.exp(sampler.pieces.logScale + sampler.pieces.reference)
+            / Math.sqrt(2 * Math.PI);
     int n = 200_000;
     long before = sampler.innerAcceptances;
     for (int i = 0; i < n; i++) {

@@ -30,6 +30,22 @@ record Target(
         : AdaptiveRejectionSampler.withDerivatives(density, support, options);
   }
 
+  /**
+   * The same distribution with {@code constant} added to h: a log-density is defined only up to a
+   * constant, so the draws must not change in law.
+   */
+  Target plus(double constant) {
+    DifferentiableLogDensity d = density;
+    return new Target(
+        name + " + " + constant,
+        x -> {
+          Evaluation e = d.evaluate(x);
+          return new Evaluation(e.value() + constant, e.slope());
+        },
+        support,
+        cdf);
+  }
+
   @Override
   public String toString() {
     return name;

@@ -11,6 +11,8 @@ import java.util.random.RandomGenerator;
 import java.util.random.RandomGeneratorFactory;
 import org.apache.commons.math3.distribution.NormalDistribution;
 import org.junit.jupiter.api.Test;
+import org.junit.jupiter.params.ParameterizedTest;
+import org.junit.jupiter.params.provider.ValueSource;
 
 /** Fixed-envelope rejection (von Neumann 1951) on a standard normal truncated to x > 5. */
 class FixedEnvelopeRejectionTest {
@@ -218,6 +220,34 @@ class FixedEnvelopeRejectionTest {
     // log M = 0: the cap is max(100000, 100 e^0) = 100000
     assertEquals(100_000, stuck.proposals());
     assertTrue(stuck.getMessage().startsWith("fixed-envelope rejection: no proposal accepted"));
+  }
+
+  /**
+   * log f is defined up to a constant: a bound 0.01 too small is found whatever constant log f
+   * carries (the rounding of log f + 1e12 is 2 ulp(1e12) = 2.4e-4), and the right bound raises
+   * nothing. The ratio is largest at x = 5 and falls at rate x - 1 >= 4, so each proposal lands
+   * within 0.01 of it with probability 1 - exp(-0.0025), and 10^4 draws (about 1.3 10^4
+   * proposals, acceptance 1 / M = 0.8) miss that band with probability below exp(-30).
+   */
+  @ParameterizedTest(name = "constant {0}")
+  @ValueSource(doubles = {-1e12, -1e9, -1, 0, 1, 1e9, 1e12})
+  void aBoundTooSmallByAHundredthIsDetectedWhateverTheConstant(double constant) {
+    Proposal tail = Proposal.exponentialTail(TAIL, 1);
+    DoubleUnaryOperator shifted = x -> TRUNCATED_NORMAL.applyAsDouble(x) + constant;
+    FixedEnvelopeRejection right =
+        FixedEnvelopeRejection.withComputedBound(shifted, TAIL, Double.POSITIVE_INFINITY, tail);
+    RandomGenerator rng = rng(8);
+    for (int i = 0; i < 10_000; i++) {
+      right.sample(rng);
+    }
+    FixedEnvelopeRejection tooSmall =
+        FixedEnvelopeRejection.of(
+            shifted, TAIL, Double.POSITIVE_INFINITY, tail, right.logBound() - 0.01);
+    assertThrows(EnvelopeViolationException.class, () -> {
+      for (int i = 0; i < 10_000; i++) {
+        tooSmall.sample(rng);
+      }
+    });
   }
 
   @Test
