@@ -185,7 +185,7 @@ public final class ModelSampler {
           double[] a = conjugate.posterior(state).arguments();
           return ConjugateDraws.gamma(rng, a[names.indexOf("shape")], a[names.indexOf("rate")]);
         };
-      case "inv_gamma":
+      case "inverse-gamma":
         return (state, rng) -> {
           double[] a = conjugate.posterior(state).arguments();
           return ConjugateDraws.inverseGamma(
