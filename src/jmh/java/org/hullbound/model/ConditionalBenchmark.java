@@ -49,7 +49,7 @@ public class ConditionalBenchmark {
             "data  group_of[obs]",
             "data  y[obs] ~ bernoulli(logit_p = alpha + effect[group_of[obs]])",
             "param alpha ~ normal(mean = 0, sd = 2)",
-            "param spread ~ half_normal(sd = 1)",
+            "param spread ~ half-normal(sd = 1)",
             "param effect[group] ~ normal(mean = 0, sd = spread)");
     SplittableRandom random = new SplittableRandom(7);
     List<List<String>> rows = new ArrayList<>();
@@ -111,7 +111,7 @@ public class ConditionalBenchmark {
     double derivative = -z / sd;
     for (double y : ownGroup) {
       double eta = alpha + effect;
-      // log inv_logit(eta) = -log1p(exp(-eta)), computed stably on both sides.
+      // log expit(eta) = -log1p(exp(-eta)), computed stably on both sides.
       double softplus = eta > 0 ? eta + Math.log1p(Math.exp(-eta)) : Math.log1p(Math.exp(eta));
       value += y * eta - softplus;
       double p = eta > 0 ? 1 / (1 + Math.exp(-eta)) : Math.exp(eta) / (1 + Math.exp(eta));

@@ -224,7 +224,7 @@ public final class ModelSampler {
           double[] a = conjugate.posterior(state).arguments();
           return ConjugateDraws.gamma(rng, a[names.indexOf("shape")], a[names.indexOf("rate")]);
         };
-      case "inv_gamma":
+      case "inverse-gamma":
         return (state, rng) -> {
           double[] a = conjugate.posterior(state).arguments();
           return ConjugateDraws.inverseGamma(
@@ -253,7 +253,7 @@ public final class ModelSampler {
       @Override
       public double toNatural(double u) {
         double value = density.toNatural(u);
-        // exp(u) underflows to 0 below u = -745 (and inv_logit(u) rounds to 0 or 1 past
+        // exp(u) underflows to 0 below u = -745 (and expit(u) rounds to 0 or 1 past
         // |u| = 745 or 37): a draw there would leave the open support silently.
         if (Double.isFinite(u) && !Double.isFinite(density.toSamplingScale(value))) {
           throw new IllegalStateException(

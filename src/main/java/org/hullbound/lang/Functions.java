@@ -22,8 +22,7 @@ public final class Functions {
     Map<String, Integer> arity = new LinkedHashMap<>();
     for (String unary :
         List.of(
-            "exp", "log", "log1p", "expm1", "sqrt", "square", "abs", "logit", "inv_logit",
-            "log_inv_logit", "lgamma")) {
+            "exp", "log", "log1p", "expm1", "sqrt", "abs", "logit", "expit", "log_expit", "lgamma")) {
       arity.put(unary, 1);
     }
     arity.put("min", 2);
@@ -34,9 +33,23 @@ public final class Functions {
   /** Every function name, in the order the language documentation lists them. */
   public static List<String> names() {
     return List.of(
-        "exp", "log", "log1p", "expm1", "sqrt", "square", "abs", "logit", "inv_logit",
-        "log_inv_logit", "lgamma", "min", "max");
+        "exp", "log", "log1p", "expm1", "sqrt", "abs", "logit", "expit", "log_expit", "lgamma",
+        "min", "max");
   }
+
+  /**
+   * What to write instead of a function name that hullbound no longer has (FORMER_NAMES: the
+   * renaming script leaves this table alone), or {@code null} for any other name.
+   */
+  public static String replacementHint(String name) {
+    return FORMER_NAMES.get(name);
+  }
+
+  private static final Map<String, String> FORMER_NAMES =
+      Map.of(
+          "inv_logit", "did you mean 'expit'? (the inverse logit)",
+          "log_inv_logit", "did you mean 'log_expit'? (the log of the inverse logit)",
+          "square", "write x ^ 2 for the square of x");
 
   /** True when {@code name} is one of the language's functions. */
   public static boolean isFunction(String name) {

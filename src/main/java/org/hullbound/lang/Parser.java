@@ -380,10 +380,11 @@ public final class Parser {
 
   private Distribution distribution() {
     Identifier family =
-        name(
-            "a family name after '~'",
-            "a distribution is written family(argument = value, ...), as in"
-                + " normal(mean = 0, sd = 1)");
+        familyName(
+            name(
+                "a family name after '~'",
+                "a distribution is written family(argument = value, ...), as in"
+                    + " normal(mean = 0, sd = 1)"));
     if (!at(Token.Kind.OPEN_PAREN)) {
       throw expected(
           "'(' after the family name '" + family.text() + "'",
@@ -575,7 +576,10 @@ public final class Parser {
     if (!Functions.isFunction(function.text())) {
       List<String> known = new ArrayList<>(Functions.names());
       known.add("sum");
-      String hint = NameSuggestion.hint(function.text(), known);
+      String hint = Functions.replacementHint(function.text());
+      if (hint == null) {
+        hint = NameSuggestion.hint(function.text(), known);
+      }
       throw error(
           function.position(),
           "unknown function '" + function.text() + "'; the functions are "
@@ -660,6 +664,42 @@ public final class Parser {
     }
     take();
     return new Identifier(token.text(), token.position());
+  }
+
+  /**
+   * The whole family name that starts with {@code first}: right after '~', and only there, a
+   * hyphen written with no space around it joins two words into one name ({@code half-normal}), as
+   * the trade spells these families; everywhere else '-' is minus.
+   */
+  private Identifier familyName(Identifier first) {
+    StringBuilder text = new StringBuilder(first.text());
+    int line = first.position().line();
+    int end = first.position().column() + first.text().codePointCount(0, first.text().length());
+    while (at(Token.Kind.MINUS)) {
+      Token hyphen = peek();
+      Token next = peek(1);
+      boolean joined =
+          next.kind() == Token.Kind.NAME
+              && hyphen.position().line() == line
+              && next.position().line() == line
+              && hyphen.position().column() == end
+              && next.position().column() == end + 1;
+      if (!joined) {
+        if (next.kind() == Token.Kind.NAME && next.position().line() == line) {
+          throw expected(
+              "'(' after the family name '" + text + "'",
+              hyphen,
+              "a hyphenated family name is written without spaces, as in '" + text + "-"
+                  + next.text() + "'");
+        }
+        break;
+      }
+      take();
+      take();
+      text.append('-').append(next.text());
+      end = next.position().column() + next.text().codePointCount(0, next.text().length());
+    }
+    return new Identifier(text.toString(), first.position());
   }
 
   private void expectRange(String wanted, String hint) {

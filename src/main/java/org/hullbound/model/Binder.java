@@ -226,7 +226,7 @@ final class Binder {
           d.family().position(),
           "unknown family '" + familyName + "'; the families are " + String.join(", ",
               Families.names()),
-          NameSuggestion.hint(familyName, Families.names()));
+          Families.hint(familyName));
     }
     Family family = found.get();
     Set<String> allNames = new TreeSet<>();

@@ -12,7 +12,7 @@ import org.hullbound.model.family.Scale;
  *
  * <p>Change of variable (any textbook on densities of transformed variables): for {@code x =
  * g(u)} the density of {@code u} is {@code p(g(u)) |g'(u)|}. On the log scale {@code g(u) =
- * exp(u)}, {@code log g' = u}; on the logit scale {@code g(u) = inv_logit(u)}, {@code log g' =
+ * exp(u)}, {@code log g' = u}; on the logit scale {@code g(u) = expit(u)}, {@code log g' =
  * log x + log(1 - x)} with derivative {@code 1 - 2x}.
  */
 final class CompiledConditional implements ConditionalDensity {

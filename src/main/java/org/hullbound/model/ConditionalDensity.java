@@ -8,7 +8,7 @@ import org.hullbound.model.family.Scale;
  * derivative in one call.
  *
  * <p>Evaluated on the sampling scale {@code u}: the natural value is {@code exp(u)} on the log
- * scale and {@code inv_logit(u)} on the logit scale, and the log-Jacobian of that map is
+ * scale and {@code expit(u)} on the logit scale, and the log-Jacobian of that map is
  * included, so that adaptive rejection sampling (Gilks and Wild 1992) can work on {@code u}
  * directly. Constants that do not depend on the unknown may be dropped; normalisers that do
  * (lgamma terms, truncation normalisers) are kept. Instances are immutable and may be shared by

@@ -38,7 +38,7 @@ final class ConjugatePairs {
       case "gamma":
       case "exponential":
         return gammaRate(s, own, dependents);
-      case "inv_gamma":
+      case "inverse-gamma":
         return inverseGammaVariance(s, own, dependents);
       case "beta":
         return betaProbability(s, own, dependents);
@@ -254,7 +254,7 @@ final class ConjugatePairs {
 
   private record VarianceChild(Evaluator value, Evaluator mean, Evaluator multiple) {}
 
-  // BDA3 section 2.6 (variance form): inv_gamma(alpha, beta) prior; a normal y with variance
+  // BDA3 section 2.6 (variance form): inverse-gamma(alpha, beta) prior; a normal y with variance
   // c theta adds (1/2, (y - m)^2 / (2 c)).
   private static Update.Conjugate inverseGammaVariance(int s, Term own, List<Term> dependents) {
     List<VarianceChild> children = new ArrayList<>();
@@ -281,7 +281,7 @@ final class ConjugatePairs {
             alpha += 0.5;
             beta += r * r / (2 * at(child.multiple(), 1, state));
           }
-          return new Posterior("inv_gamma", List.of("shape", "scale"), new double[] {alpha, beta});
+          return new Posterior("inverse-gamma", List.of("shape", "scale"), new double[] {alpha, beta});
         };
     return new Update.Conjugate(
         Update.ConjugateKind.INV_GAMMA_VARIANCE,

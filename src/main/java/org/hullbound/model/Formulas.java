@@ -127,8 +127,6 @@ final class Formulas {
             : Double.NaN;
       case SQRT:
         return 0.5 * power(p.get(0), s);
-      case SQUARE:
-        return 2 * power(p.get(0), s);
       default:
         return Double.NaN;
     }

@@ -22,11 +22,10 @@ enum Op {
   LOG1P("log1p", 1, true),
   EXPM1("expm1", 1, true),
   SQRT("sqrt", 1, true),
-  SQUARE("square", 1, true),
   ABS("abs", 1, false),
   LOGIT("logit", 1, true),
-  INV_LOGIT("inv_logit", 1, true),
-  LOG_INV_LOGIT("log_inv_logit", 1, true),
+  EXPIT("expit", 1, true),
+  LOG_EXPIT("log_expit", 1, true),
   LGAMMA("lgamma", 1, true),
   MIN("min", 2, false),
   MAX("max", 2, false);
@@ -80,15 +79,13 @@ enum Op {
         return Math.expm1(a);
       case SQRT:
         return Math.sqrt(a);
-      case SQUARE:
-        return a * a;
       case ABS:
         return Math.abs(a);
       case LOGIT:
         return Math.log(a) - Math.log1p(-a);
-      case INV_LOGIT:
+      case EXPIT:
         return inverseLogit(a);
-      case LOG_INV_LOGIT:
+      case LOG_EXPIT:
         return logInverseLogit(a);
       case LGAMMA:
         return Gamma.logGamma(a);
@@ -112,15 +109,13 @@ enum Op {
         return value + 1;
       case SQRT:
         return 0.5 / value;
-      case SQUARE:
-        return 2 * a;
       case ABS:
         return a > 0 ? 1 : a < 0 ? -1 : 0;
       case LOGIT:
         return 1 / (a * (1 - a));
-      case INV_LOGIT:
+      case EXPIT:
         return value * (1 - value);
-      case LOG_INV_LOGIT:
+      case LOG_EXPIT:
         return inverseLogit(-a);
       case LGAMMA:
         return Gamma.digamma(a);
@@ -158,7 +153,7 @@ enum Op {
     return e / (1 + e);
   }
 
-  /** {@code log(inv_logit(a)) = -log1p(exp(-a))}, accurate in both tails. */
+  /** {@code log(expit(a)) = -log1p(exp(-a))}, accurate in both tails. */
   static double logInverseLogit(double a) {
     return a >= 0 ? -Math.log1p(Math.exp(-a)) : a - Math.log1p(Math.exp(a));
   }

@@ -8,7 +8,7 @@ import java.util.List;
  *
  * <p>Returned by {@link Update.Conjugate#posterior(double[])} so that the Gibbs driver can draw
  * from it directly, without evaluating any density. Families used: {@code normal(mean, sd)},
- * {@code gamma(shape, rate)}, {@code inv_gamma(shape, scale)}, {@code beta(a, b)}, and for a
+ * {@code gamma(shape, rate)}, {@code inverse-gamma(shape, scale)}, {@code beta(a, b)}, and for a
  * missing observation with no dependants its own family with its own argument names.
  */
 public record Posterior(String family, List<String> argumentNames, double[] arguments) {

@@ -20,7 +20,7 @@ import org.hullbound.model.family.Scale;
  *   <li>A dependent term in which the unknown enters one argument only: on the natural scale, if
  *       the argument is affine in the unknown, the family's curvature in that argument on the
  *       natural scale decides (concave composed with affine is concave); if the argument is
- *       {@code exp(affine)} or {@code inv_logit(affine)}, its curvature on the log or logit scale
+ *       {@code exp(affine)} or {@code expit(affine)}, its curvature on the log or logit scale
  *       decides. On the log scale, an argument {@code c * x^q} with known {@code c > 0} has
  *       {@code log(arg) = log c + q u}, affine in {@code u}, so the family's curvature in that
  *       argument on the log scale decides. On the logit scale the argument must be the unknown.
@@ -28,7 +28,7 @@ import org.hullbound.model.family.Scale;
  *       normaliser moves) is "not provably log-concave".
  * </ol>
  *
- * <p>Why scale parameters go on the log scale: for {@code sigma ~ half_normal(sd = s)} with
+ * <p>Why scale parameters go on the log scale: for {@code sigma ~ half-normal(sd = s)} with
  * normal children, in {@code u = log sigma} the conditional is {@code u - e^{2u}/(2 s^2) - n u
  * - S e^{-2u}/2} (S the sum of squared residuals), whose second derivative {@code -2 e^{2u}/s^2
  * - 2 S e^{-2u}} is negative everywhere: log-concave, while on the natural scale the {@code -n
@@ -170,10 +170,10 @@ final class UpdateAnalysis {
             && Formulas.affine(Formulas.unwrap(argument, Op.EXP), slot)) {
           argumentScale = Scale.LOG;
           link = "exp of an affine function of the unknown";
-        } else if (Formulas.unwrap(argument, Op.INV_LOGIT) != null
-            && Formulas.affine(Formulas.unwrap(argument, Op.INV_LOGIT), slot)) {
+        } else if (Formulas.unwrap(argument, Op.EXPIT) != null
+            && Formulas.affine(Formulas.unwrap(argument, Op.EXPIT), slot)) {
           argumentScale = Scale.LOGIT;
-          link = "inv_logit of an affine function of the unknown";
+          link = "expit of an affine function of the unknown";
         }
       } else if (scale == Scale.LOG) {
         double q = Formulas.power(argument, slot);

@@ -110,28 +110,27 @@ public final class HtmlReport {
   private static void table(StringBuilder html, ReportInput input) {
     int cap = input.options().plotCap();
     html.append("<section id=\"summary\"><h2>Summary</h2>")
-        .append("<p class=\"lead\">Posterior mean, sd and quantiles of all draws pooled; ")
-        .append("rank-normalised split R-hat and bulk and tail effective sample sizes ")
-        .append("(Vehtari et al. 2021); mcse is the Monte Carlo standard error of the mean. ")
-        .append("Marked values (&#9652;) have R-hat above ")
+        .append("<p class=\"lead\">The estimate from all draws pooled: the mean with its Monte")
+        .append(" Carlo standard error (MCSE), the sd and the 95% central interval; the trust in")
+        .append(" it: rank-normalised split R-hat, bulk-ESS and tail-ESS (Vehtari et al. 2021);")
+        .append(" and what the draws cost. Marked values (&#9652;) have R-hat above ")
         .append(Markup.escape(plain(input.options().maxRhat())))
         .append(" or an effective sample size below ")
         .append(Markup.escape(plain(input.options().minEss())))
         .append("; n/a means not defined for these draws.</p>")
-        .append("<div class=\"scroll\"><table><thead><tr>");
+        .append("<div class=\"scroll\"><table><thead>")
+        .append("<tr class=\"groups\"><th></th><th colspan=\"3\">estimate</th>")
+        .append("<th colspan=\"3\">trust</th><th colspan=\"2\">cost</th></tr><tr>");
     String[] headings = {
       "unknown",
-      "mean",
+      "mean \u00b1 MCSE",
       "sd",
-      "2.5%",
-      "median",
-      "97.5%",
+      "95% interval",
       "R-hat",
-      "ess bulk",
-      "ess tail",
-      "mcse",
+      "bulk-ESS",
+      "tail-ESS",
       "update",
-      "evals/draw"
+      "evals per draw"
     };
     for (String heading : headings) {
       html.append(heading.equals("update") ? "<th class=\"text\">" : "<th>")
@@ -140,7 +139,7 @@ public final class HtmlReport {
     }
     html.append("</tr></thead><tbody>");
     if (input.unknowns().isEmpty()) {
-      html.append("<tr><td colspan=\"12\">This run has no unknowns.</td></tr>");
+      html.append("<tr><td colspan=\"9\">This run has no unknowns.</td></tr>");
     }
     for (int i = 0; i < input.unknowns().size(); i++) {
       UnknownReport u = input.unknowns().get(i);
@@ -154,15 +153,25 @@ public final class HtmlReport {
       }
       html.append("</td>");
       ReportOptions o = input.options();
-      cell(html, NumberText.significant(s.mean(), 4), false);
+      cell(
+          html,
+          Double.isNaN(s.mean())
+              ? NumberText.NOT_AVAILABLE
+              : NumberText.significant(s.mean(), 4)
+                  + (Double.isNaN(s.mcseMean())
+                      ? ""
+                      : " \u00b1 " + NumberText.significant(s.mcseMean(), 2)),
+          false);
       cell(html, NumberText.significant(s.sd(), 4), false);
-      cell(html, NumberText.significant(s.q025(), 4), false);
-      cell(html, NumberText.significant(s.q50(), 4), false);
-      cell(html, NumberText.significant(s.q975(), 4), false);
+      cell(
+          html,
+          Double.isNaN(s.q025())
+              ? NumberText.NOT_AVAILABLE
+              : NumberText.significant(s.q025(), 4) + " .. " + NumberText.significant(s.q975(), 4),
+          false);
       cell(html, NumberText.fixed(s.rhat(), 3), s.rhat() > o.maxRhat());
       cell(html, NumberText.count(s.essBulk()), s.essBulk() < o.minEss());
       cell(html, NumberText.count(s.essTail()), s.essTail() < o.minEss());
-      cell(html, NumberText.significant(s.mcseMean(), 2), false);
       html.append("<td class=\"text\">")
           .append(
               Markup.escape(u.update().map(UpdateFacts::update).orElse(NumberText.NOT_AVAILABLE)))
@@ -257,11 +266,11 @@ public final class HtmlReport {
           .append(Markup.escape(NumberText.significant(s.mean(), 4)))
           .append(" &#183; 95% interval ")
           .append(Markup.escape(NumberText.significant(s.q025(), 4)))
-          .append(" to ")
+          .append(" .. ")
           .append(Markup.escape(NumberText.significant(s.q975(), 4)))
           .append(" &#183; R-hat ")
           .append(Markup.escape(NumberText.fixed(s.rhat(), 3)))
-          .append(" &#183; ess bulk ")
+          .append(" &#183; bulk-ESS ")
           .append(Markup.escape(NumberText.count(s.essBulk())));
     }
     u.update().ifPresent(f -> html.append(" &#183; ").append(Markup.escape(f.update())));
@@ -506,7 +515,7 @@ public final class HtmlReport {
     static final String CSS =
         """
         :root{--ink:#1e2329;--muted:#5d6670;--rule:#d9d6cf;--paper:#fcfbf8;--card:#ffffff;
-          --accent:#1f6f8b;--warn:#9a540f;--warn-bg:#fbf1e1;--ok:#3f7a5c;--ok-bg:#edf4ef}
+          --accent:#332288;--warn:#9a540f;--warn-bg:#fbf1e1;--ok:#3f7a5c;--ok-bg:#edf4ef}
         *{box-sizing:border-box}
         body{margin:0;background:var(--paper);color:var(--ink);
           font:15px/1.5 system-ui,-apple-system,'Segoe UI',Roboto,'Helvetica Neue',Arial,sans-serif}
@@ -537,6 +546,9 @@ public final class HtmlReport {
           border-bottom:1px solid var(--rule)}
         th{font-weight:600;font-size:12.5px;color:var(--muted);border-bottom:1.5px solid var(--ink)}
         th:first-child,td.name,.text{text-align:left}
+        tr.groups th{text-align:center;text-transform:uppercase;letter-spacing:.08em;
+          font-size:11px;border-bottom:1px solid var(--rule)}
+        tr.groups th+th{border-left:2px solid var(--rule)}
         td.name{font-family:ui-monospace,'SF Mono',Menlo,Consolas,monospace;font-size:13px}
         tbody tr:nth-child(even){background:#f4f2ec}
         td.flag{color:var(--warn);font-weight:650}

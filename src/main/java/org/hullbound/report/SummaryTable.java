@@ -23,48 +23,52 @@ import org.hullbound.diagnostics.VariableSummary;
  * header row) carries full double precision. Statistics are defined in {@link
  * org.hullbound.diagnostics} (Vehtari et al. 2021).
  *
- * <table>
- *   <caption>Text table columns</caption>
- *   <tr><td>unknown</td><td>the unknown's name</td></tr>
- *   <tr><td>mean, sd</td><td>posterior mean and standard deviation</td></tr>
- *   <tr><td>2.5%, median, 97.5%</td><td>posterior quantiles (Hyndman and Fan definition 7)</td></tr>
- *   <tr><td>R-hat</td><td>rank-normalised split R-hat, the larger of bulk and tail</td></tr>
- *   <tr><td>ess bulk, ess tail</td><td>bulk and tail effective sample size</td></tr>
- *   <tr><td>mcse</td><td>Monte Carlo standard error of the mean</td></tr>
- *   <tr><td>update</td><td>the update that drew the unknown, from {@link UpdateFacts}</td></tr>
- *   <tr><td>evals/draw</td><td>log-density evaluations per draw, from {@link UpdateFacts}</td></tr>
- * </table>
+ * <p>The text table is laid out around the questions a reader asks, in three groups under a
+ * line that names them: the estimate (mean with its Monte Carlo standard error, sd, and the 95%
+ * central interval as one {@code lo .. hi} cell in the model language's range notation), the trust
+ * in it (R-hat, bulk-ESS and tail-ESS as Vehtari et al. 2021 spell them, and a verdict mark: "ok",
+ * or "check" when {@link Verdicts} has a finding about the unknown's draws), and the cost (the
+ * update that drew the unknown and its log-density evaluations per draw, from {@link
+ * UpdateFacts}). Groups are set apart by a bar.
+ *
+ * <p>The CSV columns are named in lower case with underscores, stable for programs; {@link
+ * #CSV_HEADER} lists them and {@code docs/diagnostics.md} defines each.
  */
 public final class SummaryTable {
   private static final String COLUMN_GAP = "  ";
+  private static final String GROUP_GAP = "  |  ";
 
   /** The CSV columns, in order; see {@link #csv()}. */
   public static final List<String> CSV_HEADER =
       List.of(
           "unknown",
           "mean",
+          "mean_mcse",
           "sd",
-          "2.5%",
+          "lower",
           "median",
-          "97.5%",
-          "R-hat",
-          "R-hat bulk",
-          "R-hat tail",
-          "ess bulk",
-          "ess tail",
-          "ess mean",
-          "mcse mean",
-          "mcse 2.5%",
-          "mcse median",
-          "mcse 97.5%",
+          "upper",
+          "level",
+          "rhat",
+          "rhat_rank",
+          "rhat_folded",
+          "bulk_ess",
+          "tail_ess",
+          "mean_ess",
+          "lower_mcse",
+          "median_mcse",
+          "upper_mcse",
           "chains",
-          "draws per chain",
+          "draws_per_chain",
           "update",
-          "evals/draw",
+          "evaluations_per_draw",
           "fallback",
-          "switch sweep",
-          "state",
+          "fallback_sweep",
+          "status",
           "notes");
+
+  /** The probability inside the central interval of the table and the CSV. */
+  public static final double INTERVAL_LEVEL = 0.95;
 
   private final List<VariableSummary> summaries;
   private final Map<String, UpdateFacts> updates;
@@ -151,11 +155,13 @@ public final class SummaryTable {
         widths[k] = Math.max(widths[k], row[k].length());
       }
     }
+    widenForGroupLabels(columns, widths);
     StringBuilder text = new StringBuilder();
     String caption = caption();
     if (!caption.isEmpty()) {
       text.append(caption).append('\n');
     }
+    appendGroupLine(text, columns, widths);
     String[] headings = columns.stream().map(c -> c.heading).toArray(String[]::new);
     appendRow(text, columns, widths, headings);
     String[] rules = new String[columns.size()];
@@ -199,17 +205,18 @@ public final class SummaryTable {
         printer.printRecord(
             s.name(),
             full(s.mean()),
+            full(s.mcseMean()),
             full(s.sd()),
             full(s.q025()),
             full(s.q50()),
             full(s.q975()),
+            full(INTERVAL_LEVEL),
             full(s.rhat()),
             full(s.rhatBulk()),
             full(s.rhatTail()),
             full(s.essBulk()),
             full(s.essTail()),
             full(s.essMean()),
-            full(s.mcseMean()),
             full(s.mcseQ025()),
             full(s.mcseQ50()),
             full(s.mcseQ975()),
@@ -229,21 +236,65 @@ public final class SummaryTable {
   }
 
   private List<Column> textColumns() {
+    Set<String> doubtful = new HashSet<>();
+    for (Verdict verdict : Verdicts.of(this).verdicts()) {
+      if (verdict.kind() != Verdict.Kind.FALLBACK_USED
+          && verdict.kind() != Verdict.Kind.SWITCHED_TO_FALLBACK) {
+        doubtful.add(verdict.unknown());
+      }
+    }
+    // The lower ends are padded to one width so that the ".." of every interval lines up.
+    int lowerWidth =
+        summaries.stream()
+            .mapToInt(s -> NumberText.significant(s.q025(), 4).length())
+            .max()
+            .orElse(0);
     List<Column> columns = new ArrayList<>();
-    columns.add(new Column("unknown", true, VariableSummary::name));
-    columns.add(new Column("mean", false, s -> NumberText.significant(s.mean(), 4)));
-    columns.add(new Column("sd", false, s -> NumberText.significant(s.sd(), 4)));
-    columns.add(new Column("2.5%", false, s -> NumberText.significant(s.q025(), 4)));
-    columns.add(new Column("median", false, s -> NumberText.significant(s.q50(), 4)));
-    columns.add(new Column("97.5%", false, s -> NumberText.significant(s.q975(), 4)));
-    columns.add(new Column("R-hat", false, s -> NumberText.fixed(s.rhat(), 3)));
-    columns.add(new Column("ess bulk", false, s -> NumberText.count(s.essBulk())));
-    columns.add(new Column("ess tail", false, s -> NumberText.count(s.essTail())));
-    columns.add(new Column("mcse", false, s -> NumberText.significant(s.mcseMean(), 2)));
-    columns.add(new Column("update", true, s -> updateName(updates.get(s.name()))));
+    columns.add(new Column(Group.NAME, "unknown", true, VariableSummary::name));
+    columns.add(new Column(Group.ESTIMATE, "mean +- mcse", false, SummaryTable::meanWithError));
     columns.add(
-        new Column("evals/draw", false, s -> evaluations(updates.get(s.name()))));
+        new Column(Group.ESTIMATE, "sd", false, s -> NumberText.significant(s.sd(), 4)));
+    columns.add(
+        new Column(
+            Group.ESTIMATE,
+            Math.round(INTERVAL_LEVEL * 100) + "% interval",
+            true,
+            s -> interval(s, lowerWidth)));
+    columns.add(new Column(Group.TRUST, "R-hat", false, s -> NumberText.fixed(s.rhat(), 3)));
+    columns.add(
+        new Column(Group.TRUST, "bulk-ESS", false, s -> NumberText.count(s.essBulk())));
+    columns.add(
+        new Column(Group.TRUST, "tail-ESS", false, s -> NumberText.count(s.essTail())));
+    columns.add(
+        new Column(
+            Group.TRUST, "verdict", true, s -> doubtful.contains(s.name()) ? "check" : "ok"));
+    if (updates.isEmpty()) {
+      // A draws file alone does not say how its draws were made: a cost group of "n/a" says
+      // nothing.
+      return columns;
+    }
+    columns.add(
+        new Column(Group.COST, "update", true, s -> updateName(updates.get(s.name()))));
+    columns.add(
+        new Column(
+            Group.COST, "evals per draw", false, s -> evaluations(updates.get(s.name()))));
     return columns;
+  }
+
+  private static String interval(VariableSummary s, int lowerWidth) {
+    if (Double.isNaN(s.q025()) || Double.isNaN(s.q975())) {
+      return NumberText.NOT_AVAILABLE;
+    }
+    String lower = NumberText.significant(s.q025(), 4);
+    String upper = NumberText.significant(s.q975(), 4);
+    return " ".repeat(lowerWidth - lower.length()) + lower + " .. " + upper;
+  }
+
+  private static String meanWithError(VariableSummary s) {
+    String mean = NumberText.significant(s.mean(), 4);
+    return Double.isNaN(s.mcseMean())
+        ? mean
+        : mean + " +- " + NumberText.significant(s.mcseMean(), 2);
   }
 
   private String caption() {
@@ -262,7 +313,7 @@ public final class SummaryTable {
         + " of "
         + draws
         + (draws == 1 ? " draw" : " draws")
-        + "; R-hat and ess from rank-normalised split chains";
+        + "; R-hat, bulk-ESS and tail-ESS from rank-normalised split chains";
   }
 
   private static void appendRow(
@@ -270,7 +321,7 @@ public final class SummaryTable {
     StringBuilder line = new StringBuilder();
     for (int k = 0; k < cells.length; k++) {
       if (k > 0) {
-        line.append(COLUMN_GAP);
+        line.append(columns.get(k).group == columns.get(k - 1).group ? COLUMN_GAP : GROUP_GAP);
       }
       String pad = " ".repeat(widths[k] - cells[k].length());
       if (columns.get(k).leftAligned) {
@@ -280,6 +331,46 @@ public final class SummaryTable {
       }
     }
     text.append(line.toString().stripTrailing()).append('\n');
+  }
+
+  /** The line above the headings: each group's label over its columns, set apart by bars. */
+  private static void appendGroupLine(StringBuilder text, List<Column> columns, int[] widths) {
+    String[] labels = new String[columns.size()];
+    for (int k = 0; k < labels.length; k++) {
+      boolean first = k == 0 || columns.get(k).group != columns.get(k - 1).group;
+      labels[k] = first ? columns.get(k).group.label : "";
+    }
+    StringBuilder line = new StringBuilder();
+    int k = 0;
+    while (k < labels.length) {
+      Group group = columns.get(k).group;
+      int width = 0;
+      int start = k;
+      while (k < labels.length && columns.get(k).group == group) {
+        width += widths[k] + (k > start ? COLUMN_GAP.length() : 0);
+        k++;
+      }
+      if (start > 0) {
+        line.append(GROUP_GAP);
+      }
+      line.append(labels[start]).append(" ".repeat(width - labels[start].length()));
+    }
+    text.append(line.toString().stripTrailing()).append('\n');
+  }
+
+  /** Makes each group at least as wide as its label, widening its last column. */
+  private static void widenForGroupLabels(List<Column> columns, int[] widths) {
+    int k = 0;
+    while (k < widths.length) {
+      Group group = columns.get(k).group;
+      int start = k;
+      int width = 0;
+      while (k < widths.length && columns.get(k).group == group) {
+        width += widths[k] + (k > start ? COLUMN_GAP.length() : 0);
+        k++;
+      }
+      widths[k - 1] += Math.max(0, group.label.length() - width);
+    }
   }
 
   private static String updateName(UpdateFacts facts) {
@@ -313,6 +404,20 @@ public final class SummaryTable {
     return Double.toString(x);
   }
 
+  /** The questions the text table's columns answer, in order. */
+  private enum Group {
+    NAME(""),
+    ESTIMATE("estimate"),
+    TRUST("trust"),
+    COST("cost");
+
+    private final String label;
+
+    Group(String label) {
+      this.label = label;
+    }
+  }
+
   private record Column(
-      String heading, boolean leftAligned, Function<VariableSummary, String> cell) {}
+      Group group, String heading, boolean leftAligned, Function<VariableSummary, String> cell) {}
 }

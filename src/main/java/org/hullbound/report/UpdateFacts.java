@@ -5,7 +5,7 @@ package org.hullbound.report;
  * draw cost on average, and whether a fallback was used.
  *
  * <p>The diagnostics package cannot know these facts, so the caller (the Gibbs driver, via the
- * CLI) supplies them for the summary table's {@code update} and {@code evals/draw} columns and
+ * CLI) supplies them for the summary table's {@code update} and {@code evals per draw} columns and
  * for the fallback verdicts.
  *
  * @param update the update's name as a user reads it, e.g. {@code conjugate}, {@code adaptive

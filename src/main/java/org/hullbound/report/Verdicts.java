@@ -89,7 +89,7 @@ public final class Verdicts {
           (unknowns == 1 ? "The unknown looks" : "All " + unknowns + " unknowns look")
               + " converged: R-hat at most "
               + plain(maxRhat)
-              + ", bulk and tail ess at least "
+              + ", bulk-ESS and tail-ESS at least "
               + plain(minEss)
               + ", no fallback update.");
     } else {
@@ -182,7 +182,7 @@ public final class Verdicts {
               name,
               Verdict.Kind.FEW_BULK_DRAWS,
               name
-                  + ": few effective draws for the centre (ess bulk "
+                  + ": few effective draws for the centre (bulk-ESS "
                   + NumberText.count(s.essBulk())
                   + " < "
                   + plain(minEss)
@@ -195,7 +195,7 @@ public final class Verdicts {
               name,
               Verdict.Kind.FEW_TAIL_DRAWS,
               name
-                  + ": few effective draws in the tails (ess tail "
+                  + ": few effective draws in the tails (tail-ESS "
                   + NumberText.count(s.essTail())
                   + " < "
                   + plain(minEss)

@@ -82,7 +82,7 @@ final class QuadratureReferences {
   }
 
   /**
-   * Eight schools (Rubin 1981): {@code mu ~ normal(0, 50)}, {@code tau ~ half_cauchy(25)},
+   * Eight schools (Rubin 1981): {@code mu ~ normal(0, 50)}, {@code tau ~ half-cauchy(25)},
    * {@code theta[j] ~ normal(mu, tau)}, {@code y[j] ~ normal(theta[j], sigma[j])}. With the
    * thetas integrated out, {@code y[j] | mu, tau ~ normal(mu, sqrt(sigma[j]^2 + tau^2))} (Gelman
    * et al., BDA3, 5.4), and {@code mu} given {@code tau} is normal ({@link #normalMeanGivenScale});
@@ -149,7 +149,7 @@ final class QuadratureReferences {
   }
 
   /**
-   * Bliss (1935) beetles: {@code killed[g] ~ binomial(exposed[g], inv_logit(alpha + beta (dose[g]
+   * Bliss (1935) beetles: {@code killed[g] ~ binomial(exposed[g], expit(alpha + beta (dose[g]
    * - 1.8)))}, {@code alpha ~ normal(0, 10)}, {@code beta ~ normal(0, 100)}.
    */
   private static Map<String, Double> blissBeetles(Path folder, int points) {
@@ -176,7 +176,7 @@ final class QuadratureReferences {
   }
 
   /**
-   * Darwin's Zea mays differences (Fisher 1935): {@code y[i] ~ student_t(df = 4, location = mu,
+   * Darwin's Zea mays differences (Fisher 1935): {@code y[i] ~ student-t(df = 4, location = mu,
    * scale = 30)}, {@code mu ~ normal(0, 100)}.
    */
   private static Map<String, Double> darwinStudentT(Path folder, int points) {
@@ -199,7 +199,7 @@ final class QuadratureReferences {
 
   /**
    * The sleep data of Cushny and Peebles (1905) as given by Student (1908): {@code y[i] ~
-   * normal(mu, sigma)}, {@code mu ~ normal(0, 10)}, {@code sigma ~ half_normal(5)}; {@code mu}
+   * normal(mu, sigma)}, {@code mu ~ normal(0, 10)}, {@code sigma ~ half-normal(5)}; {@code mu}
    * given {@code sigma} is normal ({@link #normalMeanGivenScale}).
    */
   private static Map<String, Double> sleepNormal(Path folder, double typicalScale, double upper) {

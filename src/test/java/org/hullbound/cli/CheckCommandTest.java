@@ -42,7 +42,7 @@ class CheckCommandTest {
     assertTrue(out.matches("(?s).*spread +log +adaptive rejection.*"), out);
     assertTrue(out.matches("(?s).*effect\\[1\\] \\.\\. effect\\[8\\] +natural +adaptive"
         + " rejection.*8 unknowns.*"), out);
-    assertTrue(out.contains("log-concave on the log scale: half_normal prior"), out);
+    assertTrue(out.contains("log-concave on the log scale: half-normal prior"), out);
     assertTrue(out.contains("binomial terms concave in logit_p, affine in the unknown"), out);
     assertEquals("", run.err());
   }
@@ -52,7 +52,7 @@ class CheckCommandTest {
     Run run = run("check", "models/sensors.hbm", "--data", "models/sensors.csv");
     assertEquals(0, run.status(), run.err());
     assertTrue(run.out().matches("(?s).*level +natural +fallback.*"), run.out());
-    assertTrue(run.out().contains("student_t is not concave in location"), run.out());
+    assertTrue(run.out().contains("student-t is not concave in location"), run.out());
   }
 
   @Test

@@ -84,7 +84,7 @@ class DrawCommandTest {
   void boundsTruncateTheDensity() {
     // A normal truncated to [1, 2]: every draw inside, and KS against the truncated CDF
     // (Phi(x) - Phi(1)) / (Phi(2) - Phi(1)) of commons-math3's standard normal.
-    CliRun run = CliRun.of("draw", "--log-density", "-square(x)/2", "--lower", "1", "--upper", "2",
+    CliRun run = CliRun.of("draw", "--log-density", "-(x^2)/2", "--lower", "1", "--upper", "2",
         "-n", "" + DRAWS, "--seed", "11");
     assertEquals(0, run.exit(), run.err());
     double[] draws = parseDraws(run.out());

@@ -24,8 +24,8 @@ class DrawProperties {
 
   private static final List<String> TOKENS =
       List.of("x", "x", "x", "-", "+", "*", "/", "^", "(", ")", "2", "0.5", "1e308", "inf",
-          "log(", "exp(", "log1p(", "sqrt(", "abs(", "lgamma(", "min(x,", "max(x,", "square(",
-          "inv_logit(", "log_inv_logit(", "y", "x[1]", "sum(i:", ",", " ");
+          "log(", "exp(", "log1p(", "sqrt(", "abs(", "lgamma(", "min(x,", "max(x,",
+          "expit(", "log_expit(", "y", "x[1]", "sum(i:", ",", " ");
 
   @Provide
   Arbitrary<String> tokenSoup() {
@@ -47,7 +47,7 @@ class DrawProperties {
 
   /**
    * Well-formed expressions (functions, operators, constants and x nested up to three deep,
-   * often inside a falling wrapper such as -square(E) so that some are log-concave) on ordered
+   * often inside a falling wrapper such as -(E)^2 so that some are log-concave) on ordered
    * supports: both draws and sampling failures occur, and draws always lie in the support.
    * (Usage errors come from the token soup above.)
    */
@@ -90,7 +90,7 @@ class DrawProperties {
     Arbitrary<String> inner = expression(3);
     return Arbitraries.frequencyOf(
         Tuple.of(2, inner),
-        Tuple.of(3, inner.map(e -> "-square(" + e + ")")),
+        Tuple.of(3, inner.map(e -> "-(" + e + ")^2")),
         Tuple.of(2, inner.map(e -> "-exp(" + e + ")")),
         Tuple.of(2, inner.map(e -> "-(" + e + ")^2/2 - x^2")),
         Tuple.of(1, inner.map(e -> "log(" + e + ") - x")));
@@ -104,8 +104,8 @@ class DrawProperties {
     Arbitrary<String> smaller = Arbitraries.lazy(() -> expression(depth - 1));
     Arbitrary<String> unary =
         Combinators.combine(
-                Arbitraries.of("exp", "log", "log1p", "sqrt", "square", "abs", "inv_logit",
-                    "log_inv_logit", "lgamma", "-"),
+                Arbitraries.of("exp", "log", "log1p", "sqrt", "square", "abs", "expit",
+                    "log_expit", "lgamma", "-"),
                 smaller)
             .as((f, e) -> f.equals("-") ? "-(" + e + ")" : f + "(" + e + ")");
     Arbitrary<String> binary =

@@ -47,7 +47,7 @@ class FitFuzzProperties {
   private static final String LINE_MODEL =
       "model fuzz_line\nindex row\ndata x[row]\ndata y[row] ~ normal(mean = a + b * x[row], sd = s)\n"
           + "param a ~ normal(mean = 0, sd = 10)\nparam b ~ normal(mean = 0, sd = 10)\n"
-          + "param s ~ half_normal(sd = 5)\n";
+          + "param s ~ half-normal(sd = 5)\n";
 
   private static final Path LINE = write("line.hbm", LINE_MODEL);
   private static final Path LINE_DATA =

@@ -94,8 +94,9 @@ class SummarizeCommandTest {
     VariableSummary direct = PosteriorSummary.of("mu", mu);
     String[] muRow = written.split("\r\n")[1].split(",");
     assertEquals(direct.mean(), Double.parseDouble(muRow[1]));
-    assertEquals(direct.rhat(), Double.parseDouble(muRow[6]));
-    assertEquals(direct.essBulk(), Double.parseDouble(muRow[9]));
+    assertEquals(direct.mcseMean(), Double.parseDouble(muRow[2]));
+    assertEquals(direct.rhat(), Double.parseDouble(muRow[8]));
+    assertEquals(direct.essBulk(), Double.parseDouble(muRow[11]));
     assertTrue(run.out().endsWith("summary: " + csv + "\n"), run.out());
     try (var left = Files.list(csv.getParent())) {
       assertEquals(List.of(csv), left.toList(), "no temporary file is left behind");

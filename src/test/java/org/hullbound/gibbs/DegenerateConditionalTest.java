@@ -40,7 +40,7 @@ class DegenerateConditionalTest {
         data  planted[tray], bench_of[tray]
         data  survived[tray] ~ binomial(trials = planted[tray], logit_p = effect[bench_of[tray]])
         param centre ~ normal(mean = 0, sd = 2.5)
-        param spread ~ half_normal(sd = 1)
+        param spread ~ half-normal(sd = 1)
         param effect[bench] ~ normal(mean = centre, sd = spread)
         """;
     List<List<String>> rows = new ArrayList<>();

@@ -129,7 +129,7 @@ class ModelSamplerTest {
         sampler(
             "data y = 0.5 ~ normal(mean = mu, sd = s)\n"
                 + "param mu ~ normal(mean = 0, sd = 1)\n"
-                + "param s ~ half_normal(sd = 1)\n");
+                + "param s ~ half-normal(sd = 1)\n");
     BoundModel bound = model.model();
     ModelSampler given = ModelSampler.of(bound, Map.of("mu", 3.25));
     RandomGeneratorSource seeds = new RandomGeneratorSource();

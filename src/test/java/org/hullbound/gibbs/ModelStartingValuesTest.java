@@ -23,7 +23,7 @@ class ModelStartingValuesTest {
           + "data z[obs] = [0.3, -0.2, 0.9] ~ normal(mean = mu, sd = sigma)\n"
           + "param p ~ beta(a = 2, b = 2)\n"
           + "param mu ~ normal(mean = 0, sd = 100)\n"
-          + "param sigma ~ half_normal(sd = 1)\n";
+          + "param sigma ~ half-normal(sd = 1)\n";
 
   private static BoundModel bind(String text) {
     return BoundModel.bind(Parser.parse(SourceText.of("test.hbm", text)), List.of());

@@ -97,7 +97,7 @@ class PredictiveDrawTest {
     for (int i = 0; i < n; i++) {
       double y =
           PredictiveDraw.draw(
-              "neg_binomial", List.of("mean", "size"), new double[] {6, 3},
+              "negative-binomial", List.of("mean", "size"), new double[] {6, 3},
               Double.NEGATIVE_INFINITY, Double.POSITIVE_INFINITY, rng);
       observed[(int) Math.min(y, cells - 1)]++;
     }
@@ -159,7 +159,7 @@ class PredictiveDrawTest {
   void familiesAndParametrisationsAreRecognised() {
     assertTrue(PredictiveDraw.supports("binomial", List.of("trials", "logit_p")));
     assertTrue(PredictiveDraw.supports("gamma", List.of("shape", "scale")));
-    assertTrue(PredictiveDraw.supports("student_t", List.of("df", "location", "scale")));
+    assertTrue(PredictiveDraw.supports("student-t", List.of("df", "location", "scale")));
     assertFalse(PredictiveDraw.supports("no_such_family", List.of("x")));
   }
 }

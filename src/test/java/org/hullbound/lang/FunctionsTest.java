@@ -16,8 +16,8 @@ class FunctionsTest {
     // /work/shared/design/model-language.md, section "Expressions".
     assertEquals(
         List.of(
-            "exp", "log", "log1p", "expm1", "sqrt", "square", "abs", "logit", "inv_logit",
-            "log_inv_logit", "lgamma", "min", "max"),
+            "exp", "log", "log1p", "expm1", "sqrt", "abs", "logit", "expit",
+            "log_expit", "lgamma", "min", "max"),
         Functions.names());
   }
 

@@ -16,9 +16,9 @@ class NameSuggestionTest {
 
   private static final List<String> FAMILIES =
       List.of(
-          "normal", "lognormal", "half_normal", "student_t", "cauchy", "half_cauchy", "logistic",
-          "laplace", "exponential", "gamma", "inv_gamma", "weibull", "beta", "uniform", "poisson",
-          "binomial", "bernoulli", "neg_binomial");
+          "normal", "lognormal", "half-normal", "student-t", "cauchy", "half-cauchy", "logistic",
+          "laplace", "exponential", "gamma", "inverse-gamma", "weibull", "beta", "uniform", "poisson",
+          "binomial", "bernoulli", "negative-binomial");
 
   @ParameterizedTest(name = "d({0}, {1}) = {2}")
   @CsvSource({
@@ -35,7 +35,7 @@ class NameSuggestionTest {
     // Optimal string alignment edits no substring twice, so 'ca' -> 'abc' costs 3, where the
     // unrestricted Damerau-Levenshtein distance is 2 (a known difference, recalled from memory).
     "ca, abc, 3",
-    "invlogit, inv_logit, 1",
+    "exipt, expit, 1",
   })
   void distance(String a, String b, int expected) {
     assertEquals(expected, NameSuggestion.distance(a, b));
@@ -45,12 +45,12 @@ class NameSuggestionTest {
   @CsvSource({
     "nromal, normal",
     "Normal, normal",
-    "halfnormal, half_normal",
-    "half_norml, half_normal",
+    "halfnormal, half-normal",
+    "half_norml, half-normal",
     "possion, poisson",
     "gama, gamma",
     "binomal, binomial",
-    "negbinomial, neg_binomial",
+    "negativebinomial, negative-binomial",
     "expnential, exponential",
     "weibul, weibull",
   })

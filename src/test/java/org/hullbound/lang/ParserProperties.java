@@ -37,7 +37,7 @@ class ParserProperties {
           data  planted[tray], bench_of[tray]
           data  survived[tray] ~ binomial(trials = planted[tray], logit_p = effect[bench_of[tray]])
           param centre ~ normal(mean = 0, sd = 2.5)
-          param spread ~ half_normal(sd = 1)
+          param spread ~ half-normal(sd = 1)
           param effect[bench] ~ normal(mean = centre, sd = spread)
           """,
           """
@@ -49,7 +49,7 @@ class ParserProperties {
           data rt[obs] ~ lognormal(meanlog = eta[obs], sdlog = sigma)
           param alpha ~ normal(mean = 0, sd = 10)
           param beta[coef] ~ normal(mean = 0, sd = 2)
-          param sigma ~ half_cauchy(scale = 1) within 0 .. 50
+          param sigma ~ half-cauchy(scale = 1) within 0 .. 50
           let eta[obs] = alpha + sum(coef: X[obs, coef] * beta[coef])
           """,
           """
@@ -62,7 +62,7 @@ class ParserProperties {
           data count2[trap] = [1.5e1, .5, 2., -1e-3, 4] ~ normal(mean = mu, sd = 1)
           param log_rate ~ normal(mean = 0, sd = 1) within -inf .. inf
           let rate[trap] = exp(log_rate) * (1 + shift) ^ 2 - -x ^ 2 ^ 3 / max(n, 1)
-          let z = inv_logit(log1p(abs(shift)) - min(sqrt(square(n)), lgamma(n))) + log_inv_logit(expm1(1))
+          let z = expit(log1p(abs(shift)) - min(sqrt(n^2), lgamma(n))) + log_expit(expm1(1))
           data y[trap] ~ poisson(rate = rate[trap])
           """);
 

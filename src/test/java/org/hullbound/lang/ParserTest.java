@@ -35,6 +35,31 @@ class ParserTest {
   class Statements {
 
     @Test
+    void aHyphenAfterTheTildeJoinsAFamilyName() {
+      Statement.Param param =
+          (Statement.Param) only("param spread ~ half-normal(sd = 1)");
+      assertEquals("half-normal", param.prior().family().text());
+      assertEquals(new SourcePosition("test.hbm", 1, 16), param.prior().family().position());
+      Statement.Param count =
+          (Statement.Param) only("param k ~ negative-binomial(mean = m, size = 2)");
+      assertEquals("negative-binomial", count.prior().family().text());
+    }
+
+    @Test
+    void aHyphenElsewhereIsStillMinus() {
+      Statement.Param param =
+          (Statement.Param) only("param y ~ normal(mean = half-normal, sd = a - b)");
+      assertEquals("normal(mean=(- half normal), sd=(- a b))", Trees.show(param.prior()));
+    }
+
+    @Test
+    void aSpacedHyphenInAFamilyNameShowsTheNameWithoutSpaces() {
+      ModelException e =
+          assertThrows(ModelException.class, () -> parse("param s ~ student - t(df = 3)"));
+      assertTrue(e.render().contains("'student-t'"), e.render());
+    }
+
+    @Test
     void modelNamesTheModel() {
       Statement.ModelName model = (Statement.ModelName) only("model seedlings");
       assertEquals("seedlings", model.name().text());
@@ -264,7 +289,7 @@ class ParserTest {
           "X[obs, coef]        | X[obs, coef]",
           "log(x) + exp(-y)    | (+ log(x) exp((neg y)))",
           "max(a, b) ^ 2       | (^ max(a, b) 2)",
-          "inv_logit(a + b[j]) | inv_logit((+ a b[j]))",
+          "expit(a + b[j]) | expit((+ a b[j]))",
           "sum(k: w[k]) / n    | (/ sum(k: w[k]) n)",
           "sum(i: sum(j: A[i, j])) | sum(i: sum(j: A[i, j]))",
           "((((x))))           | x",
@@ -381,7 +406,7 @@ class ParserTest {
         data  planted[tray], bench_of[tray]
         data  survived[tray] ~ binomial(trials = planted[tray], logit_p = effect[bench_of[tray]])
         param centre ~ normal(mean = 0, sd = 2.5)
-        param spread ~ half_normal(sd = 1)
+        param spread ~ half-normal(sd = 1)
         param effect[bench] ~ normal(mean = centre, sd = spread)
         """;
     ModelFile file = Parser.parse("seedlings.hbm", text);
@@ -396,7 +421,7 @@ class ParserTest {
         "binomial(trials=planted[tray], logit_p=effect[bench_of[tray]])",
         Trees.show(survived.likelihood()));
     assertEquals("normal(mean=0, sd=2.5)", Trees.show(((Statement.Param) s.get(5)).prior()));
-    assertEquals("half_normal(sd=1)", Trees.show(((Statement.Param) s.get(6)).prior()));
+    assertEquals("half-normal(sd=1)", Trees.show(((Statement.Param) s.get(6)).prior()));
     assertEquals("normal(mean=centre, sd=spread)", Trees.show(((Statement.Param) s.get(7)).prior()));
     assertEquals("seedlings.hbm", file.source().fileName());
     assertEquals("model seedlings", file.source().line(2));
@@ -413,7 +438,7 @@ class ParserTest {
         data y[obs] ~ normal(mean = eta[obs], sd = sigma)
         param alpha ~ normal(mean = 0, sd = 10)
         param beta[coef] ~ normal(mean = 0, sd = 2)
-        param sigma ~ half_cauchy(scale = 1) within 0 .. 50
+        param sigma ~ half-cauchy(scale = 1) within 0 .. 50
         let eta[obs] = alpha + sum(coef: X[obs, coef] * beta[coef])
         """;
     assertEquals(8, parse(text).size());

@@ -58,7 +58,7 @@ class ConditionalDensityTest {
           "let   lp2[tray] = lp[tray]",
           "data  survived[tray] ~ binomial(trials = planted[tray], logit_p = lp2[tray])",
           "param centre ~ normal(mean = 0, sd = 2.5)",
-          "param spread ~ half_normal(sd = 1)",
+          "param spread ~ half-normal(sd = 1)",
           "param effect[bench] ~ normal(mean = 0, sd = spread)");
 
   private static final DataTable TRAYS =
@@ -94,7 +94,7 @@ class ConditionalDensityTest {
     double[] state = {0.4, 0.9, 0.3, -0.5, 1.1};
     ConditionalDensity c = model.conditional(model.unknown("spread").index());
     assertEquals(Scale.LOG, c.scale());
-    // half_normal(1) density is 2 phi(s); the Jacobian of s = exp(u) is exp(u), log-Jacobian u.
+    // half-normal(1) density is 2 phi(s); the Jacobian of s = exp(u) is exp(u), log-Jacobian u.
     agrees(
         c,
         state,
@@ -253,7 +253,7 @@ class ConditionalDensityTest {
             String.join(
                 "\n",
                 "index t = 1 .. 4",
-                "let rate[t] = exp(a + log1p(square(b)) * t)",
+                "let rate[t] = exp(a + log1p(b^2) * t)",
                 "data y[t] = [2, 3, 5, 9] ~ poisson(rate = rate[t])",
                 "param a ~ normal(mean = 0, sd = 1)",
                 "param b ~ normal(mean = 0, sd = 1)"));
@@ -282,7 +282,7 @@ class ConditionalDensityTest {
             String.join(
                 "\n",
                 "index obs",
-                "data y[obs] ~ student_t(df = 4, location = mu, scale = 2)",
+                "data y[obs] ~ student-t(df = 4, location = mu, scale = 2)",
                 "param mu ~ normal(mean = 0, sd = 10)"),
             table("obs.csv", "y", "1.5", "NA", "-0.5"));
     Unknown missing = model.unknown("y[2]");

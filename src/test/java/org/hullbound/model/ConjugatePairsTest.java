@@ -123,7 +123,7 @@ class ConjugatePairsTest {
                 "\n",
                 "index group = 1 .. 3",
                 "param centre ~ normal(mean = 0, sd = 2.5)",
-                "param spread ~ half_normal(sd = 1)",
+                "param spread ~ half-normal(sd = 1)",
                 "param effect[group] ~ normal(mean = centre, sd = spread)"));
     double[] state = {0, 0.5, 0.2, 1.0, -0.4};
     Posterior p = conjugate(model, "centre").posterior(state);
@@ -200,7 +200,7 @@ class ConjugatePairsTest {
                 "\n",
                 "index obs",
                 "data y[obs] = [1.2, -0.3, 0.8] ~ normal(mean = 0.5, var = v)",
-                "param v ~ inv_gamma(shape = 2, scale = 1)"));
+                "param v ~ inverse-gamma(shape = 2, scale = 1)"));
     Update.Conjugate update = conjugate(model, "v");
     assertEquals(Update.ConjugateKind.INV_GAMMA_VARIANCE, update.kind());
     Posterior p = update.posterior(model.initialState());
@@ -235,7 +235,7 @@ class ConjugatePairsTest {
     assertEquals(1.5 + 18 + 3, p.argument("a"), 1e-12);
     assertEquals(2 + 12 + 1, p.argument("b"), 1e-12);
     BetaDistribution exact = new BetaDistribution(22.5, 15);
-    // On the logit scale the density of u is p(x) x (1 - x) with x = inv_logit(u).
+    // On the logit scale the density of u is p(x) x (1 - x) with x = expit(u).
     conditionalMatches(
         model, "p", model.initialState(),
         u -> {

@@ -21,7 +21,7 @@ class ExtremeScaleTest {
           "\n",
           "index bench = 1 .. 3",
           "param centre ~ normal(mean = 0, sd = 2.5)",
-          "param spread ~ half_normal(sd = 1)",
+          "param spread ~ half-normal(sd = 1)",
           "param effect[bench] ~ normal(mean = centre, sd = spread)");
 
   private static double[] state(BoundModel model) {

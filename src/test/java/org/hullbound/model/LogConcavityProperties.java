@@ -45,13 +45,13 @@ class LogConcavityProperties {
               "index g = 1 .. 3\nindex obs = 1 .. 12\ndata g_of[obs] = [1,2,3,1,2,3,1,2,3,1,2,3]\n"
                   + "data y[obs] = %s ~ bernoulli(logit_p = alpha + effect[g_of[obs]])\n"
                   + "param alpha ~ normal(mean = 0, sd = 2)\n"
-                  + "param spread ~ half_normal(sd = 1)\n"
+                  + "param spread ~ half-normal(sd = 1)\n"
                   + "param effect[g] ~ normal(mean = 0, sd = spread)",
               r -> vector(r, 12, () -> (double) (r.nextBoolean() ? 1 : 0))
                   .replace(".0000", "")),
           new Case(
               "spread",
-              "index g = 1 .. 5\nparam spread ~ half_normal(sd = 1)\n"
+              "index g = 1 .. 5\nparam spread ~ half-normal(sd = 1)\n"
                   + "data e[g] = %s ~ normal(mean = 0, sd = spread)",
               r -> vector(r, 5, () -> 3 * r.nextGaussian())),
           new Case(
@@ -64,8 +64,8 @@ class LogConcavityProperties {
           new Case(
               "noise",
               "index obs = 1 .. 6\n"
-                  + "data y[obs] = %s ~ student_t(df = 3, location = 1, scale = noise)\n"
-                  + "param noise ~ half_cauchy(scale = 1)",
+                  + "data y[obs] = %s ~ student-t(df = 3, location = 1, scale = noise)\n"
+                  + "param noise ~ half-cauchy(scale = 1)",
               r -> vector(r, 6, () -> 1 + 4 * r.nextGaussian())),
           new Case(
               "v",
@@ -125,7 +125,7 @@ class LogConcavityProperties {
             Parser.parse(
                 "t.hbm",
                 "index obs = 1 .. 2\n"
-                    + "data y[obs] = [-5, 5] ~ student_t(df = 3, location = mu, scale = 1)\n"
+                    + "data y[obs] = [-5, 5] ~ student-t(df = 3, location = mu, scale = 1)\n"
                     + "param mu ~ normal(mean = 0, sd = 100)"),
             List.of());
     assertInstanceOf(Update.Fallback.class, model.update(0));

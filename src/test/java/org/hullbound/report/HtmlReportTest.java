@@ -54,20 +54,21 @@ class HtmlReportTest {
     }
     assertEquals(
         List.of(
+            "",
+            "estimate",
+            "trust",
+            "cost",
             "unknown",
-            "mean",
+            "mean \u00b1 MCSE",
             "sd",
-            "2.5%",
-            "median",
-            "97.5%",
+            "95% interval",
             "R-hat",
-            "ess bulk",
-            "ess tail",
-            "mcse",
+            "bulk-ESS",
+            "tail-ESS",
             "update",
-            "evals/draw"),
+            "evals per draw"),
         texts);
-    assertEquals(1 + 6, doc.getElementsByTagName("tr").getLength());
+    assertEquals(2 + 6, doc.getElementsByTagName("tr").getLength());
   }
 
   @Test

@@ -18,8 +18,8 @@ import org.junit.jupiter.api.Test;
 class SummaryTableTest {
   private static final List<String> HEADINGS =
       List.of(
-          "unknown", "mean", "sd", "2.5%", "median", "97.5%", "R-hat", "ess bulk", "ess tail",
-          "mcse", "update", "evals/draw");
+          "unknown", "mean +- mcse", "sd", "95% interval", "R-hat", "bulk-ESS", "tail-ESS",
+          "verdict", "update", "evals per draw");
 
   private static SummaryTable sample() {
     List<VariableSummary> summaries =
@@ -41,54 +41,86 @@ class SummaryTableTest {
     return List.of(text.split("\n"));
   }
 
+  /** The cells of a line: runs of two or more spaces and the group bars separate them. */
+  private static List<String> cells(String line) {
+    return List.of(line.trim().split(" {2,}(\\| {2,})?"));
+  }
+
   @Test
-  void headingsAreOursInOrderUnderACaption() {
+  void headingsAreOursInOrderUnderACaptionAndTheirGroups() {
     List<String> lines = lines(sample().text());
     assertEquals(
-        "4 chains of 1000 draws; R-hat and ess from rank-normalised split chains", lines.get(0));
-    List<String> headings = List.of(lines.get(1).trim().split(" {2,}"));
-    assertEquals(HEADINGS, headings);
+        "4 chains of 1000 draws; R-hat, bulk-ESS and tail-ESS from rank-normalised split chains",
+        lines.get(0));
+    assertEquals(List.of("|", "estimate", "|", "trust", "|", "cost"),
+        List.of(lines.get(1).trim().split(" +")));
+    assertEquals(HEADINGS, cells(lines.get(2)));
+    // Each group label stands over the first column of its group, after the group's bar.
+    String headings = lines.get(2);
+    assertEquals(headings.indexOf("|  ") , lines.get(1).indexOf("|  "));
+    assertEquals(headings.indexOf("R-hat"), lines.get(1).indexOf("trust"));
+    assertEquals(headings.indexOf("update"), lines.get(1).indexOf("cost"));
   }
 
   @Test
   void everyRowHasTheWidthOfTheRuleAndColumnsLineUp() {
     List<String> lines = lines(sample().text());
-    String rule = lines.get(2);
-    assertTrue(rule.matches("[- ]+"), rule);
+    String rule = lines.get(3);
+    assertTrue(rule.matches("[-| ]+"), rule);
     // The rule marks each column's extent; right-aligned cells end where their dashes end.
-    for (String line : lines.subList(1, lines.size())) {
+    for (String line : lines.subList(2, lines.size())) {
       assertEquals(rule.length(), line.length(), "line '" + line + "'");
     }
-    int sdEnd = lines.get(1).indexOf("  sd") + 4;
-    for (String line : lines.subList(3, lines.size())) {
+    int sdEnd = lines.get(2).indexOf(" sd ") + 3;
+    int barAt = lines.get(2).indexOf('|');
+    for (String line : lines.subList(4, lines.size())) {
       assertTrue(line.charAt(sdEnd - 1) != ' ', "sd column ends at " + sdEnd + " in '" + line + "'");
       assertEquals(' ', line.charAt(sdEnd), line);
+      assertEquals('|', line.charAt(barAt), line);
     }
-    assertEquals(5 + 3, lines.size());
+    assertEquals(5 + 4, lines.size());
   }
 
   @Test
   void cellsShowNegativesScientificFormAndNaNAsNotAvailable() {
     String text = sample().text();
-    List<String> beta = List.of(lines(text).get(4).split(" {2,}"));
     assertEquals(
         List.of(
-            "beta[3]", "-1.616", "1.204", "-3.837", "-1.656", "0.9015", "1.001", "3800", "3500",
-            "0.33", "adaptive rejection", "3.27"),
-        beta);
-    List<String> total = List.of(lines(text).get(5).trim().split(" {2,}"));
-    assertEquals("4.990e+06", total.get(1));
-    assertEquals("15000", total.get(9));
-    assertEquals("n/a", total.get(10));
-    List<String> sigma = List.of(lines(text).get(6).trim().split(" {2,}"));
-    assertEquals("-6.300e-07", sigma.get(1));
-    assertEquals("3.5e-07", sigma.get(9));
-    assertEquals("ARMS fallback", sigma.get(10));
-    assertEquals("11.5", sigma.get(11));
-    List<String> broken = List.of(lines(text).get(7).trim().split(" {2,}"));
+            "beta[3]", "-1.616 +- 0.33", "1.204", "-3.837 .. 0.9015", "1.001", "3800", "3500",
+            "ok", "adaptive rejection", "3.27"),
+        cells(lines(text).get(5)));
+    List<String> total = cells(lines(text).get(6));
+    assertEquals("4.990e+06 +- 15000", total.get(1));
+    assertEquals("3.014e+06 .. 6.956e+06", total.get(3));
+    assertEquals("n/a", total.get(8));
+    List<String> sigma = cells(lines(text).get(7));
+    assertEquals("-6.300e-07 +- 3.5e-07", sigma.get(1));
+    assertEquals("ARMS fallback", sigma.get(8));
+    assertEquals("11.5", sigma.get(9));
+    List<String> broken = cells(lines(text).get(8));
     assertEquals("broken", broken.get(0));
-    assertTrue(broken.subList(1, broken.size()).stream().allMatch("n/a"::equals), broken.toString());
-    assertEquals("0", List.of(lines(text).get(3).trim().split(" {2,}")).get(11));
+    assertEquals("check", broken.get(7));
+    assertTrue(
+        broken.subList(1, 7).stream().allMatch("n/a"::equals)
+            && broken.subList(8, 10).stream().allMatch("n/a"::equals),
+        broken.toString());
+    assertEquals("0", cells(lines(text).get(4)).get(9));
+  }
+
+  @Test
+  void theIntervalsLineUpOnTheirRangeMarks() {
+    List<String> lines = lines(sample().text());
+    int at = lines.get(4).indexOf(" .. ");
+    for (int i = 5; i < 8; i++) {
+      assertEquals(at, lines.get(i).indexOf(" .. "), lines.get(i));
+    }
+  }
+
+  @Test
+  void aTableWithoutUpdateFactsLeavesOutTheCostGroup() {
+    String text = SummaryTable.of(List.of(Summaries.fine("a"))).text();
+    assertTrue(!text.contains("cost") && !text.contains("update"), text);
+    assertEquals(HEADINGS.subList(0, 8), cells(lines(text).get(2)));
   }
 
   @Test
@@ -96,8 +128,8 @@ class SummaryTableTest {
     String name = "a_rather_long_unknown_name[12,7]";
     String text = SummaryTable.of(List.of(Summaries.fine(name), Summaries.fine("x"))).text();
     List<String> lines = lines(text);
-    assertTrue(lines.get(3).startsWith(name + "  "));
-    assertTrue(lines.get(4).startsWith("x" + " ".repeat(name.length() - 1) + "  "));
+    assertTrue(lines.get(4).startsWith(name + "  |"));
+    assertTrue(lines.get(5).startsWith("x" + " ".repeat(name.length() - 1) + "  |"));
   }
 
   @Test
@@ -105,11 +137,12 @@ class SummaryTableTest {
     VariableSummary short1 =
         PosteriorSummary.of("a", new double[][] {{1, 2, 3, 4, 5}, {2, 3, 4, 5, 6}});
     String text = SummaryTable.of(List.of(Summaries.fine("b"), short1)).text();
-    assertTrue(text.startsWith("unknown "), text);
-    assertEquals("no unknowns to summarise\n" + "unknown  mean  sd  2.5%  median  97.5%  R-hat"
-        + "  ess bulk  ess tail  mcse  update  evals/draw\n"
-        + "-------  ----  --  ----  ------  -----  -----  --------  --------  ----  ------"
-        + "  ----------\n", SummaryTable.of(List.of()).text());
+    assertTrue(text.startsWith("         |  estimate"), text);
+    assertEquals("no unknowns to summarise\n"
+        + "         |  estimate                        |  trust\n"
+        + "unknown  |  mean +- mcse  sd  95% interval  |  R-hat  bulk-ESS  tail-ESS  verdict\n"
+        + "-------  |  ------------  --  ------------  |  -----  --------  --------  -------\n",
+        SummaryTable.of(List.of()).text());
   }
 
   @Test
@@ -137,17 +170,19 @@ class SummaryTableTest {
       CSVRecord x = records.get(0);
       assertEquals(awkward, Double.parseDouble(x.get("mean")));
       assertEquals(1e-300, Double.parseDouble(x.get("sd")));
-      assertEquals(-Double.MAX_VALUE, Double.parseDouble(x.get("2.5%")));
+      assertEquals(-Double.MAX_VALUE, Double.parseDouble(x.get("lower")));
       assertEquals(Math.PI, Double.parseDouble(x.get("median")));
-      assertEquals("NaN", x.get("mcse mean"));
+      assertEquals(7, Double.parseDouble(x.get("upper")));
+      assertEquals(0.95, Double.parseDouble(x.get("level")));
+      assertEquals("NaN", x.get("mean_mcse"));
       assertEquals("", x.get("update"));
-      assertEquals("complete", x.get("state"));
+      assertEquals("complete", x.get("status"));
       CSVRecord stuck = records.get(1);
-      assertEquals("Inf", stuck.get("R-hat"));
+      assertEquals("Inf", stuck.get("rhat"));
       assertEquals("slice, stepped", stuck.get("update"));
-      assertEquals("4.25", stuck.get("evals/draw"));
+      assertEquals("4.25", stuck.get("evaluations_per_draw"));
       assertEquals("switched during run", stuck.get("fallback"));
-      assertEquals("90", stuck.get("switch sweep"));
+      assertEquals("90", stuck.get("fallback_sweep"));
       assertEquals(
           "every half-chain is constant, so \"stuck\"; second note", stuck.get("notes"));
     }

@@ -27,7 +27,7 @@ class VerdictsTest {
     assertTrue(verdicts.allWell());
     assertEquals(
         List.of(
-            "All 3 unknowns look converged: R-hat at most 1.01, bulk and tail ess at least 400,"
+            "All 3 unknowns look converged: R-hat at most 1.01, bulk-ESS and tail-ESS at least 400,"
                 + " no fallback update."),
         verdicts.lines());
   }
@@ -81,11 +81,11 @@ class VerdictsTest {
         List.of(Verdict.Kind.FEW_BULK_DRAWS, Verdict.Kind.FEW_TAIL_DRAWS), kinds(verdicts));
     // 400 / 212 = 1.887, rounded up to 1.9; 400 / 399 = 1.0025, rounded up to 1.1.
     assertEquals(
-        "mu: few effective draws for the centre (ess bulk 212 < 400); mean and median are"
+        "mu: few effective draws for the centre (bulk-ESS 212 < 400); mean and median are"
             + " imprecise; run about 1.9 times longer",
         verdicts.verdicts().get(0).text());
     assertEquals(
-        "mu: few effective draws in the tails (ess tail 399 < 400); the 2.5% and 97.5% points are"
+        "mu: few effective draws in the tails (tail-ESS 399 < 400); the 2.5% and 97.5% points are"
             + " imprecise; run about 1.1 times longer",
         verdicts.verdicts().get(1).text());
     assertTrue(

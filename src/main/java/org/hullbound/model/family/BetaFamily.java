@@ -83,7 +83,7 @@ final class BetaFamily {
                 "beta log-density is concave in u = log(value) since b >= 1: a u + (b - 1) log(1 - exp(u)), second derivative -(b - 1) value/(1 - value)^2")
             : Curvature.notEstablished(
                 "beta log-density in u = log(value) has second derivative -(b - 1) value/(1 - value)^2: concave only when b >= 1 is known");
-        // x = inv_logit(u): a u - (a + b) log(1 + e^u), d2 = -(a + b) v (1 - v).
+        // x = expit(u): a u - (a + b) log(1 + e^u), d2 = -(a + b) v (1 - v).
         case LOGIT -> Curvature.concave(
             "beta log-density is concave in u = logit(value): a u - (a + b) log(1 + exp(u)), second derivative -(a + b) v(1 - v) < 0");
       };

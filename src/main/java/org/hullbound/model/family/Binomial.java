@@ -158,7 +158,7 @@ final class Binomial {
         // p = e^u: x u + (n - x) log(1 - e^u), d2 = -(n - x) e^u/(1 - e^u)^2.
         case LOG -> Curvature.concave(name
             + " log mass is concave in u = log(p): x u + (trials - x) log(1 - exp(u)), second derivative -(trials - x) p/(1 - p)^2 <= 0");
-        // p = inv_logit(u): x u - n log(1 + e^u), d2 = -n p (1 - p).
+        // p = expit(u): x u - n log(1 + e^u), d2 = -n p (1 - p).
         case LOGIT -> Curvature.concave(name
             + " log mass is concave in u = logit(p): x u - trials log(1 + exp(u)), second derivative -trials p(1 - p) < 0");
       };

@@ -11,7 +11,7 @@ import java.util.Set;
  * parametrisation ({@code normal(mean = 0, sd = 2)} against {@code normal(mean = 0, precision = 4)}).
  */
 public interface Family {
-  /** The name used in model files, e.g. {@code "half_normal"}. */
+  /** The name used in model files, e.g. {@code "half-normal"}. */
   String name();
 
   /** The parametrisations, in the order of the model-language table. */

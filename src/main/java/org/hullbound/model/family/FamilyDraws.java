@@ -21,13 +21,13 @@ import java.util.random.RandomGenerator;
  * <table>
  *   <caption>Draws used per family</caption>
  *   <tr><th>family</th><th>draw</th></tr>
- *   <tr><td>normal, lognormal, half_normal</td><td>ziggurat normal; exp; absolute value</td></tr>
- *   <tr><td>student_t</td><td>normal over sqrt(chi-square / df), chi-square = 2 gamma(df/2)</td></tr>
- *   <tr><td>cauchy, half_cauchy, logistic, laplace, exponential, weibull, uniform</td><td>inversion</td></tr>
- *   <tr><td>gamma, inv_gamma, beta</td><td>Marsaglia-Tsang gamma (log scale below shape 1); reciprocal; gamma ratio</td></tr>
+ *   <tr><td>normal, lognormal, half-normal</td><td>ziggurat normal; exp; absolute value</td></tr>
+ *   <tr><td>student-t</td><td>normal over sqrt(chi-square / df), chi-square = 2 gamma(df/2)</td></tr>
+ *   <tr><td>cauchy, half-cauchy, logistic, laplace, exponential, weibull, uniform</td><td>inversion</td></tr>
+ *   <tr><td>gamma, inverse-gamma, beta</td><td>Marsaglia-Tsang gamma (log scale below shape 1); reciprocal; gamma ratio</td></tr>
  *   <tr><td>poisson</td><td>sequential inversion below rate 10, PTRS above</td></tr>
  *   <tr><td>binomial, bernoulli</td><td>beta splitting above 64 trials, then Bernoulli sums</td></tr>
- *   <tr><td>neg_binomial</td><td>gamma mixture of Poissons (Devroye 1986, X.4)</td></tr>
+ *   <tr><td>negative-binomial</td><td>gamma mixture of Poissons (Devroye 1986, X.4)</td></tr>
  * </table>
  */
 public final class FamilyDraws {
@@ -202,9 +202,9 @@ public final class FamilyDraws {
         return arg(names, args, "mean") + normalSd(names, args) * rng.nextGaussian();
       case "lognormal":
         return Math.exp(arg(names, args, "meanlog") + arg(names, args, "sdlog") * rng.nextGaussian());
-      case "half_normal":
+      case "half-normal":
         return Math.abs(arg(names, args, "sd") * rng.nextGaussian());
-      case "student_t": {
+      case "student-t": {
         double df = arg(names, args, "df");
         double chiSquare = 2 * standardGamma(df / 2, rng);
         return arg(names, args, "location")
@@ -212,7 +212,7 @@ public final class FamilyDraws {
       }
       case "cauchy":
         return arg(names, args, "location") + arg(names, args, "scale") * standardCauchy(rng);
-      case "half_cauchy":
+      case "half-cauchy":
         return Math.abs(arg(names, args, "scale") * standardCauchy(rng));
       case "logistic": {
         double u = openUniform(rng);
@@ -230,7 +230,7 @@ public final class FamilyDraws {
         double scale = names.contains("rate") ? 1 / arg(names, args, "rate") : arg(names, args, "scale");
         return positive(standardGamma(arg(names, args, "shape"), rng) * scale);
       }
-      case "inv_gamma":
+      case "inverse-gamma":
         return positive(arg(names, args, "scale") / standardGamma(arg(names, args, "shape"), rng));
       case "weibull":
         return arg(names, args, "scale")
@@ -249,7 +249,7 @@ public final class FamilyDraws {
         return binomial(arg(names, args, "trials"), probability(names, args), rng);
       case "bernoulli":
         return rng.nextDouble() < probability(names, args) ? 1 : 0;
-      case "neg_binomial": {
+      case "negative-binomial": {
         double mean = arg(names, args, "mean");
         double size = arg(names, args, "size");
         return poisson(standardGamma(size, rng) * (mean / size), rng);

@@ -15,7 +15,7 @@ final class HalfCauchy {
   private HalfCauchy() {}
 
   static Family family() {
-    return SimpleFamily.of("half_cauchy", f -> List.of(new ByScale(f)));
+    return SimpleFamily.of("half-cauchy", f -> List.of(new ByScale(f)));
   }
 
   private static final class ByScale extends ContinuousParametrisation {
@@ -60,10 +60,10 @@ final class HalfCauchy {
       return switch (scale) {
         // d2/dx2 = -2(scale^2 - x^2)/(scale^2 + x^2)^2.
         case NATURAL -> Curvature.notEstablished(
-            "half_cauchy log-density in the value has second derivative -2(scale^2 - x^2)/(scale^2 + x^2)^2, positive for x > scale; concave in log(value)");
+            "half-cauchy log-density in the value has second derivative -2(scale^2 - x^2)/(scale^2 + x^2)^2, positive for x > scale; concave in log(value)");
         // x = e^u, w = e^{2u}/scale^2: -log(1 + w) + u, d2 = -4w/(1+w)^2.
         case LOG -> Curvature.concave(
-            "half_cauchy log-density is concave in u = log(value): u - log(1 + w) with w = exp(2u)/scale^2, second derivative -4w/(1+w)^2 < 0");
+            "half-cauchy log-density is concave in u = log(value): u - log(1 + w) with w = exp(2u)/scale^2, second derivative -4w/(1+w)^2 < 0");
         case LOGIT -> Reasons.notAnalysed(this, "the value", scale);
       };
     }
@@ -72,10 +72,10 @@ final class HalfCauchy {
     public Curvature curvatureInArgument(int k, Scale scale, double[] knownArgs) {
       return switch (scale) {
         case NATURAL -> Curvature.notEstablished(
-            "half_cauchy log-density in scale has second derivative -1/scale^2 - 2(x^2 - scale^2)/(scale^2 + x^2)^2, positive for small x; concave in log(scale)");
+            "half-cauchy log-density in scale has second derivative -1/scale^2 - 2(x^2 - scale^2)/(scale^2 + x^2)^2, positive for small x; concave in log(scale)");
         // scale = e^u, w = x^2 e^{-2u}: -u - log(1 + w), d2 = -4w/(1+w)^2.
         case LOG -> Curvature.concave(
-            "half_cauchy log-density is concave in u = log(scale): -u - log(1 + w) with w = x^2 exp(-2u), second derivative -4w/(1+w)^2 <= 0");
+            "half-cauchy log-density is concave in u = log(scale): -u - log(1 + w) with w = x^2 exp(-2u), second derivative -4w/(1+w)^2 <= 0");
         case LOGIT -> Reasons.notAnalysed(this, "scale", scale);
       };
     }

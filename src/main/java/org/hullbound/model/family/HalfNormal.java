@@ -17,7 +17,7 @@ final class HalfNormal {
   private HalfNormal() {}
 
   static Family family() {
-    return SimpleFamily.of("half_normal", f -> List.of(new BySd(f)));
+    return SimpleFamily.of("half-normal", f -> List.of(new BySd(f)));
   }
 
   private static final class BySd extends ContinuousParametrisation {
@@ -72,10 +72,10 @@ final class HalfNormal {
     @Override
     public Curvature curvatureInValue(Scale scale, double[] knownArgs) {
       return switch (scale) {
-        case NATURAL -> Curvature.concave("half_normal log-density is concave in the value: second derivative -1/sd^2");
+        case NATURAL -> Curvature.concave("half-normal log-density is concave in the value: second derivative -1/sd^2");
         // x = e^u: -x^2/(2 sd^2) + u, d2 = -2 x^2/sd^2.
         case LOG -> Curvature.concave(
-            "half_normal log-density is concave in u = log(value): -exp(2u)/(2 sd^2) + u, second derivative -2 value^2/sd^2");
+            "half-normal log-density is concave in u = log(value): -exp(2u)/(2 sd^2) + u, second derivative -2 value^2/sd^2");
         case LOGIT -> Reasons.notAnalysed(this, "the value", scale);
       };
     }
@@ -84,10 +84,10 @@ final class HalfNormal {
     public Curvature curvatureInArgument(int k, Scale scale, double[] knownArgs) {
       return switch (scale) {
         case NATURAL -> Curvature.notEstablished(
-            "half_normal log-density in sd has second derivative 1/sd^2 - 3 x^2/sd^4, positive for x < sd/sqrt(3); concave in log(sd)");
+            "half-normal log-density in sd has second derivative 1/sd^2 - 3 x^2/sd^4, positive for x < sd/sqrt(3); concave in log(sd)");
         // sd = e^u: -u - (x^2/2) e^{-2u}, d2 = -2 x^2 e^{-2u}.
         case LOG -> Curvature.concave(
-            "half_normal log-density is concave in u = log(sd): -u - (x^2/2) exp(-2u), second derivative -2 x^2 exp(-2u) <= 0");
+            "half-normal log-density is concave in u = log(sd): -u - (x^2/2) exp(-2u), second derivative -2 x^2 exp(-2u) <= 0");
         case LOGIT -> Reasons.notAnalysed(this, "sd", scale);
       };
     }

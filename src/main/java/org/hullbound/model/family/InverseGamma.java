@@ -16,7 +16,7 @@ final class InverseGamma {
   private InverseGamma() {}
 
   static Family family() {
-    return SimpleFamily.of("inv_gamma", f -> List.of(new ByShapeScale(f)));
+    return SimpleFamily.of("inverse-gamma", f -> List.of(new ByShapeScale(f)));
   }
 
   private static final class ByShapeScale extends ContinuousParametrisation {
@@ -72,10 +72,10 @@ final class InverseGamma {
       return switch (scale) {
         // d2/dx2 = ((shape + 1) x - 2 scale)/x^3.
         case NATURAL -> Curvature.notEstablished(
-            "inv_gamma log-density in the value has second derivative ((shape + 1) x - 2 scale)/x^3, positive for x > 2 scale/(shape + 1); concave in log(value)");
+            "inverse-gamma log-density in the value has second derivative ((shape + 1) x - 2 scale)/x^3, positive for x > 2 scale/(shape + 1); concave in log(value)");
         // x = e^u: -shape u - scale e^{-u}, d2 = -scale e^{-u}.
         case LOG -> Curvature.concave(
-            "inv_gamma log-density is concave in u = log(value): -shape u - scale exp(-u), second derivative -scale exp(-u) < 0");
+            "inverse-gamma log-density is concave in u = log(value): -shape u - scale exp(-u), second derivative -scale exp(-u) < 0");
         case LOGIT -> Reasons.notAnalysed(this, "the value", scale);
       };
     }
@@ -85,17 +85,17 @@ final class InverseGamma {
       if (k == 0) {
         return switch (scale) {
           case NATURAL -> Curvature.concave(
-              "inv_gamma log-density is concave in shape: second derivative -trigamma(shape) < 0");
+              "inverse-gamma log-density is concave in shape: second derivative -trigamma(shape) < 0");
           case LOG -> Curvature.notEstablished(
-              "inv_gamma log-density in u = log(shape) has second derivative shape (log(scale/x) - digamma(shape) - shape trigamma(shape)), positive for small x");
+              "inverse-gamma log-density in u = log(shape) has second derivative shape (log(scale/x) - digamma(shape) - shape trigamma(shape)), positive for small x");
           case LOGIT -> Reasons.notAnalysed(this, "shape", scale);
         };
       }
       return switch (scale) {
         case NATURAL -> Curvature.concave(
-            "inv_gamma log-density is concave in scale: shape log(scale) - scale/x, second derivative -shape/scale^2");
+            "inverse-gamma log-density is concave in scale: shape log(scale) - scale/x, second derivative -shape/scale^2");
         case LOG -> Curvature.concave(
-            "inv_gamma log-density is concave in u = log(scale): shape u - exp(u)/x, second derivative -exp(u)/x < 0");
+            "inverse-gamma log-density is concave in u = log(scale): shape u - exp(u)/x, second derivative -exp(u)/x < 0");
         case LOGIT -> Reasons.notAnalysed(this, "scale", scale);
       };
     }

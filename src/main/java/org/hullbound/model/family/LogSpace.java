@@ -2,7 +2,7 @@ package org.hullbound.model.family;
 
 /**
  * Small functions evaluated in log space without overflow or cancellation: {@code log(1 - exp(a))},
- * {@code log(inv_logit(x))}, {@code log(1 + exp(x))} and the log of a probability from its tails.
+ * {@code log(expit(x))}, {@code log(1 + exp(x))} and the log of a probability from its tails.
  *
  * <p>Probabilities of far tails underflow while their logs do not, so the families compute with
  * logs throughout; the switch points follow Maechler (2012), "Accurately computing log(1 - exp(-|a|))".
@@ -23,12 +23,12 @@ public final class LogSpace {
     return x > 0 ? x + Math.log1p(Math.exp(-x)) : Math.log1p(Math.exp(x));
   }
 
-  /** {@code log(inv_logit(x)) = -log(1 + exp(-x))}, accurate for {@code |x|} up to and past 1e3. */
+  /** {@code log(expit(x)) = -log(1 + exp(-x))}, accurate for {@code |x|} up to and past 1e3. */
   public static double logInvLogit(double x) {
     return -log1pExp(-x);
   }
 
-  /** {@code inv_logit(x) = 1 / (1 + exp(-x))} without overflow. */
+  /** {@code expit(x) = 1 / (1 + exp(-x))} without overflow. */
   public static double invLogit(double x) {
     if (x >= 0) {
       return 1.0 / (1.0 + Math.exp(-x));

@@ -6,7 +6,7 @@ import java.util.List;
  * The logistic family {@code (location, scale)}.
  *
  * <p>Log-density {@code -|z| - 2 log(1 + e^{-|z|}) - log(scale)}, {@code z = (x - location)/scale}
- * (the symmetric form, which never overflows); distribution function {@code inv_logit(z)}, so both
+ * (the symmetric form, which never overflows); distribution function {@code expit(z)}, so both
  * tails are {@link LogSpace#logInvLogit} of {@code +-z}.
  */
 final class Logistic {
@@ -27,7 +27,7 @@ final class Logistic {
       double z = (x - args[0]) / scale;
       double absZ = Math.abs(z);
       if (gradient != null) {
-        // d/dz = 1 - 2 inv_logit(z) = -tanh(z/2).
+        // d/dz = 1 - 2 expit(z) = -tanh(z/2).
         double slope = -Math.tanh(0.5 * z);
         gradient[0] = slope / scale;
         gradient[1] = -slope / scale;
@@ -59,9 +59,9 @@ final class Logistic {
     @Override
     public Curvature curvatureInValue(Scale scale, double[] knownArgs) {
       return switch (scale) {
-        // d2/dx2 = -2 inv_logit(z)(1 - inv_logit(z))/scale^2.
+        // d2/dx2 = -2 expit(z)(1 - expit(z))/scale^2.
         case NATURAL -> Curvature.concave(
-            "logistic log-density is concave in the value: second derivative -2 p(1 - p)/scale^2 with p = inv_logit(z)");
+            "logistic log-density is concave in the value: second derivative -2 p(1 - p)/scale^2 with p = expit(z)");
         // x = e^u: g'' = x^2 l'' + x l', l' = -tanh(z/2)/scale <= 0 above location.
         case LOG -> Reasons.logValueOfLocationFamily(this, knownArgs, 0,
             "second derivative x^2 l''(x) - x tanh(z/2)/scale");
@@ -74,7 +74,7 @@ final class Logistic {
       if (k == 0) {
         return switch (scale) {
           case NATURAL -> Curvature.concave(
-              "logistic log-density is concave in location: second derivative -2 p(1 - p)/scale^2 with p = inv_logit(z)");
+              "logistic log-density is concave in location: second derivative -2 p(1 - p)/scale^2 with p = expit(z)");
           default -> Reasons.notAnalysed(this, "location", scale);
         };
       }

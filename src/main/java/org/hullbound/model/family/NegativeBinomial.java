@@ -19,7 +19,7 @@ final class NegativeBinomial {
   private NegativeBinomial() {}
 
   static Family family() {
-    return SimpleFamily.of("neg_binomial", f -> List.of(new ByMeanSize(f)));
+    return SimpleFamily.of("negative-binomial", f -> List.of(new ByMeanSize(f)));
   }
 
   private static final class ByMeanSize extends DiscreteParametrisation {
@@ -80,17 +80,17 @@ final class NegativeBinomial {
         return switch (scale) {
           // x log m - (r + x) log(r + m): d2 = -x/m^2 + (r + x)/(r + m)^2 = r/(r + m)^2 > 0 at x = 0.
           case NATURAL -> Curvature.notEstablished(
-              "neg_binomial log mass in mean has second derivative -x/mean^2 + (size + x)/(size + mean)^2, positive at x = 0; concave in log(mean)");
+              "negative-binomial log mass in mean has second derivative -x/mean^2 + (size + x)/(size + mean)^2, positive at x = 0; concave in log(mean)");
           // m = e^u: x u - (r + x) log(r + e^u), d2 = -(r + x) r m/(r + m)^2.
           case LOG -> Curvature.concave(
-              "neg_binomial log mass is concave in u = log(mean): x u - (size + x) log(size + exp(u)), second derivative -(size + x) size mean/(size + mean)^2 < 0");
+              "negative-binomial log mass is concave in u = log(mean): x u - (size + x) log(size + exp(u)), second derivative -(size + x) size mean/(size + mean)^2 < 0");
           case LOGIT -> Reasons.notAnalysed(this, "mean", scale);
         };
       }
       return switch (scale) {
         // At x = 0: -r log(1 + m/r), d2 = m^2/(r (r + m)^2) > 0.
         case NATURAL -> Curvature.notEstablished(
-            "neg_binomial log mass in size is not concave: at x = 0 its second derivative is mean^2/(size (size + mean)^2) > 0");
+            "negative-binomial log mass in size is not concave: at x = 0 its second derivative is mean^2/(size (size + mean)^2) > 0");
         default -> Reasons.notAnalysed(this, "size", scale);
       };
     }

@@ -88,7 +88,7 @@ public interface Parametrisation {
    * <p>Computed in log space from whichever tail is small, so that it keeps its relative accuracy
    * where {@code 1 - F} underflows. Location and scale arguments, rates and probabilities have
    * closed-form derivatives; shape-like arguments (gamma and inverse-gamma shape, beta a and b,
-   * student df, neg_binomial size) are differentiated numerically by Richardson extrapolation of
+   * student df, negative-binomial size) are differentiated numerically by Richardson extrapolation of
    * central differences with step {@code 1e-3} times the argument (see the family's Javadoc).
    *
    * @throws IllegalArgumentException if {@code lo > hi}, or {@code lo == hi} for a continuous family
@@ -108,7 +108,7 @@ public interface Parametrisation {
   /**
    * Whether the log-density, as a function of {@code args[k]} on {@code scale}, is concave for every
    * fixed value in the support and every value of the other unknown arguments. No Jacobian is
-   * included: the argument is an expression equal to {@code exp(u)} or {@code inv_logit(u)}.
+   * included: the argument is an expression equal to {@code exp(u)} or {@code expit(u)}.
    *
    * @param knownArgs the arguments, with {@code NaN} for those that are unknown
    */

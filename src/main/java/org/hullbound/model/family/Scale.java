@@ -13,6 +13,6 @@ public enum Scale {
   NATURAL,
   /** {@code u} with {@code quantity = exp(u)}. */
   LOG,
-  /** {@code u} with {@code quantity = inv_logit(u) = 1 / (1 + exp(-u))}. */
+  /** {@code u} with {@code quantity = expit(u) = 1 / (1 + exp(-u))}. */
   LOGIT
 }

@@ -19,7 +19,7 @@ final class StudentT {
   private StudentT() {}
 
   static Family family() {
-    return SimpleFamily.of("student_t", f -> List.of(new ByDfLocationScale(f)));
+    return SimpleFamily.of("student-t", f -> List.of(new ByDfLocationScale(f)));
   }
 
   /** {@code log P(T > t)} for {@code t >= 0}. */
@@ -86,7 +86,7 @@ final class StudentT {
       return switch (scale) {
         // d2/dx2 = -(df+1)(df - z^2) / (scale^2 (df + z^2)^2).
         case NATURAL -> Curvature.notEstablished(
-            "student_t log-density in the value has second derivative -(df+1)(df - z^2)/(scale^2 (df + z^2)^2), positive in the tails |z| > sqrt(df)");
+            "student-t log-density in the value has second derivative -(df+1)(df - z^2)/(scale^2 (df + z^2)^2), positive in the tails |z| > sqrt(df)");
         default -> Reasons.notAnalysed(this, "the value", scale);
       };
     }
@@ -94,21 +94,21 @@ final class StudentT {
     @Override
     public Curvature curvatureInArgument(int k, Scale scale, double[] knownArgs) {
       if (k == 0) {
-        return Curvature.notEstablished("student_t: no concavity result in df is used");
+        return Curvature.notEstablished("student-t: no concavity result in df is used");
       }
       if (k == 1) {
         return scale == Scale.NATURAL
             ? Curvature.notEstablished(
-                "student_t log-density in location has second derivative -(df+1)(df - z^2)/(scale^2 (df + z^2)^2), positive for |z| > sqrt(df)")
+                "student-t log-density in location has second derivative -(df+1)(df - z^2)/(scale^2 (df + z^2)^2), positive for |z| > sqrt(df)")
             : Reasons.notAnalysed(this, "location", scale);
       }
       return switch (scale) {
         // At x = location the log-density is -log(scale) + const: d2 = 1/scale^2 > 0.
         case NATURAL -> Curvature.notEstablished(
-            "student_t log-density in scale has second derivative 1/scale^2 > 0 at x = location; concave in log(scale)");
+            "student-t log-density in scale has second derivative 1/scale^2 > 0 at x = location; concave in log(scale)");
         // scale = e^u, w = (x - location)^2 e^{-2u}/df: -u - (df+1)/2 log(1 + w), d2 = -2(df+1) w/(1+w)^2.
         case LOG -> Curvature.concave(
-            "student_t log-density is concave in u = log(scale): -u - (df+1)/2 log(1 + w) with w = (x - location)^2 exp(-2u)/df, second derivative -2(df+1) w/(1+w)^2 <= 0");
+            "student-t log-density is concave in u = log(scale): -u - (df+1)/2 log(1 + w) with w = (x - location)^2 exp(-2u)/df, second derivative -2(df+1) w/(1+w)^2 <= 0");
         case LOGIT -> Reasons.notAnalysed(this, "scale", scale);
       };
     }

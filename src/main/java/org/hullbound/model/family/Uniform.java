@@ -65,7 +65,7 @@ final class Uniform {
             "uniform log-density is constant on [lower, upper] and -inf outside: concave (not differentiable at the bounds)");
         case LOG -> Curvature.concave(
             "uniform log-density is concave in u = log(value): u - log(upper - lower), linear on its interval");
-        // x = inv_logit(u): log v + log(1 - v) + const, d2 = -2 v (1 - v).
+        // x = expit(u): log v + log(1 - v) + const, d2 = -2 v (1 - v).
         case LOGIT -> Curvature.concave(
             "uniform log-density is concave in u = logit(value): log(v) + log(1 - v) + const, second derivative -2 v(1 - v) < 0");
       };

@@ -67,7 +67,7 @@ class CurvatureProperties {
           return;
         }
         double h = Math.min(0.1, 0.01 * width / (x * (1 - x)));
-        // Jacobian of value = inv_logit(u): + log v + log(1 - v).
+        // Jacobian of value = expit(u): + log v + log(1 - v).
         assertConcaveAt(u -> {
           double v = LogSpace.invLogit(u);
           return p.logDensity(v, args) + LogSpace.logInvLogit(u) + LogSpace.logInvLogit(-u);

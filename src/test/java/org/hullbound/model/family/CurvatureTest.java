@@ -82,7 +82,7 @@ class CurvatureTest {
       assertTrue(argument(family, p, "p", Scale.LOGIT, unknown(p.length)).concave());
     }
     assertFalse(value("poisson", names("rate"), Scale.NATURAL, U).concave());
-    assertTrue(argument("neg_binomial", names("mean", "size"), "mean", Scale.LOG, U, U).concave());
+    assertTrue(argument("negative-binomial", names("mean", "size"), "mean", Scale.LOG, U, U).concave());
   }
 
   @Test
@@ -98,9 +98,9 @@ class CurvatureTest {
   @Test
   void heavyTailedFamiliesAreNotConcaveInValueOrLocation() {
     String[] t = names("df", "location", "scale");
-    assertFalse(value("student_t", t, Scale.NATURAL, unknown(3)).concave());
-    assertFalse(argument("student_t", t, "location", Scale.NATURAL, unknown(3)).concave());
-    assertTrue(argument("student_t", t, "scale", Scale.LOG, unknown(3)).concave());
+    assertFalse(value("student-t", t, Scale.NATURAL, unknown(3)).concave());
+    assertFalse(argument("student-t", t, "location", Scale.NATURAL, unknown(3)).concave());
+    assertTrue(argument("student-t", t, "scale", Scale.LOG, unknown(3)).concave());
     String[] c = names("location", "scale");
     assertFalse(value("cauchy", c, Scale.NATURAL, unknown(2)).concave());
     assertFalse(argument("cauchy", c, "location", Scale.NATURAL, unknown(2)).concave());
@@ -119,7 +119,7 @@ class CurvatureTest {
 
   @Test
   void discreteValuesHaveNoContinuousCurvature() {
-    Curvature fact = value("neg_binomial", names("mean", "size"), Scale.NATURAL, unknown(2));
+    Curvature fact = value("negative-binomial", names("mean", "size"), Scale.NATURAL, unknown(2));
     assertFalse(fact.concave());
     assertTrue(fact.reason().contains("whole number"), fact.reason());
   }
@@ -142,7 +142,7 @@ class CurvatureTest {
 
   @Test
   void studentTIsConvexInTheValueInItsTails() {
-    Parametrisation t = FamilyCases.parametrisation("student_t", "df", "location", "scale");
+    Parametrisation t = FamilyCases.parametrisation("student-t", "df", "location", "scale");
     double df = 3;
     double z = 3;
     // -(df+1)(df - z^2)/(scale^2 (df + z^2)^2) at df 3, z 3, scale 1: 4 * 6/144.
@@ -169,7 +169,7 @@ class CurvatureTest {
 
   @Test
   void negativeBinomialIsConvexInSizeAtZero() {
-    Parametrisation nb = FamilyCases.parametrisation("neg_binomial", "mean", "size");
+    Parametrisation nb = FamilyCases.parametrisation("negative-binomial", "mean", "size");
     double mean = 3;
     double size = 2;
     // mean^2/(size (size + mean)^2) at x = 0.
@@ -203,7 +203,7 @@ class CurvatureTest {
     double x = Math.exp(3);
     // (1 - 1/sdlog^2 + (log x - meanlog)/sdlog^2)/x^2 at meanlog 0, sdlog 1, log x = 3.
     assertPositiveSecondDerivative(3 / (x * x), v -> lognormal.logDensity(v, new double[] {0, 1}), x, 1e-3);
-    Parametrisation halfCauchy = FamilyCases.parametrisation("half_cauchy", "scale");
+    Parametrisation halfCauchy = FamilyCases.parametrisation("half-cauchy", "scale");
     // -2(scale^2 - x^2)/(scale^2 + x^2)^2 at scale 1, x = 3: 16/100.
     assertPositiveSecondDerivative(0.16, v -> halfCauchy.logDensity(v, new double[] {1}), 3, 1e-4);
     assertFalse(halfCauchy.curvatureInValue(Scale.NATURAL, new double[] {1}).concave());

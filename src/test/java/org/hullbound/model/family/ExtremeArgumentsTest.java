@@ -38,7 +38,7 @@ class ExtremeArgumentsTest {
 
   @Test
   void studentTWithHugeDfIsTheNormal() {
-    Parametrisation t = FamilyCases.parametrisation("student_t", "df", "location", "scale");
+    Parametrisation t = FamilyCases.parametrisation("student-t", "df", "location", "scale");
     Parametrisation normal = FamilyCases.parametrisation("normal", "mean", "sd");
     // The t density tends to the normal as df -> inf, with a difference O(1/df) (common practice).
     double expected = normal.logDensity(1.5, new double[] {0, 1});
@@ -56,8 +56,8 @@ class ExtremeArgumentsTest {
 
   @Test
   void negativeBinomialWithHugeSizeIsThePoisson() {
-    Parametrisation nb = FamilyCases.parametrisation("neg_binomial", "mean", "size");
-    // neg_binomial(mean, size) -> poisson(mean) as size -> inf, difference O(1/size)
+    Parametrisation nb = FamilyCases.parametrisation("negative-binomial", "mean", "size");
+    // negative-binomial(mean, size) -> poisson(mean) as size -> inf, difference O(1/size)
     // (Johnson, Kemp and Kotz 2005, 5.3); reference commons-math3 PoissonDistribution.
     double expected = new PoissonDistribution(null, 3, 1e-15, 1000).logProbability(2);
     assertEquals(expected, nb.logDensity(2, new double[] {3, 1e12}), 1e-10);
@@ -66,7 +66,7 @@ class ExtremeArgumentsTest {
   @Test
   void binomialWithABillionTrials() {
     Parametrisation binomial = FamilyCases.parametrisation("binomial", "trials", "logit_p");
-    // x = trials: trials * log inv_logit(logit_p) exactly (C(n, n) = 1).
+    // x = trials: trials * log expit(logit_p) exactly (C(n, n) = 1).
     double n = 1e9;
     assertEquals(n * LogSpace.logInvLogit(2), binomial.logDensity(n, new double[] {n, 2}), 1e-12 * n);
     // x = 1, logit_p = 0: log(n) + n log(1/2).

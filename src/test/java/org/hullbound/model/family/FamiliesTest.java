@@ -25,22 +25,22 @@ class FamiliesTest {
   static {
     TABLE.put("normal", List.of(List.of("mean", "sd"), List.of("mean", "var"), List.of("mean", "precision")));
     TABLE.put("lognormal", List.of(List.of("meanlog", "sdlog")));
-    TABLE.put("half_normal", List.of(List.of("sd")));
-    TABLE.put("student_t", List.of(List.of("df", "location", "scale")));
+    TABLE.put("half-normal", List.of(List.of("sd")));
+    TABLE.put("student-t", List.of(List.of("df", "location", "scale")));
     TABLE.put("cauchy", List.of(List.of("location", "scale")));
-    TABLE.put("half_cauchy", List.of(List.of("scale")));
+    TABLE.put("half-cauchy", List.of(List.of("scale")));
     TABLE.put("logistic", List.of(List.of("location", "scale")));
     TABLE.put("laplace", List.of(List.of("location", "scale")));
     TABLE.put("exponential", List.of(List.of("rate")));
     TABLE.put("gamma", List.of(List.of("shape", "rate"), List.of("shape", "scale")));
-    TABLE.put("inv_gamma", List.of(List.of("shape", "scale")));
+    TABLE.put("inverse-gamma", List.of(List.of("shape", "scale")));
     TABLE.put("weibull", List.of(List.of("shape", "scale")));
     TABLE.put("beta", List.of(List.of("a", "b")));
     TABLE.put("uniform", List.of(List.of("lower", "upper")));
     TABLE.put("poisson", List.of(List.of("rate"), List.of("log_rate")));
     TABLE.put("binomial", List.of(List.of("trials", "p"), List.of("trials", "logit_p")));
     TABLE.put("bernoulli", List.of(List.of("p"), List.of("logit_p")));
-    TABLE.put("neg_binomial", List.of(List.of("mean", "size")));
+    TABLE.put("negative-binomial", List.of(List.of("mean", "size")));
   }
 
   @Test
@@ -74,11 +74,11 @@ class FamiliesTest {
 
   @Test
   void supportsFollowTheTable() {
-    assertEquals(SupportKind.REAL, FamilyCases.parametrisation("student_t", "df", "location", "scale").support());
-    assertEquals(SupportKind.POSITIVE, FamilyCases.parametrisation("inv_gamma", "shape", "scale").support());
+    assertEquals(SupportKind.REAL, FamilyCases.parametrisation("student-t", "df", "location", "scale").support());
+    assertEquals(SupportKind.POSITIVE, FamilyCases.parametrisation("inverse-gamma", "shape", "scale").support());
     assertEquals(SupportKind.UNIT_INTERVAL, FamilyCases.parametrisation("beta", "a", "b").support());
     assertEquals(SupportKind.BETWEEN_FIRST_TWO_ARGUMENTS, FamilyCases.parametrisation("uniform", "lower", "upper").support());
-    assertEquals(SupportKind.COUNT, FamilyCases.parametrisation("neg_binomial", "mean", "size").support());
+    assertEquals(SupportKind.COUNT, FamilyCases.parametrisation("negative-binomial", "mean", "size").support());
     assertEquals(SupportKind.COUNT_UP_TO_FIRST_ARGUMENT, FamilyCases.parametrisation("binomial", "trials", "p").support());
     assertEquals(SupportKind.BINARY, FamilyCases.parametrisation("bernoulli", "logit_p").support());
     assertTrue(FamilyCases.parametrisation("poisson", "log_rate").discrete());
@@ -88,7 +88,7 @@ class FamiliesTest {
   @Test
   void badArgumentsAreNamedWithTheirValueAndTheRequirement() {
     assertEquals("sd must be > 0, got -1", FamilyCases.parametrisation("normal", "mean", "sd").checkArguments(new double[] {0, -1}));
-    assertEquals("sd must be > 0, got NaN", FamilyCases.parametrisation("half_normal", "sd").checkArguments(new double[] {Double.NaN}));
+    assertEquals("sd must be > 0, got NaN", FamilyCases.parametrisation("half-normal", "sd").checkArguments(new double[] {Double.NaN}));
     assertEquals("mean must be a finite number, got Infinity",
         FamilyCases.parametrisation("normal", "mean", "var").checkArguments(new double[] {Double.POSITIVE_INFINITY, 1}));
     assertEquals("p must be between 0 and 1, got 1.5",
@@ -100,7 +100,7 @@ class FamiliesTest {
     assertEquals("gamma(shape, rate) takes 2 arguments, got 1",
         FamilyCases.parametrisation("gamma", "shape", "rate").checkArguments(new double[] {1}));
     assertNull(FamilyCases.parametrisation("bernoulli", "p").checkArguments(new double[] {1}));
-    assertNull(FamilyCases.parametrisation("student_t", "df", "location", "scale").checkArguments(new double[] {3, -2, 0.5}));
+    assertNull(FamilyCases.parametrisation("student-t", "df", "location", "scale").checkArguments(new double[] {3, -2, 0.5}));
   }
 
   @Test
@@ -108,15 +108,15 @@ class FamiliesTest {
     assertEquals("a count must be a whole number >= 0, got 2.5",
         FamilyCases.parametrisation("poisson", "rate").checkValue(2.5, new double[] {1}));
     assertEquals("a count must be a whole number >= 0, got -1",
-        FamilyCases.parametrisation("neg_binomial", "mean", "size").checkValue(-1, new double[] {1, 1}));
+        FamilyCases.parametrisation("negative-binomial", "mean", "size").checkValue(-1, new double[] {1, 1}));
     assertEquals("a count must be a whole number between 0 and trials = 10, got 11",
         FamilyCases.parametrisation("binomial", "trials", "p").checkValue(11, new double[] {10, 0.5}));
     assertEquals("a bernoulli value must be 0 or 1, got 2",
         FamilyCases.parametrisation("bernoulli", "p").checkValue(2, new double[] {0.5}));
     assertEquals("a beta value must be strictly between 0 and 1, got 1",
         FamilyCases.parametrisation("beta", "a", "b").checkValue(1, new double[] {2, 2}));
-    assertEquals("a half_normal value must be > 0 and finite, got -0.5",
-        FamilyCases.parametrisation("half_normal", "sd").checkValue(-0.5, new double[] {1}));
+    assertEquals("a half-normal value must be > 0 and finite, got -0.5",
+        FamilyCases.parametrisation("half-normal", "sd").checkValue(-0.5, new double[] {1}));
     assertEquals("a uniform value must lie in [lower, upper] = [0, 2], got 3",
         FamilyCases.parametrisation("uniform", "lower", "upper").checkValue(3, new double[] {0, 2}));
     assertEquals("a normal value must be a finite number, got NaN",

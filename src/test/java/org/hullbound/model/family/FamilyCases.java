@@ -149,13 +149,13 @@ final class FamilyCases {
         (x, a) -> new LogNormalDistribution(null, a[0], a[1]).logDensity(x),
         (x, a) -> new LogNormalDistribution(null, a[0], a[1]).cumulativeProbability(x),
         (x, a) -> x * a[1], cm + "LogNormalDistribution(scale = meanlog, shape = sdlog)"));
-    cases.add(new Case("half_normal", parametrisation("half_normal", "sd"), args(positive),
+    cases.add(new Case("half-normal", parametrisation("half-normal", "sd"), args(positive),
         (a, q) -> a[0] * 8 * q,
         // Johnson, Kotz and Balakrishnan (1994) vol. 1, 13.10: twice the normal(0, sd) density on x > 0.
         (x, a) -> Math.log(2) + new NormalDistribution(null, 0, a[0]).logDensity(x),
         (x, a) -> 2 * new NormalDistribution(null, 0, a[0]).cumulativeProbability(x) - 1,
         (x, a) -> Math.min(a[0], x), "folded " + cm + "NormalDistribution (JKB 1994, 13.10)"));
-    cases.add(new Case("student_t", parametrisation("student_t", "df", "location", "scale"),
+    cases.add(new Case("student-t", parametrisation("student-t", "df", "location", "scale"),
         args(logUniform(0.5, 200), mean, positive),
         (a, q) -> a[1] + a[2] * spread(q, 20),
         (x, a) -> new TDistribution(null, a[0]).logDensity((x - a[1]) / a[2]) - Math.log(a[2]),
@@ -166,7 +166,7 @@ final class FamilyCases {
         (x, a) -> Math.log(new CauchyDistribution(null, a[0], a[1]).density(x)),
         (x, a) -> new CauchyDistribution(null, a[0], a[1]).cumulativeProbability(x),
         (x, a) -> a[1], cm + "CauchyDistribution"));
-    cases.add(new Case("half_cauchy", parametrisation("half_cauchy", "scale"), args(positive),
+    cases.add(new Case("half-cauchy", parametrisation("half-cauchy", "scale"), args(positive),
         (a, q) -> a[0] * 30 * q,
         // JKB (1994) vol. 1, ch. 16, folded at 0: twice the cauchy(0, scale) density on x > 0.
         (x, a) -> Math.log(2 * new CauchyDistribution(null, 0, a[0]).density(x)),
@@ -199,7 +199,7 @@ final class FamilyCases {
         (x, a) -> new GammaDistribution(null, a[0], a[1]).logDensity(x),
         (x, a) -> new GammaDistribution(null, a[0], a[1]).cumulativeProbability(x),
         (x, a) -> x, cm + "GammaDistribution(shape, scale)"));
-    cases.add(new Case("inv_gamma", parametrisation("inv_gamma", "shape", "scale"),
+    cases.add(new Case("inverse-gamma", parametrisation("inverse-gamma", "shape", "scale"),
         args(logUniform(0.1, 50), positive),
         (a, q) -> a[1] / a[0] * Math.exp(8 * (q - 0.5)),
         // JKB (1994) vol. 1, 17.8.3: if 1/X ~ gamma(shape, rate = scale), f_X(x) = f_{1/X}(1/x)/x^2.
@@ -244,7 +244,7 @@ final class FamilyCases {
         (a, q) -> Math.min(a[0], floorCount(q, a[0] + 1)),
         (x, a) -> new BinomialDistribution(null, (int) a[0], invLogit(a[1])).logProbability((int) x),
         (x, a) -> new BinomialDistribution(null, (int) a[0], invLogit(a[1])).cumulativeProbability((int) x),
-        (x, a) -> 1.0, cm + "BinomialDistribution(p = inv_logit(logit_p))"));
+        (x, a) -> 1.0, cm + "BinomialDistribution(p = expit(logit_p))"));
     cases.add(new Case("bernoulli(p)", parametrisation("bernoulli", "p"), args(uniform(0.001, 0.999)),
         (a, q) -> q < 0.5 ? 0 : 1,
         (x, a) -> new BinomialDistribution(null, 1, a[0]).logProbability((int) x),
@@ -254,14 +254,14 @@ final class FamilyCases {
         (a, q) -> q < 0.5 ? 0 : 1,
         (x, a) -> new BinomialDistribution(null, 1, invLogit(a[0])).logProbability((int) x),
         (x, a) -> new BinomialDistribution(null, 1, invLogit(a[0])).cumulativeProbability((int) x),
-        (x, a) -> 1.0, cm + "BinomialDistribution(trials = 1, p = inv_logit(logit_p))"));
-    cases.add(new Case("neg_binomial, whole size", parametrisation("neg_binomial", "mean", "size"),
+        (x, a) -> 1.0, cm + "BinomialDistribution(trials = 1, p = expit(logit_p))"));
+    cases.add(new Case("negative-binomial, whole size", parametrisation("negative-binomial", "mean", "size"),
         args(logUniform(0.01, 1000), whole(1, 50)),
         (a, q) -> floorCount(q, 3 * a[0] + 10),
         (x, a) -> pascal(a).logProbability((int) x),
         (x, a) -> pascal(a).cumulativeProbability((int) x),
         (x, a) -> 1.0, cm + "PascalDistribution(r = size, p = size/(size + mean))"));
-    cases.add(new Case("neg_binomial, any size", parametrisation("neg_binomial", "mean", "size"),
+    cases.add(new Case("negative-binomial, any size", parametrisation("negative-binomial", "mean", "size"),
         args(logUniform(0.01, 1000), logUniform(0.05, 100)),
         (a, q) -> floorCount(q, 3 * a[0] + 10),
         // Johnson, Kemp and Kotz (2005), Univariate Discrete Distributions, 5.1: Gamma(x + size)/(Gamma(size) x!)

@@ -76,12 +76,12 @@ final class FamilyDrawsTest {
         continuous("normal", new String[] {"mean", "precision"}, new double[] {0, 100}, new NormalDistribution(0, 0.1)),
         continuous("normal", new String[] {"mean", "sd"}, new double[] {1e6, 1e-6}, new NormalDistribution(1e6, 1e-6)),
         continuous("lognormal", new String[] {"meanlog", "sdlog"}, new double[] {0.5, 0.8}, new LogNormalDistribution(0.5, 0.8)),
-        continuous("half_normal", new String[] {"sd"}, new double[] {3}, halfNormal(3)),
-        continuous("student_t", new String[] {"df", "location", "scale"}, new double[] {3, 1, 2}, shifted(new TDistribution(3), 1, 2)),
-        continuous("student_t", new String[] {"df", "location", "scale"}, new double[] {0.7, 0, 1}, new TDistribution(0.7)),
-        continuous("student_t", new String[] {"df", "location", "scale"}, new double[] {1e4, 0, 1}, new TDistribution(1e4)),
+        continuous("half-normal", new String[] {"sd"}, new double[] {3}, halfNormal(3)),
+        continuous("student-t", new String[] {"df", "location", "scale"}, new double[] {3, 1, 2}, shifted(new TDistribution(3), 1, 2)),
+        continuous("student-t", new String[] {"df", "location", "scale"}, new double[] {0.7, 0, 1}, new TDistribution(0.7)),
+        continuous("student-t", new String[] {"df", "location", "scale"}, new double[] {1e4, 0, 1}, new TDistribution(1e4)),
         continuous("cauchy", new String[] {"location", "scale"}, new double[] {-2, 0.5}, new CauchyDistribution(-2, 0.5)),
-        continuous("half_cauchy", new String[] {"scale"}, new double[] {2.5}, halfCauchy(2.5)),
+        continuous("half-cauchy", new String[] {"scale"}, new double[] {2.5}, halfCauchy(2.5)),
         continuous("logistic", new String[] {"location", "scale"}, new double[] {1, 3}, new LogisticDistribution(1, 3)),
         continuous("laplace", new String[] {"location", "scale"}, new double[] {-1, 0.5}, new LaplaceDistribution(-1, 0.5)),
         continuous("exponential", new String[] {"rate"}, new double[] {0.2}, new ExponentialDistribution(5)),
@@ -89,7 +89,7 @@ final class FamilyDrawsTest {
         continuous("gamma", new String[] {"shape", "scale"}, new double[] {0.3, 2}, new GammaDistribution(0.3, 2)),
         continuous("gamma", new String[] {"shape", "rate"}, new double[] {1, 1}, new GammaDistribution(1, 1)),
         continuous("gamma", new String[] {"shape", "rate"}, new double[] {500, 1}, new GammaDistribution(500, 1)),
-        continuous("inv_gamma", new String[] {"shape", "scale"}, new double[] {3, 2}, reciprocalGamma(3, 2)),
+        continuous("inverse-gamma", new String[] {"shape", "scale"}, new double[] {3, 2}, reciprocalGamma(3, 2)),
         continuous("weibull", new String[] {"shape", "scale"}, new double[] {1.7, 3}, new WeibullDistribution(1.7, 3)),
         continuous("beta", new String[] {"a", "b"}, new double[] {2, 5}, new BetaDistribution(2, 5)),
         continuous("beta", new String[] {"a", "b"}, new double[] {0.4, 0.6}, new BetaDistribution(0.4, 0.6)),
@@ -126,8 +126,8 @@ final class FamilyDrawsTest {
         discrete("binomial", new String[] {"trials", "logit_p"}, new double[] {500, 0.4}, new BinomialDistribution(500, 1 / (1 + Math.exp(-0.4)))),
         discrete("bernoulli", new String[] {"p"}, new double[] {0.7}, new BinomialDistribution(1, 0.7)),
         discrete("bernoulli", new String[] {"logit_p"}, new double[] {-2}, new BinomialDistribution(1, 1 / (1 + Math.exp(2)))),
-        // neg_binomial(mean, size): commons-math's Pascal(r = size, p = size / (size + mean)) counts failures.
-        discrete("neg_binomial", new String[] {"mean", "size"}, new double[] {6, 3}, new PascalDistribution(3, 3.0 / 9)));
+        // negative-binomial(mean, size): commons-math's Pascal(r = size, p = size / (size + mean)) counts failures.
+        discrete("negative-binomial", new String[] {"mean", "size"}, new double[] {6, 3}, new PascalDistribution(3, 3.0 / 9)));
   }
 
   /**
@@ -190,8 +190,8 @@ final class FamilyDrawsTest {
         Arguments.of("normal within 2.5 .. inf (inversion)", parametrisation("normal", "mean", "sd"), new double[] {0, 1}, 2.5, Double.POSITIVE_INFINITY, new NormalDistribution(0, 1)),
         Arguments.of("normal within -inf .. -3 (inversion from the upper bound)", parametrisation("normal", "mean", "sd"), new double[] {0, 1}, Double.NEGATIVE_INFINITY, -3.0, new NormalDistribution(0, 1)),
         Arguments.of("gamma within 0 .. 0.1 (inversion)", parametrisation("gamma", "shape", "rate"), new double[] {2, 1}, 0.0, 0.1, new GammaDistribution(2, 1)),
-        Arguments.of("half_cauchy within 0 .. 50", parametrisation("half_cauchy", "scale"), new double[] {1}, 0.0, 50.0, halfCauchy(1)),
-        Arguments.of("student_t within 10 .. 20 (inversion)", parametrisation("student_t", "df", "location", "scale"), new double[] {4, 0, 1}, 10.0, 20.0, new TDistribution(4)));
+        Arguments.of("half-cauchy within 0 .. 50", parametrisation("half-cauchy", "scale"), new double[] {1}, 0.0, 50.0, halfCauchy(1)),
+        Arguments.of("student-t within 10 .. 20 (inversion)", parametrisation("student-t", "df", "location", "scale"), new double[] {4, 0, 1}, 10.0, 20.0, new TDistribution(4)));
   }
 
   @ParameterizedTest(name = "{0}")

@@ -66,7 +66,7 @@ class FarTailTest {
 
   @Test
   void halfNormalTailsAtBothEnds() {
-    Parametrisation halfNormal = FamilyCases.parametrisation("half_normal", "sd");
+    Parametrisation halfNormal = FamilyCases.parametrisation("half-normal", "sd");
     // Upper: 2 Q(40) by the Mills series (A&S 26.2.12).
     assertEquals(Math.log(2) + logMillsSeries(40), logBetween(halfNormal, 80, INF, gradient, 2.0), 1e-12 * 800);
     // Near 0: erf(z/sqrt 2) = z sqrt(2/pi) (1 - z^2/6 + ...), A&S 7.1.5; z = 1e-8.
@@ -97,7 +97,7 @@ class FarTailTest {
 
   @Test
   void inverseGammaLowerTailIsTheGammaUpperTail() {
-    Parametrisation invGamma = FamilyCases.parametrisation("inv_gamma", "shape", "scale");
+    Parametrisation invGamma = FamilyCases.parametrisation("inverse-gamma", "shape", "scale");
     // F(x) = Q(shape, scale/x) (JKB 1994, 17.8.3), Q(3, 2000) exact as above.
     double y = 2000;
     assertEquals(-y + Math.log(1 + y + y * y / 2), logBetween(invGamma, 0, 1 / y, gradient, 3, 1), 1e-12 * y);
@@ -115,7 +115,7 @@ class FarTailTest {
 
   @Test
   void studentTailsAgainstClosedFormsForOneAndTwoDegreesOfFreedom() {
-    Parametrisation student = FamilyCases.parametrisation("student_t", "df", "location", "scale");
+    Parametrisation student = FamilyCases.parametrisation("student-t", "df", "location", "scale");
     double[] g = new double[3];
     // df = 1 is the Cauchy: S(t) = atan(1/t)/pi.
     double t = 1e10;

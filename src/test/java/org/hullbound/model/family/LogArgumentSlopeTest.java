@@ -36,13 +36,13 @@ class LogArgumentSlopeTest {
       {form("normal", "mean", "sd"), 1.3, new double[] {0.2, 0.7}, 1},
       {form("normal", "mean", "var"), 1.3, new double[] {0.2, 0.5}, 1},
       {form("normal", "mean", "precision"), 1.3, new double[] {0.2, 2.0}, 1},
-      {form("half_normal", "sd"), 1.3, new double[] {0.7}, 0},
+      {form("half-normal", "sd"), 1.3, new double[] {0.7}, 0},
       {form("lognormal", "meanlog", "sdlog"), 1.3, new double[] {0.2, 0.7}, 1},
-      {form("student_t", "df", "location", "scale"), 1.3, new double[] {3, 0.2, 0.7}, 2},
+      {form("student-t", "df", "location", "scale"), 1.3, new double[] {3, 0.2, 0.7}, 2},
       {form("normal", "mean", "sd"), 1.3, new double[] {0.2, 0.7}, 0},
       {form("gamma", "shape", "rate"), 1.3, new double[] {2.5, 0.7}, 1},
       {form("gamma", "shape", "scale"), 1.3, new double[] {2.5, 0.7}, 1},
-      {form("inv_gamma", "shape", "scale"), 1.3, new double[] {2.5, 0.7}, 1},
+      {form("inverse-gamma", "shape", "scale"), 1.3, new double[] {2.5, 0.7}, 1},
       {form("weibull", "shape", "scale"), 1.3, new double[] {1.5, 0.7}, 1},
       {form("gamma", "shape", "rate"), 1.3, new double[] {2.5, 0.7}, 0},
     };
@@ -73,20 +73,20 @@ class LogArgumentSlopeTest {
         slope(form("normal", "mean", "precision"), 1.0, new double[] {0.2, tau}, 1),
         1e-12 * 0.32 * tau);
     double h = 1.0 / s;
-    assertEquals(h * h - 1, slope(form("half_normal", "sd"), 1.0, new double[] {s}, 0),
+    assertEquals(h * h - 1, slope(form("half-normal", "sd"), 1.0, new double[] {s}, 0),
         1e-12 * h * h);
     double l = (Math.log(2.0) - 0.2) / s;
     assertEquals(l * l - 1,
         slope(form("lognormal", "meanlog", "sdlog"), 2.0, new double[] {0.2, s}, 1),
         1e-12 * l * l);
     assertTrue(Double.isFinite(
-        slope(form("student_t", "df", "location", "scale"), 1.0, new double[] {3, 0.2, s}, 2)));
+        slope(form("student-t", "df", "location", "scale"), 1.0, new double[] {3, 0.2, s}, 2)));
   }
 
   /**
    * Scales and rates of the gamma, inverse gamma and Weibull at the ends of the double range: the
    * gradient overflows, the log-argument slope keeps its closed form (gamma rate r: shape - r x;
-   * gamma scale s: x/s - shape; inv_gamma scale s: shape - s/x; Weibull scale s: shape (t - 1),
+   * gamma scale s: x/s - shape; inverse-gamma scale s: shape - s/x; Weibull scale s: shape (t - 1),
    * t = (x/s)^shape).
    */
   @Test
@@ -100,7 +100,7 @@ class LogArgumentSlopeTest {
     Parametrisation byScale = form("gamma", "shape", "scale");
     assertEquals(Double.POSITIVE_INFINITY, product(byScale, 1.0, new double[] {2.5, s}, 1));
     assertEquals(1 / s - 2.5, slope(byScale, 1.0, new double[] {2.5, s}, 1), 1e-12 / s);
-    Parametrisation inverse = form("inv_gamma", "shape", "scale");
+    Parametrisation inverse = form("inverse-gamma", "shape", "scale");
     assertEquals(Double.POSITIVE_INFINITY, product(inverse, 1.0, new double[] {2.5, tiny}, 1));
     assertEquals(2.5, slope(inverse, 1.0, new double[] {2.5, tiny}, 1), 1e-12);
     double w = Math.exp(-240);
@@ -113,6 +113,6 @@ class LogArgumentSlopeTest {
   @Test
   void outsideTheSupportTheSlopeIsZero() {
     assertEquals(0, slope(form("lognormal", "meanlog", "sdlog"), -1.0, new double[] {0, 1}, 1));
-    assertEquals(0, slope(form("half_normal", "sd"), -1.0, new double[] {1}, 0));
+    assertEquals(0, slope(form("half-normal", "sd"), -1.0, new double[] {1}, 0));
   }
 }

@@ -51,7 +51,7 @@ class NumericsProperties {
     assertEquals(Math.log(1e-20), LogSpace.log1mExp(-1e-20), 1e-15 * 46);
     assertEquals(-Math.exp(-50), LogSpace.log1mExp(-50), 1e-15 * Math.exp(-50));
     assertEquals(Double.NEGATIVE_INFINITY, LogSpace.log1mExp(0));
-    // log inv_logit(x) = -log(1 + e^-x): -1000 at x = -1000, -e^-1000 (= -0 in double) at x = 1000.
+    // log expit(x) = -log(1 + e^-x): -1000 at x = -1000, -e^-1000 (= -0 in double) at x = 1000.
     assertEquals(-1000.0, LogSpace.logInvLogit(-1000), 1e-12);
     assertEquals(0.0, LogSpace.logInvLogit(1000), 1e-300);
     assertEquals(1000.0, LogSpace.log1pExp(1000), 1e-12);
@@ -65,7 +65,7 @@ class NumericsProperties {
   void binomialAndBernoulliOnTheLogitScaleStayFiniteAtLogitsOfAThousand() {
     Parametrisation binomial = FamilyCases.parametrisation("binomial", "trials", "logit_p");
     double[] gradient = new double[3];
-    // log C(10, 3) + 3 log inv_logit(-1000) + 7 log inv_logit(1000) = log 120 - 3000 (to 1e-300).
+    // log C(10, 3) + 3 log expit(-1000) + 7 log expit(1000) = log 120 - 3000 (to 1e-300).
     assertEquals(Math.log(120) - 3000, binomial.logDensity(3, new double[] {10, -1000}, gradient), 1e-12 * 3000);
     assertEquals(3.0, gradient[2], 1e-12);
     assertEquals(-10000.0, binomial.logDensity(10, new double[] {10, -1000}), 1e-12 * 10000);
