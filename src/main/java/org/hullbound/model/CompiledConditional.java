@@ -131,9 +131,9 @@ final class CompiledConditional implements ConditionalDensity {
     }
     if (slope != null) {
       double s = (dx == 0 ? 0 : dx * dxdu) + du + dLogJacobian;
-      // Where the density is zero (an argument underflowed out of its domain, say), the slope
-      // has no meaning; 0 as outside the support, never NaN.
-      slope[0] = Double.isNaN(s) && value == Double.NEGATIVE_INFINITY ? 0 : s;
+      // Where the density is zero (an argument underflowed or moved out of its range, say), the
+      // slope has no meaning; 0 as outside the support, never NaN.
+      slope[0] = value == Double.NEGATIVE_INFINITY ? 0 : s;
     }
     return value;
   }
