@@ -235,7 +235,7 @@ final class UpdateAnalysis {
             "not provably log-concave" + where + ": " + t.familyName() + " is not concave in "
                 + argumentName + " (" + c.reason() + ")");
       }
-      if (scale == Scale.LOG && !(Formulas.power(argument, slot) != 0)) {
+      if (scale == Scale.LOG && Double.isNaN(Formulas.power(argument, slot))) {
         // a coefficient that reads other unknowns: the monomial rule, with the whole proof
         pieces.add(t.familyName() + " terms concave in log(" + argumentName + ") ("
             + c.reason() + "); " + link);
