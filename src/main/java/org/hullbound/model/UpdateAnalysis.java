@@ -22,12 +22,17 @@ import org.hullbound.model.family.Scale;
  *       the argument is affine in the unknown, the family's curvature in that argument on the
  *       natural scale decides (concave composed with affine is concave); if the argument is
  *       {@code exp(affine)} or {@code inv_logit(affine)}, its curvature on the log or logit scale
- *       decides. On the log scale, an argument {@code c * x^q} with known {@code c > 0} has
- *       {@code log(arg) = log c + q u}, affine in {@code u}, so the family's curvature in that
- *       argument on the log scale decides. On the logit scale the argument must be the unknown.
+ *       decides. On the log scale, a monomial argument {@code c * x^q} ({@code q != 0}; {@code c}
+ *       a known positive number, or free of the unknown in an argument whose range is positive
+ *       or a probability, which forces {@code c > 0}) has {@code log(arg) = log c + q u}, affine
+ *       in {@code u}, so the family's curvature in that argument on the log scale decides. On
+ *       the logit scale the argument must be the unknown.
  *   <li>Anything else (the unknown in two arguments, a non-affine link, a truncated term whose
  *       normaliser moves) is "not provably log-concave".
  * </ol>
+ *
+ * <p>A support cut by dependent arguments with a bounded range ({@link ArgumentBounds}) changes
+ * none of this (a concave function stays concave on an interval); the reason says so.
  *
  * <p>Why scale parameters go on the log scale: for {@code sigma ~ half_normal(sd = s)} with
  * normal children, in {@code u = log sigma} the conditional is {@code u - e^{2u}/(2 s^2) - n u
