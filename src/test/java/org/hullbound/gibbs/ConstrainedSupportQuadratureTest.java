@@ -52,38 +52,6 @@ class ConstrainedSupportQuadratureTest {
     return value;
   }
 
-  /** Means and sds of alpha and beta by Simpson's rule on [0, 1] x [-1, 1]. */
-  private static double[] quadrature() {
-    int n = 1000;
-    double[] as = new double[n + 1];
-    double[] bs = new double[n + 1];
-    double[] weight = new double[n + 1];
-    for (int k = 0; k <= n; k++) {
-      as[k] = (double) k / n;
-      bs[k] = -1 + 2.0 * k / n;
-      weight[k] = (k == 0 || k == n) ? 1 : (k % 2 == 1 ? 4 : 2);
-    }
-    double max = logPosterior(0.1, 0.8);
-    double z = 0;
-    double ma = 0;
-    double mb = 0;
-    double saa = 0;
-    double sbb = 0;
-    for (int i = 0; i <= n; i++) {
-      for (int j = 0; j <= n; j++) {
-        double w = weight[i] * weight[j] * Math.exp(logPosterior(as[i], bs[j]) - max);
-        z += w;
-        ma += w * as[i];
-        mb += w * bs[j];
-        saa += w * as[i] * as[i];
-        sbb += w * bs[j] * bs[j];
-      }
-    }
-    ma /= z;
-    mb /= z;
-    return new double[] {ma, mb, Math.sqrt(saa / z - ma * ma), Math.sqrt(sbb / z - mb * mb)};
-  }
-
   @Test
   void gibbsOnTheCutSupportMatchesTheIntegratedPosterior() {
     BoundModel model = BoundModel.bind(Parser.parse("dose.hbm", MODEL), List.of());
@@ -91,7 +59,8 @@ class ConstrainedSupportQuadratureTest {
     assertInstanceOf(Update.AdaptiveRejection.class, model.update(1));
     ModelSampler sampler = ModelSampler.of(model, Map.of());
     Fits.Fit fit = Fits.run(sampler.sampler(), new RunSettings(4, 400, 2000, 1, 20261202L, 2));
-    double[] truth = quadrature();
+    double[] truth = SimpsonMoments.of(
+        ConstrainedSupportQuadratureTest::logPosterior, 0, 1, -1, 1, 1000);
     for (int k = 0; k < 2; k++) {
       VariableSummary summary = fit.summary(k);
       assertTrue(
