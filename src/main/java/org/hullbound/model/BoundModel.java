@@ -46,6 +46,8 @@ public final class BoundModel {
   private final Update[] singleUpdates;
   private final Formula[] lowerBounds;
   private final Formula[] upperBounds;
+  /** Where the dependent terms' arguments with a bounded range cut each unknown's support. */
+  private final ArgumentBounds[] cuts;
   private final boolean[] smooth;
   private final double[] initialState;
   private final List<DataSummary> data;
@@ -86,6 +88,7 @@ public final class BoundModel {
     this.singleUpdates = new Update[n];
     this.lowerBounds = new Formula[n];
     this.upperBounds = new Formula[n];
+    this.cuts = new ArgumentBounds[n];
     this.smooth = new boolean[n];
     List<Unknown> list = new ArrayList<>();
     for (int s = 0; s < n; s++) {
@@ -94,12 +97,15 @@ public final class BoundModel {
       List<Term> children = dependentTerms(s);
       boolean discrete = own.family().discrete();
       boolean imputed = result.imputed().get(s);
+      Formula[] support = support(own);
+      cuts[s] = ArgumentBounds.of(s, own, children,
+          support[0] instanceof Formula.Constant c ? c.value() : Double.NaN,
+          support[1] instanceof Formula.Constant c ? c.value() : Double.NaN);
       UpdateAnalysis.Choice choice =
-          UpdateAnalysis.choose(s, own, children, discrete, imputed);
+          UpdateAnalysis.choose(s, own, children, discrete, imputed, cuts[s]);
       updates[s] = choice.update();
       singleUpdates[s] = choice.update();
       smooth[s] = UpdateAnalysis.smooth(s, own, children) && !discrete;
-      Formula[] support = support(own);
       lowerBounds[s] = support[0];
       upperBounds[s] = support[1];
       list.add(
@@ -239,7 +245,40 @@ public final class BoundModel {
         state[u.index()] = u.discrete() ? Math.floor(v) : v;
       }
     }
+    moveInsideCuts(state);
     return state;
+  }
+
+  /**
+   * Moves each unknown whose support dependent arguments cut ({@link ArgumentBounds}) to the
+   * middle of its cut support when it lies outside, one unknown at a time, for a few passes: a
+   * binomial {@code p = alpha + beta * dose} at {@code alpha = beta = 0} is 0, so {@code alpha}
+   * moves into (0, 1) given {@code beta}. Each move keeps every earlier unknown inside its own cut
+   * (they are cut given the others' current values), so the state only gets more valid; a cut
+   * left empty (the others' values admit no value) is left for the starting-value check to name.
+   */
+  private void moveInsideCuts(double[] state) {
+    for (int pass = 0; pass < 3; pass++) {
+      boolean moved = false;
+      for (Unknown u : unknowns) {
+        int i = u.index();
+        if (cuts[i].none() || u.discrete()) {
+          continue;
+        }
+        Frame frame = new Frame(Double.NaN, state);
+        double lo = Math.max(Evaluator.compile(lowerBounds[i], -1).eval(frame),
+            cuts[i].lower(state));
+        double hi = Math.min(Evaluator.compile(upperBounds[i], -1).eval(frame),
+            cuts[i].upper(state));
+        if (lo < hi && !(state[i] > lo && state[i] < hi)) {
+          state[i] = finiteMiddle(lo, hi, state[i]);
+          moved = true;
+        }
+      }
+      if (!moved) {
+        return;
+      }
+    }
   }
 
   /** The compiled full conditional of unknown {@code index}, compiled on first use. */
@@ -251,7 +290,8 @@ public final class BoundModel {
       blanket.add(terms.get(ownTerm[index]));
       blanket.addAll(dependentTerms(index));
       c = new CompiledConditional(
-          unknowns.get(index), blanket, lowerBounds[index], upperBounds[index], smooth[index]);
+          unknowns.get(index), blanket, lowerBounds[index], upperBounds[index], cuts[index],
+          smooth[index]);
       conditionals.compareAndSet(index, null, c);
       c = conditionals.get(index);
     }

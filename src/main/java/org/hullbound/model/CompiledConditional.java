@@ -1,6 +1,7 @@
 package org.hullbound.model;
 
 import java.util.List;
+import org.hullbound.model.family.ArgumentRange;
 import org.hullbound.model.family.Parametrisation;
 import org.hullbound.model.family.Scale;
 
@@ -14,6 +15,10 @@ import org.hullbound.model.family.Scale;
  * g(u)} the density of {@code u} is {@code p(g(u)) |g'(u)|}. On the log scale {@code g(u) =
  * exp(u)}, {@code log g' = u}; on the logit scale {@code g(u) = expit(u)}, {@code log g' =
  * log x + log(1 - x)} with derivative {@code 1 - 2x}.
+ *
+ * <p>The support is the own term's, cut by {@link ArgumentBounds} to where the dependent terms'
+ * arguments stay in range; a moving argument outside its range (at a point no bound foresaw)
+ * makes the value {@code -inf}, as the density is zero there.
  */
 final class CompiledConditional implements ConditionalDensity {
   private final Unknown unknown;
@@ -22,6 +27,7 @@ final class CompiledConditional implements ConditionalDensity {
   private final boolean[] aritiesUsed;
   private final Evaluator lower;
   private final Evaluator upper;
+  private final ArgumentBounds cuts;
   /**
    * The bounds on the sampling scale where they are constants, NaN where they move with the
    * state: adaptive rejection asks for them before every draw.
@@ -31,7 +37,8 @@ final class CompiledConditional implements ConditionalDensity {
   private final boolean smooth;
 
   CompiledConditional(
-      Unknown unknown, List<Term> blanket, Formula lower, Formula upper, boolean smooth) {
+      Unknown unknown, List<Term> blanket, Formula lower, Formula upper, ArgumentBounds cuts,
+      boolean smooth) {
     this.unknown = unknown;
     this.scale = unknown.scale();
     int slot = unknown.index();
@@ -47,10 +54,12 @@ final class CompiledConditional implements ConditionalDensity {
     }
     this.lower = Evaluator.compile(lower, -1);
     this.upper = Evaluator.compile(upper, -1);
-    this.constantLower =
-        lower instanceof Formula.Constant c ? toSamplingScale(c.value()) : Double.NaN;
-    this.constantUpper =
-        upper instanceof Formula.Constant c ? toSamplingScale(c.value()) : Double.NaN;
+    this.cuts = cuts;
+    double[] none = new double[0];
+    this.constantLower = lower instanceof Formula.Constant c && cuts.fixed()
+        ? toSamplingScale(Math.max(c.value(), cuts.lower(none))) : Double.NaN;
+    this.constantUpper = upper instanceof Formula.Constant c && cuts.fixed()
+        ? toSamplingScale(Math.min(c.value(), cuts.upper(none))) : Double.NaN;
     this.smooth = smooth;
   }
 
@@ -122,9 +131,9 @@ final class CompiledConditional implements ConditionalDensity {
     }
     if (slope != null) {
       double s = (dx == 0 ? 0 : dx * dxdu) + du + dLogJacobian;
-      // Where the density is zero (an argument underflowed out of its domain, say), the slope
-      // has no meaning; 0 as outside the support, never NaN.
-      slope[0] = Double.isNaN(s) && value == Double.NEGATIVE_INFINITY ? 0 : s;
+      // Where the density is zero (an argument underflowed or moved out of its range, say), the
+      // slope has no meaning; 0 as outside the support, never NaN.
+      slope[0] = value == Double.NEGATIVE_INFINITY ? 0 : s;
     }
     return value;
   }
@@ -158,7 +167,8 @@ final class CompiledConditional implements ConditionalDensity {
     if (!Double.isNaN(constantLower)) {
       return constantLower;
     }
-    return toSamplingScale(lower.eval(new Frame(Double.NaN, state)));
+    return toSamplingScale(
+        Math.max(lower.eval(new Frame(Double.NaN, state)), cuts.lower(state)));
   }
 
   @Override
@@ -166,7 +176,8 @@ final class CompiledConditional implements ConditionalDensity {
     if (!Double.isNaN(constantUpper)) {
       return constantUpper;
     }
-    return toSamplingScale(upper.eval(new Frame(Double.NaN, state)));
+    return toSamplingScale(
+        Math.min(upper.eval(new Frame(Double.NaN, state)), cuts.upper(state)));
   }
 
   /** One term {@code value ~ family(args)} of the blanket, compiled with the own unknown. */
@@ -175,6 +186,8 @@ final class CompiledConditional implements ConditionalDensity {
     private final Evaluator value;
     private final Evaluator[] args;
     private final int[] moving;
+    /** The ranges of the moving arguments whose range is bounded, else null. */
+    private final ArgumentRange[] ranges;
     private final boolean valueMoves;
     private final boolean normalise;
     private final double lower;
@@ -204,13 +217,19 @@ final class CompiledConditional implements ConditionalDensity {
           moving[m++] = k;
         }
       }
+      this.ranges = new ArgumentRange[arity];
+      for (int k : moving) {
+        ArgumentRange range = family.argumentRange(k);
+        ranges[k] = range.bounded() ? range : null;
+      }
       this.valueMoves = !value.fixed();
       // The truncation normaliser -log(F(hi) - F(lo)) is constant unless an argument moves.
       this.normalise = term.truncated() && movingCount > 0;
       this.lower = term.lower();
       this.upper = term.upper();
-      double q = movingCount == 1 ? Formulas.power(term.arguments().get(moving[0]), slot)
-          : Double.NaN;
+      Formulas.Monomial monomial =
+          movingCount == 1 ? Formulas.monomial(term.arguments().get(moving[0]), slot) : null;
+      double q = monomial != null ? monomial.power() : Double.NaN;
       this.slopeOnSamplingScale = scale == Scale.LOG && !valueMoves && !normalise
           && Double.isFinite(q) && q != 0;
       this.power = q;
@@ -224,6 +243,10 @@ final class CompiledConditional implements ConditionalDensity {
       for (int k = 0; k < arity; k++) {
         a[k] = args[k].eval(frame);
         da[k] = frame.slope;
+        if (ranges[k] != null && !ranges[k].contains(a[k])) {
+          frame.slope = 0;
+          return Double.NEGATIVE_INFINITY;
+        }
       }
       double[] g = frame.gradient[arity];
       double logDensity = family.logDensity(y, a, g);

@@ -5,7 +5,8 @@ import java.util.List;
 
 /**
  * Builds {@link Formula}s with constants folded, and recognises the forms the analyses rely on:
- * affine in an unknown, a positive multiple of a power of it, a plain multiple of it.
+ * affine in an unknown (and its two parts), a monomial in it (a product and quotient of powers),
+ * a positive multiple of a power of it, a plain multiple of it.
  *
  * <p>Folding happens once at binding, so data-only subexpressions cost nothing while sampling.
  */
@@ -103,33 +104,142 @@ final class Formulas {
    * constant, so that {@code log f = log c + q log x} is affine in {@code log x}; NaN otherwise.
    */
   static double power(Formula f, int s) {
-    if (f instanceof Formula.Slot slot) {
-      return slot.index() == s ? 1 : Double.NaN;
+    Monomial m = monomial(f, s);
+    return m != null && positive(m.coefficient()) ? m.power() : Double.NaN;
+  }
+
+  /**
+   * {@code f = coefficient * x^power} for {@code x > 0}, with {@code coefficient} free of slot
+   * {@code s}: a product and quotient of powers, in which the unknown may appear more than once
+   * ({@code x * sqrt(x)} has power 1.5) and other unknowns and data form the coefficient ({@code a
+   * / m} is {@code a * m^-1}). Where {@code f > 0}, {@code log f = log(coefficient) + power log
+   * x} is affine in {@code log x}. {@code null} for any other form.
+   */
+  record Monomial(Formula coefficient, double power) {}
+
+  /** The monomial form of {@code f} in slot {@code s}, or {@code null}; see {@link Monomial}. */
+  static Monomial monomial(Formula f, int s) {
+    if (!f.reads(s)) {
+      return new Monomial(f, 0);
     }
-    if (!(f instanceof Formula.Operation o)) {
-      return Double.NaN;
+    if (f instanceof Formula.Slot) {
+      return new Monomial(Formula.constant(1), 1);
     }
+    Formula.Operation o = (Formula.Operation) f;
+    List<Formula> p = o.parts();
+    Monomial first = monomial(p.get(0), s);
+    if (first == null) {
+      return null;
+    }
+    switch (o.op()) {
+      case NEGATE:
+        return new Monomial(apply(Op.NEGATE, List.of(first.coefficient())), first.power());
+      case SQRT:
+        return new Monomial(apply(Op.SQRT, List.of(first.coefficient())), first.power() / 2);
+      case POWER:
+        if (!(p.get(1) instanceof Formula.Constant e) || !Double.isFinite(e.value())) {
+          return null;
+        }
+        return new Monomial(apply(Op.POWER, List.of(first.coefficient(), e)),
+            e.value() * first.power());
+      case MULTIPLY:
+      case DIVIDE:
+        Monomial second = monomial(p.get(1), s);
+        if (second == null) {
+          return null;
+        }
+        boolean multiply = o.op() == Op.MULTIPLY;
+        return new Monomial(
+            apply(o.op(), List.of(first.coefficient(), second.coefficient())),
+            multiply ? first.power() + second.power() : first.power() - second.power());
+      default:
+        return null;
+    }
+  }
+
+  /**
+   * {@code [a, b]} with {@code f = a + b x} and {@code a}, {@code b} free of slot {@code s}, or
+   * {@code null} when {@code f} is not affine in it (the forms of {@link #affine}).
+   */
+  static Formula[] affineParts(Formula f, int s) {
+    if (!f.reads(s)) {
+      return new Formula[] {f, Formula.constant(0)};
+    }
+    if (f instanceof Formula.Slot) {
+      return new Formula[] {Formula.constant(0), Formula.constant(1)};
+    }
+    Formula.Operation o = (Formula.Operation) f;
     List<Formula> p = o.parts();
     switch (o.op()) {
-      case MULTIPLY:
-        if (positive(p.get(0))) {
-          return power(p.get(1), s);
+      case ADD: {
+        List<Formula> intercepts = new ArrayList<>();
+        List<Formula> slopes = new ArrayList<>();
+        for (Formula part : p) {
+          Formula[] parts = affineParts(part, s);
+          if (parts == null) {
+            return null;
+          }
+          intercepts.add(parts[0]);
+          slopes.add(parts[1]);
         }
-        return positive(p.get(1)) ? power(p.get(0), s) : Double.NaN;
-      case DIVIDE:
-        if (positive(p.get(1))) {
-          return power(p.get(0), s);
+        return new Formula[] {apply(Op.ADD, intercepts), apply(Op.ADD, slopes)};
+      }
+      case SUBTRACT: {
+        Formula[] left = affineParts(p.get(0), s);
+        Formula[] right = affineParts(p.get(1), s);
+        if (left == null || right == null) {
+          return null;
         }
-        return positive(p.get(0)) ? -power(p.get(1), s) : Double.NaN;
-      case POWER:
-        return p.get(1) instanceof Formula.Constant c && c.value() != 0
-            ? c.value() * power(p.get(0), s)
-            : Double.NaN;
-      case SQRT:
-        return 0.5 * power(p.get(0), s);
+        return new Formula[] {
+          apply(Op.SUBTRACT, List.of(left[0], right[0])),
+          apply(Op.SUBTRACT, List.of(left[1], right[1]))
+        };
+      }
+      case NEGATE: {
+        Formula[] inner = affineParts(p.get(0), s);
+        return inner == null ? null : new Formula[] {
+          apply(Op.NEGATE, List.of(inner[0])), apply(Op.NEGATE, List.of(inner[1]))
+        };
+      }
+      case MULTIPLY: {
+        boolean leftFree = !p.get(0).reads(s);
+        if (!leftFree && p.get(1).reads(s)) {
+          return null;
+        }
+        Formula factor = leftFree ? p.get(0) : p.get(1);
+        Formula[] inner = affineParts(leftFree ? p.get(1) : p.get(0), s);
+        return inner == null ? null : new Formula[] {
+          times(factor, inner[0]), times(factor, inner[1])
+        };
+      }
+      case DIVIDE: {
+        if (p.get(1).reads(s)) {
+          return null;
+        }
+        Formula[] inner = affineParts(p.get(0), s);
+        return inner == null ? null : new Formula[] {
+          over(inner[0], p.get(1)), over(inner[1], p.get(1))
+        };
+      }
       default:
-        return Double.NaN;
+        return null;
     }
+  }
+
+  /** {@code f / divisor}, with a zero {@code f} kept as the constant 0. */
+  private static Formula over(Formula f, Formula divisor) {
+    if (f instanceof Formula.Constant c && c.value() == 0) {
+      return f;
+    }
+    return apply(Op.DIVIDE, List.of(f, divisor));
+  }
+
+  /** {@code factor * f}, with a zero {@code f} kept as the constant 0. */
+  private static Formula times(Formula factor, Formula f) {
+    if (f instanceof Formula.Constant c && c.value() == 0) {
+      return f;
+    }
+    return apply(Op.MULTIPLY, List.of(factor, f));
   }
 
   private static boolean positive(Formula f) {

@@ -7,9 +7,10 @@ import org.hullbound.model.family.Scale;
  * or a missing observation of modelled {@code data} (such as {@code y[17]}).
  *
  * <p>{@code index} is its slot in the state vector; {@code scale} is the scale it is sampled on;
- * {@code lower} and {@code upper} bound its support on the natural scale (infinite when open,
- * NaN when a bound depends on other unknowns, as for {@code uniform(lower = a, upper = b)} with
- * unknown {@code a}); {@code imputed} marks a missing observation; {@code discrete} one that
+ * {@code lower} and {@code upper} bound its own term's support on the natural scale (infinite when
+ * open, NaN when a bound depends on other unknowns, as for {@code uniform(lower = a, upper = b)}
+ * with unknown {@code a}), which dependent arguments with a bounded range may cut further (see
+ * {@link ConditionalDensity#lowerBound}); {@code imputed} marks a missing observation; {@code discrete} one that
  * takes whole values only (a missing count).
  */
 public record Unknown(

@@ -4,6 +4,7 @@ import java.util.ArrayList;
 import java.util.LinkedHashSet;
 import java.util.List;
 import java.util.Set;
+import org.hullbound.model.family.ArgumentRange;
 import org.hullbound.model.family.Curvature;
 import org.hullbound.model.family.Scale;
 
@@ -21,12 +22,17 @@ import org.hullbound.model.family.Scale;
  *       the argument is affine in the unknown, the family's curvature in that argument on the
  *       natural scale decides (concave composed with affine is concave); if the argument is
  *       {@code exp(affine)} or {@code expit(affine)}, its curvature on the log or logit scale
- *       decides. On the log scale, an argument {@code c * x^q} with known {@code c > 0} has
- *       {@code log(arg) = log c + q u}, affine in {@code u}, so the family's curvature in that
- *       argument on the log scale decides. On the logit scale the argument must be the unknown.
+ *       decides. On the log scale, a monomial argument {@code c * x^q} ({@code q != 0}; {@code c}
+ *       a known positive number, or free of the unknown in an argument whose range is positive
+ *       or a probability, which forces {@code c > 0}) has {@code log(arg) = log c + q u}, affine
+ *       in {@code u}, so the family's curvature in that argument on the log scale decides. On
+ *       the logit scale the argument must be the unknown.
  *   <li>Anything else (the unknown in two arguments, a non-affine link, a truncated term whose
  *       normaliser moves) is "not provably log-concave".
  * </ol>
+ *
+ * <p>A support cut by dependent arguments with a bounded range ({@link ArgumentBounds}) changes
+ * none of this (a concave function stays concave on an interval); the reason says so.
  *
  * <p>Why scale parameters go on the log scale: for {@code sigma ~ half-normal(sd = s)} with
  * normal children, in {@code u = log sigma} the conditional is {@code u - e^{2u}/(2 s^2) - n u
@@ -56,8 +62,8 @@ final class UpdateAnalysis {
     }
   }
 
-  static Choice choose(
-      int slot, Term own, List<Term> dependents, boolean discrete, boolean imputed) {
+  static Choice choose(int slot, Term own, List<Term> dependents, boolean discrete,
+      boolean imputed, ArgumentBounds cuts) {
     List<Scale> scales = candidates(own, own.truncated(), discrete);
     boolean smooth = smooth(slot, own, dependents);
     Update.Conjugate conjugate = ConjugatePairs.detect(slot, own, dependents, imputed);
@@ -85,10 +91,11 @@ final class UpdateAnalysis {
                   + " a continuous unknown",
               false));
     }
+    String reason = cuts.none() ? first.reason : first.reason + "; " + cuts.reason();
     if (chosen != null) {
-      return new Choice(scale, new Update.AdaptiveRejection(first.reason, smooth));
+      return new Choice(scale, new Update.AdaptiveRejection(reason, smooth));
     }
-    return new Choice(scale, new Update.Fallback(first.reason, smooth));
+    return new Choice(scale, new Update.Fallback(reason, smooth));
   }
 
   /** True unless a term is not differentiable in the unknown. */
@@ -117,6 +124,44 @@ final class UpdateAnalysis {
   }
 
   private record Verdict(boolean concave, String reason) {}
+
+  /**
+   * How argument {@code k} of {@code t} is log-affine in the unknown on the log scale, in words,
+   * or {@code null} when it is not: a monomial {@code c * x^q} ({@link Formulas#monomial}) with
+   * {@code q != 0} has {@code log(arg) = log c + q u}, affine in {@code u = log x}, where {@code c
+   * > 0}. That holds when {@code c} is a known positive number, and also when {@code c} reads
+   * other unknowns or data but the argument's range is positive or a probability: at any state of
+   * nonzero density the argument is then {@code > 0} (or {@code 0} for every {@code x}, a term
+   * constant in it), and {@code x^q > 0}, so {@code c > 0}. A gamma {@code rate = a / m} is {@code
+   * a * m^-1}: in {@code u = log m}, {@code log(rate) = log a - u}.
+   */
+  private static String logAffine(Term t, int k, Formula argument, int slot) {
+    Formulas.Monomial m = Formulas.monomial(argument, slot);
+    double q = m == null ? Double.NaN : m.power();
+    if (!Double.isFinite(q) || q == 0) {
+      return null;
+    }
+    if (m.coefficient() instanceof Formula.Constant c
+        && c.value() > 0 && c.value() < Double.POSITIVE_INFINITY) {
+      return q == 1 ? "a positive multiple of the unknown"
+          : "a positive multiple of a power of the unknown";
+    }
+    ArgumentRange range = t.family().argumentRange(k);
+    if (!(range.lower() >= 0)) {
+      return null;
+    }
+    String name = t.argumentName(k);
+    String form = q == 1 ? "c * unknown" : q == -1 ? "c / unknown" : "c * unknown^" + number(q);
+    String slope = Math.abs(q) == 1 ? "" : number(Math.abs(q)) + " ";
+    return name + " = " + form + " with c free of the unknown (a valid " + name + " forces c "
+        + (range.lower() > 0 || !range.closed() ? "> 0" : ">= 0") + "), so log(" + name
+        + ") = log(c) " + (q < 0 ? "- " : "+ ") + slope + "log(unknown) is affine on the log"
+        + " scale";
+  }
+
+  private static String number(double q) {
+    return q == Math.rint(q) && Math.abs(q) < 1e6 ? Long.toString((long) q) : Double.toString(q);
+  }
 
   private static Verdict concavity(
       int slot, Term own, List<Term> dependents, Scale scale, boolean imputed) {
@@ -176,12 +221,8 @@ final class UpdateAnalysis {
           link = "expit of an affine function of the unknown";
         }
       } else if (scale == Scale.LOG) {
-        double q = Formulas.power(argument, slot);
-        if (Double.isFinite(q) && q != 0) {
-          argumentScale = Scale.LOG;
-          link = q == 1 ? "a positive multiple of the unknown"
-              : "a positive multiple of a power of the unknown";
-        }
+        link = logAffine(t, k, argument, slot);
+        argumentScale = link == null ? null : Scale.LOG;
       } else if (argument instanceof Formula.Slot) {
         argumentScale = Scale.LOGIT;
         link = "the unknown itself";
@@ -199,7 +240,13 @@ final class UpdateAnalysis {
             "not provably log-concave" + where + ": " + t.familyName() + " is not concave in "
                 + argumentName + " (" + c.reason() + ")");
       }
-      pieces.add(t.familyName() + " terms concave in " + argumentName + ", " + link);
+      if (scale == Scale.LOG && Double.isNaN(Formulas.power(argument, slot))) {
+        // a coefficient that reads other unknowns: the monomial rule, with the whole proof
+        pieces.add(t.familyName() + " terms concave in log(" + argumentName + ") ("
+            + c.reason() + "); " + link);
+      } else {
+        pieces.add(t.familyName() + " terms concave in " + argumentName + ", " + link);
+      }
     }
     StringBuilder reason = new StringBuilder("log-concave" + where + ": ");
     reason.append(own.familyName()).append(' ').append(ownWord).append(" (")

@@ -42,46 +42,6 @@ class LogisticQuadratureTest {
     return value;
   }
 
-  /** Means and sds of a and b by Simpson's rule on [-8, 8]^2 (the posterior is negligible past). */
-  private static double[] quadrature() {
-    int n = 400;
-    double lo = -8;
-    double hi = 8;
-    double h = (hi - lo) / n;
-    double[] grid = new double[n + 1];
-    double[] weight = new double[n + 1];
-    for (int k = 0; k <= n; k++) {
-      grid[k] = lo + k * h;
-      weight[k] = (k == 0 || k == n) ? 1 : (k % 2 == 1 ? 4 : 2);
-    }
-    double max = Double.NEGATIVE_INFINITY;
-    double[][] log = new double[n + 1][n + 1];
-    for (int i = 0; i <= n; i++) {
-      for (int j = 0; j <= n; j++) {
-        log[i][j] = logPosterior(grid[i], grid[j], null, null);
-        max = Math.max(max, log[i][j]);
-      }
-    }
-    double z = 0;
-    double ma = 0;
-    double mb = 0;
-    double saa = 0;
-    double sbb = 0;
-    for (int i = 0; i <= n; i++) {
-      for (int j = 0; j <= n; j++) {
-        double w = weight[i] * weight[j] * Math.exp(log[i][j] - max);
-        z += w;
-        ma += w * grid[i];
-        mb += w * grid[j];
-        saa += w * grid[i] * grid[i];
-        sbb += w * grid[j] * grid[j];
-      }
-    }
-    ma /= z;
-    mb /= z;
-    return new double[] {ma, mb, Math.sqrt(saa / z - ma * ma), Math.sqrt(sbb / z - mb * mb)};
-  }
-
   @Test
   void gibbsWithAdaptiveRejectionMatchesTheIntegratedPosterior() {
     ScalarConditional intercept = (u, state, slope) -> logPosterior(u, state[1], slope, null);
@@ -97,7 +57,9 @@ class LogisticQuadratureTest {
               state[1] = rng.nextDouble(-2, 2);
             });
     Fits.Fit fit = Fits.run(sampler, new RunSettings(4, 200, 2500, 1, 424242L, 2));
-    double[] truth = quadrature();
+    // Simpson on [-8, 8]^2: the posterior is negligible past it.
+    double[] truth =
+        SimpsonMoments.of((a, b) -> logPosterior(a, b, null, null), -8, 8, -8, 8, 400);
     for (int k = 0; k < 2; k++) {
       VariableSummary summary = fit.summary(k);
       assertTrue(

@@ -59,6 +59,16 @@ abstract class BaseParametrisation implements Parametrisation {
     return domains[k];
   }
 
+  @Override
+  public final ArgumentRange argumentRange(int k) {
+    return switch (domains[k]) {
+      case REAL -> new ArgumentRange(Double.NEGATIVE_INFINITY, Double.POSITIVE_INFINITY, false);
+      case POSITIVE -> new ArgumentRange(0, Double.POSITIVE_INFINITY, false);
+      case PROBABILITY -> new ArgumentRange(0, 1, true);
+      case WHOLE -> new ArgumentRange(0, 0x1p53 - 1, true);
+    };
+  }
+
   final int arity() {
     return domains.length;
   }

@@ -61,6 +61,13 @@ public interface Parametrisation {
   }
 
   /**
+   * The interval argument {@code k} must lie in: where an argument moves with an unknown (a
+   * binomial {@code p = alpha + beta * dose}), the unknown's support is cut to where it stays
+   * inside.
+   */
+  ArgumentRange argumentRange(int k);
+
+  /**
    * {@code null} when the arguments are valid, else a message naming the argument, its value and
    * what is required, e.g. {@code "sd must be > 0, got -1.0"}.
    */
