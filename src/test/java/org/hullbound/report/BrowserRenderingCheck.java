@@ -108,8 +108,8 @@ class BrowserRenderingCheck {
     Path page = work.resolve("report.html");
     ReportWriter.writeAtomically(page, report);
     String dom = runChromium(work, page, "--dump-dom");
-    // Showcase: 6 unknowns with 4 panels each, every panel an inline <svg>.
-    assertEquals(24, Xml.count(dom, "<svg"), "svg elements in the browser's DOM");
+    // Showcase: 6 unknowns with 4 panels each, every panel an inline <svg>, and 3 pair scatters.
+    assertEquals(24 + 3, Xml.count(dom, "<svg"), "svg elements in the browser's DOM");
     assertEquals(6, Xml.count(dom, "class=\"plot plot-trace\""), "trace plots");
     assertEquals(6, Xml.count(dom, "<td class=\"name\">"), "table rows");
     assertEquals(6, Xml.count(dom, "<section class=\"unknown\""), "unknown sections");
