@@ -50,6 +50,7 @@ import org.hullbound.report.ReportInput;
 import org.hullbound.report.ReportOptions;
 import org.hullbound.report.ReportWriter;
 import org.hullbound.report.RunHeader;
+import org.hullbound.report.RunSources;
 import org.hullbound.report.SummaryTable;
 import org.hullbound.report.UpdateFacts;
 import org.hullbound.report.Verdicts;
@@ -137,6 +138,9 @@ public final class FitCommand implements Callable<Integer> {
   boolean overwrite;
 
   @CommandLine.Spec CommandLine.Model.CommandSpec spec;
+
+  /** The model file's text as read, for the report's top. */
+  private String modelText = "";
 
   /** The summary table's file name in the output folder. */
   static final String SUMMARY_FILE = "summary.csv";
@@ -254,7 +258,8 @@ public final class FitCommand implements Callable<Integer> {
         }
       }
       saveCheckpoint(folder, sampler, settings, outcome, checkpoint);
-      report(model, sampler, settings, outcome, store, folder, stdout, stderr, clock);
+      report(model, sampler, settings, outcome, store, folder, stdout, stderr, clock,
+          ReportCommand.sources(modelText, model.data()));
       if (outcome.stoppedEarly()) {
         printHowToResume(folder, stdout);
       }
@@ -396,7 +401,7 @@ public final class FitCommand implements Callable<Integer> {
 
   /** Files that mark a folder as holding an earlier run; checkpoint files start with {@code checkpoint}. */
   static final List<String> OUTPUT_FILES =
-      List.of(DrawsWriter.FILE_NAME, SUMMARY_FILE, REPORT_FILE);
+      List.of(DrawsWriter.FILE_NAME, SUMMARY_FILE, REPORT_FILE, RunFactsFile.FILE_NAME);
 
   /**
    * Why {@code folder} must not be written, or null: it is a file, or it holds an earlier run's
@@ -473,6 +478,7 @@ public final class FitCommand implements Callable<Integer> {
 
   private BoundModel load() throws IOException {
     String text = TextFiles.readUtf8(modelFile, "model file");
+    modelText = text;
     ModelFile parsed = Parser.parse(SourceText.of(modelFile.toString(), text));
     List<DataTable> tables = new ArrayList<>();
     for (Path file : dataFiles) {
@@ -515,7 +521,8 @@ public final class FitCommand implements Callable<Integer> {
 
   private static void report(
       BoundModel model, ModelSampler sampler, RunSettings settings, RunOutcome outcome,
-      DrawStore store, Path folder, PrintWriter stdout, PrintWriter stderr, RunClock clock) {
+      DrawStore store, Path folder, PrintWriter stdout, PrintWriter stderr, RunClock clock,
+      RunSources sources) {
     List<String> labels = sampler.labels();
     int kept = store.commonDraws();
     int[] summarised = store.chainsWithDraws();
@@ -537,10 +544,11 @@ public final class FitCommand implements Callable<Integer> {
         new RunHeader(model.name(), clock.startedAt(),
             summarised.length > 0 ? summarised.length : settings.chains(), kept,
             settings.burnIn(), settings.seed(), clock.elapsed());
+    RunFactsFile.write(folder, header, sources);
     if (kept == 0) {
       Path reportFile = writeReport(folder, new ReportInput(header,
           List.of("No draws were kept (the run stopped during burn-in), so there is no summary."),
-          "", List.of(), ReportOptions.defaults()));
+          "", List.of(), ReportOptions.defaults(), sources));
       stdout.println("No draws were kept, so there is no summary.");
       stdout.println("draws:  " + drawsFile);
       stdout.println("report: " + reportFile);
@@ -585,7 +593,8 @@ public final class FitCommand implements Callable<Integer> {
     AtomicFiles.write(summaryFile, table.csv());
     Verdicts verdicts = Verdicts.of(table);
     Path reportFile = writeReport(folder,
-        ReportInput.of(header, table, verdicts, kepts, ReportOptions.defaults()));
+        ReportInput.of(header, table, verdicts, kepts, ReportOptions.defaults())
+            .withSources(sources));
     stdout.print(table.text());
     stdout.println();
     for (String line : verdicts.lines()) {

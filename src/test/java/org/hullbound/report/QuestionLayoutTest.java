@@ -62,8 +62,8 @@ class QuestionLayoutTest {
   void theModelTextAndDataFactsComeBeforeTheTable() {
     int sources = page.indexOf("id=\"sources\"");
     assertTrue(sources > 0 && sources < page.indexOf("id=\"summary\""));
-    assertTrue(page.contains("<pre class=\"model\">model &quot;invented schools&quot;\n"));
-    assertTrue(page.contains("effect[school] ~ normal(mu, tau)"));
+    assertTrue(page.contains("<pre class=\"model\"># invented scenario\nmodel schools\n"));
+    assertTrue(page.contains("param effect[school] ~ normal(mean = mu, sd = tau)"));
     assertTrue(page.contains("schools.csv</span>: 12 rows, 1 missing cell imputed"));
     assertTrue(page.contains("inline</span>: 1 row, no missing cells"));
     // Without sources there is no such section and no link to it.

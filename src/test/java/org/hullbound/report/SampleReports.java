@@ -167,12 +167,14 @@ final class SampleReports {
     }
     RunSources sources =
         new RunSources(
-            "model \"invented schools\"\n"
-                + "index school in schools.csv\n"
-                + "mu ~ normal(0, 10)\n"
-                + "tau ~ half-normal(5)\n"
-                + "effect[school] ~ normal(mu, tau)\n"
-                + "score[school] ~ normal(effect[school], se[school])\n",
+            "# invented scenario\n"
+                + "model schools\n"
+                + "index school\n"
+                + "data  score[school], se[school]\n"
+                + "param mu ~ normal(mean = 0, sd = 10)\n"
+                + "param tau ~ half-normal(sd = 5)\n"
+                + "param effect[school] ~ normal(mean = mu, sd = tau)\n"
+                + "data  score[school] ~ normal(mean = effect[school], sd = se[school])\n",
             List.of(
                 new RunSources.DataSource("schools.csv", 12, 1),
                 new RunSources.DataSource("inline", 1, 0)));
