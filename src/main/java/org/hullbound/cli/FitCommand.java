@@ -137,6 +137,12 @@ public final class FitCommand implements Callable<Integer> {
       description = "Replace the files of an earlier run in DIR (without it, fit refuses to start).")
   boolean overwrite;
 
+  @Option(
+      names = "--level",
+      paramLabel = "P",
+      description = "Probability of the central intervals in the summary and report, e.g. 0.9 (default: ${DEFAULT-VALUE}).")
+  double level = SummaryTable.INTERVAL_LEVEL;
+
   @CommandLine.Spec CommandLine.Model.CommandSpec spec;
 
   /** The model file's text as read, for the report's top. */
@@ -259,7 +265,7 @@ public final class FitCommand implements Callable<Integer> {
       }
       saveCheckpoint(folder, sampler, settings, outcome, checkpoint);
       report(model, sampler, settings, outcome, store, folder, stdout, stderr, clock,
-          ReportCommand.sources(modelText, model.data()));
+          ReportCommand.sources(modelText, model.data()), level);
       if (outcome.stoppedEarly()) {
         printHowToResume(folder, stdout);
       }
@@ -378,6 +384,9 @@ public final class FitCommand implements Callable<Integer> {
   }
 
   private String checkOptions() {
+    if (!(level > 0 && level < 1)) {
+      return "--level must lie strictly between 0 and 1, e.g. 0.9; got " + level;
+    }
     if (chains < 1) {
       return "--chains must be at least 1, got " + chains;
     }
@@ -522,7 +531,7 @@ public final class FitCommand implements Callable<Integer> {
   private static void report(
       BoundModel model, ModelSampler sampler, RunSettings settings, RunOutcome outcome,
       DrawStore store, Path folder, PrintWriter stdout, PrintWriter stderr, RunClock clock,
-      RunSources sources) {
+      RunSources sources, double level) {
     List<String> labels = sampler.labels();
     int kept = store.commonDraws();
     int[] summarised = store.chainsWithDraws();
@@ -588,12 +597,13 @@ public final class FitCommand implements Callable<Integer> {
       }
       facts.put(label, fact);
     }
-    SummaryTable table = SummaryTable.of(summaries, facts);
+    SummaryTable table = SummaryTable.of(summaries, facts).withIntervalLevel(level, kepts);
     Path summaryFile = folder.resolve(SUMMARY_FILE);
     AtomicFiles.write(summaryFile, table.csv());
     Verdicts verdicts = Verdicts.of(table);
     Path reportFile = writeReport(folder,
-        ReportInput.of(header, table, verdicts, kepts, ReportOptions.defaults())
+        ReportInput.of(header, table, verdicts, kepts,
+                ReportOptions.defaults().withIntervalLevel(level))
             .withSources(sources));
     stdout.print(table.text());
     stdout.println();

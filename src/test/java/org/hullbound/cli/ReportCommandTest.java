@@ -104,6 +104,16 @@ class ReportCommandTest {
   }
 
   @Test
+  void summarizeTakesTheIntervalLevelToo() {
+    CliRun ninety = CliRun.of("summarize", run.resolve("draws.csv").toString(), "--level", "0.9");
+    assertEquals(0, ninety.exit(), ninety.err());
+    assertTrue(ninety.out().contains("90% interval"), ninety.out());
+    CliRun bad = CliRun.of("summarize", run.resolve("draws.csv").toString(), "--level", "0");
+    assertEquals(2, bad.exit());
+    assertTrue(bad.err().contains("--level must lie strictly between 0 and 1"), bad.err());
+  }
+
+  @Test
   void aModelNameComesFromTheModelStatementElseTheFileName() {
     assertEquals("seedlings", ReportCommand.modelName("# x\nmodel seedlings\nindex a\n", "m.hbm"));
     assertEquals("fill_weights", ReportCommand.modelName("", "models/fill_weights.hbm"));
