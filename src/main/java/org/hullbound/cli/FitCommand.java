@@ -384,8 +384,8 @@ public final class FitCommand implements Callable<Integer> {
   }
 
   private String checkOptions() {
-    if (!(level > 0 && level < 1)) {
-      return "--level must lie strictly between 0 and 1, e.g. 0.9; got " + level;
+    if (ReportCommand.levelProblem(level) != null) {
+      return ReportCommand.levelProblem(level);
     }
     if (chains < 1) {
       return "--chains must be at least 1, got " + chains;

@@ -96,8 +96,8 @@ public final class ReportCommand implements Callable<Integer> {
   public Integer call() throws IOException {
     PrintWriter stdout = spec.commandLine().getOut();
     PrintWriter stderr = spec.commandLine().getErr();
-    if (!(level > 0 && level < 1)) {
-      return userError(stderr, "--level must lie strictly between 0 and 1, e.g. 0.9; got " + level);
+    if (levelProblem(level) != null) {
+      return userError(stderr, levelProblem(level));
     }
     if (plotCap < 0) {
       return userError(stderr, "--plot-cap must be 0 or more, got " + plotCap);
@@ -177,6 +177,13 @@ public final class ReportCommand implements Callable<Integer> {
     stdout.println("report: " + target);
     stdout.flush();
     return 0;
+  }
+
+  /** What is wrong with {@code --level P}, or null: it must lie strictly between 0 and 1. */
+  static String levelProblem(double level) {
+    return level > 0 && level < 1
+        ? null
+        : "--level must lie strictly between 0 and 1, e.g. 0.9; got " + level;
   }
 
   /** The first warning of a page re-rendered from a folder without run.txt. */

@@ -147,8 +147,8 @@ public final class SummarizeCommand implements Callable<Integer> {
     if (!(minEss > 0) || Double.isInfinite(minEss)) {
       return "--min-ess must be a finite number above 0, got " + minEss;
     }
-    if (!(level > 0 && level < 1)) {
-      return "--level must lie strictly between 0 and 1, e.g. 0.9; got " + level;
+    if (ReportCommand.levelProblem(level) != null) {
+      return ReportCommand.levelProblem(level);
     }
     if (columns != null && columns.stream().allMatch(c -> c.isBlank())) {
       return "--columns needs at least one variable name";

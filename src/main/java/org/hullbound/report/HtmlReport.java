@@ -182,9 +182,9 @@ public final class HtmlReport {
         .append(" Carlo standard error (MCSE), the sd and the central interval; the trust in")
         .append(" it: rank-normalised split R-hat, bulk-ESS and tail-ESS (Vehtari et al. 2021);")
         .append(" and what the draws cost. Marked values (&#9652;) have R-hat above ")
-        .append(Markup.escape(plain(input.options().maxRhat())))
+        .append(Markup.escape(Answers.plain(input.options().maxRhat())))
         .append(" or an effective sample size below ")
-        .append(Markup.escape(plain(input.options().minEss())))
+        .append(Markup.escape(Answers.plain(input.options().minEss())))
         .append("; n/a means not defined for these draws.</p>")
         .append("<div class=\"scroll\"><table><thead>")
         .append("<tr class=\"groups\"><th></th><th colspan=\"3\">estimate</th>")
@@ -271,11 +271,6 @@ public final class HtmlReport {
   private static String evaluations(UpdateFacts facts) {
     double e = facts.evaluationsPerDraw();
     return e == 0 ? "0" : NumberText.significant(e, 3);
-  }
-
-  /** A threshold as typed: 1.01, 400. */
-  private static String plain(double x) {
-    return new java.math.BigDecimal(Double.toString(x)).stripTrailingZeros().toPlainString();
   }
 
   private static String capSentence(int total, int cap) {
