@@ -17,13 +17,18 @@ import java.nio.file.Path;
  * @param out the output folder, or null for {@code fit-out/<model name>}
  * @param resume the folder of an interrupted run to continue, or null
  * @param overwrite whether an earlier run's files in the folder may be replaced
+ * @param level the probability inside the central intervals of the summary and report
  */
 public record FitRequest(
     ModelInputs inputs, Path initFile, Integer chains, Integer burnIn, Integer draws,
-    Integer thin, Long seed, Integer threads, Path out, Path resume, boolean overwrite) {
+    Integer thin, Long seed, Integer threads, Path out, Path resume, boolean overwrite,
+    double level) {
   public FitRequest {
     if (inputs == null) {
       throw new IllegalArgumentException("inputs must not be null");
+    }
+    if (!(level > 0 && level < 1)) {
+      throw new IllegalArgumentException("level must lie strictly between 0 and 1, got " + level);
     }
   }
 }

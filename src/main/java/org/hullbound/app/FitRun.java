@@ -39,6 +39,7 @@ import org.hullbound.report.ReportInput;
 import org.hullbound.report.ReportOptions;
 import org.hullbound.report.ReportWriter;
 import org.hullbound.report.RunHeader;
+import org.hullbound.report.RunSources;
 import org.hullbound.report.SummaryTable;
 import org.hullbound.report.UpdateFacts;
 import org.hullbound.report.Verdicts;
@@ -63,7 +64,7 @@ public final class FitRun implements AutoCloseable {
 
   /** Files that mark a folder as holding an earlier run; checkpoint files start with {@code checkpoint}. */
   public static final List<String> OUTPUT_FILES =
-      List.of(DrawsWriter.FILE_NAME, SUMMARY_FILE, REPORT_FILE);
+      List.of(DrawsWriter.FILE_NAME, SUMMARY_FILE, REPORT_FILE, RunFactsFile.FILE_NAME);
 
   private final FitRequest request;
   private final BoundModel model;
@@ -446,10 +447,13 @@ public final class FitRun implements AutoCloseable {
         new RunHeader(model.name(), startedAt,
             summarised.length > 0 ? summarised.length : settings.chains(), kept,
             settings.burnIn(), settings.seed(), elapsed);
+    RunSources sources =
+        RunFactsFile.sources(request.inputs().modelText(), model.data());
+    RunFactsFile.write(folder, header, sources);
     if (kept == 0) {
       Path reportFile = writeReport(folder, new ReportInput(header,
           List.of("No draws were kept (the run stopped during burn-in), so there is no summary."),
-          "", List.of(), ReportOptions.defaults()));
+          "", List.of(), ReportOptions.defaults(), sources));
       return new FitResult(
           model.name(), settings, folder, outcome.stoppedEarly(), kept, summarised,
           java.util.Optional.empty(), List.of(), imputed, drawsFile, reportFile);
@@ -481,12 +485,15 @@ public final class FitRun implements AutoCloseable {
       }
       facts.put(label, fact);
     }
-    SummaryTable table = SummaryTable.of(summaries, facts);
+    SummaryTable table =
+        SummaryTable.of(summaries, facts).withIntervalLevel(request.level(), kepts);
     Path summaryFile = folder.resolve(SUMMARY_FILE);
     AtomicFiles.write(summaryFile, table.csv());
     Verdicts verdicts = Verdicts.of(table);
     Path reportFile = writeReport(folder,
-        ReportInput.of(header, table, verdicts, kepts, ReportOptions.defaults()));
+        ReportInput.of(header, table, verdicts, kepts,
+                ReportOptions.defaults().withIntervalLevel(request.level()))
+            .withSources(sources));
     return new FitResult(
         model.name(), settings, folder, outcome.stoppedEarly(), kept, summarised,
         java.util.Optional.of(new FitResult.Summary(table, verdicts, summaryFile)), switchNotes,

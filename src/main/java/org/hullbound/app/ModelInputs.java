@@ -33,8 +33,12 @@ public record ModelInputs(Path modelFile, List<Path> dataFiles) {
    * @throws org.hullbound.lang.ModelException when the text is not a model
    */
   public ModelFile parse() {
-    String text = TextFiles.readUtf8(modelFile, "model file");
-    return Parser.parse(SourceText.of(modelFile.toString(), text));
+    return Parser.parse(SourceText.of(modelFile.toString(), modelText()));
+  }
+
+  /** The model file's text as read now, for the report's top. */
+  public String modelText() {
+    return TextFiles.readUtf8(modelFile, "model file");
   }
 
   /**

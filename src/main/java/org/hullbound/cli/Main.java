@@ -19,6 +19,7 @@ import picocli.CommandLine.Command;
       CheckCommand.class,
       FitCommand.class,
       SummarizeCommand.class,
+      ReportCommand.class,
       DrawCommand.class,
       ValidateCommand.class,
       CalibrateCommand.class

@@ -7,6 +7,7 @@ import java.util.LinkedHashSet;
 import java.util.List;
 import java.util.Set;
 import java.util.concurrent.Callable;
+import org.hullbound.diagnostics.Draws;
 import org.hullbound.diagnostics.PosteriorSummary;
 import org.hullbound.diagnostics.VariableSummary;
 import org.hullbound.io.AtomicFiles;
@@ -75,6 +76,12 @@ public final class SummarizeCommand implements Callable<Integer> {
           "Flag a bulk or tail effective sample size below N (default: ${DEFAULT-VALUE}).")
   double minEss = Verdicts.DEFAULT_MIN_ESS;
 
+  @Option(
+      names = "--level",
+      paramLabel = "P",
+      description = "Probability of the central intervals, e.g. 0.9 (default: ${DEFAULT-VALUE}).")
+  double level = SummaryTable.INTERVAL_LEVEL;
+
   @CommandLine.Spec CommandLine.Model.CommandSpec spec;
 
   @Override
@@ -110,10 +117,13 @@ public final class SummarizeCommand implements Callable<Integer> {
     }
     stderr.flush();
     List<VariableSummary> summaries = new ArrayList<>();
+    List<Draws> kept = new ArrayList<>();
     for (String name : chosen) {
-      summaries.add(PosteriorSummary.of(name, draws.draws(name)));
+      Draws d = Draws.of(draws.draws(name));
+      kept.add(d);
+      summaries.add(PosteriorSummary.of(name, d));
     }
-    SummaryTable table = SummaryTable.of(summaries);
+    SummaryTable table = SummaryTable.of(summaries).withIntervalLevel(level, kept);
     if (csvFile != null) {
       AtomicFiles.write(csvFile, table.csv());
     }
@@ -136,6 +146,9 @@ public final class SummarizeCommand implements Callable<Integer> {
     }
     if (!(minEss > 0) || Double.isInfinite(minEss)) {
       return "--min-ess must be a finite number above 0, got " + minEss;
+    }
+    if (ReportCommand.levelProblem(level) != null) {
+      return ReportCommand.levelProblem(level);
     }
     if (columns != null && columns.stream().allMatch(c -> c.isBlank())) {
       return "--columns needs at least one variable name";

@@ -49,8 +49,12 @@ public final class HtmlReport {
         .append(Style.CSS)
         .append("</style></head>\n<body><main>\n");
     header(html, input, model);
+    contents(html, input);
     warnings(html, input.warnings(), input.conclusion());
+    sources(html, input.sources());
     table(html, input);
+    IndexedIntervals.section(html, input);
+    PairPlots.section(html, input);
     plots(html, input);
     footer(html, input.options());
     html.append("</main></body></html>\n");
@@ -74,6 +78,70 @@ public final class HtmlReport {
     fact(html, "seed", Long.toString(h.seed()));
     fact(html, "unknowns", Integer.toString(input.unknowns().size()));
     html.append("</dl></header>\n");
+  }
+
+  /** The table of contents: the page's sections, and each plotted unknown by name. */
+  private static void contents(StringBuilder html, ReportInput input) {
+    html.append("<nav class=\"contents\" id=\"contents\"><h2>On this page</h2><ol>")
+        .append("<li><a href=\"#warnings\">Warnings</a></li>");
+    if (!input.sources().isEmpty()) {
+      html.append("<li><a href=\"#sources\">Model and data</a></li>");
+    }
+    html.append("<li><a href=\"#summary\">Summary</a></li>");
+    if (!IndexedIntervals.groups(input.unknowns()).isEmpty()) {
+      html.append("<li><a href=\"#intervals\">Intervals of indexed unknowns</a></li>");
+    }
+    if (PairPlots.hasPairs(input)) {
+      html.append("<li><a href=\"#pairs\">Most correlated pairs</a></li>");
+    }
+    int cap = Math.min(input.options().plotCap(), input.unknowns().size());
+    if (cap > 0) {
+      html.append("<li><a href=\"#plots\">Unknowns one by one</a><ol class=\"names\">");
+      for (int i = 0; i < cap; i++) {
+        html.append("<li><a href=\"#u")
+            .append(i)
+            .append("\">")
+            .append(Markup.escape(input.unknowns().get(i).name()))
+            .append("</a></li>");
+      }
+      html.append("</ol></li>");
+    }
+    html.append("</ol></nav>\n");
+  }
+
+  /** The model text as written and one line per data source: rows, missing cells imputed. */
+  private static void sources(StringBuilder html, RunSources sources) {
+    if (sources.isEmpty()) {
+      return;
+    }
+    html.append("<section id=\"sources\"><h2>Model and data</h2>");
+    if (!sources.data().isEmpty()) {
+      html.append("<ul class=\"data\">");
+      for (RunSources.DataSource d : sources.data()) {
+        html.append("<li><span class=\"file\">")
+            .append(Markup.escape(d.source()))
+            .append("</span>: ")
+            .append(d.rows())
+            .append(d.rows() == 1 ? " row" : " rows")
+            .append(", ")
+            .append(
+                d.missingCells() == 0
+                    ? "no missing cells"
+                    : d.missingCells()
+                        + (d.missingCells() == 1 ? " missing cell" : " missing cells")
+                        + " imputed (drawn as unknowns)")
+            .append("</li>");
+      }
+      html.append("</ul>");
+    } else {
+      html.append("<p class=\"lead\">No data file was read.</p>");
+    }
+    if (!sources.modelText().isBlank()) {
+      html.append("<pre class=\"model\">")
+          .append(Markup.escape(sources.modelText().stripTrailing()))
+          .append("</pre>");
+    }
+    html.append("</section>\n");
   }
 
   private static void fact(StringBuilder html, String term, String value) {
@@ -111,12 +179,12 @@ public final class HtmlReport {
     int cap = input.options().plotCap();
     html.append("<section id=\"summary\"><h2>Summary</h2>")
         .append("<p class=\"lead\">The estimate from all draws pooled: the mean with its Monte")
-        .append(" Carlo standard error (MCSE), the sd and the 95% central interval; the trust in")
+        .append(" Carlo standard error (MCSE), the sd and the central interval; the trust in")
         .append(" it: rank-normalised split R-hat, bulk-ESS and tail-ESS (Vehtari et al. 2021);")
         .append(" and what the draws cost. Marked values (&#9652;) have R-hat above ")
-        .append(Markup.escape(plain(input.options().maxRhat())))
+        .append(Markup.escape(Answers.plain(input.options().maxRhat())))
         .append(" or an effective sample size below ")
-        .append(Markup.escape(plain(input.options().minEss())))
+        .append(Markup.escape(Answers.plain(input.options().minEss())))
         .append("; n/a means not defined for these draws.</p>")
         .append("<div class=\"scroll\"><table><thead>")
         .append("<tr class=\"groups\"><th></th><th colspan=\"3\">estimate</th>")
@@ -125,7 +193,7 @@ public final class HtmlReport {
       "unknown",
       "mean \u00b1 MCSE",
       "sd",
-      "95% interval",
+      CentralInterval.percent(input.options().intervalLevel()) + " interval",
       "R-hat",
       "bulk-ESS",
       "tail-ESS",
@@ -144,6 +212,7 @@ public final class HtmlReport {
     for (int i = 0; i < input.unknowns().size(); i++) {
       UnknownReport u = input.unknowns().get(i);
       VariableSummary s = u.summary();
+      ReportOptions o = input.options();
       html.append("<tr><td class=\"name\">");
       if (i < cap) {
         html.append("<a href=\"#u").append(i).append("\">").append(Markup.escape(u.name()));
@@ -152,7 +221,6 @@ public final class HtmlReport {
         html.append(Markup.escape(u.name()));
       }
       html.append("</td>");
-      ReportOptions o = input.options();
       cell(
           html,
           Double.isNaN(s.mean())
@@ -163,11 +231,14 @@ public final class HtmlReport {
                       : " \u00b1 " + NumberText.significant(s.mcseMean(), 2)),
           false);
       cell(html, NumberText.significant(s.sd(), 4), false);
+      CentralInterval interval = u.interval(o.intervalLevel());
       cell(
           html,
-          Double.isNaN(s.q025())
+          Double.isNaN(interval.lower())
               ? NumberText.NOT_AVAILABLE
-              : NumberText.significant(s.q025(), 4) + " .. " + NumberText.significant(s.q975(), 4),
+              : NumberText.significant(interval.lower(), 4)
+                  + " .. "
+                  + NumberText.significant(interval.upper(), 4),
           false);
       cell(html, NumberText.fixed(s.rhat(), 3), s.rhat() > o.maxRhat());
       cell(html, NumberText.count(s.essBulk()), s.essBulk() < o.minEss());
@@ -202,14 +273,9 @@ public final class HtmlReport {
     return e == 0 ? "0" : NumberText.significant(e, 3);
   }
 
-  /** A threshold as typed: 1.01, 400. */
-  private static String plain(double x) {
-    return new java.math.BigDecimal(Double.toString(x)).stripTrailingZeros().toPlainString();
-  }
-
   private static String capSentence(int total, int cap) {
     if (cap == 0) {
-      return "No plots are drawn: the plot cap is 0. All " + total + " unknowns are in the table.";
+      return "No per-unknown plots are drawn: the plot cap is 0. All " + total + " unknowns are in the table.";
     }
     return "Plots are drawn for the first "
         + cap
@@ -226,10 +292,13 @@ public final class HtmlReport {
     if (unknowns.isEmpty()) {
       return;
     }
-    html.append("<section id=\"plots\"><h2>Plots</h2><p class=\"lead\">")
-        .append("Per unknown: every chain&#8217;s trace, a kernel density per chain, the ")
-        .append("autocorrelation averaged over chains, and a histogram per chain of the ranks ")
-        .append("of its draws among all draws. Colours and dash patterns follow the trace legend. ")
+    html.append("<section id=\"plots\"><h2>Unknowns one by one</h2><p class=\"lead\">")
+        .append("Each unknown answers four questions, the answer first and its plots under it. ")
+        .append("Where is it: a kernel density per chain. Did the chains agree: a histogram per ")
+        .append("chain of the ranks of its draws among all draws, and each chain&#8217;s mean. ")
+        .append("How fast did it move: every chain&#8217;s trace and the autocorrelation ")
+        .append("averaged over chains. What did it cost: the update and its density ")
+        .append("evaluations. Colours and dash patterns are the chains&#8217;, as in the trace. ")
         .append("Shaded bands show what independent draws would give: for ranks the middle 95% ")
         .append("of a bin&#8217;s count, for autocorrelation &#177;1.96/&#8730;n. ")
         .append("Traces longer than ")
@@ -252,29 +321,15 @@ public final class HtmlReport {
     List<String> notes = new ArrayList<>(s.notes());
     String trace = tracePanel(u, options, notes);
     String density = densityPanel(u, options, notes);
-    String acf = autocorrelationPanel(u, options);
+    Optional<double[]> rho = autocorrelation(u.draws(), options);
+    String acf = autocorrelationPanel(u, options, rho);
     String ranks = rankPanel(u, options);
+    double[] chainMeans = Answers.chainMeans(u.draws());
     html.append("<section class=\"unknown\" id=\"u")
         .append(index)
         .append("\"><h3>")
         .append(Markup.escape(u.name()))
-        .append("</h3><p class=\"keyline\">");
-    if (Double.isNaN(s.mean())) {
-      html.append("no summary: the draws are not all finite");
-    } else {
-      html.append("mean ")
-          .append(Markup.escape(NumberText.significant(s.mean(), 4)))
-          .append(" &#183; 95% interval ")
-          .append(Markup.escape(NumberText.significant(s.q025(), 4)))
-          .append(" .. ")
-          .append(Markup.escape(NumberText.significant(s.q975(), 4)))
-          .append(" &#183; R-hat ")
-          .append(Markup.escape(NumberText.fixed(s.rhat(), 3)))
-          .append(" &#183; bulk-ESS ")
-          .append(Markup.escape(NumberText.count(s.essBulk())));
-    }
-    u.update().ifPresent(f -> html.append(" &#183; ").append(Markup.escape(f.update())));
-    html.append("</p>");
+        .append("</h3>");
     if (!notes.isEmpty()) {
       html.append("<ul class=\"notes\">");
       for (String note : notes) {
@@ -282,12 +337,54 @@ public final class HtmlReport {
       }
       html.append("</ul>");
     }
-    html.append("<div class=\"panels\">")
-        .append(trace)
-        .append(density)
-        .append(acf)
-        .append(ranks)
-        .append("</div></section>\n");
+    html.append("<div class=\"questions\">");
+    question(
+        html, "where", "Where is it?",
+        Answers.where(s, u.interval(options.intervalLevel())), density);
+    question(
+        html, "agree", "Did the chains agree?",
+        Answers.agreement(s, chainMeans, options.maxRhat()), ranks + chainMeanList(chainMeans));
+    question(
+        html, "speed", "How fast did it move?",
+        Answers.speed(s, rho, options.minEss()), "<div class=\"pair\">" + trace + acf + "</div>");
+    question(html, "cost", "What did it cost?", Answers.cost(s, u.update()), "");
+    html.append("</div></section>\n");
+  }
+
+  /** One labelled question block: heading, the answer in plain words, then its panels. */
+  private static void question(
+      StringBuilder html, String kind, String heading, String answer, String panels) {
+    html.append("<div class=\"question q-")
+        .append(kind)
+        .append("\"><h4>")
+        .append(heading)
+        .append("</h4><p class=\"answer\">")
+        .append(Markup.escape(answer))
+        .append("</p>")
+        .append(panels)
+        .append("</div>");
+  }
+
+  /** Each chain's mean beside its colour swatch, so the agreement answer can be checked. */
+  private static String chainMeanList(double[] means) {
+    if (means.length < 2) {
+      return "";
+    }
+    StringBuilder list = new StringBuilder("<ul class=\"chain-means\">");
+    for (int c = 0; c < means.length; c++) {
+      list.append("<li><span class=\"swatch\" style=\"background:")
+          .append(Palette.colour(c))
+          .append("\"></span>chain ")
+          .append(c + 1)
+          .append(" mean ")
+          .append(
+              Markup.escape(
+                  Double.isNaN(means[c])
+                      ? NumberText.NOT_AVAILABLE
+                      : NumberText.significant(means[c], 4)))
+          .append("</li>");
+    }
+    return list.append("</ul>").toString();
   }
 
   private static String tracePanel(UnknownReport u, ReportOptions options, List<String> notes) {
@@ -375,7 +472,19 @@ public final class HtmlReport {
     return SvgPlot.curves(labels, series, false);
   }
 
-  private static String autocorrelationPanel(UnknownReport u, ReportOptions options) {
+  /** The autocorrelation averaged over chains, when the draws allow it. */
+  private static Optional<double[]> autocorrelation(Draws draws, ReportOptions options) {
+    if (!draws.isFinite()
+        || draws.length() < PosteriorSummary.MINIMUM_DRAWS_PER_CHAIN
+        || everyChainConstant(draws)) {
+      return Optional.empty();
+    }
+    return Optional.of(
+        Autocorrelation.averaged(draws, Math.min(options.maxLag(), draws.length() - 1)));
+  }
+
+  private static String autocorrelationPanel(
+      UnknownReport u, ReportOptions options, Optional<double[]> autocorrelation) {
     Draws draws = u.draws();
     String title = draws.chainCount() == 1 ? "autocorrelation" : "autocorrelation, mean of chains";
     PanelLabels labels = new PanelLabels("autocorrelation", title, "lag", "");
@@ -393,11 +502,10 @@ public final class HtmlReport {
     if (draws.isConstant()) {
       return SvgPlot.note(labels, "not drawn: every draw is the same");
     }
-    if (everyChainConstant(draws)) {
+    if (autocorrelation.isEmpty()) {
       return SvgPlot.note(labels, "not drawn: every chain is constant");
     }
-    int maxLag = Math.min(options.maxLag(), draws.length() - 1);
-    double[] rho = Autocorrelation.averaged(draws, maxLag);
+    double[] rho = autocorrelation.get();
     double[] lags = new double[rho.length];
     for (int t = 0; t < lags.length; t++) {
       lags[t] = t;
@@ -530,7 +638,8 @@ public final class HtmlReport {
         dl.facts div{border-left:3px solid var(--rule);padding-left:9px}
         dl.facts div:first-child{grid-column:span 2}
         dl.facts dt{font-size:12px;color:var(--muted)}
-        dl.facts dd{margin:0;font-variant-numeric:tabular-nums}
+        dl.facts div{min-width:0}
+        dl.facts dd{margin:0;font-variant-numeric:tabular-nums;overflow-wrap:anywhere}
         section.warnings{background:var(--warn-bg);border-left:4px solid var(--warn);
           padding:8px 16px;margin:0 0 20px}
         section.warnings h2{margin:4px 0;font-size:16px;color:var(--warn)}
@@ -560,16 +669,51 @@ public final class HtmlReport {
           font-family:ui-monospace,'SF Mono',Menlo,Consolas,monospace}
         .keyline{color:var(--muted);font-size:13px;margin:0 0 6px}
         ul.notes{font-size:13px;color:var(--warn);margin:2px 0 8px;padding-left:20px}
-        .panels{display:grid;grid-template-columns:repeat(auto-fit,minmax(250px,1fr));
-          gap:8px 16px}
-        .panels svg{width:100%;height:auto;display:block}
+        .questions{display:grid;grid-template-columns:1fr 1fr;gap:10px 22px}
+        .question{min-width:0;border-top:2px solid var(--rule);padding-top:4px}
+        .question h4{margin:0;font-size:12px;text-transform:uppercase;letter-spacing:.07em;
+          color:var(--accent)}
+        .answer{margin:2px 0 6px;font-size:13.5px}
+        .q-speed{grid-column:1/-1}
+        .q-cost{grid-column:1/-1}
+        .pair{display:grid;grid-template-columns:repeat(auto-fit,minmax(260px,1fr));gap:8px 16px}
+        .question svg,.pairs svg{width:100%;height:auto;display:block}
+        ul.chain-means{list-style:none;padding:0;margin:4px 0 0;font-size:12.5px;
+          display:flex;flex-wrap:wrap;gap:2px 14px;font-variant-numeric:tabular-nums}
+        .swatch{display:inline-block;width:10px;height:10px;margin-right:5px;border-radius:2px}
+        nav.contents{font-size:13.5px;border:1px solid var(--rule);padding:4px 14px;
+          margin:0 0 18px;background:var(--card)}
+        nav.contents h2{font-size:13px;margin:6px 0 2px;text-transform:uppercase;
+          letter-spacing:.07em;color:var(--muted)}
+        nav.contents ol{margin:2px 0 6px;padding-left:22px}
+        nav.contents ol.names{display:flex;flex-wrap:wrap;gap:0 14px;list-style:none;
+          padding-left:0;font-family:ui-monospace,'SF Mono',Menlo,Consolas,monospace;
+          font-size:12.5px;max-height:8.5em;overflow-y:auto}
+        pre.model{background:var(--card);border:1px solid var(--rule);padding:8px 12px;
+          font-size:13px;overflow-x:auto;max-height:24em}
+        ul.data{font-size:13.5px;margin:4px 0 8px}
+        span.file{font-family:ui-monospace,'SF Mono',Menlo,Consolas,monospace}
+        .interval-plot{margin:10px 0 18px}
+        .interval-plot h3{font-size:15px;margin:0;font-family:ui-monospace,'SF Mono',Menlo,
+          Consolas,monospace}
+        .interval-plot svg{width:100%;height:auto;display:block;max-width:760px}
+        .interval-plot .by-mean{display:none}
+        .interval-plot input:checked~.by-mean{display:block}
+        .interval-plot input:checked~.by-index{display:none}
+        .interval-plot label{font-size:13px;color:var(--muted)}
+        .pairs{display:grid;grid-template-columns:repeat(auto-fit,minmax(260px,1fr));
+          gap:10px 16px}
+        .pairs figure{margin:0;min-width:0}
+        .pairs figcaption{font-size:13px}
         footer{margin-top:30px;border-top:1px solid var(--rule);padding-top:8px;font-size:12.5px;
           color:var(--muted)}
+        @media (max-width:720px){.questions{grid-template-columns:1fr}}
         @media (max-width:560px){main{padding:14px 10px 32px}h1{font-size:21px}
           section.unknown{padding:10px 8px}}
         @media print{body{background:#fff;font-size:10.5pt}main{max-width:none;padding:0}
           tbody tr:nth-child(even){background:none}section.unknown{border-color:#bbb}
-          .panels{grid-template-columns:repeat(2,1fr)}a{color:inherit;text-decoration:none}}
+          .questions{grid-template-columns:repeat(2,1fr)}a{color:inherit;text-decoration:none}
+          nav.contents{display:none}.interval-plot input,.interval-plot label{display:none}}
         """;
   }
 }

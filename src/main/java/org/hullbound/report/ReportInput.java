@@ -19,18 +19,20 @@ import org.hullbound.diagnostics.VariableSummary;
  * @param conclusion one closing sentence, possibly empty
  * @param unknowns the unknowns, in the order of the table
  * @param options what to draw and mark
+ * @param sources the model text and data the run was fitted from, shown at the top
  */
 public record ReportInput(
     RunHeader header,
     List<String> warnings,
     String conclusion,
     List<UnknownReport> unknowns,
-    ReportOptions options) {
+    ReportOptions options,
+    RunSources sources) {
 
   /** Checks that nothing is null and copies the lists. */
   public ReportInput {
-    if (header == null || options == null) {
-      throw new IllegalArgumentException("header and options must not be null");
+    if (header == null || options == null || sources == null) {
+      throw new IllegalArgumentException("header, options and sources must not be null");
     }
     if (warnings == null || unknowns == null) {
       throw new IllegalArgumentException("warnings and unknowns must not be null (may be empty)");
@@ -41,6 +43,21 @@ public record ReportInput(
     conclusion = conclusion == null ? "" : conclusion;
     warnings = List.copyOf(warnings);
     unknowns = List.copyOf(unknowns);
+  }
+
+  /** An input with no model text or data facts ({@link RunSources#unknown()}). */
+  public ReportInput(
+      RunHeader header,
+      List<String> warnings,
+      String conclusion,
+      List<UnknownReport> unknowns,
+      ReportOptions options) {
+    this(header, warnings, conclusion, unknowns, options, RunSources.unknown());
+  }
+
+  /** This input with the model text and data facts given. */
+  public ReportInput withSources(RunSources given) {
+    return new ReportInput(header, warnings, conclusion, unknowns, options, given);
   }
 
   /**

@@ -16,6 +16,9 @@ package org.hullbound.report;
  * @param densityPoints the number of grid points of each density curve
  * @param maxRhat R-hat above this is marked in the table
  * @param minEss bulk or tail ess below this is marked in the table
+ * @param intervalLevel the probability of the central intervals shown (0.95 by default)
+ * @param sortByMean whether the interval plots of indexed unknowns open sorted by mean (the page
+ *     has a toggle either way)
  */
 public record ReportOptions(
     int plotCap,
@@ -24,10 +27,15 @@ public record ReportOptions(
     int rankBins,
     int densityPoints,
     double maxRhat,
-    double minEss) {
+    double minEss,
+    double intervalLevel,
+    boolean sortByMean) {
 
   /** Default plot cap: the first 50 unknowns get plots. */
   public static final int DEFAULT_PLOT_CAP = 50;
+
+  /** Default probability of the central intervals. */
+  public static final double DEFAULT_INTERVAL_LEVEL = 0.95;
 
   /** Checks every option against its least sensible value. */
   public ReportOptions {
@@ -52,6 +60,10 @@ public record ReportOptions(
     if (!(minEss > 0) || Double.isInfinite(minEss)) {
       throw new IllegalArgumentException("minEss must be finite and > 0, got " + minEss);
     }
+    if (!(intervalLevel > 0 && intervalLevel < 1)) {
+      throw new IllegalArgumentException(
+          "intervalLevel must lie strictly between 0 and 1, got " + intervalLevel);
+    }
   }
 
   /**
@@ -60,21 +72,49 @@ public record ReportOptions(
    */
   public static ReportOptions defaults() {
     return new ReportOptions(
-        DEFAULT_PLOT_CAP, 1000, 40, 20, 120, Verdicts.DEFAULT_MAX_RHAT, Verdicts.DEFAULT_MIN_ESS);
+        DEFAULT_PLOT_CAP,
+        1000,
+        40,
+        20,
+        120,
+        Verdicts.DEFAULT_MAX_RHAT,
+        Verdicts.DEFAULT_MIN_ESS,
+        DEFAULT_INTERVAL_LEVEL,
+        false);
   }
 
   /** These options with another plot cap. */
   public ReportOptions withPlotCap(int cap) {
-    return new ReportOptions(cap, maxTracePoints, maxLag, rankBins, densityPoints, maxRhat, minEss);
+    return new ReportOptions(
+        cap, maxTracePoints, maxLag, rankBins, densityPoints, maxRhat, minEss,
+        intervalLevel, sortByMean);
   }
 
   /** These options with another trace point budget. */
   public ReportOptions withMaxTracePoints(int points) {
-    return new ReportOptions(plotCap, points, maxLag, rankBins, densityPoints, maxRhat, minEss);
+    return new ReportOptions(
+        plotCap, points, maxLag, rankBins, densityPoints, maxRhat, minEss,
+        intervalLevel, sortByMean);
   }
 
   /** These options with other marking thresholds, e.g. those given to {@link Verdicts#of}. */
   public ReportOptions withThresholds(double rhat, double ess) {
-    return new ReportOptions(plotCap, maxTracePoints, maxLag, rankBins, densityPoints, rhat, ess);
+    return new ReportOptions(
+        plotCap, maxTracePoints, maxLag, rankBins, densityPoints, rhat, ess,
+        intervalLevel, sortByMean);
+  }
+
+  /** These options with central intervals of probability {@code level}, e.g. 0.9. */
+  public ReportOptions withIntervalLevel(double level) {
+    return new ReportOptions(
+        plotCap, maxTracePoints, maxLag, rankBins, densityPoints, maxRhat, minEss, level,
+        sortByMean);
+  }
+
+  /** These options with the interval plots opening sorted by mean ({@code true}) or by index. */
+  public ReportOptions withSortByMean(boolean sorted) {
+    return new ReportOptions(
+        plotCap, maxTracePoints, maxLag, rankBins, densityPoints, maxRhat, minEss, intervalLevel,
+        sorted);
   }
 }

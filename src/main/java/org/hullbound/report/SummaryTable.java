@@ -3,6 +3,7 @@ package org.hullbound.report;
 import java.io.IOException;
 import java.io.UncheckedIOException;
 import java.util.ArrayList;
+import java.util.HashMap;
 import java.util.HashSet;
 import java.util.LinkedHashMap;
 import java.util.List;
@@ -11,6 +12,7 @@ import java.util.Set;
 import java.util.function.Function;
 import org.apache.commons.csv.CSVFormat;
 import org.apache.commons.csv.CSVPrinter;
+import org.hullbound.diagnostics.Draws;
 import org.hullbound.diagnostics.VariableSummary;
 
 /**
@@ -72,10 +74,65 @@ public final class SummaryTable {
 
   private final List<VariableSummary> summaries;
   private final Map<String, UpdateFacts> updates;
+  private final double level;
+  /** The interval ends at {@link #level} by name; empty at 0.95, where the summaries hold them. */
+  private final Map<String, CentralInterval> intervals;
 
   private SummaryTable(List<VariableSummary> summaries, Map<String, UpdateFacts> updates) {
+    this(summaries, updates, INTERVAL_LEVEL, Map.of());
+  }
+
+  private SummaryTable(
+      List<VariableSummary> summaries,
+      Map<String, UpdateFacts> updates,
+      double level,
+      Map<String, CentralInterval> intervals) {
     this.summaries = summaries;
     this.updates = updates;
+    this.level = level;
+    this.intervals = intervals;
+  }
+
+  /**
+   * This table with central intervals of probability {@code level} (e.g. 0.9), computed from
+   * {@code draws} (one entry per summary, in table order) by {@link CentralInterval}. In the CSV,
+   * {@code lower}, {@code upper} and {@code level} then describe this interval; {@code lower_mcse}
+   * and {@code upper_mcse}, known only for the 2.5% and 97.5% quantiles, are left empty.
+   *
+   * @throws IllegalArgumentException if the level is not in (0, 1) or the draws do not match
+   */
+  public SummaryTable withIntervalLevel(double level, List<Draws> draws) {
+    if (!(level > 0 && level < 1)) {
+      throw new IllegalArgumentException("level must lie strictly between 0 and 1, got " + level);
+    }
+    if (draws == null || draws.size() != summaries.size()) {
+      throw new IllegalArgumentException("draws must hold one entry per summary");
+    }
+    if (level == INTERVAL_LEVEL) {
+      return new SummaryTable(summaries, updates);
+    }
+    Map<String, CentralInterval> ends = new HashMap<>();
+    for (int k = 0; k < summaries.size(); k++) {
+      ends.put(summaries.get(k).name(), CentralInterval.of(draws.get(k), level));
+    }
+    return new SummaryTable(summaries, updates, level, Map.copyOf(ends));
+  }
+
+  /** The probability inside the table's central intervals (0.95 unless set). */
+  public double intervalLevel() {
+    return level;
+  }
+
+  /** The lower end of the central interval of {@code s} at the table's level. */
+  private double lower(VariableSummary s) {
+    CentralInterval i = intervals.get(s.name());
+    return i == null ? s.q025() : i.lower();
+  }
+
+  /** The upper end of the central interval of {@code s} at the table's level. */
+  private double upper(VariableSummary s) {
+    CentralInterval i = intervals.get(s.name());
+    return i == null ? s.q975() : i.upper();
   }
 
   /** A table of the summaries alone; the update columns show "n/a". */
@@ -207,19 +264,19 @@ public final class SummaryTable {
             full(s.mean()),
             full(s.mcseMean()),
             full(s.sd()),
-            full(s.q025()),
+            full(lower(s)),
             full(s.q50()),
-            full(s.q975()),
-            full(INTERVAL_LEVEL),
+            full(upper(s)),
+            full(level),
             full(s.rhat()),
             full(s.rhatBulk()),
             full(s.rhatTail()),
             full(s.essBulk()),
             full(s.essTail()),
             full(s.essMean()),
-            full(s.mcseQ025()),
+            intervals.isEmpty() ? full(s.mcseQ025()) : "",
             full(s.mcseQ50()),
-            full(s.mcseQ975()),
+            intervals.isEmpty() ? full(s.mcseQ975()) : "",
             Integer.toString(s.chains()),
             Integer.toString(s.drawsPerChain()),
             facts == null ? "" : facts.update(),
@@ -246,7 +303,7 @@ public final class SummaryTable {
     // The lower ends are padded to one width so that the ".." of every interval lines up.
     int lowerWidth =
         summaries.stream()
-            .mapToInt(s -> NumberText.significant(s.q025(), 4).length())
+            .mapToInt(s -> NumberText.significant(lower(s), 4).length())
             .max()
             .orElse(0);
     List<Column> columns = new ArrayList<>();
@@ -257,9 +314,9 @@ public final class SummaryTable {
     columns.add(
         new Column(
             Group.ESTIMATE,
-            Math.round(INTERVAL_LEVEL * 100) + "% interval",
+            CentralInterval.percent(level) + " interval",
             true,
-            s -> interval(s, lowerWidth)));
+            s -> interval(lower(s), upper(s), lowerWidth)));
     columns.add(new Column(Group.TRUST, "R-hat", false, s -> NumberText.fixed(s.rhat(), 3)));
     columns.add(
         new Column(Group.TRUST, "bulk-ESS", false, s -> NumberText.count(s.essBulk())));
@@ -281,12 +338,12 @@ public final class SummaryTable {
     return columns;
   }
 
-  private static String interval(VariableSummary s, int lowerWidth) {
-    if (Double.isNaN(s.q025()) || Double.isNaN(s.q975())) {
+  private static String interval(double low, double high, int lowerWidth) {
+    if (Double.isNaN(low) || Double.isNaN(high)) {
       return NumberText.NOT_AVAILABLE;
     }
-    String lower = NumberText.significant(s.q025(), 4);
-    String upper = NumberText.significant(s.q975(), 4);
+    String lower = NumberText.significant(low, 4);
+    String upper = NumberText.significant(high, 4);
     return " ".repeat(lowerWidth - lower.length()) + lower + " .. " + upper;
   }
 

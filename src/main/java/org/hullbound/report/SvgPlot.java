@@ -158,6 +158,36 @@ public final class SvgPlot {
     return canvas.close();
   }
 
+  /**
+   * A scatter of the points {@code (x[i], y[i])} as small translucent dots; pairs with a value that
+   * is not finite are left out.
+   *
+   * @throws IllegalArgumentException if the arrays are null or differ in length
+   */
+  public static String scatter(PanelLabels labels, double[] x, double[] y) {
+    requireLabels(labels);
+    if (x == null || y == null || x.length != y.length) {
+      throw new IllegalArgumentException("x and y must be non-null arrays of equal length");
+    }
+    Range xs = Range.empty();
+    Range ys = Range.empty();
+    for (int i = 0; i < x.length; i++) {
+      if (Double.isFinite(x[i]) && Double.isFinite(y[i])) {
+        xs = xs.include(x[i]);
+        ys = ys.include(y[i]);
+      }
+    }
+    if (xs.isEmpty()) {
+      return note(labels, "no finite values to draw");
+    }
+    Canvas canvas = Canvas.open(labels, xs, ys, List.of());
+    if (canvas == null) {
+      return note(labels, "values span more than double precision can label");
+    }
+    canvas.dots(x, y, Palette.ACCENT);
+    return canvas.close();
+  }
+
   /** An empty frame with the title and a one-line message, for data that cannot be drawn. */
   public static String note(PanelLabels labels, String message) {
     requireLabels(labels);
@@ -599,6 +629,18 @@ public final class SvgPlot {
         Markup.coordinate(svg, sy(points.get(i)[1]));
       }
       svg.append("\"/>");
+    }
+
+    void dots(double[] x, double[] y, String colour) {
+      svg.append("<g fill=\"").append(colour).append("\" fill-opacity=\"0.35\">");
+      for (int i = 0; i < x.length; i++) {
+        if (Double.isFinite(x[i]) && Double.isFinite(y[i])) {
+          svg.append("<circle cx=\"");
+          Markup.coordinate(svg, sx(x[i])).append("\" cy=\"");
+          Markup.coordinate(svg, sy(y[i])).append("\" r=\"1.4\"/>");
+        }
+      }
+      svg.append("</g>");
     }
 
     private void dashAttribute(String dash) {

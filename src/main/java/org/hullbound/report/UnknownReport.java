@@ -60,4 +60,15 @@ public record UnknownReport(VariableSummary summary, Draws draws, Optional<Updat
   public String name() {
     return summary.name();
   }
+
+  /**
+   * The central interval at {@code level}: the summary's 2.5% and 97.5% quantiles at 0.95, else
+   * computed from the draws by the same rule.
+   */
+  public CentralInterval interval(double level) {
+    if (level == ReportOptions.DEFAULT_INTERVAL_LEVEL) {
+      return new CentralInterval(level, summary.q025(), summary.q975());
+    }
+    return CentralInterval.of(draws, level);
+  }
 }

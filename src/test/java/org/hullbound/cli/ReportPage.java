@@ -31,7 +31,11 @@ final class ReportPage {
       assertEquals("http://www.w3.org/2000/svg", doc.getDocumentElement().getNamespaceURI());
       count++;
     }
-    assertEquals(4 * unknowns.size(), count, "four panels per unknown");
+    // Four panels per card, plus the interval plots (two per indexed unknown) and pair scatters.
+    int extra =
+        html.split("class=\"plot plot-intervals\"", -1).length - 1
+            + html.split("class=\"plot plot-pair\"", -1).length - 1;
+    assertEquals(4 * unknowns.size(), count - extra, "four panels per unknown");
     String[] cards = html.split("<section class=\"unknown\"", -1);
     assertEquals(unknowns.size() + 1, cards.length, "one card per unknown");
     List<String> named = new ArrayList<>();

@@ -141,4 +141,51 @@ final class SampleReports {
         unknowns,
         ReportOptions.defaults());
   }
+
+  /**
+   * An invented hierarchical fit: {@code mu}, {@code tau} whose draws follow mu's closely (a
+   * correlation near 0.97, with a slow chain), twelve {@code effect[j]} and the model text and data
+   * facts; for the question layout, interval plots and pair plots.
+   */
+  static ReportInput hierarchical() {
+    List<UnknownReport> unknowns = new ArrayList<>();
+    double[][] mu = ar1(11, 4, 1000, 1.0, 0.5, 0.97);
+    double[][] tau = ar1(12, 4, 1000, 0, 0.12, 0.3);
+    for (int c = 0; c < tau.length; c++) {
+      for (int i = 0; i < tau[c].length; i++) {
+        tau[c][i] += 2 + 0.5 * mu[c][i];
+      }
+    }
+    unknowns.add(UnknownReport.of("mu", mu, UpdateFacts.exact("conjugate normal", 0)));
+    unknowns.add(UnknownReport.of("tau", tau, UpdateFacts.exact("adaptive rejection", 5.2)));
+    for (int j = 1; j <= 12; j++) {
+      unknowns.add(
+          UnknownReport.of(
+              "effect[" + j + "]",
+              ar1(20 + j, 4, 1000, Math.sin(j) * 2, 0.3 + 0.05 * j, 0.4),
+              UpdateFacts.exact("adaptive rejection", 4.4)));
+    }
+    RunSources sources =
+        new RunSources(
+            "# invented scenario\n"
+                + "model schools\n"
+                + "index school\n"
+                + "data  score[school], se[school]\n"
+                + "param mu ~ normal(mean = 0, sd = 10)\n"
+                + "param tau ~ half-normal(sd = 5)\n"
+                + "param effect[school] ~ normal(mean = mu, sd = tau)\n"
+                + "data  score[school] ~ normal(mean = effect[school], sd = se[school])\n",
+            List.of(
+                new RunSources.DataSource("schools.csv", 12, 1),
+                new RunSources.DataSource("inline", 1, 0)));
+    return new ReportInput(
+            new RunHeader(
+                "invented schools", STARTED, 4, 1000, 500, -8_765_432_109_876_543_210L,
+                Duration.ofMillis(4_321)),
+            List.of(),
+            "All 14 unknowns look converged.",
+            unknowns,
+            ReportOptions.defaults())
+        .withSources(sources);
+  }
 }

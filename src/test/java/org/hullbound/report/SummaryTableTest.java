@@ -243,4 +243,32 @@ class SummaryTableTest {
         () -> new UpdateFacts("slice", 2, UpdateFacts.Fallback.NONE, 5));
     assertEquals(Double.NaN, UpdateFacts.fallback("slice", Double.NaN).evaluationsPerDraw());
   }
+
+  @Test
+  void anotherIntervalLevelChangesTheColumnAndTheCsvEndsToThoseQuantiles() {
+    double[][] draws = SampleReports.ar1(31, 2, 500, 0, 1, 0.3);
+    org.hullbound.diagnostics.Draws d = org.hullbound.diagnostics.Draws.of(draws);
+    VariableSummary s = org.hullbound.diagnostics.PosteriorSummary.of("x", d);
+    SummaryTable ninety = SummaryTable.of(List.of(s)).withIntervalLevel(0.9, List.of(d));
+    assertEquals(0.9, ninety.intervalLevel());
+    assertTrue(ninety.text().contains("90% interval"), ninety.text());
+    // Reference: commons-math3 Percentile, R_7 (Hyndman and Fan type 7), of the pooled draws.
+    org.apache.commons.math3.stat.descriptive.rank.Percentile reference =
+        new org.apache.commons.math3.stat.descriptive.rank.Percentile()
+            .withEstimationType(
+                org.apache.commons.math3.stat.descriptive.rank.Percentile.EstimationType.R_7);
+    String[] header = ninety.csv().lines().findFirst().orElseThrow().split(",");
+    String[] row = ninety.csv().lines().skip(1).findFirst().orElseThrow().split(",", -1);
+    java.util.Map<String, String> cells = new java.util.HashMap<>();
+    for (int k = 0; k < header.length; k++) {
+      cells.put(header[k], row[k]);
+    }
+    assertEquals(reference.evaluate(d.pooled(), 5), Double.parseDouble(cells.get("lower")), 1e-12);
+    assertEquals(reference.evaluate(d.pooled(), 95), Double.parseDouble(cells.get("upper")), 1e-12);
+    assertEquals(0.9, Double.parseDouble(cells.get("level")));
+    assertEquals("", cells.get("lower_mcse"), "the MCSE is of the 2.5% quantile, not the 5%");
+    assertEquals("", cells.get("upper_mcse"));
+    SummaryTable same = SummaryTable.of(List.of(s)).withIntervalLevel(0.95, List.of(d));
+    assertEquals(SummaryTable.of(List.of(s)).csv(), same.csv());
+  }
 }
