@@ -101,7 +101,7 @@ public final class ModelSampler {
           || (unknown.discrete() && Double.isFinite(value) && value != Math.rint(value));
       if (outside) {
         throw new StartingValueException(
-            "--init gives " + unknown.label() + " = " + value + ", outside its support "
+            "--init gives " + unknown.label() + " = " + Unknown.shown(value) + ", outside its support "
                 + unknown.support());
       }
     }

@@ -72,6 +72,7 @@ class ValidateCommandTest {
     assertTrue(run.out().contains("Simulation-based calibration of gamma_poisson: 60 replicates"), run.out());
     assertTrue(run.out().matches("(?s).*lambda +[0-9.]+ +9 .*yes.*"), run.out());
     assertTrue(run.out().contains("Bonferroni"), run.out());
+    assertTrue(run.out().contains("so about 1% of them fall below 0.01 by chance"), run.out());
     java.util.List<String> ranks = Files.readAllLines(out.resolve("ranks.csv"));
     assertEquals("replicate,lambda", ranks.get(0));
     assertEquals(61, ranks.size());

@@ -120,7 +120,7 @@ class ModelSamplerTest {
             List.of());
     StartingValueException e =
         assertThrows(StartingValueException.class, () -> ModelSampler.of(model, Map.of("r", -1.0)));
-    assertTrue(e.getMessage().contains("r = -1.0"), e.getMessage());
+    assertTrue(e.getMessage().contains("r = -1, outside its support (0, inf)"), e.getMessage());
   }
 
   @Test
