@@ -78,6 +78,20 @@ class ValidateCommandTest {
     assertEquals(61, ranks.size());
     String svg = Files.readString(out.resolve("ranks-lambda.svg"));
     assertTrue(svg.startsWith("<svg") && svg.contains("ranks of lambda"), svg);
+
+    // As fit does: an earlier calibration is kept unless --overwrite is given.
+    Run again = run("calibrate", "validation/gamma_poisson/model.hbm", "--data",
+        "validation/gamma_poisson/calls.csv", "--replicates", "10", "--draws", "19", "--seed", "5",
+        "--out", out.toString());
+    assertEquals(2, again.status(), again.err());
+    assertTrue(again.err().contains("holds an earlier calibration (ranks-lambda.svg and 1 more);"
+        + " give --overwrite to replace it"), again.err());
+    assertEquals(61, Files.readAllLines(out.resolve("ranks.csv")).size());
+    Run replaced = run("calibrate", "validation/gamma_poisson/model.hbm", "--data",
+        "validation/gamma_poisson/calls.csv", "--replicates", "10", "--draws", "19", "--thin", "1",
+        "--burn-in", "20", "--seed", "5", "--out", out.toString(), "--overwrite");
+    assertTrue(replaced.status() == 0 || replaced.status() == 1, replaced.err());
+    assertEquals(11, Files.readAllLines(out.resolve("ranks.csv")).size());
   }
 
   @Test
@@ -86,6 +100,12 @@ class ValidateCommandTest {
         "--replicates", "50", "--draws", "99", "--bins", "7");
     assertEquals(2, bins.status());
     assertTrue(bins.err().contains("--bins must divide draws + 1 = 100"), bins.err());
+    // 2 bins of at least 5 expected ranks each: 10 replicates (rank test of Talts et al. 2018).
+    Run few = run("calibrate", "validation/gamma_poisson/model.hbm", "--data",
+        "validation/gamma_poisson/calls.csv", "--replicates", "5", "--draws", "99");
+    assertEquals(2, few.status());
+    assertTrue(few.err().contains("--replicates must be at least 10 for draws = 99, got 5"),
+        few.err());
     Path model = dir.resolve("covariate.hbm");
     Files.writeString(model,
         "index obs = 1 .. 3\n"
