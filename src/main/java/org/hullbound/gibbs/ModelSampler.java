@@ -67,7 +67,8 @@ public final class ModelSampler {
       if (!labels.contains(name)) {
         throw new StartingValueException(
             "--init names '" + name + "', which is not an unknown of model " + model.name()
-                + "; unknowns are " + abbreviate(labels));
+                + model.nearestUnknown(name).map(near -> "; did you mean '" + near + "'?")
+                    .orElse("; unknowns are " + abbreviate(labels)));
       }
     }
     requireInsideSupports(unknowns, given);

@@ -55,6 +55,10 @@ class ValidateCommandTest {
     Run unknown = run("validate", "--case", "nonesuch");
     assertEquals(2, unknown.status());
     assertTrue(unknown.err().contains("no validation case 'nonesuch'"), unknown.err());
+    Run mistyped = run("validate", "--case", "gamma_poison");
+    assertEquals(2, mistyped.status());
+    assertTrue(mistyped.err().contains("no validation case 'gamma_poison'; did you mean"
+        + " 'gamma_poisson'? the cases are "), mistyped.err());
     Run few = run("validate", "--draws", "10");
     assertEquals(2, few.status());
     assertTrue(few.err().contains("--draws must be at least 100, got 10"), few.err());
