@@ -123,4 +123,19 @@ class ValidateCommandTest {
     assertEquals(2, missing.status());
     assertTrue(missing.err().contains("--replicates"), missing.err());
   }
+
+  @Test
+  void theSuiteIsFoundBesideTheJarFromAnyWorkingDirectory(@TempDir Path dir) throws IOException {
+    Path checkout = dir.resolve("checkout");
+    Files.createDirectories(checkout.resolve("validation"));
+    Files.createDirectories(checkout.resolve("target/classes"));
+    Path elsewhere = Files.createDirectories(dir.resolve("elsewhere"));
+    Path jar = checkout.resolve("target/hullbound-cli.jar");
+    assertEquals(checkout.resolve("validation"), ValidateCommand.defaultSuite(elsewhere, jar));
+    assertEquals(checkout.resolve("validation"),
+        ValidateCommand.defaultSuite(elsewhere, checkout.resolve("target/classes")));
+    // The working directory's own suite comes first.
+    Files.createDirectories(elsewhere.resolve("validation"));
+    assertEquals(elsewhere.resolve("validation"), ValidateCommand.defaultSuite(elsewhere, jar));
+  }
 }
