@@ -9,6 +9,7 @@ import org.hullbound.io.TextFiles;
 import org.hullbound.lang.ModelFile;
 import org.hullbound.lang.Parser;
 import org.hullbound.lang.SourceText;
+import org.hullbound.lang.Statement;
 import org.hullbound.model.BoundModel;
 import org.hullbound.model.DataTable;
 
@@ -46,11 +47,41 @@ public record ModelInputs(Path modelFile, List<Path> dataFiles) {
    * BoundModel#readsColumn}); the others are checked for shape only.
    */
   public List<DataTable> tables(ModelFile parsed) {
+    if (dataFiles.isEmpty()) {
+      requireNoFileData(parsed);
+    }
     List<DataTable> tables = new ArrayList<>();
     for (Path file : dataFiles) {
       tables.add(CsvData.read(file, BoundModel.readsColumn(parsed)));
     }
     return tables;
+  }
+
+  /**
+   * Refuses a model that reads data from a file when no data file was given, naming that data, so
+   * that the first message is the missing file rather than what binding without it leads to.
+   */
+  private void requireNoFileData(ModelFile parsed) {
+    List<String> names = new ArrayList<>();
+    for (Statement statement : parsed.statements()) {
+      if (statement instanceof Statement.Data data && data.inlineValues() == null) {
+        data.targets().forEach(target -> names.add("'" + target.name().text() + "'"));
+      }
+    }
+    if (!names.isEmpty()) {
+      throw new RunRefusedException(
+          "no data file was given, but " + modelFile + " reads "
+              + "the data " + joined(names)
+              + " from one; give it with --data FILE.csv");
+    }
+  }
+
+  /** {@code 'a'}, {@code 'a' and 'b'}, {@code 'a', 'b' and 'c'}. */
+  private static String joined(List<String> items) {
+    if (items.size() == 1) {
+      return items.get(0);
+    }
+    return String.join(", ", items.subList(0, items.size() - 1)) + " and " + items.get(items.size() - 1);
   }
 
   /** The model bound to its data. */

@@ -1,10 +1,15 @@
 package org.hullbound.cli;
 
+import java.io.IOException;
 import java.io.PrintWriter;
+import java.io.UncheckedIOException;
+import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.List;
 import java.util.concurrent.Callable;
+import org.hullbound.app.FolderLock;
 import org.hullbound.app.ModelInputs;
+import org.hullbound.app.RunRefusedException;
 import org.hullbound.lang.ModelFile;
 import org.hullbound.validation.Calibration;
 import org.hullbound.validation.CalibrationFiles;
@@ -57,6 +62,11 @@ public final class CalibrateCommand implements Callable<Integer> {
 
   @Mixin OutputFolder out;
 
+  @Option(
+      names = "--overwrite",
+      description = "Replace the files of an earlier calibration in DIR (without it, calibrate refuses to start).")
+  boolean overwrite;
+
   /** The seed when none is given: calibration repeats exactly unless asked otherwise. */
   static final long DEFAULT_SEED = 1;
 
@@ -80,21 +90,63 @@ public final class CalibrateCommand implements Callable<Integer> {
     ModelFile parsed = inputs.parse();
     Calibration calibration =
         Calibration.of(parsed, inputs.tables(parsed), PosteriorFitter.gibbs());
+    Path folder = out.orDefault("calibrate", calibration.modelName());
+    List<Path> earlier = earlierFiles(folder);
+    if (!earlier.isEmpty() && !overwrite) {
+      throw new RunRefusedException(
+          "the folder " + folder + " holds an earlier calibration (" + earlier.get(0).getFileName()
+              + (earlier.size() > 1 ? " and " + (earlier.size() - 1) + " more" : "")
+              + "); give --overwrite to replace it, or --out with another folder");
+    }
     int every = Math.max(1, replicates / 10);
-    CalibrationResult result = calibration.run(settings, done -> {
-      if (done % every == 0 || done == replicates) {
-        stderr.printf("hullbound calibrate: %d of %d replicates%n", done, replicates);
-        stderr.flush();
+    CalibrationResult result;
+    List<Path> pictures;
+    FolderLock lock = FolderLock.take(folder);
+    try {
+      result = calibration.run(settings, done -> {
+        if (done % every == 0 || done == replicates) {
+          stderr.printf("hullbound calibrate: %d of %d replicates%n", done, replicates);
+          stderr.flush();
+        }
+      });
+      for (Path file : earlierFiles(folder)) {
+        Files.deleteIfExists(file);
       }
-    });
-    Path folder = out.orDefault("calibrate", result.modelName());
-    List<Path> pictures = CalibrationFiles.write(result, folder);
+      pictures = CalibrationFiles.write(result, folder);
+    } catch (IOException e) {
+      throw new UncheckedIOException(
+          "cannot remove the earlier calibration in " + folder + ": " + e.getMessage(), e);
+    } catch (RuntimeException failed) {
+      lock.releaseAndRemoveIfEmpty();
+      throw failed;
+    } finally {
+      lock.close();
+    }
     stdout.print(CalibrationText.of(result));
     stdout.println();
     stdout.println("ranks:      " + folder.resolve(CalibrationFiles.RANKS_FILE));
     stdout.println("histograms: " + (pictures.size() == 1 ? pictures.get(0) : folder.resolve("ranks-*.svg")));
     stdout.flush();
     return result.passes(CalibrationText.LEVEL) ? 0 : ErrorReporting.FAILURE;
+  }
+
+  /** The files of an earlier calibration in {@code folder}: its ranks and their histograms. */
+  private static List<Path> earlierFiles(Path folder) {
+    if (!Files.isDirectory(folder)) {
+      return List.of();
+    }
+    try (var entries = Files.list(folder)) {
+      return entries
+          .filter(file -> {
+            String name = file.getFileName().toString();
+            return name.equals(CalibrationFiles.RANKS_FILE)
+                || (name.startsWith("ranks-") && name.endsWith(".svg"));
+          })
+          .sorted()
+          .toList();
+    } catch (IOException e) {
+      throw new UncheckedIOException("cannot list the output folder " + folder + ": " + e.getMessage(), e);
+    }
   }
 
 }

@@ -89,11 +89,12 @@ public final class CheckCommand implements Callable<Integer> {
     }
     out.println();
     out.printf(
-        "graph: %d data, %d param, %d let; %d scalar unknowns; %d terms in the joint density%n",
+        "graph: %d data, %d param, %d let; %d scalar unknown%s; %d terms in the joint density%n",
         model.nodeCounts().getOrDefault("data", 0),
         model.nodeCounts().getOrDefault("param", 0),
         model.nodeCounts().getOrDefault("let", 0),
         model.unknowns().size(),
+        model.unknowns().size() == 1 ? "" : "s",
         model.termCount());
     out.println();
     out.println("unknowns: scale, update, terms in the conditional; then why");

@@ -11,6 +11,8 @@ import java.util.Locale;
 import java.util.concurrent.Callable;
 import java.util.random.RandomGenerator;
 import java.util.random.RandomGeneratorFactory;
+import java.util.regex.Matcher;
+import java.util.regex.Pattern;
 import org.hullbound.hull.AdaptiveRejectionSampler;
 import org.hullbound.hull.DifferentiableLogDensity;
 import org.hullbound.hull.Evaluation;
@@ -120,6 +122,7 @@ public final class DrawCommand implements Callable<Integer> {
       a = bound("--lower", lower);
       b = bound("--upper", upper);
     } catch (IllegalArgumentException bad) {
+      traceUnderDebug(bad, stderr);
       return fail(stderr, ErrorReporting.USER_ERROR, bad.getMessage(), null);
     }
     if (a == Double.POSITIVE_INFINITY) {
@@ -148,8 +151,10 @@ public final class DrawCommand implements Callable<Integer> {
     try {
       sampler = AdaptiveRejectionSampler.withDerivatives(density, support);
     } catch (HullException failure) {
+      traceUnderDebug(failure, stderr);
       return samplingFailed(stderr, failure, 0, out);
     } catch (IllegalArgumentException cannotStart) {
+      traceUnderDebug(cannotStart, stderr);
       return fail(stderr, ErrorReporting.USER_ERROR, cannotStart.getMessage(), null);
     }
     long startEvaluations = sampler.statistics().evaluations();
@@ -178,6 +183,7 @@ public final class DrawCommand implements Callable<Integer> {
       }
     } catch (HullException failure) {
       stdout.flush();
+      traceUnderDebug(failure, stderr);
       return samplingFailed(stderr, failure, made, out);
     } catch (IOException e) {
       throw new UncheckedIOException("cannot write " + (out == null ? "the draws" : out) + ": "
@@ -212,6 +218,33 @@ public final class DrawCommand implements Callable<Integer> {
     }
   }
 
+  /** Under {@code --debug}, the stack trace of a failure this command reports itself. */
+  private void traceUnderDebug(Exception failure, PrintWriter stderr) {
+    if (ErrorReporting.debug(spec.commandLine().getParseResult())) {
+      failure.printStackTrace(stderr);
+    }
+  }
+
+  /**
+   * The sampler's own message with its numbers as the model language writes them ({@code 1},
+   * {@code 6e-8}, {@code -inf}) rather than as Java prints doubles ({@code 1.0}, {@code
+   * 6.000000022204461E-8}, {@code -Infinity}).
+   */
+  static String languageNumbers(String message) {
+    Matcher m = JAVA_DOUBLE.matcher(message);
+    StringBuilder text = new StringBuilder();
+    while (m.find()) {
+      m.appendReplacement(text, Matcher.quoteReplacement(
+          NumberSyntax.written(Double.parseDouble(m.group()))));
+    }
+    m.appendTail(text);
+    return text.toString();
+  }
+
+  /** A double as {@link Double#toString} writes it: always a point, or an infinity. */
+  private static final Pattern JAVA_DOUBLE =
+      Pattern.compile("(?<![\\w.])-?(?:\\d+\\.\\d+(?:E-?\\d+)?|Infinity)(?![\\w.])");
+
   private static int fail(PrintWriter stderr, int status, String problem, String hint) {
     stderr.println("hullbound draw: " + problem);
     if (hint != null) {
@@ -224,8 +257,9 @@ public final class DrawCommand implements Callable<Integer> {
   private static int samplingFailed(
       PrintWriter stderr, HullException failure, long made, Path out) {
     String after = made == 0 ? "" : " (after " + made + " draw" + (made == 1 ? "" : "s") + ")";
-    String where = Double.isNaN(failure.x()) ? "" : " at x = " + failure.x();
-    String detail = failure.getMessage().replaceFirst("^h is not log-concave: ", "");
+    String where = Double.isNaN(failure.x()) ? "" : " at x = " + NumberSyntax.written(failure.x());
+    String detail =
+        languageNumbers(failure.getMessage().replaceFirst("^h is not log-concave: ", ""));
     String problem;
     String hint;
     if (failure instanceof NotLogConcaveException) {
@@ -240,7 +274,7 @@ public final class DrawCommand implements Callable<Integer> {
       problem = "the log-density has no usable value" + where + after + ": " + detail;
       hint = "the expression must be defined on the whole support; check --lower and --upper";
     } else {
-      problem = failure.getMessage();
+      problem = languageNumbers(failure.getMessage());
       hint = null;
     }
     if (out != null) {

@@ -88,7 +88,8 @@ public final class Main implements Runnable {
 
   /** The configured command line, shared by {@link #main} and the tests. */
   public static CommandLine commandLine() {
-    return ErrorReporting.install(NumberOptions.register(new CommandLine(new Main())));
+    return UsageErrors.install(
+        ErrorReporting.install(NumberOptions.register(new CommandLine(new Main()))));
   }
 
   @Override

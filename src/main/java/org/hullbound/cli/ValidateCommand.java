@@ -1,6 +1,8 @@
 package org.hullbound.cli;
 
 import java.io.PrintWriter;
+import java.net.URISyntaxException;
+import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
@@ -43,8 +45,12 @@ public final class ValidateCommand implements Callable<Integer> {
 
   @Mixin SeedOption seed;
 
-  @Option(names = "--suite", paramLabel = "DIR", description = "The folder of cases (default: ${DEFAULT-VALUE}).")
-  Path suite = Path.of("validation");
+  @Option(names = "--suite", paramLabel = "DIR", description = "The folder of cases (default:"
+      + " validation in the working directory, else the one beside the hullbound jar).")
+  Path suite;
+
+  /** The folder of cases in a checkout, relative to the working directory or to the jar's. */
+  static final String SUITE_FOLDER = "validation";
 
   @Option(names = "--list", description = "List the cases and exit.")
   boolean list;
@@ -65,7 +71,7 @@ public final class ValidateCommand implements Callable<Integer> {
     ValidationSettings settings =
         ValidationSettings.defaults().withDraws(draws).withBurnIn(burnIn)
             .withSeed(seed.orElse(() -> ValidationSettings.DEFAULT_SEED));
-    Validator validator = Validator.of(suite, settings);
+    Validator validator = Validator.of(suite != null ? suite : defaultSuite(), settings);
     if (list) {
       validator.caseNames().forEach(out::println);
       out.flush();
@@ -75,5 +81,37 @@ public final class ValidateCommand implements Callable<Integer> {
     out.print(ValidationText.of(outcomes, settings));
     out.flush();
     return outcomes.stream().allMatch(CaseOutcome::pass) ? 0 : ErrorReporting.FAILURE;
+  }
+
+  /**
+   * {@code validation} in the working directory when there is one; else the one in the checkout
+   * the program runs from (the jar is {@code target/hullbound-cli.jar}, the suite beside {@code
+   * target}), so that {@code validate} works from any folder; else {@code validation}, which the
+   * validator then reports as missing.
+   */
+  static Path defaultSuite() {
+    Path code = null;
+    try {
+      code = Path.of(ValidateCommand.class.getProtectionDomain().getCodeSource().getLocation().toURI());
+    } catch (URISyntaxException | SecurityException | NullPointerException unknownLocation) {
+      // No code location (a custom class loader): only the working directory is searched.
+    }
+    return defaultSuite(Path.of(""), code);
+  }
+
+  /** {@link #defaultSuite()} for a working directory and a code location (jar or classes folder). */
+  static Path defaultSuite(Path workingDirectory, Path code) {
+    Path here = workingDirectory.resolve(SUITE_FOLDER);
+    if (Files.isDirectory(here) || code == null) {
+      return here;
+    }
+    // target/hullbound-cli.jar or target/classes: the checkout is one or two folders up.
+    Path dir = code.getParent();
+    for (int up = 0; up < 2 && dir != null; up++, dir = dir.getParent()) {
+      if (Files.isDirectory(dir.resolve(SUITE_FOLDER))) {
+        return dir.resolve(SUITE_FOLDER);
+      }
+    }
+    return here;
   }
 }

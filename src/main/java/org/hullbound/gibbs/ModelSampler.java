@@ -67,7 +67,8 @@ public final class ModelSampler {
       if (!labels.contains(name)) {
         throw new StartingValueException(
             "--init names '" + name + "', which is not an unknown of model " + model.name()
-                + "; unknowns are " + abbreviate(labels));
+                + model.nearestUnknown(name).map(near -> "; did you mean '" + near + "'?")
+                    .orElse("; unknowns are " + abbreviate(labels)));
       }
     }
     requireInsideSupports(unknowns, given);
@@ -101,7 +102,7 @@ public final class ModelSampler {
           || (unknown.discrete() && Double.isFinite(value) && value != Math.rint(value));
       if (outside) {
         throw new StartingValueException(
-            "--init gives " + unknown.label() + " = " + value + ", outside its support "
+            "--init gives " + unknown.label() + " = " + Unknown.shown(value) + ", outside its support "
                 + unknown.support());
       }
     }

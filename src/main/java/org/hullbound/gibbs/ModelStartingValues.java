@@ -96,7 +96,8 @@ final class ModelStartingValues implements StartingValues {
       String origin = given.containsKey(fault.label()) ? "given" : "model's";
       String term = model.termWithoutDensity(fault.index(), state);
       throw new StartingValueException(
-          "the " + origin + " starting value " + fault.label() + " = " + state[fault.index()]
+          "the " + origin + " starting value " + fault.label() + " = "
+              + Unknown.shown(state[fault.index()])
               + " has zero density (support " + fault.support() + ")"
               + (term == null ? "" : ": " + term));
     }

@@ -118,6 +118,20 @@ public final class CsvData {
     return sink.table.build();
   }
 
+  /**
+   * A header of one cell holding ';' or a tab is a file written with another separator: say so,
+   * before its one long column name is read as a model name.
+   */
+  private static String otherSeparator(List<String> header) {
+    if (header.size() != 1) {
+      return null;
+    }
+    if (header.get(0).contains(";")) {
+      return "';'";
+    }
+    return header.get(0).contains("\t") ? "tabs" : null;
+  }
+
   /** Takes the first record as the header, then hands the kept cells of each row to a table. */
   private static final class TableSink implements CsvRecords.Sink {
     private final String fileName;
@@ -144,9 +158,22 @@ public final class CsvData {
       }
     }
 
+    private void requireCommas(int line) {
+      String separator = otherSeparator(header);
+      if (separator != null) {
+        throw new ModelException(
+            new SourcePosition(fileName, line, 1), null,
+            "the header holds " + separator + " but no ','; hullbound reads"
+                + " comma-separated files",
+            "separate the cells with commas, as in x,y (a spreadsheet saves this as CSV with"
+                + " comma as the separator)");
+      }
+    }
+
     @Override
     public void endRecord(int line, int cellCount) {
       if (table == null) {
+        requireCommas(line);
         table = DataTable.builder(fileName, header, keep);
       } else {
         table.endRow(line, cellCount);

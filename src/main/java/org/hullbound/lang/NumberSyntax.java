@@ -1,5 +1,9 @@
 package org.hullbound.lang;
 
+import java.math.BigDecimal;
+import java.math.MathContext;
+import java.math.RoundingMode;
+
 /**
  * The one grammar of numbers that hullbound reads, wherever they come from: literals of a model
  * file, cells of a data file, starting values, and command options that take numbers.
@@ -45,6 +49,43 @@ public final class NumberSyntax {
   /** {@code text}, or for a huge one its start and end around "...", to keep messages short. */
   public static String shortened(String text) {
     return text.length() <= 40 ? text : text.substring(0, 24) + "..." + text.substring(text.length() - 12);
+  }
+
+  /** Significant digits a message shows of a number that is not whole. */
+  private static final int MESSAGE_DIGITS = 6;
+
+  /**
+   * {@code value} as a message shows it, in this grammar so that it can be pasted back into a
+   * model, data file or option: {@code inf} and {@code -inf} for the infinities, whole numbers
+   * without a point ({@code -1}), others with the fewest significant digits (at most six) that
+   * give them back, as in {@code 0.1}, {@code 3e-8} (not {@code 3.0000000000000004E-8}) and
+   * {@code 1.5e+20} written {@code 1.5e20}. {@code NaN}, which the grammar has no word for, is
+   * shown as {@code NaN}.
+   */
+  public static String written(double value) {
+    if (Double.isNaN(value)) {
+      return "NaN";
+    }
+    if (Double.isInfinite(value)) {
+      return value > 0 ? "inf" : "-inf";
+    }
+    if (value == Math.rint(value) && Math.abs(value) < 1e15) {
+      return Long.toString((long) value);
+    }
+    BigDecimal shown = null;
+    for (int digits = 1; digits <= MESSAGE_DIGITS; digits++) {
+      shown = new BigDecimal(value).round(new MathContext(digits, RoundingMode.HALF_EVEN));
+      if (shown.doubleValue() == value) {
+        break;
+      }
+    }
+    shown = shown.stripTrailingZeros();
+    int exponent = shown.precision() - shown.scale() - 1;
+    if (exponent >= -4 && exponent < 15) {
+      return shown.toPlainString();
+    }
+    String mantissa = shown.movePointLeft(exponent).toPlainString();
+    return mantissa + "e" + exponent;
   }
 
   /** What a number is, for hints. */

@@ -1217,10 +1217,7 @@ final class Binder {
   }
 
   static String number(double v) {
-    if (Double.isInfinite(v)) {
-      return v > 0 ? "inf" : "-inf";
-    }
-    return v == Math.rint(v) && Math.abs(v) < 1e15 ? Long.toString((long) v) : Double.toString(v);
+    return NumberSyntax.written(v);
   }
 
   private ModelException error(SourcePosition position, String problem, String hint) {

@@ -9,6 +9,7 @@ import java.util.concurrent.atomic.AtomicReferenceArray;
 import java.util.function.Predicate;
 import org.hullbound.lang.ModelException;
 import org.hullbound.lang.ModelFile;
+import org.hullbound.lang.NameSuggestion;
 import org.hullbound.lang.SourcePosition;
 
 /**
@@ -167,6 +168,15 @@ public final class BoundModel {
   /** The model's name, from its {@code model} statement or its file name. */
   public String name() {
     return name;
+  }
+
+  /**
+   * The unknown whose label is nearest to {@code wrong} ({@link NameSuggestion}), for a "did you
+   * mean" hint where a name of an unknown was mistyped (as in {@code --init}); empty when none is
+   * close.
+   */
+  public java.util.Optional<String> nearestUnknown(String wrong) {
+    return NameSuggestion.nearest(wrong, unknowns().stream().map(Unknown::label).toList());
   }
 
   /**

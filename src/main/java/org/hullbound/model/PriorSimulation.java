@@ -5,6 +5,7 @@ import java.util.LinkedHashSet;
 import java.util.List;
 import java.util.Set;
 import java.util.random.RandomGenerator;
+import org.hullbound.lang.NumberSyntax;
 import org.hullbound.lang.SourcePosition;
 import org.hullbound.model.family.FamilyDraws;
 
@@ -148,7 +149,7 @@ public final class PriorSimulation {
     if (!Double.isFinite(x)) {
       throw new SimulationException(
           "the draw of " + what + "'" + term.label() + "' from " + term.family().signature()
-              + " is " + x + "; simulation needs finite values");
+              + " is " + NumberSyntax.written(x) + "; simulation needs finite values");
     }
     return x;
   }

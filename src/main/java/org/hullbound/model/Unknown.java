@@ -1,5 +1,6 @@
 package org.hullbound.model;
 
+import org.hullbound.lang.NumberSyntax;
 import org.hullbound.model.family.Scale;
 
 /**
@@ -32,12 +33,14 @@ public record Unknown(
   }
 
   private static String bound(double b) {
-    if (Double.isNaN(b)) {
-      return "?";
-    }
-    if (Double.isInfinite(b)) {
-      return b > 0 ? "inf" : "-inf";
-    }
-    return b == Math.rint(b) && Math.abs(b) < 1e15 ? Long.toString((long) b) : Double.toString(b);
+    return Double.isNaN(b) ? "?" : shown(b);
+  }
+
+  /**
+   * A value of an unknown as messages show it, in the model language's spelling ({@link
+   * NumberSyntax#written}), for the packages that report values but do not read the language.
+   */
+  public static String shown(double value) {
+    return NumberSyntax.written(value);
   }
 }

@@ -86,7 +86,8 @@ public final class Verdicts {
       lines.add("no unknowns to judge");
     } else if (verdicts.isEmpty()) {
       lines.add(
-          (unknowns == 1 ? "The unknown looks" : "All " + unknowns + " unknowns look")
+          (unknowns == 1 ? "The unknown looks"
+              : unknowns == 2 ? "Both unknowns look" : "All " + unknowns + " unknowns look")
               + " converged: R-hat at most "
               + plain(maxRhat)
               + ", bulk-ESS and tail-ESS at least "
@@ -95,11 +96,12 @@ public final class Verdicts {
     } else {
       long flagged = verdicts.stream().map(Verdict::unknown).distinct().count();
       lines.add(
-          flagged
-              + " of "
-              + unknowns
-              + (unknowns == 1 ? " unknown needs" : " unknowns need")
-              + " attention (see above); the others look converged.");
+          (unknowns == 1 ? "The unknown needs"
+              : flagged == unknowns
+                  ? (unknowns == 2 ? "Both unknowns need" : "All " + unknowns + " unknowns need")
+                  : flagged + " of " + unknowns + " unknowns " + (flagged == 1 ? "needs" : "need"))
+              + " attention (see above)"
+              + (flagged < unknowns ? "; the others look converged." : "."));
     }
     return List.copyOf(lines);
   }
@@ -151,7 +153,9 @@ public final class Verdicts {
               name,
               Verdict.Kind.CHAINS_DISAGREE,
               name
-                  + ": chains are stuck at different values (R-hat inf > "
+                  + (s.chains() == 1
+                      ? ": the two halves of the chain are stuck at different values (R-hat inf > "
+                      : ": chains are stuck at different values (R-hat inf > ")
                   + limit
                   + "); check that it is being updated and the starting values"));
     } else if (s.rhat() > maxRhat) {
@@ -161,7 +165,9 @@ public final class Verdicts {
               name,
               Verdict.Kind.CHAINS_DISAGREE,
               name
-                  + (spreadOnly ? ": chains disagree in spread (R-hat " : ": chains disagree (R-hat ")
+                  + ": "
+                  + disagree(s.chains())
+                  + (spreadOnly ? " in spread (R-hat " : " (R-hat ")
                   + rhatText(s.rhat(), maxRhat)
                   + " > "
                   + limit
@@ -182,7 +188,7 @@ public final class Verdicts {
               name,
               Verdict.Kind.FEW_BULK_DRAWS,
               name
-                  + ": few effective draws for the centre (bulk-ESS "
+                  + ": few effective draws in the bulk (bulk-ESS "
                   + NumberText.count(s.essBulk())
                   + " < "
                   + plain(minEss)
@@ -210,6 +216,14 @@ public final class Verdicts {
                   + ": tail ess is undefined because many draws tie at an end; tail quantiles"
                   + " may be unreliable, check whether the unknown is nearly discrete"));
     }
+  }
+
+  /**
+   * Who disagrees: R-hat compares the two halves of each chain (split R-hat), so with one chain
+   * it is the halves.
+   */
+  private static String disagree(int chains) {
+    return chains == 1 ? "the two halves of the chain disagree" : "chains disagree";
   }
 
   private static void judgeUpdate(String name, UpdateFacts facts, List<Verdict> found) {

@@ -67,6 +67,11 @@ public final class Calibration {
     return new Calibration(model, List.copyOf(tables), bound, fitter);
   }
 
+  /** The model's name. */
+  public String modelName() {
+    return bound.name();
+  }
+
   /** The model's unknowns, in state order. */
   public List<String> labels() {
     return bound.unknowns().stream().map(u -> u.label()).toList();

@@ -51,10 +51,15 @@ public record CalibrationSettings(int replicates, int draws, int thin, int burnI
       }
     }
     if (best == 0) {
+      int fewestBins = 2;
+      while ((draws + 1) % fewestBins != 0) {
+        fewestBins++;
+      }
       throw new IllegalArgumentException(
-          "no bin count divides draws + 1 = " + (draws + 1) + " with at least 5 of the "
-              + replicates + " replicates expected per bin; use more replicates, or draws such"
-              + " as 99, 199 or 999");
+          "replicates must be at least " + 5L * fewestBins + " for draws = " + draws + ", got "
+              + replicates + ": the rank test needs " + fewestBins + " or more bins (dividing"
+              + " draws + 1 = " + (draws + 1) + ") with at least 5 replicates expected in each"
+              + (fewestBins > 2 ? "; draws such as 99, 199 or 999 need only 10" : ""));
     }
     return best;
   }

@@ -36,13 +36,20 @@ public final class CalibrationText {
         "Note: %d unknown%s tested at once. With exact sampling each p-value is uniform, so about"
             + " %s of them fall below %s by chance; for a verdict on the whole model compare the"
             + " smallest p-value (%s) with %s / %d = %s (Bonferroni).%n",
-        m, m == 1 ? "" : "s", number(m * LEVEL), LEVEL, RankHistogramSvg.pValueText(result.smallestPValue()),
+        m, m == 1 ? "" : "s", percent(LEVEL), LEVEL, RankHistogramSvg.pValueText(result.smallestPValue()),
         LEVEL, m, number(LEVEL / m)));
     out.append(result.passes(LEVEL)
         ? "Verdict: no sign of miscalibration at family-wise level " + LEVEL + ".\n"
         : "Verdict: the ranks are not uniform at family-wise level " + LEVEL
             + " (" + flagged + " unknown" + (flagged == 1 ? "" : "s") + " flagged); see the histograms.\n");
     return out.toString();
+  }
+
+  /** A share as a whole percentage where it is one ({@code 1%}), else with its digits. */
+  private static String percent(double share) {
+    double percent = 100 * share;
+    return (percent == Math.rint(percent)
+        ? Long.toString(Math.round(percent)) : String.format(Locale.ROOT, "%.3g", percent)) + "%";
   }
 
   private static String number(double v) {

@@ -9,6 +9,7 @@ import org.hullbound.app.ModelInputs;
 import org.hullbound.gibbs.RunSettings;
 import org.hullbound.gibbs.UpdateReport;
 import org.hullbound.lang.ModelException;
+import org.hullbound.lang.NameSuggestion;
 import org.hullbound.model.BoundModel;
 
 /**
@@ -56,7 +57,10 @@ public final class Validator {
     for (String name : names) {
       if (!caseNames().contains(name)) {
         throw new InvalidCaseException(
-            "there is no validation case '" + name + "'; the cases are " + String.join(", ", caseNames()));
+            "there is no validation case '" + name + "'; "
+                + NameSuggestion.nearest(name, caseNames()).map(near -> "did you mean '" + near + "'? ")
+                    .orElse("")
+                + "the cases are " + String.join(", ", caseNames()));
       }
     }
     List<CaseOutcome> outcomes = new ArrayList<>();

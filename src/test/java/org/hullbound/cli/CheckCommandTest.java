@@ -169,4 +169,25 @@ class CheckCommandTest {
     assertEquals(2, run.status());
     assertTrue(run.err().contains("MODEL"), run.err());
   }
+
+  @Test
+  void aModelThatReadsDataSaysThatNoDataFileWasGiven() {
+    Run run = run("check", "models/orchard.hbm");
+    assertEquals(2, run.status());
+    assertEquals("hullbound check: no data file was given, but models/orchard.hbm reads the data"
+        + " 'X' and 'yield' from one; give it with --data FILE.csv\n", run.err());
+  }
+
+  @Test
+  void aDataFileGivenAfterTheModelIsToldToUseDataOption() {
+    Run run = run("check", "models/orchard.hbm", "models/orchard.csv");
+    assertEquals(2, run.status());
+    assertEquals("hullbound check: 'models/orchard.csv' is given after the model file; a data"
+        + " file is named with --data, as in --data models/orchard.csv\n", run.err());
+    Run fit = run("fit", "models/orchard.hbm", "models/orchard.csv");
+    assertTrue(fit.err().startsWith("hullbound fit: 'models/orchard.csv' is given after"),
+        fit.err());
+    // Other usage errors keep picocli's message.
+    assertTrue(run("check", "models/orchard.hbm", "--bogus").err().contains("Unknown option"));
+  }
 }

@@ -335,4 +335,21 @@ class DrawCommandTest {
     }
     throw new AssertionError("no element with id " + id);
   }
+
+  @Test
+  void aSamplerFailureShowsNumbersAsTheLanguageWritesThemAndTracesUnderDebug() {
+    // x^2 is convex, so its tangent slopes h'(-1) = -2 and h'(1) = 2 increase (calculus).
+    CliRun run = CliRun.of("draw", "--log-density", "x^2", "-n", "5", "--seed", "1");
+    assertEquals(1, run.exit(), run.toString());
+    assertTrue(run.err().contains("at x = 1: slopes increase from h'(-1) = -2 to h'(1) = 2"),
+        run.err());
+    assertFalse(run.err().contains(".0") || run.err().contains("E-"), run.err());
+    assertFalse(run.err().contains("\tat "), run.err());
+    CliRun debug = CliRun.of("draw", "--debug", "--log-density", "x^2", "-n", "5", "--seed", "1");
+    assertTrue(debug.err().contains("NotLogConcaveException") && debug.err().contains("\tat "),
+        debug.err());
+    assertEquals("h(x) = -inf at x = 0.1, tolerance 6e-8, 12 draws, beta[1.5]",
+        DrawCommand.languageNumbers(
+            "h(x) = -Infinity at x = 0.1, tolerance 6.000000022204461E-8, 12 draws, beta[1.5]"));
+  }
 }

@@ -168,7 +168,7 @@ class FitSafetyTest {
             "name.csv", "'center'"),
         row("starting value outside the support",
             f -> List.of("fit", MODEL, "--data", DATA, "--init", write(f, "neg.csv", "spread,-1\n")),
-            "neg.csv", "spread = -1.0", "(0, inf)"),
+            "neg.csv", "spread = -1,", "(0, inf)"),
         row("starting values file missing",
             f -> List.of("fit", MODEL, "--data", DATA, "--init", f.resolve("gone.csv").toString()),
             "gone.csv:1:1:"),

@@ -120,7 +120,7 @@ class SummarizeCommandTest {
     CliRun run =
         CliRun.of("summarize", drawsFile.toString(), "--min-ess", "100000", "--max-rhat", "1.5");
     assertEquals(0, run.exit(), run.toString());
-    assertTrue(run.out().contains("mu: few effective draws for the centre"), run.out());
+    assertTrue(run.out().contains("mu: few effective draws in the bulk"), run.out());
     assertTrue(run.out().contains("< 100000"), run.out());
   }
 

@@ -55,6 +55,10 @@ class ValidateCommandTest {
     Run unknown = run("validate", "--case", "nonesuch");
     assertEquals(2, unknown.status());
     assertTrue(unknown.err().contains("no validation case 'nonesuch'"), unknown.err());
+    Run mistyped = run("validate", "--case", "gamma_poison");
+    assertEquals(2, mistyped.status());
+    assertTrue(mistyped.err().contains("no validation case 'gamma_poison'; did you mean"
+        + " 'gamma_poisson'? the cases are "), mistyped.err());
     Run few = run("validate", "--draws", "10");
     assertEquals(2, few.status());
     assertTrue(few.err().contains("--draws must be at least 100, got 10"), few.err());
@@ -72,11 +76,26 @@ class ValidateCommandTest {
     assertTrue(run.out().contains("Simulation-based calibration of gamma_poisson: 60 replicates"), run.out());
     assertTrue(run.out().matches("(?s).*lambda +[0-9.]+ +9 .*yes.*"), run.out());
     assertTrue(run.out().contains("Bonferroni"), run.out());
+    assertTrue(run.out().contains("so about 1% of them fall below 0.01 by chance"), run.out());
     java.util.List<String> ranks = Files.readAllLines(out.resolve("ranks.csv"));
     assertEquals("replicate,lambda", ranks.get(0));
     assertEquals(61, ranks.size());
     String svg = Files.readString(out.resolve("ranks-lambda.svg"));
     assertTrue(svg.startsWith("<svg") && svg.contains("ranks of lambda"), svg);
+
+    // As fit does: an earlier calibration is kept unless --overwrite is given.
+    Run again = run("calibrate", "validation/gamma_poisson/model.hbm", "--data",
+        "validation/gamma_poisson/calls.csv", "--replicates", "10", "--draws", "19", "--seed", "5",
+        "--out", out.toString());
+    assertEquals(2, again.status(), again.err());
+    assertTrue(again.err().contains("holds an earlier calibration (ranks-lambda.svg and 1 more);"
+        + " give --overwrite to replace it"), again.err());
+    assertEquals(61, Files.readAllLines(out.resolve("ranks.csv")).size());
+    Run replaced = run("calibrate", "validation/gamma_poisson/model.hbm", "--data",
+        "validation/gamma_poisson/calls.csv", "--replicates", "10", "--draws", "19", "--thin", "1",
+        "--burn-in", "20", "--seed", "5", "--out", out.toString(), "--overwrite");
+    assertTrue(replaced.status() == 0 || replaced.status() == 1, replaced.err());
+    assertEquals(11, Files.readAllLines(out.resolve("ranks.csv")).size());
   }
 
   @Test
@@ -85,6 +104,12 @@ class ValidateCommandTest {
         "--replicates", "50", "--draws", "99", "--bins", "7");
     assertEquals(2, bins.status());
     assertTrue(bins.err().contains("--bins must divide draws + 1 = 100"), bins.err());
+    // 2 bins of at least 5 expected ranks each: 10 replicates (rank test of Talts et al. 2018).
+    Run few = run("calibrate", "validation/gamma_poisson/model.hbm", "--data",
+        "validation/gamma_poisson/calls.csv", "--replicates", "5", "--draws", "99");
+    assertEquals(2, few.status());
+    assertTrue(few.err().contains("--replicates must be at least 10 for draws = 99, got 5"),
+        few.err());
     Path model = dir.resolve("covariate.hbm");
     Files.writeString(model,
         "index obs = 1 .. 3\n"
@@ -97,5 +122,20 @@ class ValidateCommandTest {
     Run missing = run("calibrate", "validation/gamma_poisson/model.hbm", "--draws", "19");
     assertEquals(2, missing.status());
     assertTrue(missing.err().contains("--replicates"), missing.err());
+  }
+
+  @Test
+  void theSuiteIsFoundBesideTheJarFromAnyWorkingDirectory(@TempDir Path dir) throws IOException {
+    Path checkout = dir.resolve("checkout");
+    Files.createDirectories(checkout.resolve("validation"));
+    Files.createDirectories(checkout.resolve("target/classes"));
+    Path elsewhere = Files.createDirectories(dir.resolve("elsewhere"));
+    Path jar = checkout.resolve("target/hullbound-cli.jar");
+    assertEquals(checkout.resolve("validation"), ValidateCommand.defaultSuite(elsewhere, jar));
+    assertEquals(checkout.resolve("validation"),
+        ValidateCommand.defaultSuite(elsewhere, checkout.resolve("target/classes")));
+    // The working directory's own suite comes first.
+    Files.createDirectories(elsewhere.resolve("validation"));
+    assertEquals(elsewhere.resolve("validation"), ValidateCommand.defaultSuite(elsewhere, jar));
   }
 }

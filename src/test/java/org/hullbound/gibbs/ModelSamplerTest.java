@@ -120,7 +120,25 @@ class ModelSamplerTest {
             List.of());
     StartingValueException e =
         assertThrows(StartingValueException.class, () -> ModelSampler.of(model, Map.of("r", -1.0)));
-    assertTrue(e.getMessage().contains("r = -1.0"), e.getMessage());
+    assertTrue(e.getMessage().contains("r = -1, outside its support (0, inf)"), e.getMessage());
+  }
+
+  @Test
+  void aMistypedStartingValueNameGetsTheNearestUnknown() {
+    BoundModel model =
+        BoundModel.bind(
+            Parser.parse(
+                SourceText.of(
+                    "t.hbm",
+                    "data y = 1 ~ poisson(rate = lambda)\nparam lambda ~ gamma(shape = 1, rate = 1)\n")),
+            List.of());
+    StartingValueException near =
+        assertThrows(StartingValueException.class, () -> ModelSampler.of(model, Map.of("lamda", 1.0)));
+    assertTrue(near.getMessage().endsWith("'lamda', which is not an unknown of model t; did you"
+        + " mean 'lambda'?"), near.getMessage());
+    StartingValueException far =
+        assertThrows(StartingValueException.class, () -> ModelSampler.of(model, Map.of("zzz", 1.0)));
+    assertTrue(far.getMessage().endsWith("; unknowns are lambda"), far.getMessage());
   }
 
   @Test

@@ -107,6 +107,22 @@ class CsvDataTest {
   }
 
   @Test
+  void aHeaderSeparatedBySemicolonsOrTabsNamesItsSeparator() {
+    // RFC 4180 section 2: fields are separated by commas. Files saved with ';' (a spreadsheet in a
+    // locale with decimal commas) or tabs are the usual mistake (common practice).
+    ModelException semicolons =
+        assertThrows(ModelException.class, () -> CsvData.parse("a.csv", "x;y\n1;2\n"));
+    at(semicolons, "a.csv", 1, 1, "the header holds ';' but no ','; hullbound reads"
+        + " comma-separated files");
+    ModelException tabs =
+        assertThrows(ModelException.class, () -> CsvData.parse("a.csv", "x\ty\n1\t2\n"));
+    at(tabs, "a.csv", 1, 1, "the header holds tabs but no ','");
+    // A one-column file is still read, and a ';' inside a quoted cell of a comma file is text.
+    assertEquals(1, CsvData.parse("a.csv", "x\n1\n").rowCount());
+    assertEquals(2, CsvData.parse("a.csv", "\"a;b\",y\n1,2\n").header().size());
+  }
+
+  @Test
   void aQuoteNeverClosedIsReportedWhereItOpens() {
     ModelException e =
         assertThrows(ModelException.class, () -> CsvData.parse("a.csv", "x,y\n1,2\n3,\"4\n5,6\n"));

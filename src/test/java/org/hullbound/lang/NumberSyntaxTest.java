@@ -4,6 +4,7 @@ import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
+import org.junit.jupiter.api.Test;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.CsvSource;
 import org.junit.jupiter.params.provider.ValueSource;
@@ -67,5 +68,24 @@ class NumberSyntaxTest {
   @ValueSource(strings = {"0", "0.0", "0e-999", "-0.000"})
   void zeroWrittenAsZeroIsZero(String text) {
     assertEquals(0.0, Math.abs(NumberSyntax.parse(text)));
+  }
+
+  @Test
+  void messagesWriteNumbersAsTheLanguageDoesAndTheyReadBack() {
+    // The spellings are this project's grammar (docs/model-language.md); 0.1 + 0.2 and 3e-8 * (1 +
+    // 2^-52) are the usual binary rounding examples (IEEE 754, common practice).
+    assertEquals("-inf", NumberSyntax.written(Double.NEGATIVE_INFINITY));
+    assertEquals("inf", NumberSyntax.written(Double.POSITIVE_INFINITY));
+    assertEquals("-1", NumberSyntax.written(-1.0));
+    assertEquals("0.1", NumberSyntax.written(0.1));
+    assertEquals("0.3", NumberSyntax.written(0.1 + 0.2));
+    assertEquals("3e-8", NumberSyntax.written(3.0000000000000004E-8));
+    assertEquals("-2.5e-5", NumberSyntax.written(-0.000025));
+    assertEquals("1.5e20", NumberSyntax.written(1.5e20));
+    assertEquals("0.333333", NumberSyntax.written(1.0 / 3));
+    assertEquals("NaN", NumberSyntax.written(Double.NaN));
+    for (double v : new double[] {0.1, 3e-8, -2.5e-5, 1.5e20, 1e300, 4.9e-324, 0.5}) {
+      assertEquals(v, NumberSyntax.parse(NumberSyntax.written(v)), NumberSyntax.written(v));
+    }
   }
 }

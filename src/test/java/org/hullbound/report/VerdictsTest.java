@@ -40,8 +40,46 @@ class VerdictsTest {
         "beta[3]: chains disagree (R-hat 1.080 > 1.01); run longer or check the starting values",
         verdicts.verdicts().get(0).text());
     assertEquals(
-        "1 of 1 unknown needs attention (see above); the others look converged.",
+        "The unknown needs attention (see above).",
         verdicts.lines().get(1));
+  }
+
+  @Test
+  void oneChainIsJudgedByItsTwoHalves() {
+    // Split R-hat compares the halves of each chain (Gelman et al., Bayesian Data Analysis, 3rd
+    // ed., section 11.4), so with one chain it is its halves that disagree.
+    double[][] draws = new double[1][40];
+    for (int i = 0; i < 40; i++) {
+      draws[0][i] = (i < 20 ? 0 : 10) + (i % 5) * 0.1;
+    }
+    Verdict first = judge(PosteriorSummary.of("mu", draws)).verdicts().get(0);
+    assertEquals(Verdict.Kind.CHAINS_DISAGREE, first.kind());
+    assertTrue(first.text().startsWith("mu: the two halves of the chain disagree (R-hat "),
+        first.text());
+  }
+
+  @Test
+  void theClosingLineCountsInPlainWords() {
+    assertEquals(
+        List.of("Both unknowns look converged: R-hat at most 1.01, bulk-ESS and tail-ESS at least"
+            + " 400, no fallback update."),
+        judge(Summaries.fine("a"), Summaries.fine("b")).lines());
+    Verdicts oneOfThree =
+        judge(Summaries.fine("a"), Summaries.converged("b", 1.08, 1.0, 3000, 3000),
+            Summaries.fine("c"));
+    assertEquals("1 of 3 unknowns needs attention (see above); the others look converged.",
+        oneOfThree.lines().get(1));
+    Verdicts bothBad =
+        judge(Summaries.converged("a", 1.08, 1.0, 3000, 3000),
+            Summaries.converged("b", 1.08, 1.0, 3000, 3000));
+    assertEquals("Both unknowns need attention (see above).", bothBad.lines().get(2));
+  }
+
+  @Test
+  void anUnknownNamedLikeTheWordingStillReadsOnce() {
+    // The bulk finding once said "for the centre", which read twice for an unknown called centre.
+    String text = judge(Summaries.converged("centre", 1.0, 1.0, 212, 3000)).verdicts().get(0).text();
+    assertEquals(1, text.split("centre", -1).length - 1, text);
   }
 
   @Test
@@ -81,7 +119,7 @@ class VerdictsTest {
         List.of(Verdict.Kind.FEW_BULK_DRAWS, Verdict.Kind.FEW_TAIL_DRAWS), kinds(verdicts));
     // 400 / 212 = 1.887, rounded up to 1.9; 400 / 399 = 1.0025, rounded up to 1.1.
     assertEquals(
-        "mu: few effective draws for the centre (bulk-ESS 212 < 400); mean and median are"
+        "mu: few effective draws in the bulk (bulk-ESS 212 < 400); mean and median are"
             + " imprecise; run about 1.9 times longer",
         verdicts.verdicts().get(0).text());
     assertEquals(

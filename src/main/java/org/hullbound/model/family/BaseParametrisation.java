@@ -3,6 +3,7 @@ package org.hullbound.model.family;
 import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.List;
+import org.hullbound.lang.NumberSyntax;
 
 /**
  * What every parametrisation shares: argument names and domains, the support test, the checks and
@@ -148,10 +149,7 @@ abstract class BaseParametrisation implements Parametrisation {
 
   /** A number as a user wrote it: {@code -1} rather than {@code -1.0}. */
   static String format(double value) {
-    if (value == Math.rint(value) && Math.abs(value) < 1e15) {
-      return Long.toString((long) value);
-    }
-    return Double.toString(value);
+    return NumberSyntax.written(value);
   }
 
   static boolean known(double[] knownArgs, int k) {

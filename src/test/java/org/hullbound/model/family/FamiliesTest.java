@@ -89,7 +89,7 @@ class FamiliesTest {
   void badArgumentsAreNamedWithTheirValueAndTheRequirement() {
     assertEquals("sd must be > 0, got -1", FamilyCases.parametrisation("normal", "mean", "sd").checkArguments(new double[] {0, -1}));
     assertEquals("sd must be > 0, got NaN", FamilyCases.parametrisation("half-normal", "sd").checkArguments(new double[] {Double.NaN}));
-    assertEquals("mean must be a finite number, got Infinity",
+    assertEquals("mean must be a finite number, got inf",
         FamilyCases.parametrisation("normal", "mean", "var").checkArguments(new double[] {Double.POSITIVE_INFINITY, 1}));
     assertEquals("p must be between 0 and 1, got 1.5",
         FamilyCases.parametrisation("binomial", "trials", "p").checkArguments(new double[] {10, 1.5}));
