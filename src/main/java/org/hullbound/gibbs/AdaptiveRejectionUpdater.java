@@ -5,6 +5,7 @@ import java.util.random.RandomGenerator;
 import org.hullbound.hull.AdaptiveRejectionSampler;
 import org.hullbound.hull.DifferentiableLogDensity;
 import org.hullbound.hull.Evaluation;
+import org.hullbound.hull.HullException;
 import org.hullbound.hull.HullOptions;
 import org.hullbound.hull.ImpreciseDensityException;
 import org.hullbound.hull.LogDensity;
@@ -111,7 +112,7 @@ final class AdaptiveRejectionUpdater implements Updater {
       if (smooth) {
         start = steepen(start, lower, upper);
       }
-      u = draw(start, guess, lower, upper, rng);
+      u = drawWithOneRestart(start, guess, lower, upper, current, rng);
     } catch (NotLogConcaveException | ImpreciseDensityException refused) {
       sampler = null;
       evaluations += recorder.count;
@@ -130,9 +131,6 @@ final class AdaptiveRejectionUpdater implements Updater {
               spread);
       fallback.update(state, rng);
       return;
-    } catch (ProposalLimitException stuck) {
-      sampler = null;
-      throw new DegenerateConditionalException(current, lower, upper, stuck);
     } catch (RuntimeException failure) {
       sampler = null;
       throw failure;
@@ -151,6 +149,49 @@ final class AdaptiveRejectionUpdater implements Updater {
     if (Double.isFinite(centre) && Double.isFinite(current)) {
       track(current, centre);
     }
+  }
+
+  /**
+   * A draw from the hull started at {@code start}; when that draw reaches the proposal cap, one
+   * more from a new hull started at the stuck hull's highest abscissa and its neighbours, which
+   * bracket the conditional's mode (for a concave h the mode lies between the neighbours of the
+   * highest point). The cap is met when the hull ran out of abscissae far from a conditional much
+   * narrower than where it started; the new hull spends its whole cap near the mode. This biases
+   * nothing: an accepted proposal follows the target whatever was proposed before it (Gilks and
+   * Wild 1992, the rejection step). Any failure of the new hull (its cap again, or values too
+   * coarsely rounded to tell, as under 1e15 binomial trials) makes the conditional degenerate:
+   * no fallback would fare better on it.
+   */
+  private double drawWithOneRestart(double[] start, double guess, double lower, double upper,
+      double current, RandomGenerator rng) {
+    try {
+      return draw(start, guess, lower, upper, rng);
+    } catch (ProposalLimitException stuck) {
+      double[] around = aroundHighest(stuck.abscissae(), stuck.values());
+      sampler = null;
+      try {
+        return draw(around, around[around.length / 2], lower, upper, rng);
+      } catch (HullException restartFailed) {
+        sampler = null;
+        throw new DegenerateConditionalException(current, lower, upper, stuck, restartFailed);
+      }
+    }
+  }
+
+  /**
+   * The highest of {@code xs} (by {@code hs}) with its neighbours on either side, where they
+   * exist; ascending, inside the support since the hull's abscissae are.
+   */
+  static double[] aroundHighest(double[] xs, double[] hs) {
+    int top = 0;
+    for (int i = 1; i < hs.length; i++) {
+      if (hs[i] > hs[top]) {
+        top = i;
+      }
+    }
+    int from = Math.max(0, top - 1);
+    int to = Math.min(xs.length - 1, top + 1);
+    return Arrays.copyOfRange(xs, from, to + 1);
   }
 
   /**

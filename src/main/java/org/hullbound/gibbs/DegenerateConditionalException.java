@@ -1,12 +1,14 @@
 package org.hullbound.gibbs;
 
+import org.hullbound.hull.HullException;
 import org.hullbound.hull.ProposalLimitException;
 
 /**
  * One unknown's full conditional is numerically degenerate: its adaptive rejection draw gave up
  * after its cap of proposals ({@link ProposalLimitException}), because the hull could not follow a
  * conditional far narrower than where it started (extreme data such as 1e15 binomial trials) or
- * rounding kept the density far under it.
+ * rounding kept the density far under it, and a new hull started around the highest point of the
+ * first failed as well.
  *
  * <p>The message names the values a practitioner needs to see the degeneracy: the unknown's
  * current value, its support, and where the hull's abscissae lay with the log-density at the
@@ -16,12 +18,15 @@ public final class DegenerateConditionalException extends RuntimeException {
   private static final long serialVersionUID = 1L;
 
   DegenerateConditionalException(
-      double current, double lower, double upper, ProposalLimitException stuck) {
-    super(describe(current, lower, upper, stuck), stuck);
+      double current, double lower, double upper, ProposalLimitException stuck,
+      HullException restartFailed) {
+    super(describe(current, lower, upper, stuck, restartFailed), stuck);
+    addSuppressed(restartFailed);
   }
 
   private static String describe(
-      double current, double lower, double upper, ProposalLimitException stuck) {
+      double current, double lower, double upper, ProposalLimitException stuck,
+      HullException restartFailed) {
     double[] xs = stuck.abscissae();
     double[] hs = stuck.values();
     int top = 0;
@@ -40,6 +45,7 @@ public final class DegenerateConditionalException extends RuntimeException {
         + " on support (" + lower + ", " + upper + ") (sampling scale); the hull's "
         + xs.length + " abscissae run from " + xs[0] + " to " + xs[xs.length - 1]
         + ", near its highest point " + around
+        + "; a new hull started there failed too (" + restartFailed.getMessage() + ")"
         + "; check the data for extreme values (such as a count of 1e15) or rescale";
   }
 }

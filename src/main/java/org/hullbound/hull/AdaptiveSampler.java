@@ -89,10 +89,10 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
     // a column inside an inner rectangle lies under the squeeze on all its step (Marsaglia and
     // Tsang 2000): the proposal is accepted at once
     long bits = rng.nextLong();
-    int at = SettledPieces.COLUMN_STRIDE * (int) (bits >>> settledShift);
+    int at = PackedRecords.COLUMN_STRIDE * (int) (bits >>> settledShift);
     // decided on the column's width alone, before the point is computed: a slow column is
     // known one load after the random bits
-    double span = columns[at + SettledPieces.SPAN];
+    double span = columns[at + PackedRecords.COLUMN_SPAN];
     if (span == span) {
       innerAcceptances++;
       return SettledPieces.columnPoint(columns, at, span, bits);
@@ -144,14 +144,14 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
       // how far the envelope lies below the piece's top E_k: a step of the settled staircase
       double drop = 0;
       if (fast != null) {
-        int at = SettledPieces.STRIDE * e;
-        double[] d = fast.data;
-        j = fast.piece[e];
+        int at = PackedRecords.REST_STRIDE * e;
+        double[] d = fast.restRecords;
+        j = fast.restPiece[e];
         if (p.uniform[j]) {
           // x uniform on the step, w uniform on [floor, 1) above its inner rectangle
           x = fast.uniformPoint(e, rng.nextDouble());
-          w = d[at + SettledPieces.FLOOR] + d[at + SettledPieces.SHARE] * rng.nextDouble();
-          drop = d[at + SettledPieces.DROP];
+          w = d[at + PackedRecords.REST_FLOOR] + d[at + PackedRecords.REST_SHARE] * rng.nextDouble();
+          drop = d[at + PackedRecords.REST_DROP];
         } else {
           x = p.position(j, rng.nextDouble());
           w = rng.nextDouble();
@@ -166,12 +166,12 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
         w = rng.nextDouble();
       }
       last = x;
-      double[] d = p.packed;
-      int at = PiecewiseExponential.STRIDE * j;
-      double offset = x - d[at + PiecewiseExponential.ANCHOR];
+      double[] d = p.pieceRecords;
+      int at = PackedRecords.PIECE_STRIDE * j;
+      double offset = x - d[at + PackedRecords.PIECE_ANCHOR];
       double gap =
-          d[at + PiecewiseExponential.GAP_VALUE]
-              + d[at + PiecewiseExponential.GAP_SLOPE] * offset
+          d[at + PackedRecords.PIECE_GAP_VALUE]
+              + d[at + PackedRecords.PIECE_GAP_SLOPE] * offset
               - drop;
       // squeezing test: accept when w <= exp(l_k(x*) - E_k(x*)), with no evaluation of h
       if (belowExp(w, gap)) {
@@ -181,8 +181,8 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
       // on a piece drawn uniformly under its top, E_k > u_k: w above exp(u_k - E_k) is rejected
       // by the hull itself, before h is evaluated
       double raise =
-          d[at + PiecewiseExponential.RAISE_VALUE]
-              + d[at + PiecewiseExponential.RAISE_SLOPE] * offset
+          d[at + PackedRecords.PIECE_RAISE_VALUE]
+              + d[at + PackedRecords.PIECE_RAISE_SLOPE] * offset
               - drop;
       if (!belowExp(w, raise)) {
         rejections++;
@@ -231,7 +231,7 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
     }
     spare.build(pieces);
     settled = spare;
-    settledColumns = spare.column;
+    settledColumns = spare.columnRecords;
     settledShift = spare.columnShift;
   }
 

@@ -1,10 +1,8 @@
 package org.hullbound.hull;
 
-import java.util.random.RandomGenerator;
-
 /**
  * A read-only copy of a sampler's hull and squeeze at one moment: evaluate them at any x, read the
- * segment masses, draw from the hull alone.
+ * segment masses.
  *
  * <p>Lets property tests check hull &gt;= h &gt;= squeeze and plots show the envelope without
  * reaching into the sampler (Gilks and Wild 1992, figure 1 shows such a picture).
@@ -13,7 +11,8 @@ public final class HullSnapshot {
 
   private final double[] abscissae;
   private final double[] values;
-  private final PiecewiseExponential pieces;
+  /** Package-private so that tests in this package can draw from the envelope alone. */
+  final PiecewiseExponential pieces;
 
   private HullSnapshot(double[] abscissae, double[] values, PiecewiseExponential pieces) {
     this.abscissae = abscissae;
@@ -111,26 +110,6 @@ public final class HullSnapshot {
   /** The squeeze computed directly from the abscissae by linear interpolation (cross-check). */
   public double logSqueezeFromChords(double x) {
     return Squeeze.logSqueeze(abscissae, values, abscissae.length, x);
-  }
-
-  /** The distribution function of the normalised envelope exp(E) at {@code x}. */
-  public double hullCdf(double x) {
-    if (!(x > pieces.left[0])) {
-      return 0.0;
-    }
-    if (x >= pieces.right[pieces.size - 1]) {
-      return 1.0;
-    }
-    int j = pieces.pieceOf(x);
-    double below = j > 0 ? pieces.cumulative[j - 1] : 0.0;
-    double part = Math.exp(pieces.logPartialMass(j, x) - pieces.logScale);
-    return Math.min(1.0, (below + part) / pieces.total);
-  }
-
-  /** One draw from the normalised envelope exp(E) alone, without the rejection step. */
-  public double drawFromHull(RandomGenerator rng) {
-    int j = pieces.select(rng.nextDouble());
-    return pieces.position(j, rng.nextDouble());
   }
 
   private int checkIndex(int i) {

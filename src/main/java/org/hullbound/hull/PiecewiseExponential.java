@@ -17,7 +17,7 @@ import java.util.Arrays;
  * is uniform and needs no logarithm, which is most of the cost of a draw; a proposal that falls
  * between u and E is rejected without evaluating h. On such a piece at most 1 - (1 - e^-0.5) / 0.5
  * = 21% of proposals are lost that way. Package-private and mutable: the sampler rebuilds it after
- * insertions and reads {@link #packed} directly on the draw path.
+ * insertions and reads {@link #pieceRecords} directly on the draw path.
  */
 final class PiecewiseExponential {
 
@@ -47,27 +47,10 @@ final class PiecewiseExponential {
   int[] guide;
 
   /**
-   * What the draw path reads, packed {@value #STRIDE} doubles a piece so that one draw touches one
-   * or two cache lines instead of one per array.
+   * What the draw path reads: one record of {@link PackedRecords#PIECE_STRIDE} doubles per piece,
+   * laid out as {@link PackedRecords} defines.
    */
-  double[] packed;
-
-  static final int STRIDE = 10;
-  /** The end a point is measured from: lower end, or the upper end of a rising exponential piece. */
-  static final int ORIGIN = 0;
-  /** Uniform piece: its width; exponential piece: 1 / |slope| signed toward the inside. */
-  static final int SCALE = 1;
-  /** Exponential piece: 1 - exp(-|slope| width), the share of the exponential it holds; -1 if uniform. */
-  static final int DECAY = 2;
-  static final int LEFT = 3;
-  static final int RIGHT = 4;
-  static final int ANCHOR = 5;
-  /** E - l at the anchor and its slope. */
-  static final int GAP_VALUE = 6;
-  static final int GAP_SLOPE = 7;
-  /** E - u at the anchor and its slope. */
-  static final int RAISE_VALUE = 8;
-  static final int RAISE_SLOPE = 9;
+  double[] pieceRecords;
 
   int size;
   double total;
@@ -97,7 +80,7 @@ final class PiecewiseExponential {
     logMass = new double[capacity];
     cumulative = new double[capacity];
     guide = new int[capacity];
-    packed = new double[STRIDE * capacity];
+    pieceRecords = new double[PackedRecords.PIECE_STRIDE * capacity];
   }
 
   /** Empties the pieces and makes room for at least {@code capacity} of them; reference 0. */
@@ -238,17 +221,17 @@ final class PiecewiseExponential {
         scale = -1.0 / s;
       }
     }
-    int at = STRIDE * j;
-    packed[at + ORIGIN] = origin;
-    packed[at + SCALE] = scale;
-    packed[at + DECAY] = decay;
-    packed[at + LEFT] = left[j];
-    packed[at + RIGHT] = right[j];
-    packed[at + ANCHOR] = anchor[j];
-    packed[at + GAP_VALUE] = raiseValue[j] + gapValue[j];
-    packed[at + GAP_SLOPE] = raiseSlope[j] + gapSlope[j];
-    packed[at + RAISE_VALUE] = raiseValue[j];
-    packed[at + RAISE_SLOPE] = raiseSlope[j];
+    int at = PackedRecords.PIECE_STRIDE * j;
+    pieceRecords[at + PackedRecords.PIECE_ORIGIN] = origin;
+    pieceRecords[at + PackedRecords.PIECE_SCALE] = scale;
+    pieceRecords[at + PackedRecords.PIECE_DECAY] = decay;
+    pieceRecords[at + PackedRecords.PIECE_LEFT] = left[j];
+    pieceRecords[at + PackedRecords.PIECE_RIGHT] = right[j];
+    pieceRecords[at + PackedRecords.PIECE_ANCHOR] = anchor[j];
+    pieceRecords[at + PackedRecords.PIECE_GAP_VALUE] = raiseValue[j] + gapValue[j];
+    pieceRecords[at + PackedRecords.PIECE_GAP_SLOPE] = raiseSlope[j] + gapSlope[j];
+    pieceRecords[at + PackedRecords.PIECE_RAISE_VALUE] = raiseValue[j];
+    pieceRecords[at + PackedRecords.PIECE_RAISE_SLOPE] = raiseSlope[j];
   }
 
   /**
@@ -276,22 +259,24 @@ final class PiecewiseExponential {
    * mass is (P(X &lt;= x) = u on falling pieces, P(X &gt;= x) = u on rising ones).
    */
   double position(int j, double u) {
-    double[] d = packed;
-    int at = STRIDE * j;
-    double q = d[at + DECAY];
+    double[] d = pieceRecords;
+    int at = PackedRecords.PIECE_STRIDE * j;
+    double q = d[at + PackedRecords.PIECE_DECAY];
     double x;
     if (q < 0) {
-      x = d[at + ORIGIN] + u * d[at + SCALE];
+      x = d[at + PackedRecords.PIECE_ORIGIN] + u * d[at + PackedRecords.PIECE_SCALE];
     } else {
       // -log(1 - u q) / |slope|, with q >= 0.39, so 1 - u q keeps its digits
-      x = d[at + ORIGIN] - Math.log(1.0 - u * q) * d[at + SCALE];
+      x =
+          d[at + PackedRecords.PIECE_ORIGIN]
+              - Math.log(1.0 - u * q) * d[at + PackedRecords.PIECE_SCALE];
     }
     // rounding may step just outside the piece; plain comparisons, cheaper than Math.min/max
-    double lower = d[at + LEFT];
+    double lower = d[at + PackedRecords.PIECE_LEFT];
     if (x < lower) {
       return lower;
     }
-    double upper = d[at + RIGHT];
+    double upper = d[at + PackedRecords.PIECE_RIGHT];
     return x > upper ? upper : x;
   }
 
@@ -317,14 +302,6 @@ final class PiecewiseExponential {
       }
     }
     return lo;
-  }
-
-  /** log of the integral of exp(E) over [left of piece j, x], x inside the piece. */
-  double logPartialMass(int j, double x) {
-    if (uniform[j]) {
-      return logMass[j] + Math.log((x - left[j]) / (right[j] - left[j]));
-    }
-    return logMass(left[j], x, anchor[j], value[j], slope[j]);
   }
 
   /** log of the integral of exp(value + slope (x - anchor)) over [lower, upper]. */
@@ -391,7 +368,7 @@ final class PiecewiseExponential {
     System.arraycopy(logMass, 0, c.logMass, 0, size);
     System.arraycopy(cumulative, 0, c.cumulative, 0, size);
     System.arraycopy(guide, 0, c.guide, 0, size);
-    System.arraycopy(packed, 0, c.packed, 0, STRIDE * size);
+    System.arraycopy(pieceRecords, 0, c.pieceRecords, 0, PackedRecords.PIECE_STRIDE * size);
     return c;
   }
 

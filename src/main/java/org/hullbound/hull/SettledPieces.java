@@ -1,7 +1,5 @@
 package org.hullbound.hull;
 
-import java.util.random.RandomGenerator;
-
 /**
  * The fast draw path of a settled hull: a staircase envelope over a {@link PiecewiseExponential},
  * its inner rectangles cut into columns of equal mass, and an alias table for the rest.
@@ -64,17 +62,12 @@ final class SettledPieces {
   int columnCount;
   double columnMass;
   /**
-   * Per column, {@value #COLUMN_STRIDE} doubles: the x where it starts, its width while in its
-   * first rectangle (both NaN on a slow column), the point u in [0, 1) where it crosses into a
-   * second rectangle (1 for none) and the change of width there.
+   * One record of {@link PackedRecords#COLUMN_STRIDE} doubles per equal column: where it starts in
+   * x, its width, where it crosses into a second rectangle and the change of width there (see
+   * {@link PackedRecords}).
    */
-  double[] column;
+  double[] columnRecords;
 
-  static final int COLUMN_STRIDE = 4;
-  static final int BASE = 0;
-  static final int SPAN = 1;
-  static final int CUT = 2;
-  static final int BEND = 3;
   /** Per column: the first inner rectangle it touches, -1 past the inner mass. */
   int[] firstRectangle;
 
@@ -91,28 +84,24 @@ final class SettledPieces {
   double innerLimit;
   double innerMass;
 
-  /**
-   * Per entry of the rest: left end, width, the range [floor, floor + share) of the vertical uniform
-   * relative to the step's top ([inner height, 1) on an outer rectangle, [0, 1) on a whole piece),
-   * and the drop of the step's top below the piece's envelope E (0 on a whole piece).
-   */
-  static final int STRIDE = 5;
-  static final int LEFT = 0;
-  static final int WIDTH = 1;
-  static final int FLOOR = 2;
-  static final int SHARE = 3;
-  static final int DROP = 4;
-
   int entries;
   int aliasShift;
   long thresholdMask;
-  /** Column c keeps its own entry when the low bits are below threshold[c], else alias[c]. */
+  /**
+   * Walker's alias table over the rest: column c keeps its own entry when the low bits are
+   * below threshold[c], else it gives alias[c].
+   */
   long[] threshold;
   int[] alias;
-  int[] piece;
-  double[] data;
+  /** Per rest entry: the envelope piece it belongs to. */
+  int[] restPiece;
+  /**
+   * One record of {@link PackedRecords#REST_STRIDE} doubles per rest entry: left end, width, the
+   * range of the vertical uniform and the step's drop (see {@link PackedRecords}).
+   */
+  double[] restRecords;
   /** Mass of each entry, relative to the largest piece as in {@link PiecewiseExponential}. */
-  double[] weight;
+  double[] restWeight;
   double total;
   int thresholdBits;
 
@@ -125,14 +114,14 @@ final class SettledPieces {
     allocateEntries(8);
     allocateAlias(8);
     allocateRectangles(8);
-    column = new double[0];
+    columnRecords = new double[0];
     firstRectangle = new int[0];
   }
 
   private void allocateEntries(int capacity) {
-    piece = new int[capacity];
-    data = new double[STRIDE * capacity];
-    weight = new double[capacity];
+    restPiece = new int[capacity];
+    restRecords = new double[PackedRecords.REST_STRIDE * capacity];
+    restWeight = new double[capacity];
   }
 
   private void allocateAlias(int aliasCapacity) {
@@ -157,19 +146,19 @@ final class SettledPieces {
     if (rectangleLeft.length < mostSteps) {
       allocateRectangles(mostSteps);
     }
-    if (piece.length < mostSteps + n) {
+    if (restPiece.length < mostSteps + n) {
       allocateEntries(mostSteps + n);
     }
     rectangles = 0;
     entries = 0;
     double innerSum = 0;
-    double[] d = pieces.packed;
+    double[] d = pieces.pieceRecords;
     for (int j = 0; j < n; j++) {
       // from the log mass, not a difference of cumulative weights, which would cancel
       double pieceWeight = Math.exp(pieces.logMass[j] - pieces.logScale);
-      int at = PiecewiseExponential.STRIDE * j;
-      double left = d[at + PiecewiseExponential.LEFT];
-      double right = d[at + PiecewiseExponential.RIGHT];
+      int at = PackedRecords.PIECE_STRIDE * j;
+      double left = d[at + PackedRecords.PIECE_LEFT];
+      double right = d[at + PackedRecords.PIECE_RIGHT];
       double width = right - left;
       if (!pieces.uniform[j] || !(pieces.gapValue[j] < Double.POSITIVE_INFINITY)) {
         addEntry(j, left, width, 0, 1, 0, pieceWeight);
@@ -208,18 +197,18 @@ final class SettledPieces {
     double restMass = buildAlias(aliasColumns);
     innerLimit = entries == 0 ? Double.POSITIVE_INFINITY : innerSum;
     buildColumns(
-        innerSum + restMass, d[PiecewiseExponential.LEFT],
-        d[PiecewiseExponential.STRIDE * (n - 1) + PiecewiseExponential.RIGHT]);
+        innerSum + restMass, d[PackedRecords.PIECE_LEFT],
+        d[PackedRecords.PIECE_STRIDE * (n - 1) + PackedRecords.PIECE_RIGHT]);
   }
 
   private static double raise(double[] d, int at, double x) {
-    return d[at + PiecewiseExponential.RAISE_VALUE]
-        + d[at + PiecewiseExponential.RAISE_SLOPE] * (x - d[at + PiecewiseExponential.ANCHOR]);
+    return d[at + PackedRecords.PIECE_RAISE_VALUE]
+        + d[at + PackedRecords.PIECE_RAISE_SLOPE] * (x - d[at + PackedRecords.PIECE_ANCHOR]);
   }
 
   private static double gap(double[] d, int at, double x) {
-    return d[at + PiecewiseExponential.GAP_VALUE]
-        + d[at + PiecewiseExponential.GAP_SLOPE] * (x - d[at + PiecewiseExponential.ANCHOR]);
+    return d[at + PackedRecords.PIECE_GAP_VALUE]
+        + d[at + PackedRecords.PIECE_GAP_SLOPE] * (x - d[at + PackedRecords.PIECE_ANCHOR]);
   }
 
   private void addRectangle(double left, double right, double start, double mass) {
@@ -233,14 +222,14 @@ final class SettledPieces {
   private void addEntry(
       int j, double left, double width, double floor, double share, double drop, double w) {
     int e = entries++;
-    piece[e] = j;
-    int at = STRIDE * e;
-    data[at + LEFT] = left;
-    data[at + WIDTH] = width;
-    data[at + FLOOR] = floor;
-    data[at + SHARE] = share;
-    data[at + DROP] = drop;
-    weight[e] = w;
+    restPiece[e] = j;
+    int at = PackedRecords.REST_STRIDE * e;
+    restRecords[at + PackedRecords.REST_LEFT] = left;
+    restRecords[at + PackedRecords.REST_WIDTH] = width;
+    restRecords[at + PackedRecords.REST_FLOOR] = floor;
+    restRecords[at + PackedRecords.REST_SHARE] = share;
+    restRecords[at + PackedRecords.REST_DROP] = drop;
+    restWeight[e] = w;
   }
 
   /**
@@ -258,8 +247,8 @@ final class SettledPieces {
     columnCount = 1 << bits;
     columnShift = Long.SIZE - bits;
     columnMass = totalMass / columnCount;
-    if (column.length < COLUMN_STRIDE * columnCount) {
-      column = new double[COLUMN_STRIDE * columnCount];
+    if (columnRecords.length < PackedRecords.COLUMN_STRIDE * columnCount) {
+      columnRecords = new double[PackedRecords.COLUMN_STRIDE * columnCount];
       firstRectangle = new int[columnCount];
     }
     int r = 0;
@@ -269,12 +258,12 @@ final class SettledPieces {
       while (r < rectangles && rectangleStart[r + 1] <= low) {
         r++;
       }
-      int at = COLUMN_STRIDE * c;
+      int at = PackedRecords.COLUMN_STRIDE * c;
       // NaN makes the fast point NaN without a test of its own
-      column[at + BASE] = Double.NaN;
-      column[at + SPAN] = Double.NaN;
-      column[at + CUT] = 1;
-      column[at + BEND] = 0;
+      columnRecords[at + PackedRecords.COLUMN_BASE] = Double.NaN;
+      columnRecords[at + PackedRecords.COLUMN_SPAN] = Double.NaN;
+      columnRecords[at + PackedRecords.COLUMN_CUT] = 1;
+      columnRecords[at + PackedRecords.COLUMN_BEND] = 0;
       if (r >= rectangles || !(low < innerLimit)) {
         firstRectangle[c] = -1;
         continue;
@@ -294,12 +283,14 @@ final class SettledPieces {
         continue;
       }
       double span = columnMass / rectangleDensity[r];
-      column[at + BASE] = left + (low - rectangleStart[r]) / rectangleDensity[r];
-      column[at + SPAN] = span;
+      columnRecords[at + PackedRecords.COLUMN_BASE] =
+          left + (low - rectangleStart[r]) / rectangleDensity[r];
+      columnRecords[at + PackedRecords.COLUMN_SPAN] = span;
       if (two) {
         // past u = cut the mass axis is in the next rectangle, from its left end at its rate
-        column[at + CUT] = (rectangleStart[r + 1] - low) / columnMass;
-        column[at + BEND] = columnMass / rectangleDensity[r + 1] - span;
+        columnRecords[at + PackedRecords.COLUMN_CUT] = (rectangleStart[r + 1] - low) / columnMass;
+        columnRecords[at + PackedRecords.COLUMN_BEND] =
+            columnMass / rectangleDensity[r + 1] - span;
       }
     }
   }
@@ -309,18 +300,20 @@ final class SettledPieces {
    * {@code bits}, or NaN on any other column (then {@link #innerPoint} with the same bits).
    */
   double fastPoint(long bits) {
-    int at = COLUMN_STRIDE * (int) (bits >>> columnShift);
-    return columnPoint(column, at, column[at + SPAN], bits);
+    int at = PackedRecords.COLUMN_STRIDE * (int) (bits >>> columnShift);
+    return columnPoint(columnRecords, at, columnRecords[at + PackedRecords.COLUMN_SPAN], bits);
   }
 
   /** The point of the column at {@code at} (of width {@code span} there) that {@code bits} place. */
-  static double columnPoint(double[] column, int at, double span, long bits) {
+  static double columnPoint(double[] columns, int at, double span, long bits) {
     double u = (bits & POINT_MASK) * POINT_SCALE;
     // max(0, u - cut) without a branch, which would be mispredicted on two-rectangle columns:
     // the sign bit of u - cut, spread over the word, clears a negative difference
-    long over = Double.doubleToRawLongBits(u - column[at + CUT]);
+    long over = Double.doubleToRawLongBits(u - columns[at + PackedRecords.COLUMN_CUT]);
     double past = Double.longBitsToDouble(over & ~(over >> 63));
-    return column[at + BASE] + u * span + past * column[at + BEND];
+    return columns[at + PackedRecords.COLUMN_BASE]
+        + u * span
+        + past * columns[at + PackedRecords.COLUMN_BEND];
   }
 
   /**
@@ -363,7 +356,7 @@ final class SettledPieces {
   private double buildAlias(int columns) {
     double sum = 0;
     for (int e = 0; e < entries; e++) {
-      sum += weight[e];
+      sum += restWeight[e];
     }
     total = sum;
     int columnBits = Integer.numberOfTrailingZeros(columns);
@@ -377,7 +370,7 @@ final class SettledPieces {
     int smallCount = 0;
     int largeCount = 0;
     for (int c = 0; c < columns; c++) {
-      scaled[c] = c < entries ? weight[c] * columns / sum : 0.0;
+      scaled[c] = c < entries ? restWeight[c] * columns / sum : 0.0;
       if (scaled[c] < 1.0) {
         small[smallCount++] = c;
       } else {
@@ -422,49 +415,11 @@ final class SettledPieces {
 
   /** The point at {@code u} in [0, 1) of entry {@code e}'s step or piece, uniform over its width. */
   double uniformPoint(int e, double u) {
-    int at = STRIDE * e;
-    double left = data[at + LEFT];
-    double width = data[at + WIDTH];
+    int at = PackedRecords.REST_STRIDE * e;
+    double left = restRecords[at + PackedRecords.REST_LEFT];
+    double width = restRecords[at + PackedRecords.REST_WIDTH];
     double x = left + u * width;
     // rounding of left + u width may pass the right end by an ulp
     return x - left > width ? left + width : x;
-  }
-
-  /**
-   * One draw from the normalised linear hull exp(u) through both layers: proposals from the
-   * staircase, those above u rejected; for tests against the hull's own distribution.
-   */
-  double drawUnderHull(RandomGenerator rng, PiecewiseExponential pieces) {
-    while (true) {
-      double x = innerDraw(rng.nextLong());
-      if (!Double.isNaN(x)) {
-        return x;
-      }
-      int e = select(rng.nextLong());
-      int j = piece[e];
-      if (!pieces.uniform[j]) {
-        return pieces.position(j, rng.nextDouble());
-      }
-      int at = STRIDE * e;
-      x = uniformPoint(e, rng.nextDouble());
-      double w = data[at + FLOOR] + data[at + SHARE] * rng.nextDouble();
-      double raise = raise(pieces.packed, PiecewiseExponential.STRIDE * j, x);
-      if (w < Math.exp(data[at + DROP] - raise)) {
-        return x;
-      }
-    }
-  }
-
-  /** The probability with which {@link #select} returns entry {@code e}, read off the table. */
-  double selectionProbability(int e) {
-    int columns = 1 << (Long.SIZE - aliasShift);
-    double one = (double) (1L << thresholdBits);
-    double p = threshold[e] / one;
-    for (int c = 0; c < columns; c++) {
-      if (c != e && alias[c] == e) {
-        p += 1.0 - threshold[c] / one;
-      }
-    }
-    return p / columns;
   }
 }

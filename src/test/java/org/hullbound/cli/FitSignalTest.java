@@ -77,9 +77,10 @@ class FitSignalTest {
     String err = Files.readString(folder.resolve("err.txt"));
     assertEquals(1, child.exitValue(), err);
     String first = err.lines().findFirst().orElse("");
-    assertTrue(first.startsWith("hullbound fit: sampling failed: chain 1 failed in sweep 1:"
-        + " updating effect[1] (adaptive rejection): the full conditional is numerically"
-        + " degenerate"), err);
+    // chain 1's stuck draw is now rescued by a restarted hull (gibbs.DegenerateConditionalTest);
+    // chain 2 still fails on effect[1], whose values are too coarsely rounded for the hull
+    assertTrue(first.startsWith("hullbound fit: sampling failed: chain "), err);
+    assertTrue(first.contains("updating effect[1]"), err);
     assertFalse(err.contains("Exception"), err);
   }
 }

@@ -70,8 +70,8 @@ class SettledPiecesTest {
     SettledPieces table = table(settled(target, derivativeFree));
     double sum = 0;
     for (int e = 0; e < table.entries; e++) {
-      double p = table.selectionProbability(e);
-      assertEquals(table.weight[e] / table.total, p, 1e-12, "entry " + e);
+      double p = HullSnapshots.selectionProbability(table, e);
+      assertEquals(table.restWeight[e] / table.total, p, 1e-12, "entry " + e);
       sum += p;
     }
     assertEquals(1.0, sum, 1e-12, "no column falls outside the entries");
@@ -97,9 +97,9 @@ class SettledPiecesTest {
           table.rectangleDensity[r] * width, 1e-12, "rectangle " + r + " on the mass axis");
     }
     for (int e = 0; e < table.entries; e++) {
-      staircase[table.piece[e]] += table.weight[e];
-      if (table.data[SettledPieces.STRIDE * e + SettledPieces.FLOOR] == 0) {
-        wholeEntries[table.piece[e]]++;
+      staircase[table.restPiece[e]] += table.restWeight[e];
+      if (table.restRecords[PackedRecords.REST_STRIDE * e + PackedRecords.REST_FLOOR] == 0) {
+        wholeEntries[table.restPiece[e]]++;
       }
     }
     for (int j = 0; j < pieces.size; j++) {
@@ -132,7 +132,7 @@ class SettledPiecesTest {
     int fast = 0;
     int checked = 0;
     for (int c = 0; c < table.columnCount; c++) {
-      boolean isFast = !Double.isNaN(table.column[SettledPieces.COLUMN_STRIDE * c]);
+      boolean isFast = !Double.isNaN(table.columnRecords[PackedRecords.COLUMN_STRIDE * c]);
       fast += isFast ? 1 : 0;
       for (int i = 0; i < 8; i++) {
         long low = i == 0 ? 0 : i == 1 ? SettledPieces.POINT_MASK : rng.nextLong();
@@ -199,15 +199,15 @@ class SettledPiecesTest {
     }
     int steps = 0;
     for (int e = 0; e < table.entries; e++) {
-      int j = table.piece[e];
-      int at = SettledPieces.STRIDE * e;
+      int j = table.restPiece[e];
+      int at = PackedRecords.REST_STRIDE * e;
       if (!pieces.uniform[j]) {
         continue;
       }
       steps++;
-      double left = table.data[at + SettledPieces.LEFT];
-      double width = table.data[at + SettledPieces.WIDTH];
-      double top = -table.data[at + SettledPieces.DROP];
+      double left = table.restRecords[at + PackedRecords.REST_LEFT];
+      double width = table.restRecords[at + PackedRecords.REST_WIDTH];
+      double top = -table.restRecords[at + PackedRecords.REST_DROP];
       for (int i = 0; i <= 20; i++) {
         double x = left + i / 20.0 * width;
         // the hull u of this piece (at a shared end the next piece's line may differ)
@@ -232,7 +232,7 @@ class SettledPiecesTest {
     RandomGenerator rng = rng(1234);
     double[] draws = new double[N];
     for (int i = 0; i < N; i++) {
-      draws[i] = table.drawUnderHull(rng, pieces);
+      draws[i] = HullSnapshots.drawUnderHull(table, rng, pieces);
     }
     double totalMass = linearHullMass(pieces, pieces.size - 1, pieces.right[pieces.size - 1]);
     int last = pieces.size - 1;
@@ -376,7 +376,7 @@ class SettledPiecesTest {
     assertNotNull(table, "a flat hull settles at once");
     assertEquals(2, table.entries, "the end pieces only");
     for (int e = 0; e < table.entries; e++) {
-      assertEquals(0.0, table.data[SettledPieces.STRIDE * e + SettledPieces.FLOOR], "whole piece");
+      assertEquals(0.0, table.restRecords[PackedRecords.REST_STRIDE * e + PackedRecords.REST_FLOOR], "whole piece");
     }
     double p = flat.reference().ksPValue(draws);
     assertTrue(p >= ALPHA, "KS p-value " + p);
@@ -398,11 +398,11 @@ class SettledPiecesTest {
     SettledPieces table = table(settled(Target.normal(0, 1), false));
     int c = 0;
     int at = 0;
-    while (Double.isNaN(table.column[at]) || table.column[at + SettledPieces.CUT] < 1) {
-      at = SettledPieces.COLUMN_STRIDE * ++c; // a fast column inside one rectangle
+    while (Double.isNaN(table.columnRecords[at]) || table.columnRecords[at + PackedRecords.COLUMN_CUT] < 1) {
+      at = PackedRecords.COLUMN_STRIDE * ++c; // a fast column inside one rectangle
     }
-    double base = table.column[at];
-    double span = table.column[at + SettledPieces.SPAN];
+    double base = table.columnRecords[at];
+    double span = table.columnRecords[at + PackedRecords.COLUMN_SPAN];
     long column = (long) c << table.columnShift;
     assertEquals(base, table.fastPoint(column), "low bits 0: the column's left end");
     double top = table.fastPoint(column | SettledPieces.POINT_MASK);

@@ -162,7 +162,7 @@ class UpperHullProperties {
     assertEquals(snapshot.segmentCount(), hull.size(), "pieces of the hull");
     double[] draws = new double[5000];
     for (int i = 0; i < draws.length; i++) {
-      draws[i] = snapshot.drawFromHull(rng);
+      draws[i] = HullSnapshots.drawFromHull(snapshot, rng);
     }
     double p = CdfReference.of(hull::cdf).ksPValue(draws);
     assertTrue(p >= 1e-5, "KS p-value " + p + " of hull draws against the rebuilt hull's CDF");
