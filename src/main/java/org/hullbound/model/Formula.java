@@ -14,8 +14,29 @@ import org.hullbound.lang.SourcePosition;
  */
 sealed interface Formula {
 
-  /** A known number; {@code origin} is the data cell it came from, or {@code null}. */
-  record Constant(double value, SourcePosition origin) implements Formula {}
+  /**
+   * A known number; element {@code element} of {@code cells} is the data cell it came from, or
+   * {@code cells} is {@code null}.
+   *
+   * <p>The cell's position is worked out when a message asks for it ({@link #origin()}), not held:
+   * a model bound to millions of rows has one constant per data value it reads, and one {@link
+   * SourcePosition} each would cost more than the constant.
+   */
+  record Constant(double value, Cells cells, int element) implements Formula {
+
+    /** The data cell this number came from, or {@code null} for a number of the model itself. */
+    SourcePosition origin() {
+      return cells == null ? null : cells.at(element);
+    }
+  }
+
+  /**
+   * Where the elements of one data name were written, looked up by element; one instance per
+   * data name, shared by all its constants.
+   */
+  interface Cells {
+    SourcePosition at(int element);
+  }
 
   /** The unknown in slot {@code index} of the state vector. */
   record Slot(int index) implements Formula {}
@@ -28,7 +49,7 @@ sealed interface Formula {
   }
 
   static Constant constant(double value) {
-    return new Constant(value, null);
+    return new Constant(value, null, -1);
   }
 
   /** Adds every slot this formula reads to {@code into}. */

@@ -9,11 +9,13 @@ import org.hullbound.model.family.Parametrisation;
  * truncated to {@code [lower, upper]}, with value and arguments resolved to {@link Formula}s.
  *
  * <p>{@code owner} is the slot whose prior (or, for a missing observation, whose own likelihood)
- * this term is, or -1 for an observed data value. {@code label} names the element, as in {@code
- * survived[3]}.
+ * this term is, or -1 for an observed data value. Element {@code element} of {@code names} is the
+ * element the term is about; its label ({@code survived[3]}) is made when a message asks for it,
+ * not held, as a model may have a term for each of millions of rows.
  */
 record Term(
-    String label,
+    ElementNames names,
+    int element,
     Parametrisation family,
     Formula value,
     List<Formula> arguments,
@@ -24,6 +26,11 @@ record Term(
     SourcePosition position) {
   Term {
     arguments = List.copyOf(arguments);
+  }
+
+  /** The element's name, as in {@code survived[3]}. */
+  String label() {
+    return names.label(element);
   }
 
   String familyName() {
