@@ -1211,7 +1211,8 @@ final class Binder {
       }
     }
     return new Term(
-        node.names(), e, p, value, args, truncated, lower, upper, slot, node.position());
+        node.names(), e, p, value, args, truncated ? new Term.Within(lower, upper) : null, slot,
+        node.position());
   }
 
   private double knownBound(Expression e, Map<String, Integer> env, String which) {

@@ -19,13 +19,28 @@ record Term(
     Parametrisation family,
     Formula value,
     List<Formula> arguments,
-    boolean truncated,
-    double lower,
-    double upper,
+    Within within,
     int owner,
     SourcePosition position) {
   Term {
     arguments = List.copyOf(arguments);
+  }
+
+  /** The bounds of {@code within lower .. upper}; a term not truncated holds none. */
+  record Within(double lower, double upper) {}
+
+  boolean truncated() {
+    return within != null;
+  }
+
+  /** The lower truncation bound, -infinity when not truncated. */
+  double lower() {
+    return within == null ? Double.NEGATIVE_INFINITY : within.lower();
+  }
+
+  /** The upper truncation bound, +infinity when not truncated. */
+  double upper() {
+    return within == null ? Double.POSITIVE_INFINITY : within.upper();
   }
 
   /** The element's name, as in {@code survived[3]}. */
