@@ -1198,7 +1198,7 @@ final class Binder {
       value = slot(slot);
     } else {
       double y = node.values[e];
-      value = new Formula.Constant(y, cells(node), e);
+      value = Formula.constant(y);
       String problem = outsideSupport(y, p, known, allKnown);
       if (problem == null && truncated && !(y >= lower && y <= upper)) {
         problem = "it lies outside within " + number(lower) + " .. " + number(upper);
@@ -1211,7 +1211,7 @@ final class Binder {
       }
     }
     return new Term(
-        node.names(), e, p, value, args, truncated ? new Term.Within(lower, upper) : null, slot,
+        node.names(), e, slot >= 0 ? null : cells(node), p, value, args, truncated ? new Term.Within(lower, upper) : null, slot,
         node.position());
   }
 

@@ -48,8 +48,26 @@ sealed interface Formula {
     }
   }
 
+  /** The number {@code value}, not from a data cell; small whole numbers are shared. */
   static Constant constant(double value) {
+    if (value >= 0 && value < SmallWholeNumbers.COUNT && value == Math.rint(value)
+        && Double.doubleToRawLongBits(value) != Double.doubleToRawLongBits(-0.0)) {
+      return SmallWholeNumbers.ALL.get((int) value);
+    }
     return new Constant(value, null, -1);
+  }
+
+  /**
+   * One constant for each of 0 .. 1023: observed counts and 0/1 outcomes, one per row, then
+   * cost no object each.
+   */
+  final class SmallWholeNumbers {
+    static final int COUNT = 1024;
+    static final List<Constant> ALL =
+        java.util.stream.IntStream.range(0, COUNT).mapToObj(k -> new Constant(k, null, -1))
+            .toList();
+
+    private SmallWholeNumbers() {}
   }
 
   /** Adds every slot this formula reads to {@code into}. */

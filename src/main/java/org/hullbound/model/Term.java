@@ -11,11 +11,14 @@ import org.hullbound.model.family.Parametrisation;
  * <p>{@code owner} is the slot whose prior (or, for a missing observation, whose own likelihood)
  * this term is, or -1 for an observed data value. Element {@code element} of {@code names} is the
  * element the term is about; its label ({@code survived[3]}) is made when a message asks for it,
- * not held, as a model may have a term for each of millions of rows.
+ * not held, as a model may have a term for each of millions of rows. For observed data, {@code
+ * cells} says where its value was written ({@link #valueCell}), so that the value itself can be a
+ * shared constant; {@code null} for the term of an unknown.
  */
 record Term(
     ElementNames names,
     int element,
+    Formula.Cells cells,
     Parametrisation family,
     Formula value,
     List<Formula> arguments,
@@ -41,6 +44,11 @@ record Term(
   /** The upper truncation bound, +infinity when not truncated. */
   double upper() {
     return within == null ? Double.POSITIVE_INFINITY : within.upper();
+  }
+
+  /** The data cell of an observed value, or {@code null}. */
+  SourcePosition valueCell() {
+    return cells == null ? null : cells.at(element);
   }
 
   /** The element's name, as in {@code survived[3]}. */
