@@ -11,6 +11,7 @@ import java.util.Map;
 import java.util.Optional;
 import java.util.Set;
 import java.util.TreeSet;
+import java.util.function.IntUnaryOperator;
 import java.util.function.Predicate;
 import org.hullbound.lang.Argument;
 import org.hullbound.lang.Declarator;
@@ -61,6 +62,7 @@ final class Binder {
   private final Map<Node, Formula[]> letCache = new HashMap<>();
   private final List<DataSummary> summaries = new ArrayList<>();
   private final Map<Node, List<ColumnBinding>> fileColumns = new HashMap<>();
+  private final Map<Node, Formula.Cells> cellsOf = new HashMap<>();
   private Formula.Slot[] slotFormulas = new Formula.Slot[16];
   private String modelName;
 
@@ -798,17 +800,50 @@ final class Binder {
    * the last column read into it (rows give the first index, the column the others).
    */
   private SourcePosition cellOf(Node node, int e) {
+    return cells(node).at(e);
+  }
+
+  /** The cells of data {@code node}, one instance per node, shared by all its constants. */
+  private Formula.Cells cells(Node node) {
+    return cellsOf.computeIfAbsent(node, this::newCells);
+  }
+
+  private Formula.Cells newCells(Node node) {
     if (node.cells != null) {
-      return node.cells[e];
+      SourcePosition[] inline = node.cells;
+      return e -> inline[e];
     }
-    int[] index = node.index(e);
-    ColumnBinding found = null;
+    List<FileCells.Column> columns = new ArrayList<>();
     for (ColumnBinding binding : fileColumns.getOrDefault(node, List.of())) {
-      if (Arrays.equals(binding.trailing(), 0, binding.trailing().length, index, 1, index.length)) {
-        found = binding;
-      }
+      DataTable table = binding.table();
+      columns.add(new FileCells.Column(
+          table.fileName(), table.lines(), binding.column() + 1, binding.trailing()));
     }
-    return found == null ? null : cellAt(found, index[0] - node.indexSets.get(0).lower());
+    return new FileCells(new ElementNames(node.name(), node.indexSets), List.copyOf(columns));
+  }
+
+  /**
+   * The cells of a data name read from files; holds the tables' row lines (shared, not copied),
+   * not the tables, so that a bound model does not keep its data files' values alive.
+   */
+  private record FileCells(ElementNames names, List<Column> columns) implements Formula.Cells {
+    record Column(String fileName, IntUnaryOperator lines, int column, int[] trailing) {}
+
+    @Override
+    public SourcePosition at(int e) {
+      int[] index = names.index(e);
+      Column found = null;
+      for (Column c : columns) {
+        if (Arrays.equals(c.trailing(), 0, c.trailing().length, index, 1, index.length)) {
+          found = c;
+        }
+      }
+      if (found == null) {
+        return null;
+      }
+      int row = index[0] - names.indexSets().get(0).lower();
+      return new SourcePosition(found.fileName(), found.lines().applyAsInt(row), found.column());
+    }
   }
 
   private String exampleColumn(Node node) {
@@ -998,7 +1033,7 @@ final class Binder {
         if (node.missing[offset]) {
           return slot(node.slots[offset]);
         }
-        return new Formula.Constant(node.values[offset], cellOf(node, offset));
+        return new Formula.Constant(node.values[offset], cells(node), offset);
       case PARAM:
         return slot(node.slots[offset]);
       default:
@@ -1119,7 +1154,6 @@ final class Binder {
       args.add(f);
       allKnown &= f.known();
     }
-    String label = node.label(e);
     double[] known = new double[args.size()];
     for (int k = 0; k < known.length; k++) {
       known[k] = args.get(k) instanceof Formula.Constant c ? c.value() : Double.NaN;
@@ -1131,7 +1165,7 @@ final class Binder {
         SourcePosition origin = ((Formula.Constant) args.get(k)).origin();
         throw error(
             origin != null ? origin : node.argumentExpressions[k].position(),
-            "invalid arguments of " + p.family().name() + " for '" + label + "': " + problem,
+            "invalid arguments of " + p.family().name() + " for '" + node.label(e) + "': " + problem,
             null);
       }
     }
@@ -1140,7 +1174,7 @@ final class Binder {
       if (problem != null) {
         throw error(
             node.argumentExpressions[0].position(),
-            "invalid arguments of " + p.family().name() + " for '" + label + "': " + problem,
+            "invalid arguments of " + p.family().name() + " for '" + node.label(e) + "': " + problem,
             null);
       }
     }
@@ -1164,19 +1198,21 @@ final class Binder {
       value = slot(slot);
     } else {
       double y = node.values[e];
-      SourcePosition cell = cellOf(node, e);
-      value = new Formula.Constant(y, cell);
+      value = Formula.constant(y);
       String problem = outsideSupport(y, p, known, allKnown);
       if (problem == null && truncated && !(y >= lower && y <= upper)) {
         problem = "it lies outside within " + number(lower) + " .. " + number(upper);
       }
       if (problem != null) {
+        SourcePosition cell = cellOf(node, e);
         SourcePosition at = cell != null ? cell : node.position();
-        throw error(at, "'" + label + "' = " + number(y) + " is not a valid value of "
+        throw error(at, "'" + node.label(e) + "' = " + number(y) + " is not a valid value of "
             + p.family().name() + ": " + problem, null);
       }
     }
-    return new Term(label, p, value, args, truncated, lower, upper, slot, node.position());
+    return new Term(
+        node.names(), e, slot >= 0 ? null : cells(node), p, value, args, truncated ? new Term.Within(lower, upper) : null, slot,
+        node.position());
   }
 
   private double knownBound(Expression e, Map<String, Integer> env, String which) {

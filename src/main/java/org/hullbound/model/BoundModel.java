@@ -1,6 +1,7 @@
 package org.hullbound.model;
 
 import java.util.ArrayList;
+import java.util.Arrays;
 import java.util.LinkedHashSet;
 import java.util.List;
 import java.util.Map;
@@ -66,10 +67,12 @@ public final class BoundModel {
     this.data = List.copyOf(result.data());
     this.nodeCounts = Map.copyOf(result.nodeCounts());
     int n = result.labels().size();
-    List<Set<Integer>> blanket = new ArrayList<>();
-    for (int s = 0; s < n; s++) {
-      blanket.add(new LinkedHashSet<>());
-    }
+    // Terms are visited in order and each adds itself once per slot it reads, so each slot's
+    // list is increasing without repeats; plain int arrays, as a set of boxed indexes per slot
+    // cost about 60 bytes per term and slot on a model of millions of rows.
+    int[][] blanket = new int[n][];
+    int[] blanketSize = new int[n];
+    Arrays.fill(blanket, new int[0]);
     Set<Integer> read = new LinkedHashSet<>();
     for (int t = 0; t < terms.size(); t++) {
       Term term = terms.get(t);
@@ -80,7 +83,10 @@ public final class BoundModel {
       }
       for (int s : read) {
         if (s != term.owner()) {
-          blanket.get(s).add(t);
+          if (blanketSize[s] == blanket[s].length) {
+            blanket[s] = Arrays.copyOf(blanket[s], Math.max(4, 2 * blanket[s].length));
+          }
+          blanket[s][blanketSize[s]++] = t;
         }
       }
     }
@@ -93,7 +99,8 @@ public final class BoundModel {
     this.smooth = new boolean[n];
     List<Unknown> list = new ArrayList<>();
     for (int s = 0; s < n; s++) {
-      dependents[s] = blanket.get(s).stream().mapToInt(Integer::intValue).toArray();
+      dependents[s] = Arrays.copyOf(blanket[s], blanketSize[s]);
+      blanket[s] = null;
       Term own = terms.get(ownTerm[s]);
       List<Term> children = dependentTerms(s);
       boolean discrete = own.family().discrete();

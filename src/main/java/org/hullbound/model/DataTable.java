@@ -2,6 +2,7 @@ package org.hullbound.model;
 
 import java.util.Arrays;
 import java.util.List;
+import java.util.function.IntUnaryOperator;
 import java.util.function.Predicate;
 import org.hullbound.lang.ModelException;
 import org.hullbound.lang.SourcePosition;
@@ -91,6 +92,15 @@ public final class DataTable {
       throw new IndexOutOfBoundsException("row " + row + " of " + rowCount);
     }
     return lineChunks[row >>> CHUNK_BITS][row & (CHUNK - 1)];
+  }
+
+  /**
+   * The line of each data row, as {@link #line}, reading the table's row lines (not a copy) and
+   * holding nothing else of the table.
+   */
+  IntUnaryOperator lines() {
+    int[][] chunks = lineChunks;
+    return row -> chunks[row >>> CHUNK_BITS][row & (CHUNK - 1)];
   }
 
   /** Whether column {@code column} (0-based, as in the header) was kept when reading. */

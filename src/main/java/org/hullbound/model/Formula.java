@@ -14,8 +14,29 @@ import org.hullbound.lang.SourcePosition;
  */
 sealed interface Formula {
 
-  /** A known number; {@code origin} is the data cell it came from, or {@code null}. */
-  record Constant(double value, SourcePosition origin) implements Formula {}
+  /**
+   * A known number; element {@code element} of {@code cells} is the data cell it came from, or
+   * {@code cells} is {@code null}.
+   *
+   * <p>The cell's position is worked out when a message asks for it ({@link #origin()}), not held:
+   * a model bound to millions of rows has one constant per data value it reads, and one {@link
+   * SourcePosition} each would cost more than the constant.
+   */
+  record Constant(double value, Cells cells, int element) implements Formula {
+
+    /** The data cell this number came from, or {@code null} for a number of the model itself. */
+    SourcePosition origin() {
+      return cells == null ? null : cells.at(element);
+    }
+  }
+
+  /**
+   * Where the elements of one data name were written, looked up by element; one instance per
+   * data name, shared by all its constants.
+   */
+  interface Cells {
+    SourcePosition at(int element);
+  }
 
   /** The unknown in slot {@code index} of the state vector. */
   record Slot(int index) implements Formula {}
@@ -27,8 +48,26 @@ sealed interface Formula {
     }
   }
 
+  /** The number {@code value}, not from a data cell; small whole numbers are shared. */
   static Constant constant(double value) {
-    return new Constant(value, null);
+    if (value >= 0 && value < SmallWholeNumbers.COUNT && value == Math.rint(value)
+        && Double.doubleToRawLongBits(value) != Double.doubleToRawLongBits(-0.0)) {
+      return SmallWholeNumbers.ALL.get((int) value);
+    }
+    return new Constant(value, null, -1);
+  }
+
+  /**
+   * One constant for each of 0 .. 1023: observed counts and 0/1 outcomes, one per row, then
+   * cost no object each.
+   */
+  final class SmallWholeNumbers {
+    static final int COUNT = 1024;
+    static final List<Constant> ALL =
+        java.util.stream.IntStream.range(0, COUNT).mapToObj(k -> new Constant(k, null, -1))
+            .toList();
+
+    private SmallWholeNumbers() {}
   }
 
   /** Adds every slot this formula reads to {@code into}. */

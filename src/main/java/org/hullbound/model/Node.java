@@ -43,6 +43,7 @@ final class Node {
   SourcePosition[] cells;
   int[] slots;
   String source;
+  private ElementNames names;
 
   Node(
       Kind kind,
@@ -79,26 +80,20 @@ final class Node {
 
   /** The index values of element {@code offset}. */
   int[] index(int offset) {
-    int[] index = new int[indexSets.size()];
-    for (int i = index.length - 1; i >= 0; i--) {
-      IndexSet set = indexSets.get(i);
-      index[i] = set.lower() + offset % set.size();
-      offset /= set.size();
-    }
-    return index;
+    return ElementNames.index(indexSets, offset);
   }
 
   /** {@code name[i, j]}, or the bare name for a scalar. */
   String label(int offset) {
-    if (indexSets.isEmpty()) {
-      return name();
+    return ElementNames.label(name(), indexSets, offset);
+  }
+
+  /** The names of this node's elements, made once its index sets are final (at the terms). */
+  ElementNames names() {
+    if (names == null) {
+      names = new ElementNames(name(), indexSets);
     }
-    StringBuilder text = new StringBuilder(name()).append('[');
-    int[] index = index(offset);
-    for (int i = 0; i < index.length; i++) {
-      text.append(i == 0 ? "" : ", ").append(index[i]);
-    }
-    return text.append(']').toString();
+    return names;
   }
 
   String kindWord() {

@@ -119,7 +119,7 @@ public final class PriorSimulation {
       double[] args = evaluate(observedArguments[t], frame);
       double y = draw(term, args, rng, "the likelihood of ");
       SourcePosition origin =
-          term.value() instanceof Formula.Constant c ? c.origin() : term.position();
+          term.value() instanceof Formula.Constant ? term.valueCell() : term.position();
       values.add(new SimulatedValue(term.label(), origin, y));
     }
     return values;

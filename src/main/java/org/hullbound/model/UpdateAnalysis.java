@@ -182,7 +182,6 @@ final class UpdateAnalysis {
           moving.add(k);
         }
       }
-      String term = t.familyName() + " term " + t.label();
       if (moving.isEmpty()) {
         continue;
       }
@@ -194,12 +193,12 @@ final class UpdateAnalysis {
         return new Verdict(
             false,
             "not provably log-concave" + where + ": the unknown enters both "
-                + String.join(" and ", names) + " of " + term);
+                + String.join(" and ", names) + " of " + termName(t));
       }
       if (t.truncated()) {
         return new Verdict(
             false,
-            "not provably log-concave" + where + ": " + term
+            "not provably log-concave" + where + ": " + termName(t)
                 + " is truncated and its normaliser moves with the unknown");
       }
       int k = moving.get(0);
@@ -230,7 +229,7 @@ final class UpdateAnalysis {
       if (argumentScale == null) {
         return new Verdict(
             false,
-            "not provably log-concave" + where + ": " + argumentName + " of " + term
+            "not provably log-concave" + where + ": " + argumentName + " of " + termName(t)
                 + " is not an affine (or log-affine) function of the unknown");
       }
       Curvature c = t.family().curvatureInArgument(k, argumentScale, t.knownArguments());
@@ -255,5 +254,10 @@ final class UpdateAnalysis {
       reason.append("; ").append(piece);
     }
     return new Verdict(true, reason.toString());
+  }
+
+  /** {@code bernoulli term recovered[3]}: made only for a message, as labels are not held. */
+  private static String termName(Term t) {
+    return t.familyName() + " term " + t.label();
   }
 }
