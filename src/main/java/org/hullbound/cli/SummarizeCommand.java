@@ -14,6 +14,7 @@ import org.hullbound.io.AtomicFiles;
 import org.hullbound.io.DrawsReader;
 import org.hullbound.io.DrawsTable;
 import org.hullbound.lang.NameSuggestion;
+import org.hullbound.lang.NumberSyntax;
 import org.hullbound.report.SummaryTable;
 import org.hullbound.report.Verdicts;
 import picocli.CommandLine;
@@ -127,7 +128,7 @@ public final class SummarizeCommand implements Callable<Integer> {
     if (csvFile != null) {
       AtomicFiles.write(csvFile, table.csv());
     }
-    stdout.print(table.text());
+    stdout.print(table.text(maxRhat, minEss));
     stdout.println();
     for (String line : Verdicts.of(table, maxRhat, minEss).lines()) {
       stdout.println(line);
@@ -142,10 +143,10 @@ public final class SummarizeCommand implements Callable<Integer> {
 
   private String checkOptions() {
     if (!(maxRhat > 1) || Double.isInfinite(maxRhat)) {
-      return "--max-rhat must be a finite number above 1, got " + maxRhat;
+      return "--max-rhat must be a finite number above 1, got " + NumberSyntax.written(maxRhat);
     }
     if (!(minEss > 0) || Double.isInfinite(minEss)) {
-      return "--min-ess must be a finite number above 0, got " + minEss;
+      return "--min-ess must be a finite number above 0, got " + NumberSyntax.written(minEss);
     }
     if (ReportCommand.levelProblem(level) != null) {
       return ReportCommand.levelProblem(level);

@@ -196,7 +196,15 @@ public final class SummaryTable {
    * numbers right-aligned, NaN shown as "n/a". Lines end with {@code \n}.
    */
   public String text() {
-    List<Column> columns = textColumns();
+    return text(Verdicts.DEFAULT_MAX_RHAT, Verdicts.DEFAULT_MIN_ESS);
+  }
+
+  /**
+   * The aligned text table with the verdict mark judged at the given thresholds, so that the mark
+   * agrees with verdict lines made by {@link Verdicts#of(SummaryTable, double, double)}.
+   */
+  public String text(double maxRhat, double minEss) {
+    List<Column> columns = textColumns(maxRhat, minEss);
     List<String[]> cells = new ArrayList<>();
     for (VariableSummary summary : summaries) {
       String[] row = new String[columns.size()];
@@ -292,9 +300,9 @@ public final class SummaryTable {
     }
   }
 
-  private List<Column> textColumns() {
+  private List<Column> textColumns(double maxRhat, double minEss) {
     Set<String> doubtful = new HashSet<>();
-    for (Verdict verdict : Verdicts.of(this).verdicts()) {
+    for (Verdict verdict : Verdicts.of(this, maxRhat, minEss).verdicts()) {
       if (verdict.kind() != Verdict.Kind.FALLBACK_USED
           && verdict.kind() != Verdict.Kind.SWITCHED_TO_FALLBACK) {
         doubtful.add(verdict.unknown());

@@ -122,6 +122,12 @@ class SummarizeCommandTest {
     assertEquals(0, run.exit(), run.toString());
     assertTrue(run.out().contains("mu: few effective draws in the bulk"), run.out());
     assertTrue(run.out().contains("< 100000"), run.out());
+    // The table's verdict mark is judged at the same thresholds as the verdict lines: sigma passes
+    // the default minimum of 400 but not 100000.
+    assertTrue(run.out().contains("sigma: few effective draws"), run.out());
+    String sigmaRow =
+        run.out().lines().filter(line -> line.startsWith("sigma ")).findFirst().orElseThrow();
+    assertTrue(sigmaRow.contains("  check"), sigmaRow);
   }
 
   @Test
@@ -137,7 +143,7 @@ class SummarizeCommandTest {
     assertTrue(ess.err().contains("'NaN' is not a number"), ess.err());
     CliRun infinite = CliRun.of("summarize", drawsFile.toString(), "--min-ess", "inf");
     assertEquals(2, infinite.exit());
-    assertTrue(infinite.err().contains("--min-ess must be a finite number above 0, got Infinity"),
+    assertTrue(infinite.err().contains("--min-ess must be a finite number above 0, got inf"),
         infinite.err());
     CliRun unknown = CliRun.of("summarize", drawsFile.toString(), "--columns", "mu,sigam");
     assertEquals(2, unknown.exit());
