@@ -35,7 +35,7 @@ public record ReportOptions(
   public static final int DEFAULT_PLOT_CAP = 50;
 
   /** Default probability of the central intervals. */
-  public static final double DEFAULT_INTERVAL_LEVEL = 0.95;
+  public static final double DEFAULT_INTERVAL_LEVEL = SummaryTable.INTERVAL_LEVEL;
 
   /** Checks every option against its least sensible value. */
   public ReportOptions {
