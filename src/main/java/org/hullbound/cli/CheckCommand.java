@@ -112,7 +112,7 @@ public final class CheckCommand implements Callable<Integer> {
       int fewest = Integer.MAX_VALUE;
       int most = 0;
       for (Unknown u : group) {
-        int n = model.dependentLabels(u.index()).size() + 1;
+        int n = model.dependentCount(u.index()) + 1;
         fewest = Math.min(fewest, n);
         most = Math.max(most, n);
       }

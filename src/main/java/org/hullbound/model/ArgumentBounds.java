@@ -110,7 +110,8 @@ final class ArgumentBounds {
       for (int k = 0; k < t.arguments().size(); k++) {
         Formula argument = t.arguments().get(k);
         ArgumentRange range = t.family().argumentRange(k);
-        if (!argument.reads(slot) || !range.bounded()) {
+        // The range first: it is a field, the formula a walk (once per row of the data).
+        if (!range.bounded() || !argument.reads(slot)) {
           continue;
         }
         Formula[] parts = null;

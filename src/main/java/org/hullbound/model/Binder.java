@@ -1007,16 +1007,15 @@ final class Binder {
             null);
       }
       double v = c.value();
-      SourcePosition blame = c.origin() != null ? c.origin() : indexExpression.position();
       if (v != Math.rint(v)) {
         throw error(
-            blame,
+            blame(c, indexExpression),
             "index " + v + " of '" + name + "' is not a whole number",
             "'" + name + "' is indexed by '" + expected.name() + "' (" + expected.range() + ")");
       }
       if (!expected.contains(v)) {
         throw error(
-            blame,
+            blame(c, indexExpression),
             "index value " + (long) v + " is outside index set '" + expected.name() + "' ("
                 + expected.range() + "), which indexes '" + name + "'",
             null);
@@ -1047,6 +1046,15 @@ final class Binder {
         }
         return cache[offset];
     }
+  }
+
+  /**
+   * The data cell an index value came from, or the index expression: worked out only for a
+   * message, as finding a cell's line costs more than resolving the index (once per row).
+   */
+  private static SourcePosition blame(Formula.Constant index, Expression indexExpression) {
+    SourcePosition origin = index.origin();
+    return origin != null ? origin : indexExpression.position();
   }
 
   /**

@@ -109,11 +109,12 @@ public final class BoundModel {
       cuts[s] = ArgumentBounds.of(s, own, children,
           support[0] instanceof Formula.Constant c ? c.value() : Double.NaN,
           support[1] instanceof Formula.Constant c ? c.value() : Double.NaN);
+      boolean smoothTerms = UpdateAnalysis.smooth(s, own, children);
       UpdateAnalysis.Choice choice =
-          UpdateAnalysis.choose(s, own, children, discrete, imputed, cuts[s]);
+          UpdateAnalysis.choose(s, own, children, discrete, imputed, cuts[s], smoothTerms);
       updates[s] = choice.update();
       singleUpdates[s] = choice.update();
-      smooth[s] = UpdateAnalysis.smooth(s, own, children) && !discrete;
+      smooth[s] = smoothTerms && !discrete;
       lowerBounds[s] = support[0];
       upperBounds[s] = support[1];
       list.add(
@@ -328,6 +329,15 @@ public final class BoundModel {
   public Update singleUpdate(int index) {
     checkIndex(index);
     return singleUpdates[index];
+  }
+
+  /**
+   * How many terms depend on unknown {@code index} (its blanket without itself): {@code check}
+   * shows the count, and {@link #dependentLabels} would make a label per row to count them.
+   */
+  public int dependentCount(int index) {
+    checkIndex(index);
+    return dependents[index].length;
   }
 
   /** Labels of the terms that depend on unknown {@code index} (its blanket without itself). */

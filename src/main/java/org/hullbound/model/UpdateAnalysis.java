@@ -64,8 +64,17 @@ final class UpdateAnalysis {
 
   static Choice choose(int slot, Term own, List<Term> dependents, boolean discrete,
       boolean imputed, ArgumentBounds cuts) {
+    return choose(slot, own, dependents, discrete, imputed, cuts,
+        smooth(slot, own, dependents));
+  }
+
+  /**
+   * As above with {@code smooth} ({@link #smooth}) already known: it walks every term's formulas,
+   * so a caller that needs it too computes it once (an intercept of millions of rows).
+   */
+  static Choice choose(int slot, Term own, List<Term> dependents, boolean discrete,
+      boolean imputed, ArgumentBounds cuts, boolean smooth) {
     List<Scale> scales = candidates(own, own.truncated(), discrete);
-    boolean smooth = smooth(slot, own, dependents);
     Update.Conjugate conjugate = ConjugatePairs.detect(slot, own, dependents, imputed);
     Verdict first = null;
     Scale chosen = null;
