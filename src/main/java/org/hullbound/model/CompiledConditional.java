@@ -19,6 +19,17 @@ import org.hullbound.model.family.Scale;
  * <p>The support is the own term's, cut by {@link ArgumentBounds} to where the dependent terms'
  * arguments stay in range; a moving argument outside its range (at a point no bound foresaw)
  * makes the value {@code -inf}, as the density is zero there.
+ *
+ * <p>Cheap evaluations (common practice in Gibbs samplers for generalised linear models): within
+ * one draw only the unknown moves, so each part of a term (its value and each argument) that is
+ * affine in it, {@code a + b x}, has {@code a} and {@code b} worked out once per draw from the
+ * other unknowns, and a part that does not read it is a number for the whole draw; an evaluation
+ * then costs one multiply-add per moving part and the family's log-density. A draw is recognised
+ * by its inputs, not by a call from the driver: each thread keeps a {@link Workspace} with the
+ * values of the other unknowns the terms read when the parts were worked out, and any change
+ * (compared bit for bit) works them out again, so a stale part can never be used. Parts that are
+ * not affine in the unknown are evaluated as compiled trees at every call. Nothing is allocated
+ * per evaluation: the workspace's frame is reused.
  */
 final class CompiledConditional implements ConditionalDensity {
   private final Unknown unknown;
@@ -35,6 +46,12 @@ final class CompiledConditional implements ConditionalDensity {
   private final double constantLower;
   private final double constantUpper;
   private final boolean smooth;
+  /** The other unknowns' slots that the terms read, each once: a draw's inputs. */
+  private final int[] inputs;
+  /** Where each term's parts start in a workspace's part arrays. */
+  private final int[] firstPart;
+  private final int partCount;
+  private final ThreadLocal<Workspace> workspaces = ThreadLocal.withInitial(Workspace::new);
 
   CompiledConditional(
       Unknown unknown, List<Term> blanket, Formula lower, Formula upper, ArgumentBounds cuts,
@@ -61,6 +78,59 @@ final class CompiledConditional implements ConditionalDensity {
     this.constantUpper = upper instanceof Formula.Constant c && cuts.fixed()
         ? toSamplingScale(Math.min(c.value(), cuts.upper(none))) : Double.NaN;
     this.smooth = smooth;
+    java.util.Set<Integer> read = new java.util.TreeSet<>();
+    for (Term t : blanket) {
+      t.value().collectSlots(read);
+      for (Formula a : t.arguments()) {
+        a.collectSlots(read);
+      }
+    }
+    read.remove(slot);
+    this.inputs = read.stream().mapToInt(Integer::intValue).toArray();
+    this.firstPart = new int[terms.length];
+    int parts = 0;
+    for (int i = 0; i < terms.length; i++) {
+      firstPart[i] = parts;
+      parts += 1 + terms[i].arity;
+    }
+    this.partCount = parts;
+  }
+
+  /**
+   * One thread's scratch space: a reused frame, the inputs the parts were worked out at, and each
+   * part's {@code a} and {@code b} ({@code part = a + b x}) for the current draw.
+   */
+  private final class Workspace {
+    final Frame frame = new Frame(Double.NaN, null, aritiesUsed);
+    final double[] inputValues = new double[inputs.length];
+    final double[] intercepts = new double[partCount];
+    final double[] slopes = new double[partCount];
+    boolean ready;
+
+    /** Works the parts out again unless every input holds the bits it held last time. */
+    void prepare(double[] state) {
+      if (ready && sameInputs(state)) {
+        return;
+      }
+      frame.at(Double.NaN, state);
+      for (int i = 0; i < terms.length; i++) {
+        terms[i].prepare(frame, intercepts, slopes, firstPart[i]);
+      }
+      for (int j = 0; j < inputs.length; j++) {
+        inputValues[j] = state[inputs[j]];
+      }
+      ready = true;
+    }
+
+    private boolean sameInputs(double[] state) {
+      for (int j = 0; j < inputs.length; j++) {
+        if (Double.doubleToRawLongBits(state[inputs[j]])
+            != Double.doubleToRawLongBits(inputValues[j])) {
+          return false;
+        }
+      }
+      return true;
+    }
   }
 
   @Override
@@ -85,8 +155,23 @@ final class CompiledConditional implements ConditionalDensity {
 
   @Override
   public double logDensity(double u, double[] state, double[] slope) {
+    Workspace workspace = workspaces.get();
+    workspace.prepare(state);
+    return logDensity(u, state, slope, workspace);
+  }
+
+  /**
+   * The same value and slope with every part evaluated as a compiled tree at this call, nothing
+   * kept from earlier calls: the reference that {@link #logDensity} must equal (to rounding).
+   */
+  double logDensityFromScratch(double u, double[] state, double[] slope) {
+    return logDensity(u, state, slope, null);
+  }
+
+  private double logDensity(double u, double[] state, double[] slope, Workspace workspace) {
     double x = toNatural(u);
-    Frame frame = new Frame(x, state, aritiesUsed);
+    Frame frame = workspace == null
+        ? new Frame(x, state, aritiesUsed) : workspace.frame.at(x, state);
     double lo = lower.eval(frame);
     double hi = upper.eval(frame);
     if (!(x >= lo && x <= hi)) {
@@ -98,8 +183,10 @@ final class CompiledConditional implements ConditionalDensity {
     double total = 0;
     double dx = 0;
     double du = 0;
-    for (TermEvaluator term : terms) {
-      total += term.eval(frame);
+    for (int i = 0; i < terms.length; i++) {
+      TermEvaluator term = terms[i];
+      total += workspace == null ? term.eval(frame)
+          : term.eval(frame, workspace.intercepts, workspace.slopes, firstPart[i]);
       if (term.slopeOnSamplingScale) {
         du += frame.slope;
       } else {
@@ -200,6 +287,12 @@ final class CompiledConditional implements ConditionalDensity {
      */
     final boolean slopeOnSamplingScale;
     private final double power;
+    /**
+     * Per part (0 the value, 1 + k argument k): {@code a} and {@code b} of {@code a + b x} as
+     * trees free of the unknown, or both {@code null} for a part that is not affine in it.
+     */
+    private final Evaluator[] partIntercepts;
+    private final Evaluator[] partSlopes;
 
     TermEvaluator(Term term, int slot, Scale scale) {
       this.family = term.family();
@@ -233,6 +326,55 @@ final class CompiledConditional implements ConditionalDensity {
       this.slopeOnSamplingScale = scale == Scale.LOG && !valueMoves && !normalise
           && Double.isFinite(q) && q != 0;
       this.power = q;
+      this.partIntercepts = new Evaluator[1 + arity];
+      this.partSlopes = new Evaluator[1 + arity];
+      for (int p = 0; p <= arity; p++) {
+        Formula part = p == 0 ? term.value() : term.arguments().get(p - 1);
+        Formula[] affine = Formulas.affineParts(part, slot);
+        if (affine != null) {
+          partIntercepts[p] = Evaluator.compile(affine[0], -1);
+          partSlopes[p] = Evaluator.compile(affine[1], -1);
+        }
+      }
+    }
+
+    /** Works out {@code a} and {@code b} of each affine part at the frame's state. */
+    void prepare(Frame frame, double[] intercepts, double[] slopes, int first) {
+      for (int p = 0; p <= arity; p++) {
+        if (partIntercepts[p] != null) {
+          intercepts[first + p] = partIntercepts[p].eval(frame);
+          slopes[first + p] = partSlopes[p].eval(frame);
+        }
+      }
+    }
+
+    /** Part {@code p} at the frame's {@code x}, its slope left in {@code frame.slope}. */
+    private double part(int p, Frame frame, double[] intercepts, double[] slopes, int first) {
+      if (partIntercepts[p] == null) {
+        return p == 0 ? value.eval(frame) : args[p - 1].eval(frame);
+      }
+      double a = intercepts[first + p];
+      double b = slopes[first + p];
+      frame.slope = b;
+      // A part free of the unknown is its intercept; b * x is never formed, as 0 * inf is NaN.
+      return b == 0 ? a : a + b * frame.x;
+    }
+
+    /** As {@link #eval(Frame)}, with the affine parts taken from a prepared workspace. */
+    double eval(Frame frame, double[] intercepts, double[] slopes, int first) {
+      double y = part(0, frame, intercepts, slopes, first);
+      double dy = frame.slope;
+      double[] a = frame.args[arity];
+      double[] da = frame.argSlopes[arity];
+      for (int k = 0; k < arity; k++) {
+        a[k] = part(1 + k, frame, intercepts, slopes, first);
+        da[k] = frame.slope;
+        if (ranges[k] != null && !ranges[k].contains(a[k])) {
+          frame.slope = 0;
+          return Double.NEGATIVE_INFINITY;
+        }
+      }
+      return familyTerms(frame, y, dy, a, da);
     }
 
     double eval(Frame frame) {
@@ -248,6 +390,11 @@ final class CompiledConditional implements ConditionalDensity {
           return Double.NEGATIVE_INFINITY;
         }
       }
+      return familyTerms(frame, y, dy, a, da);
+    }
+
+    /** The family's log-density (and normaliser) at value {@code y} and arguments {@code a}. */
+    private double familyTerms(Frame frame, double y, double dy, double[] a, double[] da) {
       double[] g = frame.gradient[arity];
       double logDensity = family.logDensity(y, a, g);
       if (slopeOnSamplingScale) {

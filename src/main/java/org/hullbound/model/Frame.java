@@ -5,11 +5,13 @@ package org.hullbound.model;
  * state vector, the derivative register that every {@link Evaluator} writes its d/dx into, and
  * argument buffers for the family calls, one set per arity used.
  *
- * <p>Created per call, so compiled conditionals hold no mutable state and can be shared by chains.
+ * <p>Formulas evaluated once get a frame of their own; a compiled conditional keeps one per thread
+ * and points it at each call's value and state ({@link #at}), so that an evaluation allocates
+ * nothing and chains on other threads never share it.
  */
 final class Frame {
-  final double x;
-  final double[] state;
+  double x;
+  double[] state;
   /** d/dx of the value the last evaluator returned (forward-mode dual number, tangent part). */
   double slope;
 
@@ -22,6 +24,13 @@ final class Frame {
   /** A frame without family buffers, for evaluating formulas only. */
   Frame(double x, double[] state) {
     this(x, state, new boolean[0]);
+  }
+
+  /** This frame, now at natural value {@code x} and {@code state}. */
+  Frame at(double x, double[] state) {
+    this.x = x;
+    this.state = state;
+    return this;
   }
 
   Frame(double x, double[] state, boolean[] aritiesUsed) {
