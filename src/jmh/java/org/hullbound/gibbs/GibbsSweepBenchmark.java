@@ -22,7 +22,8 @@ import org.openjdk.jmh.annotations.TearDown;
 
 /**
  * Gibbs sweeps per second on the bundled logistic random-effects demo ({@code models/clinics.hbm}:
- * 36 clinics, 1200 patients, invented data), for hullbound's updates (adaptive rejection with warm
+ * 36 clinics, 1200 patients, invented data) and on it grown to 3,600 clinics and 120,000 patients
+ * ({@link GrownClinics}), for hullbound's updates (adaptive rejection with warm
  * starts) side by side with slice-within-Gibbs and random-walk-Metropolis-within-Gibbs baselines
  * on the same conditionals.
  *
@@ -43,6 +44,14 @@ public class GibbsSweepBenchmark {
   @Param({"adaptive-rejection", "slice", "random-walk-metropolis"})
   public String sampler;
 
+  /**
+   * {@code clinics} (the demo) or {@code clinics-grown} ({@link GrownClinics}: 3,600 clinics,
+   * 120,000 patients, with a tenth of the pilot and burn-in sweeps, as each sweep costs a hundred
+   * times more).
+   */
+  @Param({"clinics", "clinics-grown"})
+  public String model;
+
   private ChainKernel kernel;
   private RandomGenerator rng;
   private List<String> labels;
@@ -50,7 +59,9 @@ public class GibbsSweepBenchmark {
 
   @Setup(Level.Trial)
   public void setUp() throws IOException {
-    BoundModel model = DemoModel.load("clinics");
+    boolean grown = this.model.equals("clinics-grown");
+    BoundModel model = grown ? GrownClinics.load() : DemoModel.load(this.model);
+    int shorter = grown ? 10 : 1;
     ModelSampler gibbs = ModelSampler.of(model, Map.of());
     labels = gibbs.labels();
     RandomGenerator[] generators = ChainSeeds.split(20261201L, 2);
@@ -59,14 +70,15 @@ public class GibbsSweepBenchmark {
     // (then tuned toward 44% acceptance during burn-in).
     GibbsKernel pilot = gibbs.sampler().newChain(0, generators[0]);
     int n = labels.size();
-    double[][] pilotDraws = new double[n][400];
+    int pilotBurnIn = 200 / shorter;
+    double[][] pilotDraws = new double[n][400 / shorter];
     double[] state = new double[n];
-    for (int sweep = 0; sweep < 600; sweep++) {
+    for (int sweep = 0; sweep < pilotBurnIn + 400 / shorter; sweep++) {
       pilot.sweep(generators[0]);
-      if (sweep >= 200) {
+      if (sweep >= pilotBurnIn) {
         pilot.record(state);
         for (int i = 0; i < n; i++) {
-          pilotDraws[i][sweep - 200] = model.conditional(i).toSamplingScale(state[i]);
+          pilotDraws[i][sweep - pilotBurnIn] = model.conditional(i).toSamplingScale(state[i]);
         }
       }
     }
@@ -88,12 +100,12 @@ public class GibbsSweepBenchmark {
       case "random-walk-metropolis":
         kernel =
             WithinGibbsBaseline.of(
-                model, WithinGibbsBaseline.Kind.RANDOM_WALK, start, sd, BURN_IN);
+                model, WithinGibbsBaseline.Kind.RANDOM_WALK, start, sd, BURN_IN / shorter);
         break;
       default:
         throw new IllegalArgumentException("sampler must be one of the @Param values, got " + sampler);
     }
-    for (int sweep = 0; sweep < BURN_IN; sweep++) {
+    for (int sweep = 0; sweep < BURN_IN / shorter; sweep++) {
       kernel.sweep(rng);
     }
     record = SweepRecord.start(labels, MAX_KEPT);
@@ -121,7 +133,7 @@ public class GibbsSweepBenchmark {
     }
     System.out.printf(
         Locale.ROOT,
-        "%n[%s] sweeps kept %d; ess/sweep effect[1] %.4f; min ess/sweep %.4f (%s);"
+        "%n[%s, " + model + "] sweeps kept %d; ess/sweep effect[1] %.4f; min ess/sweep %.4f (%s);"
             + " evaluations per conditional draw %.2f; sweeps per cpu-second %.1f%s%n",
         sampler, record.keptDraws(), record.essPerSweep("effect[1]"), record.essPerSweep(weakest), weakest, evaluations,
         record.sweepsPerCpuSecond(),
