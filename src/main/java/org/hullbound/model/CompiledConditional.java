@@ -51,6 +51,18 @@ final class CompiledConditional implements ConditionalDensity {
   /** Where each term's parts start in a workspace's part arrays. */
   private final int[] firstPart;
   private final int partCount;
+  /**
+   * The parts whose {@code a} and {@code b} are linear in the other unknowns with known
+   * coefficients (a predictor over data covariates), kept flat: form {@code 2 part} is {@code
+   * a}, {@code 2 part + 1} is {@code b}, entries {@code formStart[f] .. formStart[f + 1]}.
+   */
+  private final boolean[] linearPart;
+  private final int[] formStart;
+  private final double[] formConstant;
+  private final int[] formSlot;
+  private final double[] formCoefficient;
+  /** The terms with an affine part whose {@code a} or {@code b} is a tree, not a linear form. */
+  private final int[] treePrepared;
   private final ThreadLocal<Workspace> workspaces = ThreadLocal.withInitial(Workspace::new);
 
   CompiledConditional(
@@ -94,6 +106,51 @@ final class CompiledConditional implements ConditionalDensity {
       parts += 1 + terms[i].arity;
     }
     this.partCount = parts;
+    this.linearPart = new boolean[parts];
+    this.formStart = new int[2 * parts + 1];
+    this.formConstant = new double[2 * parts];
+    int entries = 0;
+    for (int i = 0; i < terms.length; i++) {
+      for (int p = 0; p <= terms[i].arity; p++) {
+        for (int side = 0; side < 2; side++) {
+          Formulas.LinearForm form = terms[i].linearForms[2 * p + side];
+          entries += form == null ? 0 : form.slots().length;
+        }
+      }
+    }
+    this.formSlot = new int[entries];
+    this.formCoefficient = new double[entries];
+    int next = 0;
+    for (int i = 0; i < terms.length; i++) {
+      for (int p = 0; p <= terms[i].arity; p++) {
+        int part = firstPart[i] + p;
+        linearPart[part] = terms[i].linearForms[2 * p] != null;
+        for (int side = 0; side < 2; side++) {
+          int f = 2 * part + side;
+          formStart[f] = next;
+          Formulas.LinearForm form = terms[i].linearForms[2 * p + side];
+          if (form != null) {
+            formConstant[f] = form.constant();
+            System.arraycopy(form.slots(), 0, formSlot, next, form.slots().length);
+            System.arraycopy(form.coefficients(), 0, formCoefficient, next, form.slots().length);
+            next += form.slots().length;
+          }
+        }
+      }
+      terms[i].linearForms = null;
+    }
+    formStart[2 * parts] = next;
+    this.treePrepared = java.util.stream.IntStream.range(0, terms.length)
+        .filter(i -> terms[i].preparesTrees()).toArray();
+  }
+
+  /** {@code constant + sum of coefficient * state[slot]} of form {@code f}. */
+  private double linearValue(int f, double[] state) {
+    double value = formConstant[f];
+    for (int e = formStart[f]; e < formStart[f + 1]; e++) {
+      value += formCoefficient[e] * state[formSlot[e]];
+    }
+    return value;
   }
 
   /**
@@ -113,8 +170,14 @@ final class CompiledConditional implements ConditionalDensity {
         return;
       }
       frame.at(Double.NaN, state);
-      for (int i = 0; i < terms.length; i++) {
+      for (int i : treePrepared) {
         terms[i].prepare(frame, intercepts, slopes, firstPart[i]);
+      }
+      for (int part = 0; part < partCount; part++) {
+        if (linearPart[part]) {
+          intercepts[part] = linearValue(2 * part, state);
+          slopes[part] = linearValue(2 * part + 1, state);
+        }
       }
       for (int j = 0; j < inputs.length; j++) {
         inputValues[j] = state[inputs[j]];
@@ -293,6 +356,15 @@ final class CompiledConditional implements ConditionalDensity {
      */
     private final Evaluator[] partIntercepts;
     private final Evaluator[] partSlopes;
+    /** Per part: whether it is affine in the unknown (worked out once per draw). */
+    private final boolean[] affine;
+    /** Whether a moving argument has a bounded range to check at every evaluation. */
+    private final boolean checksRanges;
+    /**
+     * {@code a} and {@code b} of each part as linear forms ({@code 2 p}, {@code 2 p + 1}), both
+     * or neither; taken by the conditional into its flat arrays, then dropped.
+     */
+    Formulas.LinearForm[] linearForms;
 
     TermEvaluator(Term term, int slot, Scale scale) {
       this.family = term.family();
@@ -328,17 +400,46 @@ final class CompiledConditional implements ConditionalDensity {
       this.power = q;
       this.partIntercepts = new Evaluator[1 + arity];
       this.partSlopes = new Evaluator[1 + arity];
+      this.affine = new boolean[1 + arity];
+      boolean anyRange = false;
+      for (ArgumentRange range : ranges) {
+        anyRange |= range != null;
+      }
+      this.checksRanges = anyRange;
+      this.linearForms = new Formulas.LinearForm[2 * (1 + arity)];
       for (int p = 0; p <= arity; p++) {
         Formula part = p == 0 ? term.value() : term.arguments().get(p - 1);
-        Formula[] affine = Formulas.affineParts(part, slot);
-        if (affine != null) {
-          partIntercepts[p] = Evaluator.compile(affine[0], -1);
-          partSlopes[p] = Evaluator.compile(affine[1], -1);
+        Formula[] parts = Formulas.affineParts(part, slot);
+        if (parts == null) {
+          continue;
+        }
+        affine[p] = true;
+        Formulas.LinearForm a = Formulas.linearForm(parts[0]);
+        Formulas.LinearForm b = a == null ? null : Formulas.linearForm(parts[1]);
+        if (b != null) {
+          linearForms[2 * p] = a;
+          linearForms[2 * p + 1] = b;
+        } else {
+          partIntercepts[p] = Evaluator.compile(parts[0], -1);
+          partSlopes[p] = Evaluator.compile(parts[1], -1);
         }
       }
     }
 
-    /** Works out {@code a} and {@code b} of each affine part at the frame's state. */
+    /** True when an affine part's {@code a} and {@code b} are trees, not linear forms. */
+    boolean preparesTrees() {
+      for (Evaluator e : partIntercepts) {
+        if (e != null) {
+          return true;
+        }
+      }
+      return false;
+    }
+
+    /**
+     * Works out {@code a} and {@code b} of each affine part at the frame's state that is not a
+     * linear form (those the conditional works out itself).
+     */
     void prepare(Frame frame, double[] intercepts, double[] slopes, int first) {
       for (int p = 0; p <= arity; p++) {
         if (partIntercepts[p] != null) {
@@ -350,7 +451,7 @@ final class CompiledConditional implements ConditionalDensity {
 
     /** Part {@code p} at the frame's {@code x}, its slope left in {@code frame.slope}. */
     private double part(int p, Frame frame, double[] intercepts, double[] slopes, int first) {
-      if (partIntercepts[p] == null) {
+      if (!affine[p]) {
         return p == 0 ? value.eval(frame) : args[p - 1].eval(frame);
       }
       double a = intercepts[first + p];
@@ -369,7 +470,7 @@ final class CompiledConditional implements ConditionalDensity {
       for (int k = 0; k < arity; k++) {
         a[k] = part(1 + k, frame, intercepts, slopes, first);
         da[k] = frame.slope;
-        if (ranges[k] != null && !ranges[k].contains(a[k])) {
+        if (checksRanges && ranges[k] != null && !ranges[k].contains(a[k])) {
           frame.slope = 0;
           return Double.NEGATIVE_INFINITY;
         }

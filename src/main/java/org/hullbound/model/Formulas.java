@@ -226,6 +226,69 @@ final class Formulas {
     }
   }
 
+  /**
+   * {@code f = constant + sum of coefficient * slot} with known coefficients, each slot once: the
+   * form of a linear predictor whose covariates are data, worked out from a state by a flat loop
+   * over primitive arrays instead of a tree of evaluators. {@code null} for any other form.
+   */
+  record LinearForm(double constant, int[] slots, double[] coefficients) {}
+
+  /** The linear form of {@code f} ({@link LinearForm}), or {@code null}. */
+  static LinearForm linearForm(Formula f) {
+    java.util.Map<Integer, Double> coefficients = new java.util.LinkedHashMap<>();
+    double[] constant = {0};
+    if (!collectLinear(f, 1, coefficients, constant)) {
+      return null;
+    }
+    int[] slots = new int[coefficients.size()];
+    double[] values = new double[slots.length];
+    int k = 0;
+    for (java.util.Map.Entry<Integer, Double> entry : coefficients.entrySet()) {
+      slots[k] = entry.getKey();
+      values[k++] = entry.getValue();
+    }
+    return new LinearForm(constant[0], slots, values);
+  }
+
+  /** Adds {@code factor * f} to the coefficients and constant; false when {@code f} is not linear. */
+  private static boolean collectLinear(Formula f, double factor,
+      java.util.Map<Integer, Double> coefficients, double[] constant) {
+    if (f instanceof Formula.Constant c) {
+      constant[0] += factor * c.value();
+      return true;
+    }
+    if (f instanceof Formula.Slot slot) {
+      coefficients.merge(slot.index(), factor, Double::sum);
+      return true;
+    }
+    Formula.Operation o = (Formula.Operation) f;
+    List<Formula> p = o.parts();
+    switch (o.op()) {
+      case ADD:
+        for (Formula part : p) {
+          if (!collectLinear(part, factor, coefficients, constant)) {
+            return false;
+          }
+        }
+        return true;
+      case SUBTRACT:
+        return collectLinear(p.get(0), factor, coefficients, constant)
+            && collectLinear(p.get(1), -factor, coefficients, constant);
+      case NEGATE:
+        return collectLinear(p.get(0), -factor, coefficients, constant);
+      case MULTIPLY:
+        if (p.get(0) instanceof Formula.Constant c) {
+          return collectLinear(p.get(1), factor * c.value(), coefficients, constant);
+        }
+        if (p.get(1) instanceof Formula.Constant c) {
+          return collectLinear(p.get(0), factor * c.value(), coefficients, constant);
+        }
+        return false;
+      default:
+        return false;
+    }
+  }
+
   /** {@code f / divisor}, with a zero {@code f} kept as the constant 0. */
   private static Formula over(Formula f, Formula divisor) {
     if (f instanceof Formula.Constant c && c.value() == 0) {
