@@ -49,6 +49,27 @@ class FormulasTest {
   }
 
   @Test
+  void aLinearFormRebuildsAPredictorOverKnownCoefficients() {
+    // 1.5 - 2 (x - 3 k) + 0.5 x - k = 1.5 - 1.5 x + 5 k
+    Formula f = op(Op.ADD, Formula.constant(1.5),
+        op(Op.NEGATE, op(Op.MULTIPLY, Formula.constant(2),
+            op(Op.SUBTRACT, x(), op(Op.MULTIPLY, Formula.constant(3), k())))),
+        op(Op.MULTIPLY, x(), Formula.constant(0.5)), op(Op.NEGATE, k()));
+    Formulas.LinearForm form = Formulas.linearForm(f);
+    assertEquals(1.5, form.constant());
+    assertEquals(List.of(X, K), java.util.Arrays.stream(form.slots()).boxed().toList());
+    assertEquals(-1.5, form.coefficients()[0]);
+    assertEquals(5, form.coefficients()[1]);
+    for (double xv : new double[] {-2, 0.5, 3}) {
+      double kv = 1.7;
+      assertEquals(eval(f, xv, kv), form.constant() + form.coefficients()[0] * xv
+          + form.coefficients()[1] * kv, 1e-12);
+    }
+    assertNull(Formulas.linearForm(op(Op.MULTIPLY, x(), k())), "a product of two unknowns");
+    assertNull(Formulas.linearForm(op(Op.EXP, x())), "a function of an unknown");
+  }
+
+  @Test
   void aMonomialIsItsCoefficientTimesAPowerOfTheUnknown() {
     // k * sqrt(x) / (x * x) = k x^-1.5
     Formula f = op(Op.DIVIDE, op(Op.MULTIPLY, k(), op(Op.SQRT, x())), op(Op.MULTIPLY, x(), x()));
