@@ -18,12 +18,13 @@ import java.util.List;
  * statement  = "model" name
  *            | "index" name [ "=" expr ".." expr ]
  *            | "data" declarator { "," declarator }
- *            | "data" declarator [ "=" inline ] [ "~" distribution ]
+ *            | "data" declarator [ "=" inline ] [ "~" distribution [ censoring ] ]
  *            | "param" declarator "~" distribution
  *            | "let" declarator "=" expr
  * declarator = name [ "[" name { "," name } "]" ]
  * inline     = [ "-" ] number | "[" value { "," value } "]"      value = [ "-" ] number | "NA"
  * distribution = name "(" [ name "=" expr { "," name "=" expr } ] ")" [ "within" expr ".." expr ]
+ * censoring  = "censored" expr ".." expr [ "when" expr ]   (both words only in this place)
  * expr       = term { ("+" | "-") term }
  * term       = unary { ("*" | "/") unary }
  * unary      = "-" unary | power
@@ -39,6 +40,12 @@ public final class Parser {
 
   /** The greatest height of an expression tree accepted (long chains such as a + b + c ...). */
   public static final int MAX_HEIGHT = 500;
+
+  /** The word that starts a censoring clause, a keyword only after a data line's distribution. */
+  static final String CENSORED = "censored";
+
+  /** The word before the 0/1 expression that picks the censored rows. */
+  static final String WHEN = "when";
 
   private static final List<String> STATEMENT_KEYWORDS =
       List.of("model", "index", "data", "param", "let");
@@ -227,15 +234,63 @@ public final class Parser {
           familyWithoutTildeHint("data", first));
     }
     Distribution likelihood = null;
+    Censoring censoring = null;
     if (accept(Token.Kind.TILDE)) {
       likelihood = distribution();
+      censoring = censoring(first);
       endOfStatement(
-          "'within' or the end of the line after the distribution of '" + name + "'",
-          withinHint());
+          (censoring == null ? "'within', 'censored'" : "'when'")
+              + " or the end of the line after the distribution of '" + name + "'",
+          censoring == null ? clauseHint(List.of("within", CENSORED)) : clauseHint(List.of(WHEN)));
     } else {
       endOfStatement("'~' or the end of the line after the values of '" + name + "'");
     }
-    return new Statement.Data(targets, values, likelihood, keyword.position());
+    return new Statement.Data(targets, values, likelihood, censoring, keyword.position());
+  }
+
+  /**
+   * The optional {@code censored lo .. hi [when flag]} clause after a data line's distribution;
+   * {@code censored} and {@code when} are words only there, so no name of an existing model is
+   * taken from it.
+   */
+  private Censoring censoring(Declarator target) {
+    if (!atWord(CENSORED)) {
+      return null;
+    }
+    Token censored = take();
+    String shape = "censoring is written 'censored lo .. hi', with inf or -inf for an open side,"
+        + " as in 'censored " + target.name().text() + "_seen .. inf'";
+    if (atEndOfStatement() || atWord(WHEN)) {
+      throw expected("the lower limit after 'censored'", peek(), shape);
+    }
+    Expression lower = expression();
+    expectRange("'..' between the limits after 'censored'", shape);
+    if (atEndOfStatement() || atWord(WHEN)) {
+      throw expected("the upper limit after '..'", peek(), shape);
+    }
+    Expression upper = expression();
+    Expression when = null;
+    if (atWord(WHEN)) {
+      take();
+      if (atEndOfStatement()) {
+        throw expected(
+            "a 0/1 expression after 'when'",
+            peek(),
+            "name the data column that is 1 in the censored rows and 0 in the exact ones");
+      }
+      when = expression();
+    } else if (at(Token.Kind.WITHIN)) {
+      throw error(
+          peek().position(),
+          "'within' must come before 'censored'",
+          "write the truncation right after the distribution: ~ family(...) within lo .. hi"
+              + " censored a .. b");
+    }
+    return new Censoring(lower, upper, when, censored.position());
+  }
+
+  private boolean atWord(String word) {
+    return at(Token.Kind.NAME) && peek().text().equals(word);
   }
 
   private List<Statement.InlineValue> inlineValues(Declarator target) {
@@ -329,6 +384,12 @@ public final class Parser {
           familyWithoutTildeHint("param", target));
     }
     Distribution prior = distribution();
+    if (atWord(CENSORED)) {
+      throw error(
+          peek().position(),
+          "a param cannot be censored; 'censored' describes how observed data was seen",
+          "to limit a prior to a range, write 'within lo .. hi'");
+    }
     endOfStatement(
         "'within' or the end of the line after the distribution of '" + name + "'",
         withinHint());
@@ -732,9 +793,12 @@ public final class Parser {
   }
 
   private String withinHint() {
+    return clauseHint(List.of("within"));
+  }
+
+  private String clauseHint(List<String> words) {
     Token token = peek();
-    return token.kind() == Token.Kind.NAME ? NameSuggestion.hint(token.text(), List.of("within"))
-        : null;
+    return token.kind() == Token.Kind.NAME ? NameSuggestion.hint(token.text(), words) : null;
   }
 
   private String familyWithoutTildeHint(String keyword, Declarator target) {

@@ -30,17 +30,28 @@ public sealed interface Statement {
    * Every {@code data} form. {@code targets} has several entries only in the bare form
    * ({@code data a[tray], b[tray]}); {@code inlineValues} is {@code null} unless values are given
    * inline ({@code = 5} or {@code = [1, 2, NA]}; NA is a NaN {@link InlineValue}); {@code
-   * likelihood} is {@code null} unless the data is modelled with {@code ~}.
+   * likelihood} is {@code null} unless the data is modelled with {@code ~}; {@code censoring} is
+   * {@code null} unless the likelihood is followed by a {@code censored} clause.
    */
   record Data(
       List<Declarator> targets,
       List<InlineValue> inlineValues,
       Distribution likelihood,
+      Censoring censoring,
       SourcePosition position)
       implements Statement {
     public Data {
       targets = List.copyOf(targets);
       inlineValues = inlineValues == null ? null : List.copyOf(inlineValues);
+    }
+
+    /** A data line without a {@code censored} clause. */
+    public Data(
+        List<Declarator> targets,
+        List<InlineValue> inlineValues,
+        Distribution likelihood,
+        SourcePosition position) {
+      this(targets, inlineValues, likelihood, null, position);
     }
 
     /** True for {@code data n = 5}: a scalar given without brackets. */

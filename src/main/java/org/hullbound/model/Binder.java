@@ -64,6 +64,7 @@ final class Binder {
   private final Map<Node, List<ColumnBinding>> fileColumns = new HashMap<>();
   private final Map<Node, Formula.Cells> cellsOf = new HashMap<>();
   private Formula.Slot[] slotFormulas = new Formula.Slot[16];
+  private final Map<Node, CensoredRows> censoredRows = new HashMap<>();
   private String modelName;
 
   private Binder(ModelFile model, List<DataTable> tables) {
@@ -1083,7 +1084,8 @@ final class Binder {
         if (node.kind == kind && (kind == Node.Kind.PARAM || node.modelled())) {
           node.slots = new int[node.size];
           for (int e = 0; e < node.size; e++) {
-            boolean unknown = kind == Node.Kind.PARAM || node.missing[e];
+            boolean unknown =
+                kind == Node.Kind.PARAM || node.missing[e] && !censoredRow(node, e);
             node.slots[e] = unknown ? labels.size() : -1;
             if (unknown) {
               labels.add(node.label(e));
@@ -1200,6 +1202,11 @@ final class Binder {
             null);
       }
     }
+    if (censoredRow(node, e)) {
+      return censoring(node).term(
+          node.names(), e, args, truncated ? new Term.Within(lower, upper) : null, env,
+          node.position());
+    }
     int slot = node.slots[e];
     Formula value;
     if (slot >= 0) {
@@ -1221,6 +1228,29 @@ final class Binder {
     return new Term(
         node.names(), e, slot >= 0 ? null : cells(node), p, value, args, truncated ? new Term.Within(lower, upper) : null, slot,
         node.position());
+  }
+
+  /** The censored rows of {@code node}, or {@code null} when its line has no censored clause. */
+  private CensoredRows censoring(Node node) {
+    if (!(node.statement instanceof Statement.Data data) || data.censoring() == null) {
+      return null;
+    }
+    return censoredRows.computeIfAbsent(
+        node, n -> CensoredRows.of(data.censoring(), n.parametrisation, this::resolve, this::error));
+  }
+
+  /** True when element {@code e} of modelled data {@code node} is a censored row. */
+  private boolean censoredRow(Node node, int e) {
+    CensoredRows rows = censoring(node);
+    if (rows == null) {
+      return false;
+    }
+    Map<String, Integer> env = new HashMap<>();
+    int[] index = node.index(e);
+    for (int i = 0; i < index.length; i++) {
+      env.put(node.indexSets.get(i).name(), index[i]);
+    }
+    return rows.censored(env, node.label(e));
   }
 
   private double knownBound(Expression e, Map<String, Integer> env, String which) {

@@ -61,9 +61,20 @@ abstract class ContinuousParametrisation extends BaseParametrisation {
       throw new IllegalArgumentException(
           "the truncation needs lo < hi, got lo = " + format(lo) + ", hi = " + format(hi));
     }
+    return logProbabilityBetween(lo, hi, args, gradientOfArgs, 0);
+  }
+
+  /**
+   * {@link #logProbabilityBetween(double, double, double[], double[])} for {@code lo < hi}, with
+   * the derivative in {@code args[k]} written to {@code gradient[offset + k]}: a censored term
+   * ({@link Censored}) fills a log-density gradient, whose arguments start at 1, without a copy.
+   * {@code args} may be longer than this parametrisation's arity; the extra entries are not read.
+   */
+  final double logProbabilityBetween(
+      double lo, double hi, double[] args, double[] gradient, int offset) {
     double logP = logProbability(lo, hi, args);
     if (logP == Double.NEGATIVE_INFINITY) {
-      Arrays.fill(gradientOfArgs, 0, arity(), 0.0);
+      Arrays.fill(gradient, offset, offset + arity(), 0.0);
       return logP;
     }
     double lower = lowerBound(args);
@@ -74,9 +85,9 @@ abstract class ContinuousParametrisation extends BaseParametrisation {
       if (hasCdfSensitivity(k)) {
         double termHi = weightHi == 0 ? 0.0 : weightHi * cdfSensitivity(k, hi, args);
         double termLo = weightLo == 0 ? 0.0 : weightLo * cdfSensitivity(k, lo, args);
-        gradientOfArgs[k] = termHi - termLo;
+        gradient[offset + k] = termHi - termLo;
       } else {
-        gradientOfArgs[k] = numericalDerivative(a -> logProbability(lo, hi, a), args, k);
+        gradient[offset + k] = numericalDerivative(a -> logProbability(lo, hi, a), args, k);
       }
     }
     return logP;
