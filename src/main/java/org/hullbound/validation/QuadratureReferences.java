@@ -9,8 +9,10 @@ import java.util.Optional;
 import java.util.function.DoubleBinaryOperator;
 import org.apache.commons.math3.distribution.BinomialDistribution;
 import org.apache.commons.math3.distribution.CauchyDistribution;
+import org.apache.commons.math3.distribution.GammaDistribution;
 import org.apache.commons.math3.distribution.NormalDistribution;
 import org.apache.commons.math3.distribution.TDistribution;
+import org.apache.commons.math3.distribution.WeibullDistribution;
 import org.hullbound.io.CsvData;
 import org.hullbound.model.DataColumn;
 import org.hullbound.model.DataTable;
@@ -63,7 +65,7 @@ final class QuadratureReferences {
   }
 
   private static final List<String> NAMES =
-      List.of("eight_schools", "bliss_beetles", "darwin_student_t", "sleep_normal");
+      List.of("eight_schools", "bliss_beetles", "darwin_student_t", "sleep_normal", "seal_lifetimes");
 
   private static final List<String> SCALE_MIXTURES = List.of("eight_schools", "sleep_normal");
 
@@ -76,6 +78,8 @@ final class QuadratureReferences {
         return blissBeetles(folder, points2);
       case "darwin_student_t":
         return darwinStudentT(folder, points1);
+      case "seal_lifetimes":
+        return sealLifetimes(folder, points2);
       default:
         return sleepNormal(folder, scaleFactor, upper);
     }
@@ -195,6 +199,40 @@ final class QuadratureReferences {
             },
             -500, 500, points);
     return Map.of("mean(mu)", grid.mean(), "sd(mu)", grid.sd());
+  }
+
+  /**
+   * Pump seal lifetimes with right censoring (invented data): {@code hours[s] ~ weibull(shape,
+   * scale)} for a failed seal, {@code P(X > hours[s])} for one still running ({@code running[s] =
+   * 1}), {@code shape ~ gamma(2, rate 1)}, {@code scale ~ gamma(2, rate 0.25)}. A failed seal
+   * adds commons-math3's {@code WeibullDistribution} log-density; a running one the log of the
+   * Weibull survival function, {@code -(hours / scale)^shape} (Johnson, Kotz and Balakrishnan,
+   * Continuous Univariate Distributions, vol. 1, 2nd ed., 1994, chapter 21, equation 21.3).
+   */
+  private static Map<String, Double> sealLifetimes(Path folder, int points) {
+    DataTable table = CsvData.read(folder.resolve("seals.csv"));
+    double[] hours = column(table, "hours");
+    double[] running = column(table, "running");
+    GammaDistribution shapePrior = new GammaDistribution(null, 2, 1);
+    GammaDistribution scalePrior = new GammaDistribution(null, 2, 1 / 0.25);
+    DoubleBinaryOperator logPosterior =
+        (shape, scale) -> {
+          if (!(shape > 0 && scale > 0)) {
+            return Double.NEGATIVE_INFINITY;
+          }
+          double total = shapePrior.logDensity(shape) + scalePrior.logDensity(scale);
+          WeibullDistribution lifetime = new WeibullDistribution(null, shape, scale);
+          for (int s = 0; s < hours.length; s++) {
+            total += running[s] == 1
+                ? -Math.pow(hours[s] / scale, shape)
+                : lifetime.logDensity(hours[s]);
+          }
+          return total;
+        };
+    Quadrature.Grid2 grid = Quadrature.posterior2(logPosterior, 1e-3, 8, 1e-3, 30, points);
+    return Map.of(
+        "mean(shape)", grid.meanX(), "sd(shape)", grid.sdX(),
+        "mean(scale)", grid.meanY(), "sd(scale)", grid.sdY());
   }
 
   /**

@@ -153,7 +153,8 @@ final class ReferenceFilesTest {
   /** The quadrature references move by far less than their floors when the grid is refined. */
   @Test
   void quadratureReferencesAreStableUnderGridRefinement() {
-    for (String name : List.of("eight_schools", "bliss_beetles", "sleep_normal", "darwin_student_t")) {
+    for (String name :
+        List.of("eight_schools", "bliss_beetles", "sleep_normal", "darwin_student_t", "seal_lifetimes")) {
       Map<String, Double> values = QuadratureReferences.forCase(name).orElseThrow().values(SUITE.resolve(name));
       Map<String, Double> finer = QuadratureReferences.refined(name, SUITE.resolve(name));
       for (Quantity q : ValidationCase.read(SUITE.resolve(name)).quantities()) {
