@@ -5,6 +5,7 @@ import java.util.LinkedHashSet;
 import java.util.List;
 import java.util.Set;
 import org.hullbound.model.family.ArgumentRange;
+import org.hullbound.model.family.Censored;
 import org.hullbound.model.family.Curvature;
 import org.hullbound.model.family.Scale;
 
@@ -29,6 +30,10 @@ import org.hullbound.model.family.Scale;
  *       the logit scale the argument must be the unknown.
  *   <li>Anything else (the unknown in two arguments, a non-affine link, a truncated term whose
  *       normaliser moves) is "not provably log-concave".
+ *   <li>A censored observation's term, {@code log P(lo < X <= hi)}, is a term like the others
+ *       whose family ({@code censored weibull}, ...) states its own curvature in each argument
+ *       ({@code model.family.CensoredCurvature}: Prekopa 1973, Bagnoli and Bergstrom 2005); rule 2
+ *       applies to it unchanged.
  * </ol>
  *
  * <p>A support cut by dependent arguments with a bounded range ({@link ArgumentBounds}) changes
@@ -248,10 +253,12 @@ final class UpdateAnalysis {
             "not provably log-concave" + where + ": " + t.familyName() + " is not concave in "
                 + argumentName + " (" + c.reason() + ")");
       }
-      if (scale == Scale.LOG && Double.isNaN(Formulas.power(argument, slot))) {
-        // a coefficient that reads other unknowns: the monomial rule, with the whole proof
-        pieces.add(t.familyName() + " terms concave in log(" + argumentName + ") ("
-            + c.reason() + "); " + link);
+      if (scale == Scale.LOG && Double.isNaN(Formulas.power(argument, slot))
+          || Censored.isCensored(t.family())) {
+        // the monomial rule with a coefficient that reads other unknowns, or a censored term's
+        // rule (CensoredCurvature): the whole proof
+        String in = argumentScale == Scale.LOG ? "log(" + argumentName + ")" : argumentName;
+        pieces.add(t.familyName() + " terms concave in " + in + " (" + c.reason() + "); " + link);
       } else {
         pieces.add(t.familyName() + " terms concave in " + argumentName + ", " + link);
       }

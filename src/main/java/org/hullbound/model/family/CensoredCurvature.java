@@ -47,9 +47,9 @@ final class CensoredCurvature {
     String argument = observed.argumentNames().get(k);
     String rule = switch (family + " " + argument + " " + scale) {
       case "normal mean NATURAL", "logistic location NATURAL", "laplace location NATURAL" ->
-          location(family + " " + argument, "X = " + argument + " + W", "a " + family);
+          location(family + " " + argument, "X = " + argument + " + W", "W " + family);
       case "lognormal meanlog NATURAL" ->
-          location("lognormal meanlog", "log X = meanlog + W", "a normal");
+          location("lognormal meanlog", "log X = meanlog + W", "W normal");
       case "weibull scale LOG" ->
           location("weibull log(scale)", "log X = log(scale) + log(E)/shape",
               "the log of a standard exponential E (log-density s - exp(s))");
@@ -96,8 +96,8 @@ final class CensoredCurvature {
 
   private static String location(String what, String form, String density) {
     return "a censored term log P(a < X <= b) is log-concave in " + what + ": " + form
-        + " with W of log-concave density (" + density + "), a location shift (Prekopa 1973;"
-        + " Bagnoli and Bergstrom 2005)";
+        + " moves a variable of log-concave density (" + density + ") by a location shift"
+        + " (Prekopa 1973; Bagnoli and Bergstrom 2005)";
   }
 
   private static String rate(String what, String form, String density) {
