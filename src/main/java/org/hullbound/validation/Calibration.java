@@ -64,6 +64,17 @@ public final class Calibration {
               + " also appear in other statements, which binding fixes at their observed values;"
               + " calibrate a model in which modelled data appear only on their own ~ line");
     }
+    for (org.hullbound.lang.Statement s : model.statements()) {
+      if (s instanceof org.hullbound.lang.Statement.Data data && data.censoring() != null) {
+        // Replicates would need the censoring (which rows, which limits) simulated too, and the
+        // model does not say how the limits came about.
+        throw new SimulationException(
+            "cannot simulate model " + bound.name() + ": '" + data.targets().get(0).name().text()
+                + "' is censored (line " + data.censoring().position().line() + "), and the model"
+                + " does not say how its limits arise; calibrate the model without the censored"
+                + " clause");
+      }
+    }
     return new Calibration(model, List.copyOf(tables), bound, fitter);
   }
 

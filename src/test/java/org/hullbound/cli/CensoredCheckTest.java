@@ -41,6 +41,14 @@ class CensoredCheckTest {
   }
 
   @Test
+  void calibrateRefusesACensoredModel() {
+    CliRun run = CliRun.of("calibrate", "models/wells.hbm", "--data", "models/wells.csv",
+        "--replicates", "10", "--draws", "9", "--out", "target/censored-calibration");
+    assertEquals(2, run.exit(), run.out());
+    assertTrue(run.err().contains("cannot simulate model wells: 'nitrate' is censored (line 13)"), run.err());
+  }
+
+  @Test
   void aCensoredCountStopsAtTheClause(@TempDir Path folder) throws IOException {
     Path model = folder.resolve("calls.hbm");
     Files.writeString(model, """
