@@ -77,11 +77,11 @@ public final class PredictiveChecks {
           + node;
       if (pValue < LOW) {
         return "the model rarely reproduces the " + what + ": replicates reach the observed value"
-            + " in only " + percent(pValue) + " of sweeps";
+            + " in " + share(pValue, sweeps);
       }
       if (pValue > HIGH) {
         return "the model rarely reproduces the " + what + ": replicates fall as low as the"
-            + " observed value in only " + percent(1 - pValue) + " of sweeps";
+            + " observed value in " + share(1 - pValue, sweeps);
       }
       return "";
     }
@@ -346,9 +346,14 @@ public final class PredictiveChecks {
     return SvgPlot.replicates(labels, values, mark, BINS);
   }
 
-  private static String percent(double share) {
+  /** "none of the 4000 sweeps", or "only 1.2% of sweeps". */
+  private static String share(double share, long sweeps) {
+    if (share == 0) {
+      return "none of the " + sweeps + " sweeps";
+    }
     double p = 100 * share;
-    return (p < 1 ? String.format(Locale.ROOT, "%.1f", p) : String.format(Locale.ROOT, "%.0f", p))
-        + "%";
+    return "only "
+        + (p < 1 ? String.format(Locale.ROOT, "%.1f", p) : String.format(Locale.ROOT, "%.0f", p))
+        + "% of sweeps";
   }
 }
