@@ -1172,7 +1172,7 @@ final class Binder {
       String name = check.name().text();
       if (modelled.size() != 1) {
         throw error(
-            check.value().position(),
+            check.name().position(),
             "check '" + name + "' must read exactly one modelled data name (data with '~'), "
                 + (modelled.isEmpty() ? "it reads none"
                     : "it reads " + modelled.stream().map(n -> "'" + n.name() + "'")
