@@ -346,12 +346,15 @@ public final class PredictiveChecks {
     return SvgPlot.replicates(labels, values, mark, BINS);
   }
 
-  /** "none of the 4000 sweeps", or "only 1.2% of sweeps". */
+  /** "none of the 4000 sweeps", "fewer than 0.1% of sweeps" or "only 1.2% of sweeps". */
   private static String share(double share, long sweeps) {
     if (share == 0) {
       return "none of the " + sweeps + " sweeps";
     }
     double p = 100 * share;
+    if (p < 0.1) {
+      return "fewer than 0.1% of sweeps";
+    }
     return "only "
         + (p < 1 ? String.format(Locale.ROOT, "%.1f", p) : String.format(Locale.ROOT, "%.0f", p))
         + "% of sweeps";
