@@ -120,6 +120,19 @@ class PredictiveChecksTest {
   }
 
   @Test
+  void thePageListsTheChecksAfterTheSummaryAndOnlyWhenThereAreAny() {
+    PredictiveChecks checks = PredictiveChecks.of(List.of(
+        input("mean", new double[][] {{2, 2, 2, 2}}, new double[][] {{1, 2, 3, 4}})));
+    ReportInput input = SampleReports.cheap(2, 2, 50, ReportOptions.defaults());
+    String page = HtmlReport.render(input, checks);
+    assertTrue(page.contains("<a href=\"#predictive\">Posterior predictive checks</a>"));
+    assertTrue(page.indexOf("id=\"summary\"") < page.indexOf("id=\"predictive\""));
+    Xml.parse(page);
+    String without = HtmlReport.render(input);
+    assertFalse(without.contains("predictive"));
+  }
+
+  @Test
   void theReplicatesPanelMarksTheObservedValueAndBinsWholeNumbersOneEach() {
     String svg = SvgPlot.replicates(
         new PanelLabels("predictive", "max", "replicated max", "sweeps"),
