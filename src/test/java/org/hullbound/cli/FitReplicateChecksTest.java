@@ -87,6 +87,20 @@ class FitReplicateChecksTest {
   }
 
   @Test
+  void checkListsTheTestQuantitiesOfEveryModelledName() throws IOException {
+    Path model = model("""
+        param rate ~ gamma(shape = 2, rate = 1)
+        index night
+        data caught[night] = [0, 3, NA, 1] ~ poisson(rate = rate)
+        check pearson = sum(night: (caught[night] - rate) ^ 2 / rate)
+        """);
+    CliRun run = CliRun.of("check", model.toString());
+    assertEquals(0, run.exit(), run.toString());
+    assertTrue(run.out().contains("caught ~ poisson, 3 observed (1 missing, left out of the"
+        + " defaults): mean, sd, min, max, zero_share, pearson (check)"), run.out());
+  }
+
+  @Test
   void aCheckThatReadsNoModelledDataIsAModelErrorWithExitTwo() throws IOException {
     Path model = model("""
         param mu ~ normal(mean = 0, sd = 5)
