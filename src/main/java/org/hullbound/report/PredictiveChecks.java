@@ -9,6 +9,7 @@ import java.util.Locale;
 import java.util.Map;
 import org.apache.commons.csv.CSVFormat;
 import org.apache.commons.csv.CSVPrinter;
+import org.apache.commons.csv.CSVRecord;
 import org.hullbound.diagnostics.Draws;
 import org.hullbound.diagnostics.MonteCarloStandardError;
 
@@ -110,6 +111,45 @@ public final class PredictiveChecks {
       rows.add(row(input));
     }
     return new PredictiveChecks(rows);
+  }
+
+  /**
+   * The rows of a {@link #csv()} text, without the per-sweep values (a page drawn again from the
+   * files shows the p-values, not the histograms).
+   *
+   * @throws IllegalArgumentException when the text is not such a CSV
+   */
+  public static PredictiveChecks fromCsv(String text) {
+    if (text == null) {
+      throw new IllegalArgumentException("text must not be null");
+    }
+    List<Row> rows = new ArrayList<>();
+    try {
+      List<CSVRecord> records =
+          CSVFormat.RFC4180.builder().setHeader().setSkipHeaderRecord(true).get()
+              .parse(new java.io.StringReader(text)).getRecords();
+      for (CSVRecord r : records) {
+        rows.add(new Row(
+            r.get("node"), r.get("quantity"), r.get("source").equals("check"),
+            number(r.get("observed")), r.get("observed_varies").equals("yes"),
+            number(r.get("replicated_mean")), number(r.get("replicated_sd")),
+            number(r.get("p_value")), number(r.get("p_value_mcse")), number(r.get("tie_share")),
+            Long.parseLong(r.get("sweeps")), new double[0], new double[0]));
+      }
+    } catch (IOException | RuntimeException bad) {
+      throw new IllegalArgumentException("not a table of predictive checks: " + bad.getMessage(), bad);
+    }
+    return new PredictiveChecks(rows);
+  }
+
+  /** The inverse of {@link SummaryTable#full}. */
+  private static double number(String text) {
+    return switch (text) {
+      case "NaN" -> Double.NaN;
+      case "Inf" -> Double.POSITIVE_INFINITY;
+      case "-Inf" -> Double.NEGATIVE_INFINITY;
+      default -> Double.parseDouble(text);
+    };
   }
 
   private static Row row(Input input) {
@@ -323,6 +363,9 @@ public final class PredictiveChecks {
         if (!r.words().isEmpty()) {
           html.append(": ").append(Markup.escape(r.words()));
         }
+        if (r.replicated().length == 0) {
+          html.append(" (the histogram is drawn by fit only)");
+        }
         html.append("</figcaption></figure>");
       }
       html.append("</div></section>\n");
@@ -337,6 +380,11 @@ public final class PredictiveChecks {
 
   private static String panel(Row r) {
     String name = r.fromModelFile() ? r.quantity() : r.quantity().replace('_', ' ');
+    if (r.replicated().length == 0) {
+      return SvgPlot.note(new PanelLabels("predictive", name, "", ""),
+          "observed " + NumberText.significant(r.observed(), 4) + ", replicated mean "
+              + NumberText.significant(r.replicatedMean(), 4));
+    }
     double[] values = r.observedVaries() ? r.differences() : r.replicated();
     double mark = r.observedVaries() ? 0 : r.observed();
     PanelLabels labels =

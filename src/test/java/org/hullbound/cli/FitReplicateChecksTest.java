@@ -52,6 +52,11 @@ class FitReplicateChecksTest {
     String report = Files.readString(out.resolve("report.html"));
     assertTrue(report.contains("id=\"predictive\""));
     assertEquals(5, report.split("class=\"plot plot-predictive\"", -1).length - 1);
+    CliRun again = CliRun.of("report", out.toString());
+    assertEquals(0, again.exit(), again.toString());
+    String redrawn = Files.readString(out.resolve("report.html"));
+    assertTrue(redrawn.contains("id=\"predictive\""), "report DIR keeps the checks");
+    assertTrue(redrawn.contains("the histogram is drawn by fit only"));
   }
 
   @Test

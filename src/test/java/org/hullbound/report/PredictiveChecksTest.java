@@ -102,6 +102,20 @@ class PredictiveChecksTest {
   }
 
   @Test
+  void theCsvReadsBackToTheSameRowsWithoutTheirDraws() {
+    PredictiveChecks checks = PredictiveChecks.of(List.of(
+        input("mean", new double[][] {{0.1, 0.1, 0.1, 0.1}}, new double[][] {{0.3, -1, 2, 0.1}}),
+        new PredictiveChecks.Input("y", "t", true, new double[][] {{1, 2, 3, 4}},
+            new double[][] {{5, 5, 5, 5}})));
+    PredictiveChecks read = PredictiveChecks.fromCsv(checks.csv());
+    assertEquals(checks.csv(), read.csv());
+    assertEquals(0, read.rows().get(0).replicated().length);
+    StringBuilder html = new StringBuilder();
+    read.section(html);
+    assertTrue(html.toString().contains("the histogram is drawn by fit only"));
+  }
+
+  @Test
   void theReportHasAPanelPerQuantityGroupedByNameAndNothingWithoutChecks() {
     PredictiveChecks checks = PredictiveChecks.of(List.of(
         input("mean", new double[][] {{2, 2, 2, 2}}, new double[][] {{1, 2, 3, 4}}),
