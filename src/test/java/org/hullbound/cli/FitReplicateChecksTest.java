@@ -33,13 +33,19 @@ class FitReplicateChecksTest {
     return file;
   }
 
+  /** Fits the seedlings demo (2 chains, seed 4) into {@code out} with {@code option}. */
+  private static CliRun seedlings(Path out, int draws, String option) {
+    CliRun run = CliRun.of("fit", "models/seedlings.hbm", "--data", "models/seedlings.csv",
+        "--chains", "2", "--burn-in", "20", "--draws", Integer.toString(draws), "--seed", "4",
+        "--out", out.toString(), "--quiet", option);
+    assertEquals(0, run.exit(), run.toString());
+    return run;
+  }
+
   @Test
   void theChecksGoToTheirFileTheTerminalAndTheReportButNotToTheDraws() throws IOException {
     Path out = folder.resolve("out");
-    CliRun run = CliRun.of("fit", "models/seedlings.hbm", "--data", "models/seedlings.csv",
-        "--chains", "2", "--burn-in", "50", "--draws", "100", "--seed", "4", "--out",
-        out.toString(), "--quiet", "--replicate-checks");
-    assertEquals(0, run.exit(), run.toString());
+    CliRun run = seedlings(out, 100, "--replicate-checks");
     assertTrue(run.out().contains("Posterior predictive checks"), run.out());
     assertTrue(run.out().contains("survived  zero_share"), run.out());
     List<CSVRecord> checks = csv(out.resolve(PredictiveChecks.FILE_NAME));
@@ -62,10 +68,7 @@ class FitReplicateChecksTest {
   @Test
   void keepReplicatesWritesEveryReplicatedDataSetToAFileOfItsOwn() throws IOException {
     Path out = folder.resolve("kept");
-    CliRun run = CliRun.of("fit", "models/seedlings.hbm", "--data", "models/seedlings.csv",
-        "--chains", "2", "--burn-in", "20", "--draws", "30", "--seed", "4", "--out",
-        out.toString(), "--quiet", "--keep-replicates");
-    assertEquals(0, run.exit(), run.toString());
+    seedlings(out, 30, "--keep-replicates");
     List<CSVRecord> rows = csv(out.resolve("replicates.csv"));
     assertEquals(1 + 2 * 30, rows.size());
     assertEquals(List.of("chain", "draw", "survived[1]"), rows.get(0).toList().subList(0, 3));
