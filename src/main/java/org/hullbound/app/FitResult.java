@@ -4,6 +4,7 @@ import java.nio.file.Path;
 import java.util.List;
 import java.util.Optional;
 import org.hullbound.gibbs.RunSettings;
+import org.hullbound.report.PredictiveChecks;
 import org.hullbound.report.SummaryTable;
 import org.hullbound.report.Verdicts;
 
@@ -37,6 +38,14 @@ public record FitResult(
     return summarisedChains.clone();
   }
 
-  /** The summary of a run that kept draws: the table, its verdicts, and where the table is. */
-  public record Summary(SummaryTable table, Verdicts verdicts, Path file) {}
+  /**
+   * The summary of a run that kept draws: the table, its verdicts, where the table is, and the
+   * posterior predictive checks ({@link PredictiveChecks#none()} when not asked for).
+   */
+  public record Summary(SummaryTable table, Verdicts verdicts, Path file, PredictiveChecks checks) {
+    /** A summary without predictive checks. */
+    public Summary(SummaryTable table, Verdicts verdicts, Path file) {
+      this(table, verdicts, file, PredictiveChecks.none());
+    }
+  }
 }

@@ -20,6 +20,7 @@ import org.hullbound.gibbs.DrawStore;
 import org.hullbound.gibbs.MemoryBudget;
 import org.hullbound.gibbs.ModelSampler;
 import org.hullbound.gibbs.ProgressListener;
+import org.hullbound.gibbs.ReplicatedStatistics;
 import org.hullbound.gibbs.RunOutcome;
 import org.hullbound.gibbs.RunSettings;
 import org.hullbound.gibbs.StartingValueException;
@@ -33,8 +34,10 @@ import org.hullbound.io.CheckpointFile;
 import org.hullbound.io.DrawsWriter;
 import org.hullbound.io.InitialValuesFile;
 import org.hullbound.model.BoundModel;
+import org.hullbound.model.TestQuantities;
 import org.hullbound.model.Unknown;
 import org.hullbound.report.HtmlReport;
+import org.hullbound.report.PredictiveChecks;
 import org.hullbound.report.ReportInput;
 import org.hullbound.report.ReportOptions;
 import org.hullbound.report.ReportWriter;
@@ -62,9 +65,13 @@ public final class FitRun implements AutoCloseable {
   /** The HTML report's file name in the output folder. */
   public static final String REPORT_FILE = "report.html";
 
+  /** The replicated data of predictive checks, when asked for ({@link PredictiveOptions}). */
+  public static final String REPLICATES_FILE = "replicates.csv";
+
   /** Files that mark a folder as holding an earlier run; checkpoint files start with {@code checkpoint}. */
   public static final List<String> OUTPUT_FILES =
-      List.of(DrawsWriter.FILE_NAME, SUMMARY_FILE, REPORT_FILE, RunFactsFile.FILE_NAME);
+      List.of(DrawsWriter.FILE_NAME, SUMMARY_FILE, REPORT_FILE, RunFactsFile.FILE_NAME,
+          PredictiveChecks.FILE_NAME, REPLICATES_FILE);
 
   private final FitRequest request;
   private final BoundModel model;
@@ -73,11 +80,12 @@ public final class FitRun implements AutoCloseable {
   private final Checkpoint checkpoint;
   private final FolderLock lock;
   private final List<String> notes;
+  private final PredictiveOptions predictive;
   private boolean sampled;
 
   private FitRun(
       FitRequest request, BoundModel model, ModelSampler sampler, RunSettings settings,
-      Checkpoint checkpoint, FolderLock lock, List<String> notes) {
+      Checkpoint checkpoint, FolderLock lock, List<String> notes, PredictiveOptions predictive) {
     this.request = request;
     this.model = model;
     this.sampler = sampler;
@@ -85,6 +93,7 @@ public final class FitRun implements AutoCloseable {
     this.checkpoint = checkpoint;
     this.lock = lock;
     this.notes = notes;
+    this.predictive = predictive;
   }
 
   /**
@@ -98,6 +107,17 @@ public final class FitRun implements AutoCloseable {
    * @throws org.hullbound.lang.ModelException when the model or data are wrong
    */
   public static FitRun prepare(FitRequest request) {
+    return prepare(request, PredictiveOptions.none());
+  }
+
+  /**
+   * {@link #prepare(FitRequest)} for a run that also makes the posterior predictive checks of
+   * {@code predictive}.
+   */
+  public static FitRun prepare(FitRequest request, PredictiveOptions predictive) {
+    if (predictive == null) {
+      throw new IllegalArgumentException("predictive must not be null");
+    }
     checkOptions(request);
     BoundModel model = request.inputs().bind();
     ModelSampler sampler;
@@ -123,6 +143,10 @@ public final class FitRun implements AutoCloseable {
       CheckpointFile.read(folder);
     }
     List<String> notes = new ArrayList<>();
+    if (predictive.checks() && TestQuantities.of(model).quantities().isEmpty()) {
+      notes.add("the model has no observed modelled data, so there is nothing to check against"
+          + " replicates");
+    }
     if (request.resume() == null) {
       RunSettings asked = settingsOf(request, 0L);
       refuseTooMuchMemory(asked, sampler.labels().size(), notes);
@@ -153,7 +177,8 @@ public final class FitRun implements AutoCloseable {
       if (request.threads() != null) {
         settings = settings.withThreads(request.threads());
       }
-      return new FitRun(request, model, sampler, settings, checkpoint, lock, List.copyOf(notes));
+      return new FitRun(
+          request, model, sampler, settings, checkpoint, lock, List.copyOf(notes), predictive);
     } catch (RuntimeException refused) {
       lock.releaseAndRemoveIfEmpty();
       throw refused;
@@ -208,13 +233,25 @@ public final class FitRun implements AutoCloseable {
       // Here, not in prepare: a run stopped before it samples leaves the earlier run's files.
       clearEarlierRun(folder, request.overwrite());
     }
-    try (DrawsWriter writer = openDraws(folder, store)) {
+    ReplicatedStatistics replicates = null;
+    DrawsWriter replicatesWriter = null;
+    if (predictive.checks()) {
+      TestQuantities tests = TestQuantities.of(model);
+      if (predictive.writeReplicates()) {
+        List<String> columns = new ArrayList<>();
+        for (int node = 0; node < tests.nodes().size(); node++) {
+          columns.addAll(tests.elementLabels(node));
+        }
+        replicatesWriter = DrawsWriter.open(folder, REPLICATES_FILE, columns);
+      }
+      replicates = ReplicatedStatistics.of(
+          tests, settings.chains(), settings.seed(), settings.draws(), replicatesWriter);
+    }
+    DrawSink kept = replicates == null ? store : both(store, replicates);
+    try (DrawsWriter writer = openDraws(folder, kept);
+        DrawsWriter replicatesFile = replicatesWriter) {
       sampled = true;
-      DrawSink both =
-          (chain, draw, values) -> {
-            writer.accept(chain, draw, values);
-            store.accept(chain, draw, values);
-          };
+      DrawSink both = both(writer, kept);
       startedAt = OffsetDateTime.now();
       startNanos = System.nanoTime();
       try {
@@ -229,7 +266,14 @@ public final class FitRun implements AutoCloseable {
     }
     Duration elapsed = Duration.ofNanos(Math.max(0, System.nanoTime() - startNanos));
     saveCheckpoint(folder, outcome);
-    return summarise(outcome, store, folder, startedAt, elapsed);
+    return summarise(outcome, store, replicates, folder, startedAt, elapsed);
+  }
+
+  private static DrawSink both(DrawSink first, DrawSink second) {
+    return (chain, draw, values) -> {
+      first.accept(chain, draw, values);
+      second.accept(chain, draw, values);
+    };
   }
 
   /**
@@ -333,7 +377,7 @@ public final class FitRun implements AutoCloseable {
   }
 
   /** A new draws file, or the checkpointed one continued (its draws handed to {@code store}). */
-  private DrawsWriter openDraws(Path folder, DrawStore store) {
+  private DrawsWriter openDraws(Path folder, DrawSink store) {
     if (checkpoint == null) {
       return DrawsWriter.open(folder, sampler.labels());
     }
@@ -436,8 +480,8 @@ public final class FitRun implements AutoCloseable {
   }
 
   private FitResult summarise(
-      RunOutcome outcome, DrawStore store, Path folder, OffsetDateTime startedAt,
-      Duration elapsed) {
+      RunOutcome outcome, DrawStore store, ReplicatedStatistics replicates, Path folder,
+      OffsetDateTime startedAt, Duration elapsed) {
     List<String> labels = sampler.labels();
     int kept = store.commonDraws();
     int[] summarised = store.chainsWithDraws();
@@ -490,14 +534,32 @@ public final class FitRun implements AutoCloseable {
     Path summaryFile = folder.resolve(SUMMARY_FILE);
     AtomicFiles.write(summaryFile, table.csv());
     Verdicts verdicts = Verdicts.of(table);
+    PredictiveChecks checks = PredictiveChecks.none();
+    if (replicates != null) {
+      checks = predictiveChecks(replicates);
+      AtomicFiles.write(folder.resolve(PredictiveChecks.FILE_NAME), checks.csv());
+    }
     Path reportFile = writeReport(folder,
         ReportInput.of(header, table, verdicts, kepts,
                 ReportOptions.defaults().withIntervalLevel(request.level()))
-            .withSources(sources));
+            .withSources(sources), checks);
     return new FitResult(
         model.name(), settings, folder, outcome.stoppedEarly(), kept, summarised,
-        java.util.Optional.of(new FitResult.Summary(table, verdicts, summaryFile)), switchNotes,
-        imputed, drawsFile, reportFile);
+        java.util.Optional.of(new FitResult.Summary(table, verdicts, summaryFile, checks)),
+        switchNotes, imputed, drawsFile, reportFile);
+  }
+
+  /** The p-values of every test quantity, from the draws the summary uses. */
+  static PredictiveChecks predictiveChecks(ReplicatedStatistics replicates) {
+    List<PredictiveChecks.Input> inputs = new ArrayList<>();
+    List<TestQuantities.Quantity> quantities = replicates.quantities();
+    for (int q = 0; q < quantities.size(); q++) {
+      TestQuantities.Quantity quantity = quantities.get(q);
+      inputs.add(new PredictiveChecks.Input(
+          quantity.node(), quantity.statistic(), quantity.fromModelFile(),
+          replicates.observed(q), replicates.replicated(q)));
+    }
+    return PredictiveChecks.of(inputs);
   }
 
   /** Which state entries the model's analysis gave to the fallback from the start. */
@@ -536,9 +598,13 @@ public final class FitRun implements AutoCloseable {
 
   /** Renders the page and writes it atomically; returns its path. */
   private static Path writeReport(Path folder, ReportInput input) {
+    return writeReport(folder, input, PredictiveChecks.none());
+  }
+
+  private static Path writeReport(Path folder, ReportInput input, PredictiveChecks checks) {
     Path file = folder.resolve(REPORT_FILE);
     try {
-      ReportWriter.writeAtomically(file, HtmlReport.render(input));
+      ReportWriter.writeAtomically(file, HtmlReport.render(input, checks));
     } catch (IOException e) {
       throw new UncheckedIOException("cannot write " + file + ": " + e.getMessage(), e);
     }

@@ -8,6 +8,7 @@ import java.util.concurrent.Callable;
 import org.hullbound.model.BoundModel;
 import org.hullbound.model.DataSummary;
 import org.hullbound.model.IndexSet;
+import org.hullbound.model.TestQuantities;
 import org.hullbound.model.Unknown;
 import org.hullbound.model.Update;
 import picocli.CommandLine;
@@ -126,6 +127,28 @@ public final class CheckCommand implements Callable<Integer> {
               + (group.size() > 1 ? " each, " + group.size() + " unknowns" : "")
               + (first.imputed() ? ", missing data" : ""));
       out.printf("  %-" + labelWidth + "s    %s%n", "", update.reason());
+    }
+    printTestQuantities(TestQuantities.of(model), out);
+  }
+
+  /** What {@code fit --replicate-checks} would compare, per modelled data name. */
+  private static void printTestQuantities(TestQuantities tests, PrintWriter out) {
+    out.println();
+    out.println("posterior predictive checks (fit --replicate-checks): test quantities per modelled data");
+    if (tests.quantities().isEmpty()) {
+      out.println("  none: the model has no observed modelled data");
+      return;
+    }
+    for (TestQuantities.CheckedNode node : tests.nodes()) {
+      List<String> names = new ArrayList<>();
+      for (TestQuantities.Quantity q : tests.quantities()) {
+        if (q.node().equals(node.name())) {
+          names.add(q.statistic() + (q.fromModelFile() ? " (check)" : ""));
+        }
+      }
+      out.printf("  %s ~ %s, %d observed%s: %s%n", node.name(), node.family(), node.observed(),
+          node.missing() > 0 ? " (" + node.missing() + " missing, left out of the defaults)" : "",
+          String.join(", ", names));
     }
   }
 

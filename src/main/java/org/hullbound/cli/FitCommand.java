@@ -3,11 +3,13 @@ package org.hullbound.cli;
 import java.io.PrintWriter;
 import java.nio.file.Path;
 import java.util.concurrent.Callable;
+import org.hullbound.report.PredictiveChecks;
 import org.hullbound.report.SummaryTable;
 import org.hullbound.app.RunRefusedException;
 import org.hullbound.app.FitRequest;
 import org.hullbound.app.FitResult;
 import org.hullbound.app.FitRun;
+import org.hullbound.app.PredictiveOptions;
 import org.hullbound.gibbs.MemoryBudget;
 import org.hullbound.gibbs.ProgressListener;
 import org.hullbound.gibbs.RunSettings;
@@ -89,6 +91,16 @@ public final class FitCommand implements Callable<Integer> {
       description = "Probability of the central intervals in the summary and report, e.g. 0.9 (default: ${DEFAULT-VALUE}).")
   double level = SummaryTable.INTERVAL_LEVEL;
 
+  @Option(
+      names = "--replicate-checks",
+      description = "Posterior predictive checks: replicate every modelled data name from each kept sweep and report p-values (DIR/predictive_checks.csv, the report, the terminal).")
+  boolean replicateChecks;
+
+  @Option(
+      names = "--keep-replicates",
+      description = "With the checks, also write every replicated data set to DIR/replicates.csv (can be far larger than draws.csv).")
+  boolean keepReplicates;
+
   @CommandLine.Spec CommandLine.Model.CommandSpec spec;
 
   @Override
@@ -102,7 +114,8 @@ public final class FitCommand implements Callable<Integer> {
   private Integer fit(SignalStop signals) {
     PrintWriter stdout = spec.commandLine().getOut();
     PrintWriter stderr = spec.commandLine().getErr();
-    try (FitRun run = FitRun.prepare(request())) {
+    try (FitRun run =
+        FitRun.prepare(request(), PredictiveOptions.of(replicateChecks, keepReplicates))) {
       for (String note : run.notes()) {
         stderr.println("hullbound fit: " + note);
       }
@@ -210,6 +223,10 @@ public final class FitCommand implements Callable<Integer> {
     for (String line : summary.verdicts().lines()) {
       stdout.println(line);
     }
+    if (!summary.checks().isEmpty()) {
+      stdout.println();
+      stdout.print(summary.checks().text());
+    }
     for (String note : result.switchNotes()) {
       stdout.println("switched: " + note);
     }
@@ -223,6 +240,9 @@ public final class FitCommand implements Callable<Integer> {
         settings.seed(), settings.seed(), settings.chains());
     stdout.println("draws:   " + result.drawsFile());
     stdout.println("summary: " + summary.file());
+    if (!summary.checks().isEmpty()) {
+      stdout.println("checks:  " + summary.file().resolveSibling(PredictiveChecks.FILE_NAME));
+    }
     stdout.println("report:  " + result.reportFile());
     stdout.flush();
   }

@@ -32,6 +32,7 @@ import org.hullbound.io.DrawsTable;
 import org.hullbound.io.DrawsWriter;
 import org.hullbound.model.DataSummary;
 import org.hullbound.report.HtmlReport;
+import org.hullbound.report.PredictiveChecks;
 import org.hullbound.report.ReportInput;
 import org.hullbound.report.ReportOptions;
 import org.hullbound.report.ReportWriter;
@@ -175,7 +176,8 @@ public final class ReportCommand implements Callable<Integer> {
         new ReportInput(
             header, warnings, built.conclusion(), built.unknowns(), options, sources);
     Path target = out != null ? out : folder.resolve(FitRun.REPORT_FILE);
-    ReportWriter.writeAtomically(target, HtmlReport.render(input));
+    ReportWriter.writeAtomically(
+        target, HtmlReport.render(input, predictiveChecks(folder, stderr)));
     stdout.println("report: " + target);
     stdout.flush();
     return 0;
@@ -203,6 +205,22 @@ public final class ReportCommand implements Callable<Integer> {
    * The update facts of each unknown from fit's summary.csv; none when the file is missing or
    * unreadable (a note says so), since the page can be drawn without them.
    */
+  /** The p-values of {@code fit --replicate-checks}, when the folder has them. */
+  private static PredictiveChecks predictiveChecks(Path folder, PrintWriter stderr) {
+    Path file = folder.resolve(PredictiveChecks.FILE_NAME);
+    if (!Files.isRegularFile(file)) {
+      return PredictiveChecks.none();
+    }
+    try {
+      return PredictiveChecks.fromCsv(Files.readString(file));
+    } catch (IOException | IllegalArgumentException unreadable) {
+      stderr.println("hullbound report: note: cannot read " + file + " (" + unreadable.getMessage()
+          + "), so the page shows no predictive checks");
+      stderr.flush();
+      return PredictiveChecks.none();
+    }
+  }
+
   static Map<String, UpdateFacts> updateFacts(Path summaryFile, PrintWriter stderr) {
     Map<String, UpdateFacts> facts = new HashMap<>();
     if (!Files.isRegularFile(summaryFile)) {

@@ -79,15 +79,31 @@ public final class DrawsWriter implements DrawSink, AutoCloseable {
    * @param columns the labels of the recorded quantities, in the order of each draw's values
    */
   public static DrawsWriter open(Path directory, List<String> columns) {
-    return open(directory, columns, FileChannel::write);
+    return open(directory, FILE_NAME, columns, FileChannel::write);
+  }
+
+  /**
+   * Like {@link #open(Path, List)}, for a file of rows like the draws' under another name (such
+   * as the replicated data of predictive checks).
+   */
+  public static DrawsWriter open(Path directory, String fileName, List<String> columns) {
+    if (fileName == null || fileName.isBlank()) {
+      throw new IllegalArgumentException("fileName must name a file, got " + fileName);
+    }
+    return open(directory, fileName, columns, FileChannel::write);
   }
 
   /** {@link #open(Path, List)} writing through {@code writes}: tests inject a failing disk. */
   static DrawsWriter open(Path directory, List<String> columns, Writes writes) {
+    return open(directory, FILE_NAME, columns, writes);
+  }
+
+  private static DrawsWriter open(
+      Path directory, String fileName, List<String> columns, Writes writes) {
     if (directory == null || columns == null) {
       throw new IllegalArgumentException("directory and columns must not be null");
     }
-    Path file = directory.resolve(FILE_NAME);
+    Path file = directory.resolve(fileName);
     DrawsWriter writer = null;
     try {
       Files.createDirectories(directory);

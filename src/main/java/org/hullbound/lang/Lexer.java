@@ -19,7 +19,7 @@ public final class Lexer {
 
   /** Words that cannot name a quantity. */
   public static final Set<String> RESERVED_WORDS =
-      Set.of("model", "index", "data", "param", "let", "within", "NA", "inf");
+      Set.of("model", "index", "data", "param", "let", "check", "within", "NA", "inf");
 
   private static final Map<String, Token.Kind> KEYWORDS =
       Map.of(
@@ -28,6 +28,7 @@ public final class Lexer {
           "data", Token.Kind.DATA,
           "param", Token.Kind.PARAM,
           "let", Token.Kind.LET,
+          "check", Token.Kind.CHECK,
           "within", Token.Kind.WITHIN,
           "NA", Token.Kind.MISSING);
 

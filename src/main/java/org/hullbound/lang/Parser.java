@@ -21,6 +21,7 @@ import java.util.List;
  *            | "data" declarator [ "=" inline ] [ "~" distribution [ censoring ] ]
  *            | "param" declarator "~" distribution
  *            | "let" declarator "=" expr
+ *            | "check" name "=" expr
  * declarator = name [ "[" name { "," name } "]" ]
  * inline     = [ "-" ] number | "[" value { "," value } "]"      value = [ "-" ] number | "NA"
  * distribution = name "(" [ name "=" expr { "," name "=" expr } ] ")" [ "within" expr ".." expr ]
@@ -48,7 +49,7 @@ public final class Parser {
   static final String WHEN = "when";
 
   private static final List<String> STATEMENT_KEYWORDS =
-      List.of("model", "index", "data", "param", "let");
+      List.of("model", "index", "data", "param", "let", "check");
 
   private final SourceText source;
   private final Lexer lexer;
@@ -143,6 +144,7 @@ public final class Parser {
       case DATA -> dataStatement();
       case PARAM -> paramStatement();
       case LET -> letStatement();
+      case CHECK -> checkStatement();
       default -> throw notAStatement(keyword);
     };
   }
@@ -161,7 +163,7 @@ public final class Parser {
       hint = "'within' belongs on the line of its distribution; a statement continues onto the"
           + " next line only while a parenthesis or bracket is open";
     }
-    return expected("a statement (model, index, data, param or let)", found, hint);
+    return expected("a statement (model, index, data, param, let or check)", found, hint);
   }
 
   private Statement modelStatement() {
@@ -413,6 +415,35 @@ public final class Parser {
     Expression value = expression();
     endOfStatement("an operator or the end of the line after the value of '" + name + "'");
     return new Statement.Let(target, value, keyword.position());
+  }
+
+  /**
+   * {@code check <name> = <expr>}: one number, so no index sets; a reduction over a set is
+   * written with {@code sum(set: ...)} inside the value.
+   */
+  private Statement checkStatement() {
+    Token keyword = take();
+    Identifier name = name("a name after 'check'", null);
+    if (at(Token.Kind.OPEN_BRACKET)) {
+      throw expected(
+          "'=' after the name of check '" + name.text() + "'",
+          peek(),
+          "a check is one number: reduce over an index set inside the value, as in check "
+              + name.text() + " = sum(obs: y[obs] ^ 2)");
+    }
+    if (at(Token.Kind.TILDE)) {
+      throw expected(
+          "'=' after the name of check '" + name.text() + "'",
+          peek(),
+          "a check is computed with '=' from a modelled data name, as in check " + name.text()
+              + " = sum(obs: y[obs] ^ 2)");
+    }
+    if (!accept(Token.Kind.EQUALS)) {
+      throw expected("'=' after the name of check '" + name.text() + "'", peek(), null);
+    }
+    Expression value = expression();
+    endOfStatement("an operator or the end of the line after the value of check '" + name.text() + "'");
+    return new Statement.Check(name, value, keyword.position());
   }
 
   private Declarator declarator(String keyword) {

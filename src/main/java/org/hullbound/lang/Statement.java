@@ -67,6 +67,13 @@ public sealed interface Statement {
   /** {@code let <target> = <value>}. */
   record Let(Declarator target, Expression value, SourcePosition position) implements Statement {}
 
+  /**
+   * {@code check <name> = <value>}: a test quantity of a posterior predictive check, one number
+   * computed from a modelled data name (and possibly unknowns), compared between the observed
+   * data and data replicated from the fitted model.
+   */
+  record Check(Identifier name, Expression value, SourcePosition position) implements Statement {}
+
   /** One value of an inline data vector; {@code NA} (missing) is held as NaN with missing set. */
   record InlineValue(double value, boolean missing, SourcePosition position) {}
 }

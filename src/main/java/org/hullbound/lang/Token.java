@@ -18,6 +18,7 @@ public record Token(Kind kind, String text, double number, SourcePosition positi
     DATA("'data'"),
     PARAM("'param'"),
     LET("'let'"),
+    CHECK("'check'"),
     WITHIN("'within'"),
     /** {@code NA}, a missing value inside an inline data vector. */
     MISSING("'NA'"),
@@ -52,7 +53,8 @@ public record Token(Kind kind, String text, double number, SourcePosition positi
 
     /** True for the keywords that begin a statement. */
     public boolean startsStatement() {
-      return this == MODEL || this == INDEX || this == DATA || this == PARAM || this == LET;
+      return this == MODEL || this == INDEX || this == DATA || this == PARAM || this == LET
+          || this == CHECK;
     }
   }
 

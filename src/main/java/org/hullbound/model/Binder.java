@@ -51,7 +51,15 @@ final class Binder {
       List<Boolean> imputed,
       int[] ownTerm,
       List<DataSummary> data,
-      Map<String, Integer> nodeCounts) {}
+      Map<String, Integer> nodeCounts,
+      List<CheckFormula> checks) {}
+
+  /**
+   * A {@code check} statement bound: the modelled data name it reads and its value, in which that
+   * name's element {@code e} is slot {@code base + e} (after every unknown), so that one compiled
+   * value serves the observed and the replicated data alike.
+   */
+  record CheckFormula(String name, String node, int base, Formula value, SourcePosition position) {}
 
   private final ModelFile model;
   private final SourceText source;
@@ -65,6 +73,10 @@ final class Binder {
   private final Map<Node, Formula.Cells> cellsOf = new HashMap<>();
   private Formula.Slot[] slotFormulas = new Formula.Slot[16];
   private final Map<Node, CensoredRows> censoredRows = new HashMap<>();
+  private final List<Statement.Check> checkStatements = new ArrayList<>();
+  /** While a check is resolved: its data name, whose elements become slots from {@code replicatedBase}. */
+  private Node replicated;
+  private int replicatedBase;
   private String modelName;
 
   private Binder(ModelFile model, List<DataTable> tables) {
@@ -180,6 +192,9 @@ final class Binder {
         nodes.put(
             let.target().name().text(),
             new Node(Node.Kind.LET, let.target(), let, null, let.value(), null));
+      } else if (statement instanceof Statement.Check check) {
+        claim(check.name(), declaredAt);
+        checkStatements.add(check);
       }
     }
     if (modelName == null) {
@@ -1026,6 +1041,9 @@ final class Binder {
     int offset = node.offset(index);
     switch (node.kind) {
       case DATA:
+        if (node == replicated) {
+          return slot(replicatedBase + offset);
+        }
         if (node.missing[offset] && node.slots == null) {
           throw error(reference.position(), "'" + name + "' is missing and cannot be used"
               + " here", null);
@@ -1037,12 +1055,16 @@ final class Binder {
       case PARAM:
         return slot(node.slots[offset]);
       default:
+        Map<String, Integer> letEnv = new HashMap<>();
+        for (int i = 0; i < index.length; i++) {
+          letEnv.put(nodeSets.get(i).name(), index[i]);
+        }
+        if (replicated != null) {
+          // Not cached: inside a check the checked name's elements are slots, not its data.
+          return resolve(node.letValue, letEnv);
+        }
         Formula[] cache = letCache.computeIfAbsent(node, k -> new Formula[k.size]);
         if (cache[offset] == null) {
-          Map<String, Integer> letEnv = new HashMap<>();
-          for (int i = 0; i < index.length; i++) {
-            letEnv.put(nodeSets.get(i).name(), index[i]);
-          }
           cache[offset] = resolve(node.letValue, letEnv);
         }
         return cache[offset];
@@ -1138,7 +1160,59 @@ final class Binder {
         imputed,
         ownTerm,
         summaries,
-        counts);
+        counts,
+        checks(labels.size()));
+  }
+
+  /** Binds every {@code check}: the one modelled data name it reads becomes slots from {@code base}. */
+  private List<CheckFormula> checks(int base) {
+    List<CheckFormula> bound = new ArrayList<>();
+    for (Statement.Check check : checkStatements) {
+      Set<Node> read = new LinkedHashSet<>();
+      readThroughLets(check.value(), read, new HashSet<>());
+      List<Node> modelled = read.stream().filter(n -> n.kind == Node.Kind.DATA && n.modelled()).toList();
+      String name = check.name().text();
+      if (modelled.size() != 1) {
+        throw error(
+            check.name().position(),
+            "check '" + name + "' must read exactly one modelled data name (data with '~'), "
+                + (modelled.isEmpty() ? "it reads none"
+                    : "it reads " + modelled.stream().map(n -> "'" + n.name() + "'")
+                        .collect(java.util.stream.Collectors.joining(" and "))),
+            modelled.isEmpty()
+                ? "a check compares the observed data with replicated data, as in check " + name
+                    + " = sum(obs: y[obs] ^ 2) where y is declared data y[obs] ~ ..."
+                : "write one check per data name");
+      }
+      if (modelled.get(0).statement instanceof Statement.Data data && data.censoring() != null) {
+        throw error(
+            check.name().position(),
+            "check '" + name + "' reads '" + modelled.get(0).name()
+                + "', whose line is censored: a censored row has no observed value to compare",
+            "check a data name without a 'censored' clause");
+      }
+      replicated = modelled.get(0);
+      replicatedBase = base;
+      try {
+        bound.add(new CheckFormula(
+            name, replicated.name(), base, resolve(check.value(), Map.of()), check.position()));
+      } finally {
+        replicated = null;
+      }
+    }
+    return bound;
+  }
+
+  /** The nodes {@code e} names, and those named by the lets it reads, transitively. */
+  private void readThroughLets(Expression e, Set<Node> into, Set<Node> visitedLets) {
+    Set<Node> direct = new LinkedHashSet<>();
+    collectNames(e, direct);
+    for (Node node : direct) {
+      into.add(node);
+      if (node.kind == Node.Kind.LET && visitedLets.add(node)) {
+        readThroughLets(node.letValue, into, visitedLets);
+      }
+    }
   }
 
   private static Expression.Name referenceTo(Node node, int e) {

@@ -55,6 +55,7 @@ public final class BoundModel {
   private final List<DataSummary> data;
   private final Map<String, Integer> nodeCounts;
   private final AtomicReferenceArray<ConditionalDensity> conditionals;
+  private final List<Binder.CheckFormula> checks;
   /** Value and argument evaluators of every term, compiled on the first joint evaluation. */
   private volatile Evaluator[][] joint;
 
@@ -66,6 +67,7 @@ public final class BoundModel {
     this.ownTerm = result.ownTerm();
     this.data = List.copyOf(result.data());
     this.nodeCounts = Map.copyOf(result.nodeCounts());
+    this.checks = List.copyOf(result.checks());
     int n = result.labels().size();
     // Terms are visited in order and each adds itself once per slot it reads, so each slot's
     // list is increasing without repeats; plain int arrays, as a set of boxed indexes per slot
@@ -458,6 +460,11 @@ public final class BoundModel {
   /** Every element-level term, in binding order (for {@link PriorSimulation}). */
   List<Term> terms() {
     return terms;
+  }
+
+  /** The bound {@code check} statements, in written order (for {@link TestQuantities}). */
+  List<Binder.CheckFormula> checks() {
+    return checks;
   }
 
   /** The own term (prior, or a missing observation's likelihood) of slot {@code index}. */

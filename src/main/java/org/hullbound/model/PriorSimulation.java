@@ -130,7 +130,7 @@ public final class PriorSimulation {
     return observed.size();
   }
 
-  private static double draw(Term term, double[] args, RandomGenerator rng, String what) {
+  static double draw(Term term, double[] args, RandomGenerator rng, String what) {
     String problem = term.family().checkArguments(args);
     if (problem != null) {
       throw new SimulationException(
@@ -154,7 +154,7 @@ public final class PriorSimulation {
     return x;
   }
 
-  private static Evaluator[] compile(List<Formula> formulas) {
+  static Evaluator[] compile(List<Formula> formulas) {
     Evaluator[] compiled = new Evaluator[formulas.size()];
     for (int k = 0; k < compiled.length; k++) {
       compiled[k] = Evaluator.compile(formulas.get(k), -1);
@@ -162,7 +162,7 @@ public final class PriorSimulation {
     return compiled;
   }
 
-  private static double[] evaluate(Evaluator[] evaluators, Frame frame) {
+  static double[] evaluate(Evaluator[] evaluators, Frame frame) {
     double[] args = new double[evaluators.length];
     for (int k = 0; k < args.length; k++) {
       args[k] = evaluators[k].eval(frame);

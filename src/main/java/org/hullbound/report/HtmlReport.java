@@ -35,8 +35,17 @@ public final class HtmlReport {
    * @throws IllegalArgumentException if {@code input} is null
    */
   public static String render(ReportInput input) {
-    if (input == null) {
-      throw new IllegalArgumentException("input must not be null");
+    return render(input, PredictiveChecks.none());
+  }
+
+  /**
+   * The complete report page with a section of posterior predictive checks after the summary.
+   *
+   * @throws IllegalArgumentException if an argument is null
+   */
+  public static String render(ReportInput input, PredictiveChecks checks) {
+    if (input == null || checks == null) {
+      throw new IllegalArgumentException("input and checks must not be null");
     }
     StringBuilder html = new StringBuilder(64 * 1024);
     String model =
@@ -49,10 +58,11 @@ public final class HtmlReport {
         .append(Style.CSS)
         .append("</style></head>\n<body><main>\n");
     header(html, input, model);
-    contents(html, input);
+    contents(html, input, checks);
     warnings(html, input.warnings(), input.conclusion());
     sources(html, input.sources());
     table(html, input);
+    checks.section(html);
     IndexedIntervals.section(html, input);
     PairPlots.section(html, input);
     plots(html, input);
@@ -81,13 +91,16 @@ public final class HtmlReport {
   }
 
   /** The table of contents: the page's sections, and each plotted unknown by name. */
-  private static void contents(StringBuilder html, ReportInput input) {
+  private static void contents(StringBuilder html, ReportInput input, PredictiveChecks checks) {
     html.append("<nav class=\"contents\" id=\"contents\"><h2>On this page</h2><ol>")
         .append("<li><a href=\"#warnings\">Warnings</a></li>");
     if (!input.sources().isEmpty()) {
       html.append("<li><a href=\"#sources\">Model and data</a></li>");
     }
     html.append("<li><a href=\"#summary\">Summary</a></li>");
+    if (checks.hasSection()) {
+      html.append("<li><a href=\"#predictive\">Posterior predictive checks</a></li>");
+    }
     if (!IndexedIntervals.groups(input.unknowns()).isEmpty()) {
       html.append("<li><a href=\"#intervals\">Intervals of indexed unknowns</a></li>");
     }

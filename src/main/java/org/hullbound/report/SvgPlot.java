@@ -20,6 +20,7 @@ import java.util.Optional;
  *   <tr><td>{@link #curves}</td><td>dashed lines per series, y from zero</td></tr>
  *   <tr><td>{@link #bars}</td><td>thin bars from zero, with an optional reference band</td></tr>
  *   <tr><td>{@link #steps}</td><td>step lines per series over shared bin edges, optional band</td></tr>
+ *   <tr><td>{@link #replicates}</td><td>a filled histogram with one value marked by a line</td></tr>
  *   <tr><td>{@link #note}</td><td>an empty frame with a message</td></tr>
  * </table>
  */
@@ -154,6 +155,73 @@ public final class SvgPlot {
         points.add(new double[] {edges[b + 1], h[b]});
       }
       canvas.polyline(points, Palette.colour(s), Palette.dash(s), 1.2);
+    }
+    return canvas.close();
+  }
+
+  /**
+   * A filled histogram of {@code values} in about {@code bins} equal bins (one bin per whole number
+   * when the values are whole and span few of them), and {@code mark} as an upright line: the
+   * replicated test quantities of a predictive check against the observed one. Values that are not
+   * finite are left out.
+   *
+   * @throws IllegalArgumentException if {@code values} is null or {@code bins < 1}
+   */
+  public static String replicates(PanelLabels labels, double[] values, double mark, int bins) {
+    requireLabels(labels);
+    if (values == null || bins < 1) {
+      throw new IllegalArgumentException("values must not be null and bins must be >= 1");
+    }
+    Range data = Range.empty();
+    boolean whole = true;
+    for (double v : values) {
+      if (Double.isFinite(v)) {
+        data = data.include(v);
+        whole &= v == Math.rint(v);
+      }
+    }
+    if (data.isEmpty()) {
+      return note(labels, "no finite replicate to draw");
+    }
+    double low;
+    double width;
+    int count;
+    if (whole && data.max - data.min <= 2 * bins) {
+      low = data.min - 0.5;
+      width = 1;
+      count = (int) (data.max - data.min) + 1;
+    } else if (data.max == data.min) {
+      low = data.min - 0.5;
+      width = 1;
+      count = 1;
+    } else {
+      low = data.min;
+      width = (data.max - data.min) / bins;
+      count = bins;
+    }
+    double[] heights = new double[count];
+    for (double v : values) {
+      if (Double.isFinite(v)) {
+        heights[Math.min(count - 1, Math.max(0, (int) Math.floor((v - low) / width)))]++;
+      }
+    }
+    Range xs = Range.empty().include(low).include(low + count * width);
+    if (Double.isFinite(mark)) {
+      xs = xs.include(mark);
+    }
+    Range ys = Range.empty().include(0);
+    for (double h : heights) {
+      ys = ys.include(h);
+    }
+    Canvas canvas = Canvas.open(labels, xs, ys, List.of());
+    if (canvas == null) {
+      return note(labels, "values span more than double precision can label");
+    }
+    for (int b = 0; b < count; b++) {
+      canvas.column(low + b * width, low + (b + 1) * width, heights[b]);
+    }
+    if (Double.isFinite(mark)) {
+      canvas.upright(mark, Palette.ACCENT);
     }
     return canvas.close();
   }
@@ -602,6 +670,34 @@ public final class SvgPlot {
           .append("\" fill=\"")
           .append(colour)
           .append("\"/>");
+    }
+
+    /** A filled histogram column over {@code [from, to]}, outlined. */
+    void column(double from, double to, double height) {
+      double y0 = sy(0);
+      double y1 = sy(height);
+      svg.append("<rect x=\"");
+      Markup.coordinate(svg, sx(from)).append("\" y=\"");
+      Markup.coordinate(svg, Math.min(y0, y1)).append("\" width=\"");
+      Markup.coordinate(svg, Math.max(0.5, sx(to) - sx(from))).append("\" height=\"");
+      Markup.coordinate(svg, Math.abs(y1 - y0))
+          .append("\" fill=\"")
+          .append(Palette.BAND)
+          .append("\" stroke=\"")
+          .append(Palette.MUTED)
+          .append("\" stroke-width=\"0.5\"/>");
+    }
+
+    /** An upright line across the plot at {@code x}. */
+    void upright(double x, String colour) {
+      svg.append("<line x1=\"");
+      Markup.coordinate(svg, sx(x)).append("\" x2=\"");
+      Markup.coordinate(svg, sx(x)).append("\" y1=\"");
+      Markup.coordinate(svg, top).append("\" y2=\"");
+      Markup.coordinate(svg, bottom)
+          .append("\" stroke=\"")
+          .append(colour)
+          .append("\" stroke-width=\"2\"/>");
     }
 
     void polyline(List<double[]> points, String colour, String dash, double strokeWidth) {

@@ -109,10 +109,11 @@ class FitResumeTest {
     Files.writeString(draws, "1,99", StandardCharsets.UTF_8, java.nio.file.StandardOpenOption.APPEND);
 
     // The stopped run had two threads; the resumed one has one thread for both chains.
-    CliRun resumed = CliRun.of(resume(stopped, "--threads", "1"));
+    // Predictive checks asked for only now replicate the draws made before the stop as well.
+    CliRun resumed = CliRun.of(resume(stopped, "--threads", "1", "--replicate-checks"));
     assertEquals(0, resumed.exit(), resumed.toString());
     Path whole = folder.resolve("whole");
-    CliRun uninterrupted = CliRun.of(with(RUN, "--out", whole.toString()));
+    CliRun uninterrupted = CliRun.of(with(RUN, "--out", whole.toString(), "--replicate-checks"));
     assertEquals(0, uninterrupted.exit(), uninterrupted.toString());
 
     Map<String, List<String>> expected = rowsByChain(whole.resolve("draws.csv"));
@@ -125,6 +126,10 @@ class FitResumeTest {
     assertEquals(
         Files.readString(whole.resolve("summary.csv")), Files.readString(stopped.resolve("summary.csv")),
         "the summary over all draws, and the evaluations per draw, are those of one run");
+    assertEquals(
+        Files.readString(whole.resolve("predictive_checks.csv")),
+        Files.readString(stopped.resolve("predictive_checks.csv")),
+        "the replicates of a resumed run are those of one run");
 
     CliRun again = CliRun.of(resume(stopped));
     assertEquals(2, again.exit(), again.toString());

@@ -227,6 +227,14 @@ class ParserTest {
     }
 
     @Test
+    void checkWithAReduction() {
+      Statement.Check check = (Statement.Check) only("check squares = sum(obs: (y[obs] - mu) ^ 2)");
+      assertEquals("squares", check.name().text());
+      assertEquals("sum(obs: (^ (- y[obs] mu) 2))", Trees.show(check.value()));
+      assertEquals(new SourcePosition("test.hbm", 1, 1), check.position());
+    }
+
+    @Test
     void statementPositionsAreTheirKeywords() {
       List<Statement> statements = parse("\n  model m\n\tdata n = 1\n");
       assertEquals(new SourcePosition("test.hbm", 2, 3), statements.get(0).position());
