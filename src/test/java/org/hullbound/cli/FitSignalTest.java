@@ -78,9 +78,16 @@ class FitSignalTest {
     assertEquals(1, child.exitValue(), err);
     String first = err.lines().findFirst().orElse("");
     // chain 1's stuck draw is now rescued by a restarted hull (gibbs.DegenerateConditionalTest);
-    // chain 2 still fails on effect[1], whose values are too coarsely rounded for the hull
+    // chain 2 still fails on effect[1], whose values far from the mode (near -3.6e8) are too
+    // coarsely rounded for the hull, and then in the fallback, which now says so with its values
+    // (it was a raw IllegalStateException of ARMS)
     assertTrue(first.startsWith("hullbound fit: sampling failed: chain "), err);
-    assertTrue(first.contains("updating effect[1]"), err);
+    assertTrue(first.contains("updating effect[1] (adaptive rejection, then ARMS fallback): the full"
+        + " conditional is numerically degenerate for the fallback: adaptive rejection Metropolis"
+        + " from current value "), err);
+    assertTrue(first.contains(" on support (-inf, inf) accepted no candidate in 100000 tries"), err);
+    assertTrue(first.contains(" abscissae run from "), err);
+    assertEquals(2, err.lines().count(), "one line and where the draws are: " + err);
     assertFalse(err.contains("Exception"), err);
   }
 }
