@@ -98,6 +98,16 @@ public final class FitRun implements AutoCloseable {
    * @throws org.hullbound.lang.ModelException when the model or data are wrong
    */
   public static FitRun prepare(FitRequest request) {
+    return prepare(request, StartupGuard.create());
+  }
+
+  /**
+   * As {@link #prepare(FitRequest)}, taking the folder's lock through {@code guard}, so that a
+   * signal that stops the start-up ({@link StartupGuard#stop()}) releases it.
+   *
+   * @throws StartupStoppedException when the guard was stopped before the folder was locked
+   */
+  public static FitRun prepare(FitRequest request, StartupGuard guard) {
     checkOptions(request);
     BoundModel model = request.inputs().bind();
     ModelSampler sampler;
@@ -127,7 +137,7 @@ public final class FitRun implements AutoCloseable {
       RunSettings asked = settingsOf(request, 0L);
       refuseTooMuchMemory(asked, sampler.labels().size(), notes);
     }
-    FolderLock lock = FolderLock.take(folder);
+    FolderLock lock = guard.lock(folder);
     try {
       lock.takenOver()
           .ifPresent(

@@ -7,6 +7,7 @@ import java.nio.file.NoSuchFileException;
 import java.util.List;
 import org.hullbound.app.RunRefusedException;
 import org.hullbound.app.SamplingFailedException;
+import org.hullbound.app.StartupStoppedException;
 import org.hullbound.gibbs.StartingValueException;
 import org.hullbound.io.CheckpointException;
 import org.hullbound.lang.ModelException;
@@ -47,7 +48,10 @@ public final class ErrorReporting implements CommandLine.IExecutionExceptionHand
     PrintWriter err = commandLine.getErr();
     int status;
     String command = "hullbound " + commandLine.getCommandName() + ": ";
-    if (exception instanceof ModelException model) {
+    if (exception instanceof StartupStoppedException) {
+      // the signal's handler has said so; the JVM ends with the signal's status
+      status = FAILURE;
+    } else if (exception instanceof ModelException model) {
       err.print(model.render());
       status = USER_ERROR;
     } else if (isUserError(exception)) {

@@ -102,7 +102,7 @@ public final class FitCommand implements Callable<Integer> {
   private Integer fit(SignalStop signals) {
     PrintWriter stdout = spec.commandLine().getOut();
     PrintWriter stderr = spec.commandLine().getErr();
-    try (FitRun run = FitRun.prepare(request())) {
+    try (FitRun run = FitRun.prepare(request(), signals.startup())) {
       for (String note : run.notes()) {
         stderr.println("hullbound fit: " + note);
       }

@@ -63,6 +63,37 @@ class FitSignalTest {
     assertFalse(Files.exists(out), "nothing written");
   }
 
+  /**
+   * SIGTERM while the run holds its folder's lock but has not begun sampling (issue 14): a named
+   * pipe as the checkpoint of {@code --resume}, read under the lock, keeps the child there. The JVM
+   * halts after its shutdown hooks, so the preparing thread never released the lock, and the lock
+   * file kept the run's process id: the next run reported it as a stale lock. Now the signal's
+   * hook releases it, and the lock file is left empty.
+   */
+  @Test
+  void sigtermWhileTheFolderIsLockedLeavesNoLockBehind() throws Exception {
+    Path run = folder.resolve("run");
+    Files.createDirectories(run);
+    Process mkfifo =
+        new ProcessBuilder("mkfifo", run.resolve("checkpoint.txt").toString()).start();
+    assertEquals(0, mkfifo.waitFor());
+    Path lockFile = run.resolve("run.lock");
+    Process child = fit("models/seedlings.hbm", "--data", "models/seedlings.csv", "--quiet",
+        "--resume", run.toString());
+    long deadline = System.nanoTime() + TimeUnit.SECONDS.toNanos(60);
+    while (!(Files.exists(lockFile) && Files.readString(lockFile).startsWith("pid "))) {
+      assertTrue(System.nanoTime() < deadline, "the child locked the folder");
+      Thread.sleep(20);
+    }
+    child.destroy(); // SIGTERM
+    assertTrue(child.waitFor(30, TimeUnit.SECONDS), "the child ended");
+    String err = Files.readString(folder.resolve("err.txt"));
+    assertEquals(143, child.exitValue(), err);
+    assertEquals(
+        "hullbound fit: stopped by a signal before sampling began; no file was written\n", err);
+    assertEquals("", Files.readString(lockFile), "the lock file names no run");
+  }
+
   @Test
   void aConditionalTheHullCannotFollowFailsTheRunInsteadOfHanging() throws Exception {
     // issue 14: the seedlings data with tray 1 planted with 1e15 seeds hung this fit at full CPU
