@@ -220,9 +220,8 @@ public final class DrawCommand implements Callable<Integer> {
 
   /** Under {@code --debug}, the stack trace of a failure this command reports itself. */
   private void traceUnderDebug(Exception failure, PrintWriter stderr) {
-    if (ErrorReporting.debug(spec.commandLine().getParseResult())) {
-      failure.printStackTrace(stderr);
-    }
+    stderr.flush();
+    ErrorReporting.traceUnderDebug(spec.commandLine(), failure);
   }
 
   /**

@@ -108,6 +108,18 @@ public final class ErrorReporting implements CommandLine.IExecutionExceptionHand
     return message;
   }
 
+  /**
+   * Prints {@code failure}'s stack trace under {@code --debug}: for a command that turns a failure
+   * it expects into a message of its own, so that {@code --debug} shows a trace on that path too.
+   */
+  static void traceUnderDebug(CommandLine commandLine, Throwable failure) {
+    if (debug(commandLine.getParseResult())) {
+      PrintWriter err = commandLine.getErr();
+      failure.printStackTrace(err);
+      err.flush();
+    }
+  }
+
   /** True when {@code --debug} was given on the command or any of its parents. */
   static boolean debug(CommandLine.ParseResult parseResult) {
     for (CommandLine.ParseResult r = parseResult; r != null; r = r.subcommand()) {

@@ -3,7 +3,6 @@ package org.hullbound.cli;
 import java.io.PrintWriter;
 import java.nio.file.Path;
 import java.util.concurrent.Callable;
-import org.hullbound.report.SummaryTable;
 import org.hullbound.app.RunRefusedException;
 import org.hullbound.app.FitRequest;
 import org.hullbound.app.FitResult;
@@ -83,11 +82,7 @@ public final class FitCommand implements Callable<Integer> {
       description = "Replace the files of an earlier run in DIR (without it, fit refuses to start).")
   boolean overwrite;
 
-  @Option(
-      names = "--level",
-      paramLabel = "P",
-      description = "Probability of the central intervals in the summary and report, e.g. 0.9 (default: ${DEFAULT-VALUE}).")
-  double level = SummaryTable.INTERVAL_LEVEL;
+  @Mixin LevelOption level;
 
   @CommandLine.Spec CommandLine.Model.CommandSpec spec;
 
@@ -148,8 +143,8 @@ public final class FitCommand implements Callable<Integer> {
   /** The options as the application layer takes them: an option not given is null. */
   private FitRequest request() {
     CommandLine.ParseResult given = spec.commandLine().getParseResult();
-    if (ReportCommand.levelProblem(level) != null) {
-      throw new RunRefusedException(ReportCommand.levelProblem(level));
+    if (level.problem() != null) {
+      throw new RunRefusedException(level.problem());
     }
     return new FitRequest(
         model.inputs(), initFile,
@@ -157,7 +152,7 @@ public final class FitCommand implements Callable<Integer> {
         given.hasMatchedOption("--burn-in") ? burnIn : null,
         given.hasMatchedOption("--draws") ? draws : null,
         given.hasMatchedOption("--thin") ? thin : null,
-        seed.given(), threads, out.given(), resumeFolder, overwrite, level);
+        seed.given(), threads, out.given(), resumeFolder, overwrite, level.value());
   }
 
   private void printHowToResume(Path folder, PrintWriter stdout) {

@@ -105,7 +105,7 @@ public final class DrawsWriter implements DrawSink, AutoCloseable {
       // Not even the header could be written: leave no empty draws file behind.
       if (writer != null) {
         writer.flusher.shutdownNow();
-        closeQuietly(writer.out);
+        Closing.quietly(writer.out);
       }
       try {
         Files.deleteIfExists(file);
@@ -331,17 +331,6 @@ public final class DrawsWriter implements DrawSink, AutoCloseable {
       } catch (IOException cannotCut) {
         e.addSuppressed(cannotCut);
       }
-    }
-  }
-
-  private static void closeQuietly(FileChannel channel) {
-    if (channel == null) {
-      return;
-    }
-    try {
-      channel.close();
-    } catch (IOException ignored) {
-      // The failure that made us close is the one reported.
     }
   }
 
