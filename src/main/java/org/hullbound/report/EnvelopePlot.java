@@ -73,6 +73,24 @@ public final class EnvelopePlot {
       Curve logDensity,
       Curve abscissae,
       double[] draws) {
+    return svg(title, xLow, xHigh, hull, squeeze, logDensity, abscissae, draws, draws.length);
+  }
+
+  /**
+   * As {@link #svg(String, double, double, Curve, Curve, Curve, Curve, double[])}, where {@code
+   * draws} are the first of {@code drawsMade}: the legend states the number made, and how many of
+   * them the ticks show when that is fewer.
+   */
+  public static String svg(
+      String title,
+      double xLow,
+      double xHigh,
+      Curve hull,
+      Curve squeeze,
+      Curve logDensity,
+      Curve abscissae,
+      double[] draws,
+      long drawsMade) {
     if (!(Double.isFinite(xLow) && Double.isFinite(xHigh) && xLow < xHigh)) {
       throw new IllegalArgumentException(
           "x range must be finite with xLow < xHigh, got [" + xLow + ", " + xHigh + "]");
@@ -137,7 +155,7 @@ public final class EnvelopePlot {
       }
     }
     svg.append("\"/>\n");
-    legend(svg, shown, abscissae.x().length);
+    legend(svg, shown, Math.max(drawsMade, shown), abscissae.x().length);
     svg.append("</svg>\n");
     return svg.toString();
   }
@@ -185,13 +203,14 @@ public final class EnvelopePlot {
     return text.startsWith("-") ? " + " + text.substring(1) : " \u2212 " + text;
   }
 
-  private static void legend(StringBuilder svg, int shownDraws, int abscissae) {
+  private static void legend(StringBuilder svg, int shownDraws, long drawsMade, int abscissae) {
     String[][] entries = {
       {HULL_COLOUR, "upper hull", ""},
       {SQUEEZE_COLOUR, "squeeze", "5 3"},
       {DENSITY_COLOUR, "log-density", ""},
       {DENSITY_COLOUR, abscissae + (abscissae == 1 ? " abscissa" : " abscissae"), "dot"},
-      {DRAW_COLOUR, shownDraws + " draw" + (shownDraws == 1 ? "" : "s"), "tick"},
+      {DRAW_COLOUR, drawsMade + " draw" + (drawsMade == 1 ? "" : "s") + " made"
+          + (shownDraws == drawsMade ? "" : ", " + shownDraws + " shown"), "tick"},
     };
     double x = LEFT;
     double y = 44;

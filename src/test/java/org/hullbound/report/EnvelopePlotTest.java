@@ -59,7 +59,7 @@ class EnvelopePlotTest {
     assertEquals(2, d.split("M").length - 1, d);
     assertFalse(d.contains("-"), "no coordinate far off the picture: " + d);
     // The draw at 9 lies outside [0, 4] and gets no tick.
-    assertTrue(svg.contains("1 draw<"), svg);
+    assertTrue(svg.contains("2 draws made, 1 shown<"), svg);
   }
 
   @Test
