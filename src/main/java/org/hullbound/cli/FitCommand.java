@@ -2,6 +2,7 @@ package org.hullbound.cli;
 
 import java.io.PrintWriter;
 import java.nio.file.Path;
+import java.util.List;
 import java.util.concurrent.Callable;
 import org.hullbound.app.RunRefusedException;
 import org.hullbound.app.FitRequest;
@@ -12,6 +13,8 @@ import org.hullbound.gibbs.ProgressListener;
 import org.hullbound.gibbs.RunSettings;
 import org.hullbound.gibbs.StopSignal;
 import org.hullbound.io.CheckpointFile;
+import org.hullbound.io.DrawsReader;
+import org.hullbound.io.DrawsTable;
 import picocli.CommandLine;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
@@ -84,6 +87,8 @@ public final class FitCommand implements Callable<Integer> {
 
   @Mixin LevelOption level;
 
+  @Mixin ProbabilityOption probability;
+
   @CommandLine.Spec CommandLine.Model.CommandSpec spec;
 
   @Override
@@ -129,6 +134,15 @@ public final class FitCommand implements Callable<Integer> {
           display.finish();
         }
         print(result, stdout, stderr);
+        if (probability.given() && result.summary().isPresent()) {
+          // after the files: a statement naming no unknown loses no draw
+          DrawsTable draws = DrawsReader.read(result.drawsFile());
+          List<ProbabilityOption.Estimate> estimates =
+              ProbabilityOption.estimate(probability.expand(draws.variables()), draws::draws);
+          stdout.print(ProbabilityOption.text(estimates));
+          stdout.println("probabilities: " + ProbabilityOption.write(result.folder(), estimates));
+          stdout.flush();
+        }
         if (result.stoppedEarly()) {
           printHowToResume(result.folder(), stdout);
         }

@@ -79,6 +79,8 @@ public final class SummarizeCommand implements Callable<Integer> {
 
   @CommandLine.Mixin LevelOption level;
 
+  @CommandLine.Mixin ProbabilityOption probability;
+
   @CommandLine.Spec CommandLine.Model.CommandSpec spec;
 
   @Override
@@ -109,6 +111,7 @@ public final class SummarizeCommand implements Callable<Integer> {
         }
       }
     }
+    List<ProbabilityOption.Statement> statements = probability.expand(draws.variables());
     for (String note : draws.notes()) {
       stderr.println("hullbound summarize: note: " + note);
     }
@@ -128,6 +131,9 @@ public final class SummarizeCommand implements Callable<Integer> {
     stdout.println();
     for (String line : Verdicts.of(table, maxRhat, minEss).lines()) {
       stdout.println(line);
+    }
+    if (!statements.isEmpty()) {
+      stdout.print(ProbabilityOption.text(ProbabilityOption.estimate(statements, draws::draws)));
     }
     if (csvFile != null) {
       stdout.println();
