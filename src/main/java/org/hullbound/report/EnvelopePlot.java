@@ -62,24 +62,9 @@ public final class EnvelopePlot {
    * @param squeeze the squeeze at the abscissae inside the range
    * @param logDensity the log-density on a grid over the range
    * @param abscissae the abscissae and the log-density there, drawn as dots
-   * @param draws draws to mark with ticks along the bottom
-   */
-  public static String svg(
-      String title,
-      double xLow,
-      double xHigh,
-      Curve hull,
-      Curve squeeze,
-      Curve logDensity,
-      Curve abscissae,
-      double[] draws) {
-    return svg(title, xLow, xHigh, hull, squeeze, logDensity, abscissae, draws, draws.length);
-  }
-
-  /**
-   * As {@link #svg(String, double, double, Curve, Curve, Curve, Curve, double[])}, where {@code
-   * draws} are the first of {@code drawsMade}: the legend states the number made, and how many of
-   * them the ticks show when that is fewer.
+   * @param draws draws to mark with ticks along the bottom: the first of {@code drawsMade}
+   * @param drawsMade the draws made, which the legend states (with how many the ticks show, when
+   *     fewer)
    */
   public static String svg(
       String title,

@@ -34,6 +34,16 @@ class FitSignalTest {
         .start();
   }
 
+  /** SIGTERM to {@code child}: it ends with status 143 and the one line of a stop before sampling. */
+  private void assertStoppedBeforeSampling(Process child) throws Exception {
+    child.destroy(); // SIGTERM
+    assertTrue(child.waitFor(30, TimeUnit.SECONDS), "the child ended");
+    String err = Files.readString(folder.resolve("err.txt"));
+    assertEquals(143, child.exitValue(), err);
+    assertEquals(
+        "hullbound fit: stopped by a signal before sampling began; no file was written\n", err);
+  }
+
   @Test
   void sigtermWhileTheModelIsReadEndsWithStatus143AndOneLine() throws Exception {
     // a named pipe as the model file: the child blocks reading it until this test writes, so the
@@ -53,13 +63,8 @@ class FitSignalTest {
           }
         });
     try (FileOutputStream writer = opened.get(60, TimeUnit.SECONDS)) {
-      child.destroy(); // SIGTERM
-      assertTrue(child.waitFor(30, TimeUnit.SECONDS), "the child ended");
+      assertStoppedBeforeSampling(child);
     }
-    String err = Files.readString(folder.resolve("err.txt"));
-    assertEquals(143, child.exitValue(), err);
-    assertEquals(
-        "hullbound fit: stopped by a signal before sampling began; no file was written\n", err);
     assertFalse(Files.exists(out), "nothing written");
   }
 
@@ -85,12 +90,7 @@ class FitSignalTest {
       assertTrue(System.nanoTime() < deadline, "the child locked the folder");
       Thread.sleep(20);
     }
-    child.destroy(); // SIGTERM
-    assertTrue(child.waitFor(30, TimeUnit.SECONDS), "the child ended");
-    String err = Files.readString(folder.resolve("err.txt"));
-    assertEquals(143, child.exitValue(), err);
-    assertEquals(
-        "hullbound fit: stopped by a signal before sampling began; no file was written\n", err);
+    assertStoppedBeforeSampling(child);
     assertEquals("", Files.readString(lockFile), "the lock file names no run");
   }
 
