@@ -107,16 +107,20 @@ public final class FitRun implements AutoCloseable {
    * @throws org.hullbound.lang.ModelException when the model or data are wrong
    */
   public static FitRun prepare(FitRequest request) {
-    return prepare(request, PredictiveOptions.none());
+    return prepare(request, PredictiveOptions.none(), StartupGuard.create());
   }
 
   /**
-   * {@link #prepare(FitRequest)} for a run that also makes the posterior predictive checks of
-   * {@code predictive}.
+   * As {@link #prepare(FitRequest)}, also making the posterior predictive checks of {@code
+   * predictive}, and taking the folder's lock through {@code guard}, so that a signal that stops
+   * the start-up ({@link StartupGuard#stop()}) releases it.
+   *
+   * @throws StartupStoppedException when the guard was stopped before the folder was locked
    */
-  public static FitRun prepare(FitRequest request, PredictiveOptions predictive) {
-    if (predictive == null) {
-      throw new IllegalArgumentException("predictive must not be null");
+  public static FitRun prepare(
+      FitRequest request, PredictiveOptions predictive, StartupGuard guard) {
+    if (predictive == null || guard == null) {
+      throw new IllegalArgumentException("predictive and guard must not be null");
     }
     checkOptions(request);
     BoundModel model = request.inputs().bind();
@@ -151,7 +155,7 @@ public final class FitRun implements AutoCloseable {
       RunSettings asked = settingsOf(request, 0L);
       refuseTooMuchMemory(asked, sampler.labels().size(), notes);
     }
-    FolderLock lock = FolderLock.take(folder);
+    FolderLock lock = guard.lock(folder);
     try {
       lock.takenOver()
           .ifPresent(

@@ -20,6 +20,7 @@ import java.util.HashMap;
 import java.util.List;
 import java.util.Map;
 import java.util.Optional;
+import org.hullbound.io.Closing;
 
 /**
  * One run per output folder: an exclusive operating-system lock ({@link FileChannel#tryLock()}) on
@@ -102,7 +103,7 @@ public final class FolderLock implements AutoCloseable {
         return new FolderLock(
             folder, file, channel, lock, created, earlier.isBlank() ? null : earlier.strip());
       } catch (IOException e) {
-        closeQuietly(channel);
+        Closing.quietly(channel);
         removeEmpty(created);
         throw new UncheckedIOException(
             "cannot lock the output folder " + folder + " (" + file + "): " + e.getMessage(), e);
@@ -141,7 +142,7 @@ public final class FolderLock implements AutoCloseable {
       } catch (IOException e) {
         // The lock goes with the channel below; an unemptied file only reads as a stale lock.
       } finally {
-        closeQuietly(channel);
+        Closing.quietly(channel);
       }
     }
   }
@@ -215,16 +216,5 @@ public final class FolderLock implements AutoCloseable {
     }
     return "pid " + ProcessHandle.current().pid() + " on " + host + ", started "
         + OffsetDateTime.now(ZoneOffset.UTC).truncatedTo(ChronoUnit.SECONDS);
-  }
-
-  private static void closeQuietly(FileChannel channel) {
-    if (channel == null) {
-      return;
-    }
-    try {
-      channel.close();
-    } catch (IOException ignored) {
-      // Closing releases the lock; nothing more to do when it fails.
-    }
   }
 }

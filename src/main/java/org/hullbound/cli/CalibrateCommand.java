@@ -81,10 +81,12 @@ public final class CalibrateCommand implements Callable<Integer> {
       settings = new CalibrationSettings(replicates, draws, thin, burnIn, bins, seed.orElse(() -> DEFAULT_SEED));
       settings.binCount();
     } catch (IllegalArgumentException invalid) {
-      return ErrorReporting.userError(spec.commandLine(), invalid.getMessage()
+      int status = ErrorReporting.userError(spec.commandLine(), invalid.getMessage()
           .replace("replicates must", "--replicates must").replace("draws must", "--draws must")
           .replace("thin must", "--thin must").replace("burnIn must", "--burn-in must")
           .replace("bins must", "--bins must"));
+      ErrorReporting.traceUnderDebug(spec.commandLine(), invalid);
+      return status;
     }
     ModelInputs inputs = model.inputs();
     ModelFile parsed = inputs.parse();

@@ -201,7 +201,7 @@ public final class DrawCommand implements Callable<Integer> {
     }
     if (plot != null) {
       HullSnapshot snapshot = sampler.snapshot();
-      AtomicFiles.write(plot, picture(expression, snapshot, support, smallest, largest, rug));
+      AtomicFiles.write(plot, picture(expression, snapshot, support, smallest, largest, rug, made));
       stderr.println("plot:  " + plot);
     }
     stderr.flush();
@@ -220,9 +220,8 @@ public final class DrawCommand implements Callable<Integer> {
 
   /** Under {@code --debug}, the stack trace of a failure this command reports itself. */
   private void traceUnderDebug(Exception failure, PrintWriter stderr) {
-    if (ErrorReporting.debug(spec.commandLine().getParseResult())) {
-      failure.printStackTrace(stderr);
-    }
+    stderr.flush();
+    ErrorReporting.traceUnderDebug(spec.commandLine(), failure);
   }
 
   /**
@@ -289,21 +288,32 @@ public final class DrawCommand implements Callable<Integer> {
     text.append("hullbound draw: ").append(s.draws()).append(" draw")
         .append(s.draws() == 1 ? "" : "s").append(" on ").append(support).append(", seed ")
         .append(seed).append(" (give --seed ").append(seed).append(" to repeat them)\n");
-    row(text, "density evaluations", s.evaluations() + "  (" + startEvaluations
-        + " for the starting hull; " + fixed(s.evaluationsPerDraw(), 4) + " per draw)");
+    // Every proposal ends in one of four ways; only the two judged by the density cost an
+    // evaluation, so the evaluations are the starting hull's plus those two (plus any others the
+    // sampler made, shown when there are some).
+    long densityRejections = s.rejections() - s.hullRejections();
+    long judged = s.densityAcceptances() + densityRejections;
+    long other = s.evaluations() - startEvaluations - judged;
     row(text, "proposals", s.proposals() + "  (" + percent(s.draws(), s.proposals())
-        + " accepted)");
-    row(text, "accepted by squeeze", s.squeezeAcceptances() + "  ("
-        + percent(s.squeezeAcceptances(), s.proposals()) + " of proposals, no evaluation)");
-    row(text, "accepted by density", s.densityAcceptances() + "  ("
-        + percent(s.densityAcceptances(), s.proposals()) + ")");
-    row(text, "rejected", s.rejections() + "  (" + percent(s.rejections(), s.proposals()) + ")");
+        + " accepted; the four lines below add up to it)");
+    row(text, "  accepted by squeeze", s.squeezeAcceptances() + "  ("
+        + percent(s.squeezeAcceptances(), s.proposals()) + ", no evaluation)");
+    row(text, "  rejected by hull", s.hullRejections() + "  ("
+        + percent(s.hullRejections(), s.proposals()) + ", no evaluation)");
+    row(text, "  accepted by density", s.densityAcceptances() + "  ("
+        + percent(s.densityAcceptances(), s.proposals()) + ", one evaluation each)");
+    row(text, "  rejected by density", densityRejections + "  ("
+        + percent(densityRejections, s.proposals()) + ", one evaluation each)");
+    row(text, "density evaluations", s.evaluations() + "  (" + startEvaluations
+        + " for the starting hull + " + judged + " judged by density"
+        + (other == 0 ? "" : " + " + other + " more") + "; "
+        + fixed(s.evaluationsPerDraw(), 4) + " per draw)");
     row(text, "hull size", s.hullSize() + " abscissae");
     return text.toString();
   }
 
   private static void row(StringBuilder text, String label, String value) {
-    text.append("  ").append(label).append(" ".repeat(Math.max(1, 22 - label.length())))
+    text.append("  ").append(label).append(" ".repeat(Math.max(1, 24 - label.length())))
         .append(value).append('\n');
   }
 
@@ -318,7 +328,7 @@ public final class DrawCommand implements Callable<Integer> {
   /** The SVG of the final envelope over the range of the draws (clipped to the support). */
   private static String picture(
       UnivariateExpression expression, HullSnapshot snapshot, Support support, double smallest,
-      double largest, double[] rug) {
+      double largest, double[] rug, long made) {
     double width = largest - smallest;
     if (!(width > 0)) {
       width = Math.max(1e-3 * Math.abs(smallest), 1.0);
@@ -366,6 +376,7 @@ public final class DrawCommand implements Callable<Integer> {
         new EnvelopePlot.Curve(squeezeX, squeezeY),
         new EnvelopePlot.Curve(gridX, gridY),
         new EnvelopePlot.Curve(abscissae, values),
-        rug);
+        rug,
+        made);
   }
 }

@@ -7,6 +7,7 @@ import java.nio.file.NoSuchFileException;
 import java.util.List;
 import org.hullbound.app.RunRefusedException;
 import org.hullbound.app.SamplingFailedException;
+import org.hullbound.app.StartupStoppedException;
 import org.hullbound.gibbs.StartingValueException;
 import org.hullbound.io.CheckpointException;
 import org.hullbound.lang.ModelException;
@@ -47,7 +48,10 @@ public final class ErrorReporting implements CommandLine.IExecutionExceptionHand
     PrintWriter err = commandLine.getErr();
     int status;
     String command = "hullbound " + commandLine.getCommandName() + ": ";
-    if (exception instanceof ModelException model) {
+    if (exception instanceof StartupStoppedException) {
+      // the signal's handler has said so; the JVM ends with the signal's status
+      status = FAILURE;
+    } else if (exception instanceof ModelException model) {
       err.print(model.render());
       status = USER_ERROR;
     } else if (isUserError(exception)) {
@@ -102,6 +106,18 @@ public final class ErrorReporting implements CommandLine.IExecutionExceptionHand
       return "cannot read '" + missing.getFile() + "': no such file";
     }
     return message;
+  }
+
+  /**
+   * Prints {@code failure}'s stack trace under {@code --debug}: for a command that turns a failure
+   * it expects into a message of its own, so that {@code --debug} shows a trace on that path too.
+   */
+  static void traceUnderDebug(CommandLine commandLine, Throwable failure) {
+    if (debug(commandLine.getParseResult())) {
+      PrintWriter err = commandLine.getErr();
+      failure.printStackTrace(err);
+      err.flush();
+    }
   }
 
   /** True when {@code --debug} was given on the command or any of its parents. */

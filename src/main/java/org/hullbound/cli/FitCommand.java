@@ -2,9 +2,9 @@ package org.hullbound.cli;
 
 import java.io.PrintWriter;
 import java.nio.file.Path;
+import java.util.List;
 import java.util.concurrent.Callable;
 import org.hullbound.report.PredictiveChecks;
-import org.hullbound.report.SummaryTable;
 import org.hullbound.app.RunRefusedException;
 import org.hullbound.app.FitRequest;
 import org.hullbound.app.FitResult;
@@ -15,6 +15,8 @@ import org.hullbound.gibbs.ProgressListener;
 import org.hullbound.gibbs.RunSettings;
 import org.hullbound.gibbs.StopSignal;
 import org.hullbound.io.CheckpointFile;
+import org.hullbound.io.DrawsReader;
+import org.hullbound.io.DrawsTable;
 import picocli.CommandLine;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
@@ -85,11 +87,9 @@ public final class FitCommand implements Callable<Integer> {
       description = "Replace the files of an earlier run in DIR (without it, fit refuses to start).")
   boolean overwrite;
 
-  @Option(
-      names = "--level",
-      paramLabel = "P",
-      description = "Probability of the central intervals in the summary and report, e.g. 0.9 (default: ${DEFAULT-VALUE}).")
-  double level = SummaryTable.INTERVAL_LEVEL;
+  @Mixin LevelOption level;
+
+  @Mixin ProbabilityOption probability;
 
   @Option(
       names = "--replicate-checks",
@@ -115,7 +115,8 @@ public final class FitCommand implements Callable<Integer> {
     PrintWriter stdout = spec.commandLine().getOut();
     PrintWriter stderr = spec.commandLine().getErr();
     try (FitRun run =
-        FitRun.prepare(request(), PredictiveOptions.of(replicateChecks, keepReplicates))) {
+        FitRun.prepare(
+            request(), PredictiveOptions.of(replicateChecks, keepReplicates), signals.startup())) {
       for (String note : run.notes()) {
         stderr.println("hullbound fit: " + note);
       }
@@ -147,6 +148,15 @@ public final class FitCommand implements Callable<Integer> {
           display.finish();
         }
         print(result, stdout, stderr);
+        if (probability.given() && result.summary().isPresent()) {
+          // after the files: a statement naming no unknown loses no draw
+          DrawsTable draws = DrawsReader.read(result.drawsFile());
+          List<ProbabilityOption.Estimate> estimates =
+              ProbabilityOption.estimate(probability.expand(draws.variables()), draws::draws);
+          stdout.print(ProbabilityOption.text(estimates));
+          stdout.println("probabilities: " + ProbabilityOption.write(result.folder(), estimates));
+          stdout.flush();
+        }
         if (result.stoppedEarly()) {
           printHowToResume(result.folder(), stdout);
         }
@@ -161,8 +171,8 @@ public final class FitCommand implements Callable<Integer> {
   /** The options as the application layer takes them: an option not given is null. */
   private FitRequest request() {
     CommandLine.ParseResult given = spec.commandLine().getParseResult();
-    if (ReportCommand.levelProblem(level) != null) {
-      throw new RunRefusedException(ReportCommand.levelProblem(level));
+    if (level.problem() != null) {
+      throw new RunRefusedException(level.problem());
     }
     return new FitRequest(
         model.inputs(), initFile,
@@ -170,7 +180,7 @@ public final class FitCommand implements Callable<Integer> {
         given.hasMatchedOption("--burn-in") ? burnIn : null,
         given.hasMatchedOption("--draws") ? draws : null,
         given.hasMatchedOption("--thin") ? thin : null,
-        seed.given(), threads, out.given(), resumeFolder, overwrite, level);
+        seed.given(), threads, out.given(), resumeFolder, overwrite, level.value());
   }
 
   private void printHowToResume(Path folder, PrintWriter stdout) {

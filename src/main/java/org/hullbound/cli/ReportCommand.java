@@ -70,11 +70,7 @@ public final class ReportCommand implements Callable<Integer> {
   @Parameters(index = "0", paramLabel = "DIR", description = "The folder of a fit run.")
   Path folder;
 
-  @Option(
-      names = "--level",
-      paramLabel = "P",
-      description = "Probability of the central intervals, e.g. 0.9 (default: ${DEFAULT-VALUE}).")
-  double level = ReportOptions.DEFAULT_INTERVAL_LEVEL;
+  @CommandLine.Mixin LevelOption level;
 
   @Option(
       names = "--plot-cap",
@@ -99,8 +95,8 @@ public final class ReportCommand implements Callable<Integer> {
   public Integer call() throws IOException {
     PrintWriter stdout = spec.commandLine().getOut();
     PrintWriter stderr = spec.commandLine().getErr();
-    if (levelProblem(level) != null) {
-      return userError(stderr, levelProblem(level));
+    if (level.problem() != null) {
+      return userError(stderr, level.problem());
     }
     if (plotCap < 0) {
       return userError(stderr, "--plot-cap must be 0 or more, got " + plotCap);
@@ -121,7 +117,9 @@ public final class ReportCommand implements Callable<Integer> {
         checkpoint = Optional.of(CheckpointFile.read(folder));
       }
     } catch (CheckpointException | IllegalArgumentException unusable) {
-      return userError(stderr, unusable.getMessage());
+      int status = userError(stderr, unusable.getMessage());
+      ErrorReporting.traceUnderDebug(spec.commandLine(), unusable);
+      return status;
     }
     DrawsTable table = DrawsReader.read(drawsFile);
     for (String note : table.notes()) {
@@ -165,7 +163,7 @@ public final class ReportCommand implements Callable<Integer> {
     ReportOptions options =
         ReportOptions.defaults()
             .withPlotCap(plotCap)
-            .withIntervalLevel(level)
+            .withIntervalLevel(level.value())
             .withSortByMean(sortByMean);
     ReportInput built = ReportInput.of(header, summary, Verdicts.of(summary), draws, options);
     List<String> warnings = new ArrayList<>(built.warnings());
@@ -183,12 +181,6 @@ public final class ReportCommand implements Callable<Integer> {
     return 0;
   }
 
-  /** What is wrong with {@code --level P}, or null: it must lie strictly between 0 and 1. */
-  static String levelProblem(double level) {
-    return level > 0 && level < 1
-        ? null
-        : "--level must lie strictly between 0 and 1, e.g. 0.9; got " + level;
-  }
 
   /** The first warning of a page re-rendered from a folder without run.txt. */
   static String rerenderNote(boolean checkpointFound, boolean modelFound) {

@@ -3,6 +3,7 @@ package org.hullbound.cli;
 import java.io.PrintWriter;
 import java.util.concurrent.CountDownLatch;
 import java.util.concurrent.TimeUnit;
+import org.hullbound.app.StartupGuard;
 import org.hullbound.gibbs.StopSignal;
 
 /**
@@ -10,6 +11,9 @@ import org.hullbound.gibbs.StopSignal;
  * line saying nothing was written and an immediate end; while sampling, a stop request to the
  * chains and a bounded wait until the run has written its files. The JVM then ends with the
  * signal's own status (130 for SIGINT, 143 for SIGTERM).
+ *
+ * <p>A signal before sampling also releases the output folder if the run being prepared has locked
+ * it ({@link StartupGuard}): the preparing thread does not get to release it itself.
  *
  * <p>Installed as the first thing the command does, so that a signal during reading or compiling
  * finds it: adding a shutdown hook while the JVM already shuts down throws "Shutdown in progress",
@@ -22,6 +26,8 @@ final class SignalStop implements AutoCloseable {
   private final PrintWriter stderr;
   private final CountDownLatch finished = new CountDownLatch(1);
   private final Thread hook;
+  /** The start-up's folder lock, released by a signal before sampling. */
+  private final StartupGuard startup = StartupGuard.create();
   /** The chains' stop, once sampling began; guarded by this. */
   private StopSignal sampling;
   /** Set when a signal came before sampling; guarded by this. */
@@ -66,8 +72,13 @@ final class SignalStop implements AutoCloseable {
               + " written");
           stderr.flush();
         }
-        return;
       }
+    }
+    if (stop == null) {
+      // the thread preparing the run never reaches its finally once the hooks end: release the
+      // folder it may have locked here
+      startup.stop();
+      return;
     }
     stop.request();
     try {
@@ -75,6 +86,11 @@ final class SignalStop implements AutoCloseable {
     } catch (InterruptedException interrupted) {
       Thread.currentThread().interrupt();
     }
+  }
+
+  /** The guard through which the run being prepared locks its folder. */
+  StartupGuard startup() {
+    return startup;
   }
 
   /** The run's files are written: a JVM ending on a signal may end now. */

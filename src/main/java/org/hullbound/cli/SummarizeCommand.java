@@ -77,11 +77,9 @@ public final class SummarizeCommand implements Callable<Integer> {
           "Flag a bulk or tail effective sample size below N (default: ${DEFAULT-VALUE}).")
   double minEss = Verdicts.DEFAULT_MIN_ESS;
 
-  @Option(
-      names = "--level",
-      paramLabel = "P",
-      description = "Probability of the central intervals, e.g. 0.9 (default: ${DEFAULT-VALUE}).")
-  double level = SummaryTable.INTERVAL_LEVEL;
+  @CommandLine.Mixin LevelOption level;
+
+  @CommandLine.Mixin ProbabilityOption probability;
 
   @CommandLine.Spec CommandLine.Model.CommandSpec spec;
 
@@ -113,6 +111,7 @@ public final class SummarizeCommand implements Callable<Integer> {
         }
       }
     }
+    List<ProbabilityOption.Statement> statements = probability.expand(draws.variables());
     for (String note : draws.notes()) {
       stderr.println("hullbound summarize: note: " + note);
     }
@@ -124,7 +123,7 @@ public final class SummarizeCommand implements Callable<Integer> {
       kept.add(d);
       summaries.add(PosteriorSummary.of(name, d));
     }
-    SummaryTable table = SummaryTable.of(summaries).withIntervalLevel(level, kept);
+    SummaryTable table = SummaryTable.of(summaries).withIntervalLevel(level.value(), kept);
     if (csvFile != null) {
       AtomicFiles.write(csvFile, table.csv());
     }
@@ -132,6 +131,9 @@ public final class SummarizeCommand implements Callable<Integer> {
     stdout.println();
     for (String line : Verdicts.of(table, maxRhat, minEss).lines()) {
       stdout.println(line);
+    }
+    if (!statements.isEmpty()) {
+      stdout.print(ProbabilityOption.text(ProbabilityOption.estimate(statements, draws::draws)));
     }
     if (csvFile != null) {
       stdout.println();
@@ -148,8 +150,8 @@ public final class SummarizeCommand implements Callable<Integer> {
     if (!(minEss > 0) || Double.isInfinite(minEss)) {
       return "--min-ess must be a finite number above 0, got " + NumberSyntax.written(minEss);
     }
-    if (ReportCommand.levelProblem(level) != null) {
-      return ReportCommand.levelProblem(level);
+    if (level.problem() != null) {
+      return level.problem();
     }
     if (columns != null && columns.stream().allMatch(c -> c.isBlank())) {
       return "--columns needs at least one variable name";

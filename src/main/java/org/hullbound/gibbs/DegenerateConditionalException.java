@@ -2,6 +2,7 @@ package org.hullbound.gibbs;
 
 import org.hullbound.hull.HullException;
 import org.hullbound.hull.ProposalLimitException;
+import org.hullbound.sampling.ArmsFailureException;
 
 /**
  * One unknown's full conditional is numerically degenerate: its adaptive rejection draw gave up
@@ -13,6 +14,10 @@ import org.hullbound.hull.ProposalLimitException;
  * <p>The message names the values a practitioner needs to see the degeneracy: the unknown's
  * current value, its support, and where the hull's abscissae lay with the log-density at the
  * highest of them, all on the sampling scale.
+ *
+ * <p>The fallback (adaptive rejection Metropolis) fails in the same way when the conditional it
+ * took over is degenerate too ({@link ArmsFailureException}): that failure is reported as this
+ * type with the fallback's own values.
  */
 public final class DegenerateConditionalException extends RuntimeException {
   private static final long serialVersionUID = 1L;
@@ -22,6 +27,12 @@ public final class DegenerateConditionalException extends RuntimeException {
       HullException restartFailed) {
     super(describe(current, lower, upper, stuck, restartFailed), stuck);
     addSuppressed(restartFailed);
+  }
+
+  DegenerateConditionalException(ArmsFailureException fallbackFailed) {
+    super("the full conditional is numerically degenerate for the fallback: "
+        + fallbackFailed.getMessage() + " (sampling scale); check the data for extreme values"
+        + " (such as a count of 1e15) or rescale", fallbackFailed);
   }
 
   private static String describe(

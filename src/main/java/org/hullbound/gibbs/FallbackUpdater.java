@@ -2,6 +2,7 @@ package org.hullbound.gibbs;
 
 import java.util.random.RandomGenerator;
 import org.hullbound.sampling.AdaptiveRejectionMetropolis;
+import org.hullbound.sampling.ArmsFailureException;
 
 /**
  * A Markov transition that leaves the full conditional invariant where log-concavity is not
@@ -56,7 +57,12 @@ final class FallbackUpdater implements Updater {
     AdaptiveRejectionMetropolis arms =
         AdaptiveRejectionMetropolis.of(
             this::logDensity, lower, upper, initialPoints(lower, upper), MAX_POINTS);
-    double next = arms.next(current, rng);
+    double next;
+    try {
+      next = arms.next(current, rng);
+    } catch (ArmsFailureException degenerate) {
+      throw new DegenerateConditionalException(degenerate);
+    }
     state[index] = conditional.toNatural(next);
     draws++;
     if (sweeps <= adaptationSweeps) {

@@ -60,6 +60,8 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
   long squeezeAcceptances;
   /** Proposals accepted on the fast path alone; counted in proposals and squeeze acceptances. */
   long innerAcceptances;
+  /** Rejections decided by the hull before an evaluation (see {@link SamplerStatistics}). */
+  long hullRejections;
   long densityAcceptances;
   long rejections;
 
@@ -186,6 +188,7 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
               - drop;
       if (!belowExp(w, raise)) {
         rejections++;
+        hullRejections++;
         continue;
       }
       double hullTerm = p.slope[j] * offset;
@@ -324,7 +327,8 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
         squeezeAcceptances + innerAcceptances,
         densityAcceptances,
         rejections,
-        k);
+        k,
+        hullRejections);
   }
 
   @Override

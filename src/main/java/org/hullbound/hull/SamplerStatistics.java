@@ -12,6 +12,8 @@ package org.hullbound.hull;
  * @param densityAcceptances proposals accepted after evaluating the density
  * @param rejections proposals rejected
  * @param hullSize current number of abscissae
+ * @param hullRejections of the rejections, those the hull made itself before evaluating the
+ *     density (a proposal above the lower hull of a settled staircase step)
  */
 public record SamplerStatistics(
     long evaluations,
@@ -19,7 +21,8 @@ public record SamplerStatistics(
     long squeezeAcceptances,
     long densityAcceptances,
     long rejections,
-    int hullSize) {
+    int hullSize,
+    long hullRejections) {
 
   /** Draws returned so far. */
   public long draws() {

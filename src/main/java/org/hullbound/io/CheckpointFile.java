@@ -15,6 +15,7 @@ import org.hullbound.gibbs.ChainRandom;
 import org.hullbound.gibbs.ChainState;
 import org.hullbound.gibbs.KernelState;
 import org.hullbound.gibbs.UpdaterState;
+import org.hullbound.lang.NumberSyntax;
 
 /**
  * Reads and writes {@code DIR/checkpoint.txt}: a {@link Checkpoint} as labelled lines of text,
@@ -145,12 +146,12 @@ public final class CheckpointFile {
       }
       String model = unescape(lines.value("model"));
       String hash = lines.value("model and data sha-256");
-      long seed = Long.parseLong(lines.value("seed"));
-      int chains = Integer.parseInt(lines.value("chains"));
-      int burnIn = Integer.parseInt(lines.value("burn-in"));
-      int draws = Integer.parseInt(lines.value("draws"));
-      int thin = Integer.parseInt(lines.value("thin"));
-      int unknowns = Integer.parseInt(lines.value("unknowns"));
+      long seed = lines.whole("seed", Long.MIN_VALUE);
+      int chains = lines.count("chains");
+      int burnIn = lines.count("burn-in");
+      int draws = lines.count("draws");
+      int thin = lines.count("thin");
+      int unknowns = lines.count("unknowns");
       List<String> columns = new ArrayList<>();
       for (int k = 0; k < unknowns; k++) {
         columns.add(unescape(lines.value("unknown")));
@@ -162,15 +163,17 @@ public final class CheckpointFile {
         if (parts.length != 2 || !parts[0].startsWith("sweep ") || !parts[1].startsWith("draws ")) {
           throw damaged(name, "line " + lines.number + ": expected 'sweep N, draws N', got " + head);
         }
-        long sweep = Long.parseLong(parts[0].substring("sweep ".length()));
-        int kept = Integer.parseInt(parts[1].substring("draws ".length()));
+        int sweepAt = ("chain " + chain + ": sweep ").length() + 1;
+        long sweep = lines.whole(parts[0].substring("sweep ".length()), sweepAt, 0);
+        int kept = (int) lines.whole(parts[1].substring("draws ".length()),
+            sweepAt + parts[0].length() - "sweep ".length() + ", draws ".length(), 0);
         long[] generator = parseWords(lines.value("generator"));
         long[] bits = parseWords(lines.value("values"));
         double[] values = new double[bits.length];
         for (int k = 0; k < bits.length; k++) {
           values[k] = Double.longBitsToDouble(bits[k]);
         }
-        int updaterCount = Integer.parseInt(lines.value("updaters"));
+        int updaterCount = lines.count("updaters");
         List<UpdaterState> updaters = new ArrayList<>();
         for (int k = 0; k < updaterCount; k++) {
           long[] words = parseWords(lines.value("updater"));
@@ -273,6 +276,45 @@ public final class CheckpointFile {
               && !label.equals("updater")
           ? rest.substring(1)
           : rest;
+    }
+
+    /**
+     * The whole number after {@code label:} on the next line, at least {@code least}, read by the
+     * one number grammar ({@link NumberSyntax}: {@code 22d} or {@code 0x16} is not 22).
+     */
+    long whole(String label, long least) {
+      String text = value(label);
+      return whole(text, label.length() + 3, least);
+    }
+
+    /** A count (a whole number from 0 to the largest int) after {@code label:} on the next line. */
+    int count(String label) {
+      String text = value(label);
+      long value = whole(text, label.length() + 3, 0);
+      if (value > Integer.MAX_VALUE) {
+        throw at(label.length() + 3, "'" + text + "' is too large for a count");
+      }
+      return (int) value;
+    }
+
+    /** {@code text}, found at {@code column} of the current line, as a whole number >= least. */
+    long whole(String text, int column, long least) {
+      long value;
+      try {
+        value = NumberSyntax.parseWhole(text);
+      } catch (NumberSyntax.InvalidNumberException notWhole) {
+        throw at(column, notWhole.getMessage() + "; expected a whole number");
+      }
+      if (value < least) {
+        throw at(column, "'" + text + "' is below " + least);
+      }
+      return value;
+    }
+
+    /** The checkpoint is damaged at {@code column} of the current line: file:line:column first. */
+    CheckpointException at(int column, String why) {
+      return new CheckpointException(
+          name + ":" + number + ":" + column + ": the checkpoint is damaged: " + why);
     }
 
     boolean hasMore() {

@@ -19,11 +19,11 @@ import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import java.util.TreeMap;
-import java.util.regex.Pattern;
 import org.apache.commons.csv.CSVFormat;
 import org.apache.commons.csv.CSVParser;
 import org.apache.commons.csv.CSVRecord;
 import org.hullbound.lang.ModelException;
+import org.hullbound.lang.NumberSyntax;
 import org.hullbound.lang.SourcePosition;
 
 /**
@@ -32,10 +32,11 @@ import org.hullbound.lang.SourcePosition;
  * then one per unknown) or any CSV whose columns are variables, with an optional {@code chain}
  * column and an optional {@code draw} or {@code iteration} column that is not a variable.
  *
- * <p>Diagnostics need complete, numeric draws, so every cell must be a decimal number or one of
- * {@code NaN}, {@code inf}, {@code -inf} (as {@code fit} writes them); an empty or {@code NA}
- * cell, a ragged row, a repeated column name, a chain label that is not an integer or a number
- * beyond the range of a double is refused with a {@link ModelException} at {@code
+ * <p>Diagnostics need complete, numeric draws, so every cell must be a number of the one number
+ * grammar ({@link NumberSyntax}, as data cells are read: Java's {@code 22d}, {@code 2.2e1f},
+ * {@code 0x1.6p4} are not numbers) or one of {@code NaN}, {@code inf}, {@code -inf} (as {@code
+ * fit} writes them); an empty or {@code NA} cell, a ragged row, a repeated column name, a chain
+ * label that is not a whole number or a number too large or too small for a double is refused with a {@link ModelException} at {@code
  * file:line:cell}, the problem naming the column. Rows of different chains may interleave (as
  * {@code fit} writes them); within a chain the file order is the draw order. Chains of unequal
  * length (an interrupted run, a foreign file) are cut to the shortest, and {@link
@@ -51,9 +52,6 @@ public final class DrawsReader {
 
   private static final CSVFormat FORMAT =
       CSVFormat.RFC4180.builder().setIgnoreEmptyLines(true).get();
-  private static final Pattern DECIMAL =
-      Pattern.compile("[+-]?(?:\\d+(?:\\.\\d*)?|\\.\\d+)(?:[eE][+-]?\\d+)?");
-  private static final Pattern INTEGER = Pattern.compile("[+-]?\\d+");
   private static final Map<String, Double> NON_FINITE_WORDS =
       Map.of(
           "nan", Double.NaN,
@@ -246,17 +244,14 @@ public final class DrawsReader {
         throw notUtf8(line, chainCell + 1, "cell " + (chainCell + 1) + " (column '"
             + shown(header.get(chainCell)) + "')");
       }
-      if (INTEGER.matcher(cell).matches()) {
-        try {
-          return Long.parseLong(cell);
-        } catch (NumberFormatException tooLong) {
-          // reported below
-        }
+      try {
+        return NumberSyntax.parseWhole(cell);
+      } catch (NumberSyntax.InvalidNumberException notWhole) {
+        throw error(line, chainCell + 1, "cell " + (chainCell + 1) + " (column '"
+                + shown(header.get(chainCell)) + "'): expected a whole number labelling the chain,"
+                + " got " + quoted(text),
+            null);
       }
-      throw error(line, chainCell + 1, "cell " + (chainCell + 1) + " (column '"
-              + shown(header.get(chainCell)) + "'): expected a whole number labelling the chain,"
-              + " got " + quoted(text),
-          null);
     }
 
     private double number(String text, int line, int k) {
@@ -275,15 +270,16 @@ public final class DrawsReader {
       if (word != null) {
         return word;
       }
-      if (!DECIMAL.matcher(cell).matches()) {
-        throw error(line, k + 1, where + ": expected a number, got " + quoted(text), null);
+      try {
+        return NumberSyntax.parse(cell);
+      } catch (NumberSyntax.InvalidNumberException notNumber) {
+        // the one number grammar: Java's 22d, 2.2e1f, 0x1.6p4 are not numbers here either
+        String problem =
+            notNumber.reason().equals("is not a number")
+                ? "expected a number, got " + quoted(text)
+                : quoted(text) + " " + notNumber.reason();
+        throw error(line, k + 1, where + ": " + problem, notNumber.hint());
       }
-      double value = Double.parseDouble(cell);
-      if (Double.isInfinite(value)) {
-        throw error(line, k + 1, where + ": " + quoted(text) + " is beyond the range of a double"
-            + " (largest magnitude about 1.8e308)", "write inf or -inf for an infinite draw");
-      }
-      return value;
     }
 
     private DrawsTable table() {

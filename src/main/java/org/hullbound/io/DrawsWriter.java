@@ -13,6 +13,7 @@ import java.util.concurrent.Executors;
 import java.util.concurrent.ScheduledExecutorService;
 import java.util.concurrent.TimeUnit;
 import org.hullbound.gibbs.DrawSink;
+import org.hullbound.lang.NumberSyntax;
 
 /**
  * Streams draws to {@code DIR/draws.csv} as they are made: columns {@code chain}, {@code draw},
@@ -120,7 +121,7 @@ public final class DrawsWriter implements DrawSink, AutoCloseable {
       // Not even the header could be written: leave no empty draws file behind.
       if (writer != null) {
         writer.flusher.shutdownNow();
-        closeQuietly(writer.out);
+        Closing.quietly(writer.out);
       }
       try {
         Files.deleteIfExists(file);
@@ -172,12 +173,14 @@ public final class DrawsWriter implements DrawSink, AutoCloseable {
       String[] fields = line.split(",", -1);
       int chain;
       int draw;
-      try {
-        chain = Integer.parseInt(fields[0]) - 1;
-        draw = Integer.parseInt(fields[1]);
-      } catch (NumberFormatException | ArrayIndexOutOfBoundsException bad) {
+      if (fields.length < 2) {
         throw new CheckpointException(file + ":" + lineNumber + ": not a row of draws: " + line);
       }
+      long chainNumber = whole(fields[0], file, lineNumber, 1);
+      long drawNumber = whole(fields[1], file, lineNumber, fields[0].length() + 2);
+      // out of range: refused just below, as a chain or draw that does not follow
+      chain = chainNumber >= 1 && chainNumber <= kept.length ? (int) chainNumber - 1 : -1;
+      draw = (int) Math.max(-1, Math.min(Integer.MAX_VALUE, drawNumber));
       if (chain < 0 || chain >= kept.length || fields.length != columns.size() + 2) {
         throw new CheckpointException(
             file + ":" + lineNumber + ": expected chain 1 to " + kept.length + " and "
@@ -190,8 +193,10 @@ public final class DrawsWriter implements DrawSink, AutoCloseable {
                   + " follows draw " + seen[chain]);
         }
         seen[chain] = draw;
+        int column = fields[0].length() + fields[1].length() + 3;
         for (int k = 0; k < values.length; k++) {
-          values[k] = parseNumber(fields[k + 2], file, lineNumber);
+          values[k] = parseNumber(fields[k + 2], file, lineNumber, column);
+          column += fields[k + 2].length() + 1;
         }
         existing.accept(chain, draw, values);
         keptText.append(line).append('\n');
@@ -224,20 +229,29 @@ public final class DrawsWriter implements DrawSink, AutoCloseable {
     return header.append('\n').toString();
   }
 
-  private static double parseNumber(String field, Path file, int lineNumber) {
-    switch (field) {
-      case "NaN":
-        return Double.NaN;
-      case "inf":
-        return Double.POSITIVE_INFINITY;
-      case "-inf":
-        return Double.NEGATIVE_INFINITY;
-      default:
-        try {
-          return Double.parseDouble(field);
-        } catch (NumberFormatException bad) {
-          throw new CheckpointException(file + ":" + lineNumber + ": not a number: " + field);
-        }
+  /**
+   * A draw as this writer writes it: a number of the one number grammar ({@link NumberSyntax}, so
+   * not Java's {@code 22d} or {@code 0x1.6p4}), {@code inf}, {@code -inf} or {@code NaN}.
+   */
+  private static double parseNumber(String field, Path file, int lineNumber, int column) {
+    if (field.equals("NaN")) {
+      return Double.NaN;
+    }
+    try {
+      return NumberSyntax.parse(field);
+    } catch (NumberSyntax.InvalidNumberException bad) {
+      throw new CheckpointException(
+          file + ":" + lineNumber + ":" + column + ": not a draw: " + bad.getMessage());
+    }
+  }
+
+  /** A chain or draw number of a row, by the one number grammar. */
+  private static long whole(String field, Path file, int lineNumber, int column) {
+    try {
+      return NumberSyntax.parseWhole(field);
+    } catch (NumberSyntax.InvalidNumberException bad) {
+      throw new CheckpointException(
+          file + ":" + lineNumber + ":" + column + ": not a row of draws: " + bad.getMessage());
     }
   }
 
@@ -333,17 +347,6 @@ public final class DrawsWriter implements DrawSink, AutoCloseable {
       } catch (IOException cannotCut) {
         e.addSuppressed(cannotCut);
       }
-    }
-  }
-
-  private static void closeQuietly(FileChannel channel) {
-    if (channel == null) {
-      return;
-    }
-    try {
-      channel.close();
-    } catch (IOException ignored) {
-      // The failure that made us close is the one reported.
     }
   }
 

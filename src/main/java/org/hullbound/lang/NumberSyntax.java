@@ -121,6 +121,37 @@ public final class NumberSyntax {
     return value;
   }
 
+  /** Whole numbers beyond this magnitude are not all exact as doubles (2^53). */
+  private static final double EXACT_WHOLE = 9007199254740992.0;
+
+  /**
+   * The whole number {@code text} stands for: digits with an optional leading {@code -}, read
+   * exactly over the whole range of a {@code long} (a seed needs all 64 bits); or any other number
+   * of the grammar whose value is whole and at most 2^53 in magnitude ({@code 1e3}), where a
+   * double holds it exactly.
+   *
+   * @throws InvalidNumberException when it is not a number of the grammar, not whole, or outside
+   *     that range
+   */
+  public static long parseWhole(String text) {
+    int start = text.startsWith("-") ? 1 : 0;
+    if (start < text.length() && skipDigits(text, start) == text.length()) {
+      try {
+        return Long.parseLong(text);
+      } catch (NumberFormatException tooLarge) {
+        throw new InvalidNumberException(
+            text, "is too large for a whole number (the largest is " + Long.MAX_VALUE + ")",
+            "write a smaller number");
+      }
+    }
+    double value = parse(text);
+    if (value != Math.rint(value) || !(Math.abs(value) <= EXACT_WHOLE)) {
+      throw new InvalidNumberException(
+          text, "is not a whole number", "write a whole number, as in 0, 12, -3");
+    }
+    return (long) value;
+  }
+
   /**
    * The end of the literal that starts at {@code from} in {@code text}: past its digits, point and
    * exponent; {@code from} itself when none starts there. A point followed by another point is not

@@ -62,7 +62,9 @@ public final class EnvelopePlot {
    * @param squeeze the squeeze at the abscissae inside the range
    * @param logDensity the log-density on a grid over the range
    * @param abscissae the abscissae and the log-density there, drawn as dots
-   * @param draws draws to mark with ticks along the bottom
+   * @param draws draws to mark with ticks along the bottom: the first of {@code drawsMade}
+   * @param drawsMade the draws made, which the legend states (with how many the ticks show, when
+   *     fewer)
    */
   public static String svg(
       String title,
@@ -72,7 +74,8 @@ public final class EnvelopePlot {
       Curve squeeze,
       Curve logDensity,
       Curve abscissae,
-      double[] draws) {
+      double[] draws,
+      long drawsMade) {
     if (!(Double.isFinite(xLow) && Double.isFinite(xHigh) && xLow < xHigh)) {
       throw new IllegalArgumentException(
           "x range must be finite with xLow < xHigh, got [" + xLow + ", " + xHigh + "]");
@@ -137,7 +140,7 @@ public final class EnvelopePlot {
       }
     }
     svg.append("\"/>\n");
-    legend(svg, shown, abscissae.x().length);
+    legend(svg, shown, Math.max(drawsMade, shown), abscissae.x().length);
     svg.append("</svg>\n");
     return svg.toString();
   }
@@ -185,13 +188,14 @@ public final class EnvelopePlot {
     return text.startsWith("-") ? " + " + text.substring(1) : " \u2212 " + text;
   }
 
-  private static void legend(StringBuilder svg, int shownDraws, int abscissae) {
+  private static void legend(StringBuilder svg, int shownDraws, long drawsMade, int abscissae) {
     String[][] entries = {
       {HULL_COLOUR, "upper hull", ""},
       {SQUEEZE_COLOUR, "squeeze", "5 3"},
       {DENSITY_COLOUR, "log-density", ""},
       {DENSITY_COLOUR, abscissae + (abscissae == 1 ? " abscissa" : " abscissae"), "dot"},
-      {DRAW_COLOUR, shownDraws + " draw" + (shownDraws == 1 ? "" : "s"), "tick"},
+      {DRAW_COLOUR, drawsMade + " draw" + (drawsMade == 1 ? "" : "s") + " made"
+          + (shownDraws == drawsMade ? "" : ", " + shownDraws + " shown"), "tick"},
     };
     double x = LEFT;
     double y = 44;

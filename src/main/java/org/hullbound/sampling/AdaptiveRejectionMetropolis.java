@@ -86,6 +86,8 @@ public final class AdaptiveRejectionMetropolis implements MarkovTransition {
   private int pieces;
   private final double[] breaks = new double[5];
 
+  /** The current value of the call in progress, for the failures' messages. */
+  private double callCurrent = Double.NaN;
   private long transitions;
   private long evaluations;
   private long adaptiveRejections;
@@ -149,10 +151,10 @@ public final class AdaptiveRejectionMetropolis implements MarkovTransition {
   @Override
   public double next(double current, RandomGenerator rng) {
     Arguments.inSupport("current", current, lower, upper);
+    callCurrent = current;
     double logCurrent = evaluate(current);
     if (logCurrent == Double.NEGATIVE_INFINITY) {
-      throw new IllegalArgumentException(
-          "current must have positive density, got log f = -Infinity at " + current);
+      throw failure("found zero density (log f = -Infinity) at the current value", current, 0);
     }
     transitions++;
     // Step 1, initialisation: abscissae S from the initial points (never from the current state),
@@ -189,9 +191,15 @@ public final class AdaptiveRejectionMetropolis implements MarkovTransition {
       metropolisRejections++;
       return current;
     }
-    throw new IllegalStateException("the rejection step accepted no candidate in " + MAX_TRIES
-        + " tries: the target has almost no mass where the envelope through the initial points"
-        + " puts it; choose initial points inside the bulk of the target");
+    throw failure("accepted no candidate in " + MAX_TRIES + " tries of its rejection step: the"
+        + " target has almost no mass where the envelope through the initial points puts it",
+        current, size);
+  }
+
+  /** A typed failure naming the current value (NaN: this call's) and the first {@code count} abscissae. */
+  private ArmsFailureException failure(String what, double at, int count) {
+    return new ArmsFailureException(what, Double.isNaN(at) ? callCurrent : at, lower, upper, xs, hs,
+        count);
   }
 
   /** The initial abscissae this sampler starts every call from (a copy). */
@@ -221,8 +229,8 @@ public final class AdaptiveRejectionMetropolis implements MarkovTransition {
       xs[i] = initialPoints[i];
       hs[i] = evaluate(xs[i]);
       if (hs[i] == Double.NEGATIVE_INFINITY) {
-        throw new IllegalArgumentException("initialPoints[" + i + "] = " + xs[i]
-            + " has density 0 (log f = -Infinity); ARMS needs points where f > 0");
+        throw failure("found zero density (log f = -Infinity) at initialPoints[" + i + "] = "
+            + xs[i] + "; it needs initial points where f > 0", Double.NaN, i + 1);
       }
     }
     highest = Double.NEGATIVE_INFINITY;
@@ -234,8 +242,8 @@ public final class AdaptiveRejectionMetropolis implements MarkovTransition {
     if (lower == Double.NEGATIVE_INFINITY) {
       for (int k = 0; !(slope(0, 1) > 0) || hs[0] > highest - TAIL_DROP; k++) {
         if (k > SEARCH_DOUBLINGS) {
-          throw new IllegalArgumentException("log f does not fall toward -Infinity left of "
-              + xs[0] + ": the target seems improper there; give a finite lower bound");
+          throw failure("found that log f does not fall toward -Infinity left of " + xs[0]
+              + ": the target seems improper there; give a finite lower bound", Double.NaN, size);
         }
         double x = initialPoints[0] - spread * Math.scalb(1.0, k);
         double h = Math.max(evaluate(x), floorAt(x));
@@ -250,8 +258,9 @@ public final class AdaptiveRejectionMetropolis implements MarkovTransition {
       for (int k = 0; !(slope(size - 2, size - 1) < 0) || hs[size - 1] > highest - TAIL_DROP;
           k++) {
         if (k > SEARCH_DOUBLINGS) {
-          throw new IllegalArgumentException("log f does not fall toward +Infinity right of "
-              + xs[size - 1] + ": the target seems improper there; give a finite upper bound");
+          throw failure("found that log f does not fall toward +Infinity right of "
+              + xs[size - 1] + ": the target seems improper there; give a finite upper bound",
+              Double.NaN, size);
         }
         double x = initialPoints[initialPoints.length - 1] + spread * Math.scalb(1.0, k);
         double h = Math.max(evaluate(x), floorAt(x));
@@ -402,8 +411,8 @@ public final class AdaptiveRejectionMetropolis implements MarkovTransition {
       largest = Math.max(largest, pieceWeight[p]);
     }
     if (!Double.isFinite(largest)) {
-      throw new IllegalStateException("the envelope's mass is not finite (largest log mass "
-          + largest + "); the log-density values at the abscissae are too extreme");
+      throw failure("built an envelope whose mass is not finite (largest log mass " + largest
+          + "): the log-density values at the abscissae are too extreme", Double.NaN, size);
     }
     double total = 0;
     for (int p = 0; p < pieces; p++) {

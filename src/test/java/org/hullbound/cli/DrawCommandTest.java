@@ -170,16 +170,41 @@ class DrawCommandTest {
     assertEquals(0, run.exit());
     String err = run.err();
     assertTrue(err.startsWith("hullbound draw: 200 draws on (-inf, +inf), seed 5"), err);
-    for (String counter : List.of("density evaluations", "proposals", "accepted by squeeze",
-        "accepted by density", "rejected", "hull size")) {
+    for (String counter : List.of("density evaluations", "proposals", "  accepted by squeeze",
+        "  accepted by density", "  rejected by hull", "  rejected by density", "hull size")) {
       assertTrue(err.contains("  " + counter + " "), counter + " missing in\n" + err);
     }
     long proposals = counter(err, "proposals");
-    long squeeze = counter(err, "accepted by squeeze");
-    long density = counter(err, "accepted by density");
-    long rejected = counter(err, "rejected");
+    long squeeze = counter(err, "  accepted by squeeze");
+    long density = counter(err, "  accepted by density");
+    long byHull = counter(err, "  rejected by hull");
+    long byDensity = counter(err, "  rejected by density");
     assertEquals(200, squeeze + density, "every draw is accepted by squeeze or density");
-    assertEquals(proposals, squeeze + density + rejected);
+    assertEquals(proposals, squeeze + density + byHull + byDensity);
+  }
+
+  /**
+   * The counters add up (issue 10: for -x^2/2 and seed 3, 71 proposals past the squeeze were
+   * printed beside 34 evaluations, since 37 of them the hull rejected itself, unprinted): every
+   * proposal is counted once, and the evaluations are the starting hull's plus one for each
+   * proposal judged by the density.
+   */
+  @Test
+  void theCountersAddUpAndSayWhichCostAnEvaluation() {
+    CliRun run = CliRun.of("draw", "--log-density", "-x^2/2", "-n", "1000", "--seed", "3");
+    assertEquals(0, run.exit(), run.toString());
+    String err = run.err();
+    long proposals = counter(err, "proposals");
+    long squeeze = counter(err, "  accepted by squeeze");
+    long density = counter(err, "  accepted by density");
+    long byHull = counter(err, "  rejected by hull");
+    long byDensity = counter(err, "  rejected by density");
+    assertEquals(proposals, squeeze + density + byHull + byDensity, err);
+    assertTrue(byHull > 0, "this seed has rejections by the hull: " + err);
+    long evaluations = counter(err, "density evaluations");
+    assertTrue(err.contains("  density evaluations     " + evaluations + "  (2 for the starting hull + "
+        + (density + byDensity) + " judged by density; "), err);
+    assertEquals(evaluations, 2 + density + byDensity, err);
   }
 
   private static long counter(String text, String name) {
@@ -323,6 +348,19 @@ class DrawCommandTest {
     // One tick per draw: all 300 fall inside the plotted range, which spans the draws.
     assertEquals(300, byId(document, "draws").getAttribute("d").split("M").length - 1);
     assertTrue(byId(document, "abscissae").getElementsByTagName("circle").getLength() >= 3);
+    assertTrue(byId(document, "legend").getTextContent().contains("300 draws made"),
+        byId(document, "legend").getTextContent());
+  }
+
+  /** The legend states the draws made, not only the ticks shown (issue 10; ticks stop at 1000). */
+  @Test
+  void thePlotsLegendStatesTheNumberOfDrawsMade() throws Exception {
+    Path svg = folder.resolve("many.svg");
+    CliRun run = CliRun.of("draw", "--log-density", "-x^2/2", "-n", "2500", "--seed", "9",
+        "--plot", svg.toString(), "--out", folder.resolve("many.csv").toString());
+    assertEquals(0, run.exit(), run.err());
+    String text = Files.readString(svg);
+    assertTrue(text.contains(">2500 draws made, 1000 shown<"), text);
   }
 
   private static Element byId(Document document, String id) {

@@ -34,6 +34,16 @@ class FitSignalTest {
         .start();
   }
 
+  /** SIGTERM to {@code child}: it ends with status 143 and the one line of a stop before sampling. */
+  private void assertStoppedBeforeSampling(Process child) throws Exception {
+    child.destroy(); // SIGTERM
+    assertTrue(child.waitFor(30, TimeUnit.SECONDS), "the child ended");
+    String err = Files.readString(folder.resolve("err.txt"));
+    assertEquals(143, child.exitValue(), err);
+    assertEquals(
+        "hullbound fit: stopped by a signal before sampling began; no file was written\n", err);
+  }
+
   @Test
   void sigtermWhileTheModelIsReadEndsWithStatus143AndOneLine() throws Exception {
     // a named pipe as the model file: the child blocks reading it until this test writes, so the
@@ -53,14 +63,35 @@ class FitSignalTest {
           }
         });
     try (FileOutputStream writer = opened.get(60, TimeUnit.SECONDS)) {
-      child.destroy(); // SIGTERM
-      assertTrue(child.waitFor(30, TimeUnit.SECONDS), "the child ended");
+      assertStoppedBeforeSampling(child);
     }
-    String err = Files.readString(folder.resolve("err.txt"));
-    assertEquals(143, child.exitValue(), err);
-    assertEquals(
-        "hullbound fit: stopped by a signal before sampling began; no file was written\n", err);
     assertFalse(Files.exists(out), "nothing written");
+  }
+
+  /**
+   * SIGTERM while the run holds its folder's lock but has not begun sampling (issue 14): a named
+   * pipe as the checkpoint of {@code --resume}, read under the lock, keeps the child there. The JVM
+   * halts after its shutdown hooks, so the preparing thread never released the lock, and the lock
+   * file kept the run's process id: the next run reported it as a stale lock. Now the signal's
+   * hook releases it, and the lock file is left empty.
+   */
+  @Test
+  void sigtermWhileTheFolderIsLockedLeavesNoLockBehind() throws Exception {
+    Path run = folder.resolve("run");
+    Files.createDirectories(run);
+    Process mkfifo =
+        new ProcessBuilder("mkfifo", run.resolve("checkpoint.txt").toString()).start();
+    assertEquals(0, mkfifo.waitFor());
+    Path lockFile = run.resolve("run.lock");
+    Process child = fit("models/seedlings.hbm", "--data", "models/seedlings.csv", "--quiet",
+        "--resume", run.toString());
+    long deadline = System.nanoTime() + TimeUnit.SECONDS.toNanos(60);
+    while (!(Files.exists(lockFile) && Files.readString(lockFile).startsWith("pid "))) {
+      assertTrue(System.nanoTime() < deadline, "the child locked the folder");
+      Thread.sleep(20);
+    }
+    assertStoppedBeforeSampling(child);
+    assertEquals("", Files.readString(lockFile), "the lock file names no run");
   }
 
   @Test
@@ -78,9 +109,16 @@ class FitSignalTest {
     assertEquals(1, child.exitValue(), err);
     String first = err.lines().findFirst().orElse("");
     // chain 1's stuck draw is now rescued by a restarted hull (gibbs.DegenerateConditionalTest);
-    // chain 2 still fails on effect[1], whose values are too coarsely rounded for the hull
+    // chain 2 still fails on effect[1], whose values far from the mode (near -3.6e8) are too
+    // coarsely rounded for the hull, and then in the fallback, which now says so with its values
+    // (it was a raw IllegalStateException of ARMS)
     assertTrue(first.startsWith("hullbound fit: sampling failed: chain "), err);
-    assertTrue(first.contains("updating effect[1]"), err);
+    assertTrue(first.contains("updating effect[1] (adaptive rejection, then ARMS fallback): the full"
+        + " conditional is numerically degenerate for the fallback: adaptive rejection Metropolis"
+        + " from current value "), err);
+    assertTrue(first.contains(" on support (-inf, inf) accepted no candidate in 100000 tries"), err);
+    assertTrue(first.contains(" abscissae run from "), err);
+    assertEquals(2, err.lines().count(), "one line and where the draws are: " + err);
     assertFalse(err.contains("Exception"), err);
   }
 }

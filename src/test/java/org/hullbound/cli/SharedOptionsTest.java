@@ -64,4 +64,24 @@ class SharedOptionsTest {
     assertTrue(debug.err().contains("--chains must be at least 1, got 0"), debug.err());
     assertTrue(debug.err().contains("RunRefusedException"), debug.err());
   }
+
+  /** --level is one mixin (issue 10: it was declared three times, with two wordings). */
+  @Test
+  void theLevelIsOneMixinInFitSummarizeAndReport() {
+    picocli.CommandLine main = Main.commandLine();
+    String description = null;
+    for (String command : new String[] {"fit", "summarize", "report"}) {
+      picocli.CommandLine.Model.CommandSpec spec =
+          main.getSubcommands().get(command).getCommandSpec();
+      assertTrue(spec.mixins().values().stream()
+              .anyMatch(mixin -> mixin.userObject() instanceof LevelOption), command);
+      String text = String.join(" ", spec.findOption("--level").description());
+      assertEquals(description == null ? text : description, text, command);
+      description = text;
+      CliRun bad = CliRun.of(command, "--level", "1.5", "x");
+      assertEquals(2, bad.exit(), command + bad);
+      assertTrue(bad.err().contains("--level must lie strictly between 0 and 1, e.g. 0.9; got 1.5"),
+          command + bad);
+    }
+  }
 }

@@ -200,7 +200,7 @@ class SummarizeCommandTest {
       {"chain,x\n1,0.5\nA,0.7\n", ":3:1: cell 1 (column 'chain'): expected a whole number"},
       {"x\n1\nNA\n", ":3:1: cell 1 (column 'x') is NA"},
       {"x,y\n1,\n", ":2:2: cell 2 (column 'y') is empty"},
-      {"x\n1e999\n", ":2:1: cell 1 (column 'x'): '1e999' is beyond the range of a double"},
+      {"x\n1e999\n", ":2:1: cell 1 (column 'x'): '1e999' is too large to represent"},
       {"x\n\"1\n", ":2:1: this is not valid CSV"},
     };
     for (String[] c : cases) {

@@ -117,4 +117,56 @@ class CheckpointFileTest {
         assertThrows(CheckpointException.class, () -> CheckpointFile.parse("c.txt", text));
     assertTrue(damaged.getMessage().contains("line 2"), damaged.getMessage());
   }
+
+  /** {@code text} with a check line that fits it, as a hand edit that also fixed the check would. */
+  private static String rechecked(String text) {
+    String body = text.substring(0, text.lastIndexOf("check: "));
+    java.util.zip.CRC32 crc = new java.util.zip.CRC32();
+    crc.update(body.getBytes(StandardCharsets.UTF_8));
+    return body + String.format("check: %08x", crc.getValue()) + "\n";
+  }
+
+  /** The 1-based number of the line of {@code text} that starts with {@code start}. */
+  private static int lineOf(String text, String start) {
+    List<String> lines = text.lines().toList();
+    for (int i = 0; i < lines.size(); i++) {
+      if (lines.get(i).startsWith(start)) {
+        return i + 1;
+      }
+    }
+    throw new AssertionError(start);
+  }
+
+  /**
+   * Numbers in the checkpoint are read by the one number grammar (lang.NumberSyntax, issue 14):
+   * Java's suffixes and hexadecimal forms, a plus sign and non-ASCII digits (which
+   * Integer.parseInt took: "+22" and Arabic-Indic "\u0662\u0662" were read as 22) are refused at
+   * file:line:column.
+   */
+  @Test
+  void numbersOutsideTheLanguagesGrammarAreRefusedAtTheirLineAndColumn() throws Exception {
+    CheckpointFile.write(folder, sample());
+    String text = Files.readString(CheckpointFile.in(folder), StandardCharsets.UTF_8);
+    for (String bad : List.of("22d", "0x1.6p4", "2.2e1f", "+22", "\u0662\u0662")) {
+      String edited = rechecked(text.replace("thin: 2\n", "thin: " + bad + "\n"));
+      CheckpointException refused =
+          assertThrows(CheckpointException.class, () -> CheckpointFile.parse("c.txt", edited), bad);
+      assertTrue(refused.getMessage().startsWith("c.txt:" + lineOf(edited, "thin:") + ":7: the"
+          + " checkpoint is damaged: '" + bad + "' is not a number"), refused.getMessage());
+    }
+    String seed = rechecked(text.replace("seed: -42\n", "seed: 2.2e1f\n"));
+    CheckpointException refused =
+        assertThrows(CheckpointException.class, () -> CheckpointFile.parse("c.txt", seed));
+    assertTrue(refused.getMessage().startsWith("c.txt:" + lineOf(seed, "seed:") + ":7: "),
+        refused.getMessage());
+    // in a chain's line: "chain 2: sweep 250, draws 100", the draws at column 27
+    String draws = rechecked(text.replace("sweep 250, draws 100", "sweep 250, draws 22d"));
+    refused = assertThrows(CheckpointException.class, () -> CheckpointFile.parse("c.txt", draws));
+    assertTrue(refused.getMessage().startsWith("c.txt:" + lineOf(draws, "chain 2:") + ":27: "),
+        refused.getMessage());
+    String sweep = rechecked(text.replace("sweep 250, draws 100", "sweep 0x1.6p4, draws 100"));
+    refused = assertThrows(CheckpointException.class, () -> CheckpointFile.parse("c.txt", sweep));
+    assertTrue(refused.getMessage().startsWith("c.txt:" + lineOf(sweep, "chain 2:") + ":16: "),
+        refused.getMessage());
+  }
 }

@@ -167,7 +167,30 @@ class DrawsReaderTest {
   void aNumberBeyondTheRangeOfADoubleIsRefusedRatherThanReadAsInfinity() {
     ModelException e = refused("x\n1\n1e999\n");
     assertEquals("draws.csv:3:1", e.position().toString());
-    assertTrue(e.problem().contains("'1e999' is beyond the range of a double"), e.problem());
+    assertTrue(e.problem().contains("'1e999' is too large to represent"), e.problem());
+  }
+
+  /**
+   * Cells are read by the one number grammar (lang.NumberSyntax, as the data reader reads them;
+   * issue 14): a number too small to tell from zero is refused as the data reader refuses it (it
+   * was read as 0), and so is a plus sign; Java's forms are refused at file:line:cell.
+   */
+  @Test
+  void cellsFollowTheLanguagesNumberGrammar() {
+    ModelException tiny = refused("x,y\n1,2\n3,1e-999\n");
+    assertEquals("draws.csv:3:2", tiny.position().toString());
+    assertEquals("cell 2 (column 'y'): '1e-999' is too small to represent; it would become 0",
+        tiny.problem());
+    ModelException plus = refused("x\n+1.5\n");
+    assertEquals("draws.csv:2:1", plus.position().toString());
+    for (String cell : List.of("22d", "0x1.6p4", "2.2e1f")) {
+      ModelException e = refused("chain,x\n1,0.5\n1," + cell + "\n");
+      assertEquals("draws.csv:3:2", e.position().toString());
+      assertEquals("cell 2 (column 'x'): expected a number, got '" + cell + "'", e.problem());
+      assertTrue(e.hint().startsWith("write a number as digits"), e.hint());
+    }
+    ModelException label = refused("chain,x\n1d,0.5\n");
+    assertEquals("draws.csv:2:1", label.position().toString());
   }
 
   @Test

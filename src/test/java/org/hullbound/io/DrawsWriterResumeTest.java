@@ -68,4 +68,28 @@ class DrawsWriterResumeTest {
         CheckpointException.class,
         () -> DrawsWriter.resume(folder, COLUMNS, new int[] {0}, (c, d, v) -> {}));
   }
+
+  /**
+   * The kept rows are read by the one number grammar (lang.NumberSyntax, issue 14): Java's 22d,
+   * 0x1.6p4 and 2.2e1f, which Double.parseDouble read as 22, are refused at file:line:column.
+   */
+  @Test
+  void drawsInJavasNumberSyntaxAreRefusedAtTheirLineAndColumn() throws Exception {
+    for (String bad : List.of("22d", "0x1.6p4", "2.2e1f")) {
+      writeFile("1,1,0.5,1\n1,2,0.75," + bad + "\n");
+      CheckpointException refused =
+          assertThrows(
+              CheckpointException.class,
+              () -> DrawsWriter.resume(folder, COLUMNS, new int[] {2}, (c, d, v) -> {}), bad);
+      assertEquals(folder.resolve("draws.csv") + ":3:10: not a draw: '" + bad + "' is not a number",
+          refused.getMessage());
+    }
+    writeFile("1,1,0.5,1\n1,2d,0.75,1\n");
+    CheckpointException draw =
+        assertThrows(
+            CheckpointException.class,
+            () -> DrawsWriter.resume(folder, COLUMNS, new int[] {2}, (c, d, v) -> {}));
+    assertEquals(folder.resolve("draws.csv") + ":3:3: not a row of draws: '2d' is not a number",
+        draw.getMessage());
+  }
 }

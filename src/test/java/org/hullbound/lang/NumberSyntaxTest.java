@@ -88,4 +88,21 @@ class NumberSyntaxTest {
       assertEquals(v, NumberSyntax.parse(NumberSyntax.written(v)), NumberSyntax.written(v));
     }
   }
+
+  @Test
+  void wholeNumbersAreExactOverTheRangeOfALong() {
+    // Long.MIN_VALUE and MAX_VALUE are -2^63 and 2^63 - 1 (Java Language Specification 4.2.1).
+    assertEquals(Long.MIN_VALUE, NumberSyntax.parseWhole("-9223372036854775808"));
+    assertEquals(Long.MAX_VALUE, NumberSyntax.parseWhole("9223372036854775807"));
+    assertEquals(1000, NumberSyntax.parseWhole("1e3"));
+    assertEquals(-12, NumberSyntax.parseWhole("-12.0"));
+    assertTrue(assertThrows(NumberSyntax.InvalidNumberException.class,
+        () -> NumberSyntax.parseWhole("9223372036854775808")).getMessage().contains("too large"));
+  }
+
+  @ParameterizedTest
+  @ValueSource(strings = {"22d", "0x1.6p4", "2.2e1f", "+5", "2.5", "1e20", "\u0665", "", "-"})
+  void wholeNumbersOutsideTheGrammarOrNotWholeAreRefused(String text) {
+    assertThrows(NumberSyntax.InvalidNumberException.class, () -> NumberSyntax.parseWhole(text));
+  }
 }

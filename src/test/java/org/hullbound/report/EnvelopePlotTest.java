@@ -36,7 +36,7 @@ class EnvelopePlotTest {
     assertEquals("0", ticks.label(ticks.values().get(0)));
     assertEquals("1.00e-06", ticks.label(ticks.values().get(1)));
     String svg = EnvelopePlot.svg("t", 1e6 - 3e-6, 1e6 + 3e-6, EMPTY, EMPTY, EMPTY, EMPTY,
-        new double[0]);
+        new double[0], 0);
     assertTrue(svg.contains(">x \u2212 999999.999997<"), svg);
     assertEquals("", EnvelopePlot.Ticks.of(-3, 3, 7).offsetText());
   }
@@ -52,22 +52,22 @@ class EnvelopePlotTest {
         new EnvelopePlot.Curve(
             new double[] {0, 1, 2, 3, 4},
             new double[] {-1000, 0, Double.NEGATIVE_INFINITY, -1, Double.NaN});
-    String svg = EnvelopePlot.svg("t", 0, 4, EMPTY, EMPTY, density, EMPTY, new double[] {1, 9});
+    String svg = EnvelopePlot.svg("t", 0, 4, EMPTY, EMPTY, density, EMPTY, new double[] {1, 9}, 2);
     String d = svg.substring(svg.indexOf("id=\"log-density\""));
     d = d.substring(d.indexOf(" d=\"") + 4, d.indexOf("\"/>"));
     // Starts at the frame's lower edge, not at -1000; two pieces since -inf breaks the curve.
     assertEquals(2, d.split("M").length - 1, d);
     assertFalse(d.contains("-"), "no coordinate far off the picture: " + d);
     // The draw at 9 lies outside [0, 4] and gets no tick.
-    assertTrue(svg.contains("1 draw<"), svg);
+    assertTrue(svg.contains("2 draws made, 1 shown<"), svg);
   }
 
   @Test
   void aRangeMustBeFiniteAndIncreasing() {
     assertThrows(IllegalArgumentException.class,
-        () -> EnvelopePlot.svg("t", 1, 1, EMPTY, EMPTY, EMPTY, EMPTY, new double[0]));
+        () -> EnvelopePlot.svg("t", 1, 1, EMPTY, EMPTY, EMPTY, EMPTY, new double[0], 0));
     assertThrows(IllegalArgumentException.class,
         () -> EnvelopePlot.svg("t", 0, Double.POSITIVE_INFINITY, EMPTY, EMPTY, EMPTY, EMPTY,
-            new double[0]));
+            new double[0], 0));
   }
 }

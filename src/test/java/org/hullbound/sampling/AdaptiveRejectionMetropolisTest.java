@@ -176,16 +176,44 @@ class AdaptiveRejectionMetropolisTest {
     // log f rising toward +infinity: no finite envelope.
     AdaptiveRejectionMetropolis rising =
         AdaptiveRejectionMetropolis.of(x -> x, -INF, INF, points, 10);
-    SliceSamplerTest.assertMessage("does not fall toward +Infinity", () -> rising.next(0, rng));
+    assertFailure("does not fall toward +Infinity", () -> rising.next(0, rng));
     AdaptiveRejectionMetropolis zeroAtPoint = AdaptiveRejectionMetropolis.of(
         x -> x < -0.5 ? Double.NEGATIVE_INFINITY : -x * x, -INF, INF, points, 10);
-    SliceSamplerTest.assertMessage("initialPoints[0]", () -> zeroAtPoint.next(0, rng));
+    assertFailure("initialPoints[0]", () -> zeroAtPoint.next(0, rng));
     AdaptiveRejectionMetropolis nan =
         AdaptiveRejectionMetropolis.of(x -> x > 0.5 ? Double.NaN : -x * x, -INF, INF, points, 10);
     assertThrows(DensityEvaluationException.class, () -> nan.next(0, rng));
     AdaptiveRejectionMetropolis normal =
         AdaptiveRejectionMetropolis.of(x -> -x * x, -5, 5, points, 10);
     SliceSamplerTest.assertMessage("current", () -> normal.next(7, rng));
+  }
+
+  /**
+   * A target with mass only at three single points (log f = -inf between them): no candidate from
+   * a continuous envelope lands on them (probability 0), so every try is rejected, and the call
+   * ends at its cap with a typed failure that names the current value, the support and the
+   * envelope's abscissae (issue 14: it was a raw IllegalStateException without values).
+   */
+  @Test
+  void aTargetWithNoMassUnderTheEnvelopeEndsInATypedFailureWithItsValues() {
+    var rng = MarkovChecks.rng(7);
+    DoubleUnaryOperator spikes =
+        x -> x == 0 ? 0 : Math.abs(x) == 1 ? -50 : Double.NEGATIVE_INFINITY;
+    AdaptiveRejectionMetropolis arms =
+        AdaptiveRejectionMetropolis.of(spikes, -4, 4, new double[] {-1, 0, 1}, 10);
+    ArmsFailureException failure = assertThrows(ArmsFailureException.class, () -> arms.next(1, rng));
+    assertTrue(failure.getMessage().startsWith("adaptive rejection Metropolis from current value 1.0"
+        + " on support (-4.0, 4.0) accepted no candidate in 100000 tries"), failure.getMessage());
+    assertTrue(failure.getMessage().contains("highest 0.0 at 0.0"), failure.getMessage());
+    assertEquals(1.0, failure.current());
+    assertEquals(10, failure.abscissae().length, "the cap of 10 abscissae was reached");
+    assertEquals(100_000, arms.statistics().adaptiveRejections());
+  }
+
+  static void assertFailure(String expected, Runnable call) {
+    ArmsFailureException e = assertThrows(ArmsFailureException.class, call::run);
+    assertTrue(e.getMessage().contains(expected), e.getMessage());
+    assertTrue(e.getMessage().contains("current value 0.0"), e.getMessage());
   }
 
   @Test

@@ -7,9 +7,9 @@ import org.apache.commons.math3.special.Beta;
  * The binomial family {@code (trials, p)} and {@code (trials, logit_p)}, and the Bernoulli family
  * {@code (p)} and {@code (logit_p)} as binomials of one trial.
  *
- * <p>Log mass {@code log C(trials, x) + x log p + (trials - x) log(1 - p)}, the binomial
- * coefficient as {@code -log(trials + 1) - log B(x + 1, trials - x + 1)} (accurate for large
- * trials); {@code P(X <= n) = I_{1-p}(trials - n, n + 1)} (Abramowitz and Stegun 1964, 26.5.24).
+ * <p>Log mass {@code log C(trials, x) + x log p + (trials - x) log(1 - p)}, in the saddle-point
+ * form of Loader (2000) ({@link SaddlePoint}), whose differences in p stay precise at 1e15 trials
+ * where the three terms cancel from 1e15 each; {@code P(X <= n) = I_{1-p}(trials - n, n + 1)} (Abramowitz and Stegun 1964, 26.5.24).
  * On the logit scale {@code log p} and {@code log(1 - p)} come from {@link LogSpace#logInvLogit},
  * so {@code |logit_p|} up to 1e3 and beyond neither overflows nor loses the small probability.
  */
@@ -66,10 +66,30 @@ final class Binomial {
         }
         gradient[1 + probabilityIndex()] = slope(x, trials, args);
       }
-      double logChoose = withTrials ? -Math.log1p(trials) - Beta.logBeta(x + 1.0, trials - x + 1.0) : 0.0;
-      double successes = x == 0 ? 0.0 : x * logProbability(args);
-      double failures = x == trials ? 0.0 : (trials - x) * logComplement(args);
-      return logChoose + successes + failures;
+      return logMass(x, trials, args);
+    }
+
+    /**
+     * {@code log C(trials, x) + x log p + (trials - x) log(1 - p)}: in Loader's saddle-point form
+     * ({@link SaddlePoint#binomial}) where it applies, which keeps its differences in p precise at
+     * 1e15 trials; at the ends of the support and where {@code trials p} or {@code trials (1 - p)}
+     * underflows, by the terms themselves, which then do not cancel.
+     */
+    final double logMass(double x, double trials, double[] args) {
+      if (x == 0) {
+        // + 0.0: a certain outcome has log mass 0.0, not the -0.0 of log1p(-0.0)
+        return trials == 0 ? 0.0 : trials * logComplement(args) + 0.0;
+      }
+      if (x == trials) {
+        return trials * logProbability(args);
+      }
+      double p = probability(args);
+      double q = complement(args);
+      if (SaddlePoint.applies(trials, p, q)) {
+        return SaddlePoint.binomial(x, trials, p, q, Math.fma(-trials, p, x));
+      }
+      double logChoose = -Math.log1p(trials) - Beta.logBeta(x + 1.0, trials - x + 1.0);
+      return logChoose + x * logProbability(args) + (trials - x) * logComplement(args);
     }
 
     @Override
@@ -97,11 +117,7 @@ final class Binomial {
       // d/dp P(X <= n; trials, p) = -trials pmf(n; trials - 1, p) (differentiating the incomplete
       // beta I_{1-p}(trials - n, n + 1) in its argument, A&S 26.5.24 and 6.6.1).
       double trials = trials(args);
-      double below = trials - 1.0;
-      double logChoose = -Math.log1p(below) - Beta.logBeta(n + 1.0, below - n + 1.0);
-      double successes = n == 0 ? 0.0 : n * logProbability(args);
-      double failures = n == below ? 0.0 : (below - n) * logComplement(args);
-      return -trials * Math.exp(logChoose + successes + failures - logScale) * probabilitySlope(args);
+      return -trials * Math.exp(logMass(n, trials - 1.0, args) - logScale) * probabilitySlope(args);
     }
 
     final Curvature trialsFact() {
@@ -142,6 +158,11 @@ final class Binomial {
     @Override
     double slope(double x, double trials, double[] args) {
       double p = args[probabilityIndex()];
+      if (p > 0 && p < 1) {
+        // x/p - (trials - x)/(1 - p) over one denominator: the two terms near 1e15 at 1e15 trials
+        // cancel, their difference (x - trials p) is one fused rounding
+        return Math.fma(-trials, p, x) / (p * (1.0 - p));
+      }
       return (x == 0 ? 0.0 : x / p) - (x == trials ? 0.0 : (trials - x) / (1.0 - p));
     }
 
@@ -197,7 +218,7 @@ final class Binomial {
 
     @Override
     double slope(double x, double trials, double[] args) {
-      return x - trials * probability(args);
+      return Math.fma(-trials, probability(args), x);
     }
 
     @Override

@@ -10,7 +10,10 @@ import org.apache.commons.math3.special.Gamma;
  *
  * <p>Log mass {@code lgamma(x + size) - lgamma(size) - lgamma(x + 1) + size log(size/(size + mean))
  * + x log(mean/(size + mean))} (Johnson, Kemp and Kotz, Univariate Discrete Distributions, 3rd ed.,
- * 2005, 5.1 with {@code P = mean/size}), the gamma ratio as {@code -log x - log B(x, size)};
+ * 2005, 5.1 with {@code P = mean/size}), as {@code size/(size + x)} times a binomial mass in
+ * Loader's saddle-point form ({@link SaddlePoint}), whose differences stay precise where size and x
+ * are near 1e15 and the terms cancel (the gamma ratio as {@code -log x - log B(x, size)} where it
+ * does not apply);
  * {@code P(X <= n) = I_q(size, n + 1)} with {@code q = size/(size + mean)}. The derivative of a
  * truncation normaliser in {@code size} is numerical (Richardson-extrapolated central differences,
  * step {@code 1e-3 size}); in {@code mean} it is closed.
@@ -37,9 +40,22 @@ final class NegativeBinomial {
         gradient[2] = Gamma.digamma(x + size) - Gamma.digamma(size) - Math.log1p(mean / size)
             + (mean - x) / (size + mean);
       }
-      double logGammaRatio = x == 0 ? 0.0 : -Math.log(x) - Beta.logBeta(x, size);
-      double failures = x == 0 ? 0.0 : -x * Math.log1p(size / mean);
-      return logGammaRatio - size * Math.log1p(mean / size) + failures;
+      if (x == 0) {
+        return -size * Math.log1p(mean / size);
+      }
+      double trials = size + x;
+      double p = size / trials;
+      double stop = size / (size + mean);
+      double go = mean / (size + mean);
+      if (trials - size == x && SaddlePoint.applies(trials, stop, go)) {
+        // pmf = size/(size + x) binomial(size; size + x, size/(size + mean)) (the form of R's
+        // dnbinom_mu, after Loader 2000): precise in mean and size where size and x are near 1e15
+        // and the terms below cancel; excess size - (size + x) stop = size (mean - x)/(size + mean)
+        double excess = size * ((mean - x) / (size + mean));
+        return Math.log(p) + SaddlePoint.binomial(size, trials, stop, go, excess);
+      }
+      double logGammaRatio = -Math.log(x) - Beta.logBeta(x, size);
+      return logGammaRatio - size * Math.log1p(mean / size) - x * Math.log1p(size / mean);
     }
 
     @Override

@@ -23,37 +23,8 @@ final class Poisson {
     if (x == 0) {
       return -rate;
     }
-    return -stirlingError(x) - deviancePart(x, rate) - HALF_LOG_TWO_PI - 0.5 * Math.log(x);
-  }
-
-  /** {@code lgamma(n + 1) - (n + 1/2) log(n) + n - log(2 pi)/2}, for {@code n >= 1}. */
-  static double stirlingError(double n) {
-    if (n < 15) {
-      return Gamma.logGamma(n + 1) - (n + 0.5) * Math.log(n) + n - HALF_LOG_TWO_PI;
-    }
-    // Stirling series B_2k / (2k (2k - 1) n^(2k-1)): 1/12, 1/360, 1/1260, 1/1680, 1/1188.
-    double w = 1 / (n * n);
-    return (1.0 / 12 - (1.0 / 360 - (1.0 / 1260 - (1.0 / 1680 - w / 1188) * w) * w) * w) / n;
-  }
-
-  /** {@code x log(x / mean) + mean - x}, by a series when {@code x} is near {@code mean}. */
-  static double deviancePart(double x, double mean) {
-    if (Math.abs(x - mean) < 0.1 * (x + mean)) {
-      double v = (x - mean) / (x + mean);
-      double sum = (x - mean) * v;
-      double term = 2 * x * v;
-      double v2 = v * v;
-      for (int j = 1; j < 1000; j++) {
-        term *= v2;
-        double next = sum + term / (2 * j + 1);
-        if (next == sum) {
-          return next;
-        }
-        sum = next;
-      }
-      return sum;
-    }
-    return x * Math.log(x / mean) + mean - x;
+    return -SaddlePoint.stirlingError(x) - SaddlePoint.deviance(x, rate, x - rate)
+        - HALF_LOG_TWO_PI - 0.5 * Math.log(x);
   }
 
   static Family family() {
