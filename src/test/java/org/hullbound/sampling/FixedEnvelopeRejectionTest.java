@@ -146,6 +146,69 @@ class FixedEnvelopeRejectionTest {
     assertTrue(GoodnessOfFit.ksPValue(draws, STANDARD) > GoodnessOfFit.LEVEL);
   }
 
+  /**
+   * The log ratio h = max(3 exp(-((y - 0.7) / 0.02)^2), 1 - (y - 0.3)^2), with y the distance
+   * from the finite end (or from 0 on the whole line): a broad bump of height 1 and a peak of
+   * height 3 only 0.02 wide, between the dyadic points (0.5, 0.75, ...) that sit near the ends and
+   * far out. The supremum is 3 by construction; a search that saw only the broad bump would
+   * return about 1. The grid of 512 points on the support's bounded transform is what finds the
+   * peak (EnvelopeBound's contract: a scan whose spacing is finer than the peak).
+   */
+  static double narrowPeakRatio(double y) {
+    return Math.max(3 * Math.exp(-Math.pow((y - 0.7) / 0.02, 2)), 1 - (y - 0.3) * (y - 0.3));
+  }
+
+  @Test
+  void aNarrowPeakOfTheRatioIsFoundOnEveryShapeOfSupport() {
+    Proposal uniform = new Proposal() {
+      @Override
+      public double draw(RandomGenerator rng) {
+        return rng.nextDouble();
+      }
+
+      @Override
+      public double logDensity(double x) {
+        return 0;
+      }
+    };
+    // (0, 1), uniform proposal.
+    assertEquals(3, FixedEnvelopeRejection.withComputedBound(
+        x -> narrowPeakRatio(x), 0, 1, uniform).logBound(), 1e-9);
+    // (0, inf), proposal Exp(1).
+    Proposal exponential = Proposal.exponentialTail(0, 1);
+    assertEquals(3, FixedEnvelopeRejection.withComputedBound(
+        x -> narrowPeakRatio(x) - x, 0, Double.POSITIVE_INFINITY, exponential).logBound(), 1e-9);
+    // (-inf, 0), proposal -Exp(1).
+    Proposal reflected = new Proposal() {
+      @Override
+      public double draw(RandomGenerator rng) {
+        return Math.log1p(-rng.nextDouble());
+      }
+
+      @Override
+      public double logDensity(double x) {
+        return x;
+      }
+    };
+    assertEquals(3, FixedEnvelopeRejection.withComputedBound(
+        x -> narrowPeakRatio(-x) + x, Double.NEGATIVE_INFINITY, 0, reflected).logBound(), 1e-9);
+    // The whole line, proposal Cauchy(0, 1); the ratio falls like -y^2 on both sides.
+    Proposal cauchy = new Proposal() {
+      @Override
+      public double draw(RandomGenerator rng) {
+        return Math.tan(Math.PI * (rng.nextDouble() - 0.5));
+      }
+
+      @Override
+      public double logDensity(double x) {
+        return -Math.log(Math.PI) - Math.log1p(x * x);
+      }
+    };
+    assertEquals(3, FixedEnvelopeRejection.withComputedBound(
+        x -> narrowPeakRatio(x) + cauchy.logDensity(x), Double.NEGATIVE_INFINITY,
+        Double.POSITIVE_INFINITY, cauchy).logBound(), 1e-9);
+  }
+
   @Test
   void unboundedRatioIsAClearError() {
     // A Cauchy target under a normal proposal: f/g grows like exp(x^2/2) / x^2.
@@ -196,12 +259,18 @@ class FixedEnvelopeRejectionTest {
     FixedEnvelopeRejection sampler = FixedEnvelopeRejection.of(
         TRUNCATED_NORMAL, TAIL, Double.POSITIVE_INFINITY, Proposal.exponentialTail(TAIL, 1),
         Math.log(2.0));
-    assertThrows(EnvelopeViolationException.class, () -> {
+    EnvelopeViolationException e = assertThrows(EnvelopeViolationException.class, () -> {
       RandomGenerator rng = rng(5);
       for (int i = 0; i < 1000; i++) {
         sampler.sample(rng);
       }
     });
+    // The exception carries the offending point, its log ratio log f - log g and the bound.
+    double logRatio = TRUNCATED_NORMAL.applyAsDouble(e.point()) - (-(e.point() - TAIL));
+    assertTrue(e.point() > TAIL, "point " + e.point());
+    assertEquals(logRatio, e.logRatio(), 1e-12);
+    assertEquals(Math.log(2.0), e.logBound());
+    assertTrue(e.logRatio() > e.logBound());
   }
 
   /**
@@ -261,6 +330,7 @@ class FixedEnvelopeRejectionTest {
     DensityEvaluationException e =
         assertThrows(DensityEvaluationException.class, () -> infinite.sample(rng(1)));
     assertEquals(Double.POSITIVE_INFINITY, e.value());
+    assertTrue(e.point() > TAIL, "point " + e.point());
     assertThrows(DensityEvaluationException.class,
         () -> FixedEnvelopeRejection.withComputedBound(
             x -> Double.NaN, TAIL, Double.POSITIVE_INFINITY, Proposal.exponentialTail(TAIL, 1)));
