@@ -186,6 +186,20 @@ class AdaptiveRejectionMetropolisTest {
   }
 
   @Test
+  void rejectedCandidatesAreAddedUpToTheCapWhichCountsTheSearchPoints() {
+    // Normal(1, 2) from -2, 1, 4: the bounded search adds one point toward each infinite end
+    // (at -8 and 10, where log f is 3 or more below the top), so every call starts from 5
+    // abscissae; with maxPoints 6 one rejected candidate fills the envelope and no call may go
+    // beyond it (the class comment: points stop being added at maxPoints, search points counted).
+    Target target = normal();
+    AdaptiveRejectionMetropolis arms = AdaptiveRejectionMetropolis.of(target.logDensity(),
+        target.lower(), target.upper(), target.initialPoints(), 6);
+    MarkovChecks.oneStepFromExactStarts(arms, target.exact(), 2000, MarkovChecks.rng(7));
+    assertTrue(arms.statistics().adaptiveRejections() > 0, arms.statistics().toString());
+    assertEquals(6, arms.statistics().largestEnvelope(), arms.statistics().toString());
+  }
+
+  @Test
   void onTheMixtureTheMetropolisStepCorrects() {
     Target target = mixture("mixture", new double[] {1.5, 2, 2.5}, 71);
     AdaptiveRejectionMetropolis arms = AdaptiveRejectionMetropolis.of(target.logDensity(),

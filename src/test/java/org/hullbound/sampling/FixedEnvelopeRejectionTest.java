@@ -286,8 +286,17 @@ class FixedEnvelopeRejectionTest {
     RejectionLimitException stuck =
         assertTimeoutPreemptively(java.time.Duration.ofMinutes(1),
             () -> assertThrows(RejectionLimitException.class, () -> sampler.sample(rng(3))));
-    // log M = 0: the cap is max(100000, 100 e^0) = 100000
+    // log M = 0: the cap is max(100000, 100 e^0) = 100000, and that many proposals were made.
     assertEquals(100_000, stuck.proposals());
+    assertEquals(100_000, sampler.statistics().proposals());
+    // log M = log 4000: the cap is 100 M = 400000 (a correct envelope needs more than 100 M
+    // proposals with probability below e^-100, as the class documents).
+    FixedEnvelopeRejection wide = FixedEnvelopeRejection.of(
+        x -> x < TAIL + 1e-9 ? 0.0 : Double.NEGATIVE_INFINITY, TAIL, Double.POSITIVE_INFINITY,
+        Proposal.exponentialTail(TAIL, 1), Math.log(4000));
+    RejectionLimitException wideStuck =
+        assertThrows(RejectionLimitException.class, () -> wide.sample(rng(4)));
+    assertEquals(400_000, wideStuck.proposals(), 1);
     assertTrue(stuck.getMessage().startsWith("fixed-envelope rejection: no proposal accepted"));
   }
 
@@ -334,6 +343,14 @@ class FixedEnvelopeRejectionTest {
     assertThrows(DensityEvaluationException.class,
         () -> FixedEnvelopeRejection.withComputedBound(
             x -> Double.NaN, TAIL, Double.POSITIVE_INFINITY, Proposal.exponentialTail(TAIL, 1)));
+  }
+
+  @Test
+  void theComputedBoundChecksTheSupportFirst() {
+    String message = assertThrows(IllegalArgumentException.class,
+        () -> FixedEnvelopeRejection.withComputedBound(
+            TRUNCATED_NORMAL, 7, TAIL, Proposal.exponentialTail(TAIL, 1))).getMessage();
+    assertTrue(message.contains("lower must be < upper"), message);
   }
 
   @Test
