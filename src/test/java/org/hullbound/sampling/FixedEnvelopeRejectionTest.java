@@ -255,6 +255,32 @@ class FixedEnvelopeRejectionTest {
   }
 
   @Test
+  void aRatioThatGrowsTowardAFiniteEndIsAnErrorAtEitherEnd() {
+    // log(f/g) = -log(distance to the end) / 2 inside (0, 1), but 0 at the end itself: the scan's
+    // largest value is at the point nearest the end and the end is lower, so the ratio grows
+    // toward the end and no finite M was found (EnvelopeBound's rule for finite ends).
+    Proposal uniform = new Proposal() {
+      @Override
+      public double draw(RandomGenerator rng) {
+        return rng.nextDouble();
+      }
+
+      @Override
+      public double logDensity(double x) {
+        return 0;
+      }
+    };
+    String lower = assertThrows(IllegalArgumentException.class,
+        () -> FixedEnvelopeRejection.withComputedBound(
+            x -> x == 0 ? 0 : -0.5 * Math.log(x), 0, 1, uniform)).getMessage();
+    assertTrue(lower.contains("grows toward the end 0.0"), lower);
+    String upper = assertThrows(IllegalArgumentException.class,
+        () -> FixedEnvelopeRejection.withComputedBound(
+            x -> x == 1 ? 0 : -0.5 * Math.log1p(-x), 0, 1, uniform)).getMessage();
+    assertTrue(upper.contains("grows toward the end 1.0"), upper);
+  }
+
+  @Test
   void aBoundThatIsTooSmallIsDetected() {
     FixedEnvelopeRejection sampler = FixedEnvelopeRejection.of(
         TRUNCATED_NORMAL, TAIL, Double.POSITIVE_INFINITY, Proposal.exponentialTail(TAIL, 1),
