@@ -145,7 +145,7 @@ class AutocorrelationTest {
     NonFiniteDrawException e =
         assertThrows(
             NonFiniteDrawException.class,
-            () -> Autocorrelation.of(new double[] {1, Double.NaN, 2, Double.POSITIVE_INFINITY}));
+            () -> Autocorrelation.of(new double[] {1, Double.NaN, 2, 3, Double.POSITIVE_INFINITY}));
     assertEquals(1, e.iteration());
     assertTrue(e.getMessage().contains("(0-based; 2 non-finite draws in all)"), e.getMessage());
     NonFiniteDrawException covariance =

@@ -107,7 +107,8 @@ class PosteriorSummaryTest {
     // divisor n - 1). At 2^1023 the plain sum a + b overflows.
     VariableSummary top = PosteriorSummary.of("x", new double[][] {{0x1p1023, 0x1.8p1023}});
     assertEquals(0x1.4p1023, top.mean());
-    assertEquals(0x1p1022 / Math.sqrt(2), top.sd(), 1e-15 * top.sd());
+    double twoDrawSd = 0x1p1022 / Math.sqrt(2);
+    assertEquals(twoDrawSd, top.sd(), 1e-15 * twoDrawSd);
     // Around 1e9 with unit steps the sum of squares cancels unless the draws are centred first:
     // the sd of 1, 2, 3, 4 is sqrt(5/3) wherever they sit.
     VariableSummary offset =

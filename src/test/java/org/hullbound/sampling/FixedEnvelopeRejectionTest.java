@@ -24,6 +24,32 @@ class FixedEnvelopeRejectionTest {
   private static final DoubleUnaryOperator TRUNCATED_NORMAL =
       x -> -0.5 * x * x - 0.5 * Math.log(2 * Math.PI) - Math.log(Q5);
 
+  /** The uniform proposal on (0, 1), by its density 1 there. */
+  private static final Proposal UNIFORM = new Proposal() {
+    @Override
+    public double draw(RandomGenerator rng) {
+      return rng.nextDouble();
+    }
+
+    @Override
+    public double logDensity(double x) {
+      return 0;
+    }
+  };
+
+  /** The standard Cauchy proposal, drawn by inversion of its CDF. */
+  private static final Proposal CAUCHY = new Proposal() {
+    @Override
+    public double draw(RandomGenerator rng) {
+      return Math.tan(Math.PI * (rng.nextDouble() - 0.5));
+    }
+
+    @Override
+    public double logDensity(double x) {
+      return -Math.log(Math.PI) - Math.log1p(x * x);
+    }
+  };
+
   private static RandomGenerator rng(long seed) {
     return RandomGeneratorFactory.of("L64X128MixRandom").create(seed);
   }
@@ -121,20 +147,9 @@ class FixedEnvelopeRejectionTest {
     // Target N(0,1) on the real line, proposal Cauchy(0,1) (inversion of the Cauchy CDF).
     // Source (direct calculation): log(phi/cauchy) = -x^2/2 + log(1+x^2) + log(pi) - log(2 pi)/2
     // is largest at x = +-1, where M = sqrt(2 pi / e) = 1.5203 (a textbook value, recalled).
-    Proposal cauchy = new Proposal() {
-      @Override
-      public double draw(RandomGenerator rng) {
-        return Math.tan(Math.PI * (rng.nextDouble() - 0.5));
-      }
-
-      @Override
-      public double logDensity(double x) {
-        return -Math.log(Math.PI) - Math.log1p(x * x);
-      }
-    };
     DoubleUnaryOperator normal = x -> -0.5 * x * x - 0.5 * Math.log(2 * Math.PI);
     FixedEnvelopeRejection sampler = FixedEnvelopeRejection.withComputedBound(
-        normal, Double.NEGATIVE_INFINITY, Double.POSITIVE_INFINITY, cauchy);
+        normal, Double.NEGATIVE_INFINITY, Double.POSITIVE_INFINITY, CAUCHY);
     assertEquals(Math.sqrt(2 * Math.PI / Math.E), sampler.bound(), 1e-9);
     // Seed 11, n = 16000, KS at level 1e-5 against commons-math3's N(0,1); power >= 0.99
     // against a CDF error of 3.64 / sqrt(n) = 0.029.
@@ -160,20 +175,9 @@ class FixedEnvelopeRejectionTest {
 
   @Test
   void aNarrowPeakOfTheRatioIsFoundOnEveryShapeOfSupport() {
-    Proposal uniform = new Proposal() {
-      @Override
-      public double draw(RandomGenerator rng) {
-        return rng.nextDouble();
-      }
-
-      @Override
-      public double logDensity(double x) {
-        return 0;
-      }
-    };
     // (0, 1), uniform proposal.
     assertEquals(3, FixedEnvelopeRejection.withComputedBound(
-        x -> narrowPeakRatio(x), 0, 1, uniform).logBound(), 1e-9);
+        x -> narrowPeakRatio(x), 0, 1, UNIFORM).logBound(), 1e-9);
     // (0, inf), proposal Exp(1).
     Proposal exponential = Proposal.exponentialTail(0, 1);
     assertEquals(3, FixedEnvelopeRejection.withComputedBound(
@@ -193,20 +197,9 @@ class FixedEnvelopeRejectionTest {
     assertEquals(3, FixedEnvelopeRejection.withComputedBound(
         x -> narrowPeakRatio(-x) + x, Double.NEGATIVE_INFINITY, 0, reflected).logBound(), 1e-9);
     // The whole line, proposal Cauchy(0, 1); the ratio falls like -y^2 on both sides.
-    Proposal cauchy = new Proposal() {
-      @Override
-      public double draw(RandomGenerator rng) {
-        return Math.tan(Math.PI * (rng.nextDouble() - 0.5));
-      }
-
-      @Override
-      public double logDensity(double x) {
-        return -Math.log(Math.PI) - Math.log1p(x * x);
-      }
-    };
     assertEquals(3, FixedEnvelopeRejection.withComputedBound(
-        x -> narrowPeakRatio(x) + cauchy.logDensity(x), Double.NEGATIVE_INFINITY,
-        Double.POSITIVE_INFINITY, cauchy).logBound(), 1e-9);
+        x -> narrowPeakRatio(x) + CAUCHY.logDensity(x), Double.NEGATIVE_INFINITY,
+        Double.POSITIVE_INFINITY, CAUCHY).logBound(), 1e-9);
   }
 
   @Test
@@ -259,24 +252,13 @@ class FixedEnvelopeRejectionTest {
     // log(f/g) = -log(distance to the end) / 2 inside (0, 1), but 0 at the end itself: the scan's
     // largest value is at the point nearest the end and the end is lower, so the ratio grows
     // toward the end and no finite M was found (EnvelopeBound's rule for finite ends).
-    Proposal uniform = new Proposal() {
-      @Override
-      public double draw(RandomGenerator rng) {
-        return rng.nextDouble();
-      }
-
-      @Override
-      public double logDensity(double x) {
-        return 0;
-      }
-    };
     String lower = assertThrows(IllegalArgumentException.class,
         () -> FixedEnvelopeRejection.withComputedBound(
-            x -> x == 0 ? 0 : -0.5 * Math.log(x), 0, 1, uniform)).getMessage();
+            x -> x == 0 ? 0 : -0.5 * Math.log(x), 0, 1, UNIFORM)).getMessage();
     assertTrue(lower.contains("grows toward the end 0.0"), lower);
     String upper = assertThrows(IllegalArgumentException.class,
         () -> FixedEnvelopeRejection.withComputedBound(
-            x -> x == 1 ? 0 : -0.5 * Math.log1p(-x), 0, 1, uniform)).getMessage();
+            x -> x == 1 ? 0 : -0.5 * Math.log1p(-x), 0, 1, UNIFORM)).getMessage();
     assertTrue(upper.contains("grows toward the end 1.0"), upper);
   }
 
