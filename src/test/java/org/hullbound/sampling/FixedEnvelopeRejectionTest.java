@@ -24,31 +24,29 @@ class FixedEnvelopeRejectionTest {
   private static final DoubleUnaryOperator TRUNCATED_NORMAL =
       x -> -0.5 * x * x - 0.5 * Math.log(2 * Math.PI) - Math.log(Q5);
 
-  /** The uniform proposal on (0, 1), by its density 1 there. */
-  private static final Proposal UNIFORM = new Proposal() {
-    @Override
-    public double draw(RandomGenerator rng) {
-      return rng.nextDouble();
-    }
+  /** A proposal from its draw and its log-density (support: the whole line, as the default). */
+  private static Proposal proposal(
+      java.util.function.ToDoubleFunction<RandomGenerator> draw, DoubleUnaryOperator logDensity) {
+    return new Proposal() {
+      @Override
+      public double draw(RandomGenerator rng) {
+        return draw.applyAsDouble(rng);
+      }
 
-    @Override
-    public double logDensity(double x) {
-      return 0;
-    }
-  };
+      @Override
+      public double logDensity(double x) {
+        return logDensity.applyAsDouble(x);
+      }
+    };
+  }
+
+  /** The uniform proposal on (0, 1), by its density 1 there. */
+  private static final Proposal UNIFORM = proposal(rng -> rng.nextDouble(), x -> 0);
 
   /** The standard Cauchy proposal, drawn by inversion of its CDF. */
-  private static final Proposal CAUCHY = new Proposal() {
-    @Override
-    public double draw(RandomGenerator rng) {
-      return Math.tan(Math.PI * (rng.nextDouble() - 0.5));
-    }
-
-    @Override
-    public double logDensity(double x) {
-      return -Math.log(Math.PI) - Math.log1p(x * x);
-    }
-  };
+  private static final Proposal CAUCHY = proposal(
+      rng -> Math.tan(Math.PI * (rng.nextDouble() - 0.5)),
+      x -> -Math.log(Math.PI) - Math.log1p(x * x));
 
   private static RandomGenerator rng(long seed) {
     return RandomGeneratorFactory.of("L64X128MixRandom").create(seed);
@@ -183,17 +181,7 @@ class FixedEnvelopeRejectionTest {
     assertEquals(3, FixedEnvelopeRejection.withComputedBound(
         x -> narrowPeakRatio(x) - x, 0, Double.POSITIVE_INFINITY, exponential).logBound(), 1e-9);
     // (-inf, 0), proposal -Exp(1).
-    Proposal reflected = new Proposal() {
-      @Override
-      public double draw(RandomGenerator rng) {
-        return Math.log1p(-rng.nextDouble());
-      }
-
-      @Override
-      public double logDensity(double x) {
-        return x;
-      }
-    };
+    Proposal reflected = proposal(rng -> Math.log1p(-rng.nextDouble()), x -> x);
     assertEquals(3, FixedEnvelopeRejection.withComputedBound(
         x -> narrowPeakRatio(-x) + x, Double.NEGATIVE_INFINITY, 0, reflected).logBound(), 1e-9);
     // The whole line, proposal Cauchy(0, 1); the ratio falls like -y^2 on both sides.
@@ -205,17 +193,8 @@ class FixedEnvelopeRejectionTest {
   @Test
   void unboundedRatioIsAClearError() {
     // A Cauchy target under a normal proposal: f/g grows like exp(x^2/2) / x^2.
-    Proposal normal = new Proposal() {
-      @Override
-      public double draw(RandomGenerator rng) {
-        return rng.nextGaussian();
-      }
-
-      @Override
-      public double logDensity(double x) {
-        return -0.5 * x * x - 0.5 * Math.log(2 * Math.PI);
-      }
-    };
+    Proposal normal =
+        proposal(rng -> rng.nextGaussian(), x -> -0.5 * x * x - 0.5 * Math.log(2 * Math.PI));
     IllegalArgumentException e = assertThrows(IllegalArgumentException.class,
         () -> FixedEnvelopeRejection.withComputedBound(
             x -> -Math.log1p(x * x), Double.NEGATIVE_INFINITY, Double.POSITIVE_INFINITY, normal));
@@ -230,17 +209,8 @@ class FixedEnvelopeRejectionTest {
   @Test
   void aSingularityAtAFiniteEndIsAnUnboundedRatio() {
     // beta(0.5, 1) under a uniform proposal on (0, 1): f/g = x^(-1/2) / 2 is unbounded at 0.
-    Proposal uniform = new Proposal() {
-      @Override
-      public double draw(RandomGenerator rng) {
-        return rng.nextDouble();
-      }
-
-      @Override
-      public double logDensity(double x) {
-        return x >= 0 && x <= 1 ? 0 : Double.NEGATIVE_INFINITY;
-      }
-    };
+    Proposal uniform =
+        proposal(rng -> rng.nextDouble(), x -> x >= 0 && x <= 1 ? 0 : Double.NEGATIVE_INFINITY);
     IllegalArgumentException e = assertThrows(IllegalArgumentException.class,
         () -> FixedEnvelopeRejection.withComputedBound(
             x -> -0.5 * Math.log(x) - Math.log(2), 0, 1, uniform));
