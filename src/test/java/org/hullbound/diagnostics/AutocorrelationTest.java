@@ -115,14 +115,43 @@ class AutocorrelationTest {
   }
 
   @Test
+  void aConstantChainAtTheTopOfTheDoubleRangeHasZeroAutocovariance() {
+    // A constant chain has zero autocovariance at every lag (Geyer 1992, section 3.1), also where
+    // the draw plus its mean would overflow.
+    double top = 0x1.8p1023;
+    assertArrayEquals(new double[] {0, 0, 0}, Autocorrelation.autocovariance(new double[] {top, top, top}));
+  }
+
+  @Test
+  void lagZeroAloneIsOne() {
+    // rho(0) = 1 by definition; maxLag 0 is inside [0, N - 1].
+    assertArrayEquals(new double[] {1}, Autocorrelation.of(new double[] {1, 3, 2}, 0));
+    assertArrayEquals(
+        new double[][] {{1}}, Autocorrelation.perChain(Draws.of(new double[][] {{1, 3, 2}}), 0));
+  }
+
+  @Test
   void rejectsBadArguments() {
     assertThrows(IllegalArgumentException.class, () -> Autocorrelation.of(null));
+    assertThrows(IllegalArgumentException.class, () -> Autocorrelation.of(null, 0));
+    assertThrows(IllegalArgumentException.class, () -> Autocorrelation.autocovariance(null));
     assertThrows(IllegalArgumentException.class, () -> Autocorrelation.of(new double[0]));
-    assertThrows(IllegalArgumentException.class, () -> Autocorrelation.of(new double[] {1, 2}, 2));
+    assertThrows(IllegalArgumentException.class, () -> Autocorrelation.autocovariance(new double[0]));
+    String message =
+        assertThrows(IllegalArgumentException.class, () -> Autocorrelation.of(new double[] {1, 2}, 2))
+            .getMessage();
+    assertTrue(message.contains("[0, 1]"), message);
     assertThrows(IllegalArgumentException.class, () -> Autocorrelation.of(new double[] {1, 2}, -1));
     NonFiniteDrawException e =
         assertThrows(
-            NonFiniteDrawException.class, () -> Autocorrelation.of(new double[] {1, Double.NaN}));
+            NonFiniteDrawException.class,
+            () -> Autocorrelation.of(new double[] {1, Double.NaN, 2, 3, Double.POSITIVE_INFINITY}));
     assertEquals(1, e.iteration());
+    assertTrue(e.getMessage().contains("(0-based; 2 non-finite draws in all)"), e.getMessage());
+    NonFiniteDrawException covariance =
+        assertThrows(
+            NonFiniteDrawException.class,
+            () -> Autocorrelation.autocovariance(new double[] {1, 2, Double.NEGATIVE_INFINITY}));
+    assertEquals(2, covariance.iteration());
   }
 }

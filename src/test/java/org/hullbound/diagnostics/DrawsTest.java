@@ -3,6 +3,7 @@ package org.hullbound.diagnostics;
 import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertFalse;
+import static org.junit.jupiter.api.Assertions.assertSame;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
@@ -64,6 +65,23 @@ class DrawsTest {
     assertArrayEquals(new double[] {1, 2}, split.chain(0));
     assertArrayEquals(new double[] {4, 5}, split.chain(1));
     assertFalse(split.splitDropsMiddle());
+  }
+
+  @Test
+  void finiteDrawsAreFiniteAndChainsAreNamedByIndexInRange() {
+    Draws draws = Draws.of(new double[][] {{1, 2}, {3, -Double.MAX_VALUE}});
+    assertTrue(draws.isFinite());
+    assertSame(draws, draws.requireFinite());
+    assertThrows(IllegalArgumentException.class, () -> draws.chain(2));
+    assertThrows(IllegalArgumentException.class, () -> draws.chain(-1));
+  }
+
+  @Test
+  void splitOfTwoDrawsGivesTwoChainsOfOne() {
+    // The smallest chain split() accepts (its documented minimum is 2 draws).
+    Draws split = Draws.of(new double[][] {{1, 2}}).split();
+    assertArrayEquals(new double[] {1}, split.chain(0));
+    assertArrayEquals(new double[] {2}, split.chain(1));
   }
 
   @Test

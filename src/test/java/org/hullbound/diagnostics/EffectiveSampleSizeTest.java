@@ -6,6 +6,7 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.util.Arrays;
 import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.function.Executable;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.ValueSource;
 
@@ -93,6 +94,10 @@ class EffectiveSampleSizeTest {
     }
     Draws shifted = Draws.of(raw).map(x -> x + 1e8);
     assertEquals(reference, EffectiveSampleSize.of(shifted), 1e-6 * reference);
+    // Near the top of the double range (draws about 2^1023, their spread 2^1019 times the unit
+    // draws'): the sum of a draw and the centre would overflow, their difference does not.
+    Draws top = Draws.of(raw).map(x -> 0x1p1023 + 0x1p1019 * x);
+    assertEquals(reference, EffectiveSampleSize.of(top), 1e-9 * reference);
   }
 
   @Test
@@ -150,6 +155,19 @@ class EffectiveSampleSizeTest {
                 () -> EffectiveSampleSize.bulk(Draws.of(new double[][] {{1, 2, 3}})))
             .getMessage();
     assertTrue(message.contains("at least 4"), message);
+    // Every split-chain variant names the same minimum (Vehtari et al. 2021, section 4.1: two
+    // halves of at least two draws).
+    Draws three = Draws.of(new double[][] {{1, 2, 3}, {3, 1, 2}});
+    for (Executable call :
+        new Executable[] {
+          () -> EffectiveSampleSize.mean(three),
+          () -> EffectiveSampleSize.quantile(three, 0.5),
+          () -> EffectiveSampleSize.tail(three),
+          () -> MonteCarloStandardError.mean(three)
+        }) {
+      String m = assertThrows(IllegalArgumentException.class, call).getMessage();
+      assertTrue(m.contains("at least 4"), m);
+    }
     Draws ok = Draws.of(SimulatedChains.normal(1, 2, 10, 0, 1));
     assertThrows(IllegalArgumentException.class, () -> EffectiveSampleSize.quantile(ok, 0));
     assertThrows(IllegalArgumentException.class, () -> EffectiveSampleSize.quantile(ok, 1));

@@ -64,7 +64,7 @@ class PosteriorSummaryTest {
     assertEquals(VariableSummary.State.NON_FINITE, s.state());
     assertTrue(Double.isNaN(s.mean()) && Double.isNaN(s.rhat()) && Double.isNaN(s.essBulk()));
     String note = s.notes().get(0);
-    assertTrue(note.contains("draw 17 of chain 1") && note.contains("2 non-finite"), note);
+    assertTrue(note.contains("draw 17 of chain 1") && note.contains(" 2 non-finite"), note);
   }
 
   @Test
@@ -91,6 +91,34 @@ class PosteriorSummaryTest {
     assertEquals(3.5, s.q50());
     assertTrue(Double.isNaN(s.rhat()) && Double.isNaN(s.essBulk()));
     assertTrue(s.notes().get(0).contains("3 draws per chain"), s.notes().get(0));
+  }
+
+  @Test
+  void fourDrawsPerChainAreEnoughForTheDiagnostics() {
+    // Two halves of two draws each: the smallest split chains (Vehtari et al. 2021, section 4.1).
+    VariableSummary s = PosteriorSummary.of("x", new double[][] {{1, 4, 2, 3}, {2, 3, 1, 4}});
+    assertEquals(VariableSummary.State.COMPLETE, s.state(), s.notes().toString());
+    assertTrue(Double.isFinite(s.rhatBulk()), "rhat " + s.rhatBulk());
+  }
+
+  @Test
+  void meanAndSdAreExactWhereTheirSumsWouldOverflowOrCancel() {
+    // Two draws a and b: mean (a + b) / 2 and sd |b - a| / sqrt(2) (the sample variance with
+    // divisor n - 1). At 2^1023 the plain sum a + b overflows.
+    VariableSummary top = PosteriorSummary.of("x", new double[][] {{0x1p1023, 0x1.8p1023}});
+    assertEquals(0x1.4p1023, top.mean());
+    double twoDrawSd = 0x1p1022 / Math.sqrt(2);
+    assertEquals(twoDrawSd, top.sd(), 1e-15 * twoDrawSd);
+    // Around 1e9 with unit steps the sum of squares cancels unless the draws are centred first:
+    // the sd of 1, 2, 3, 4 is sqrt(5/3) wherever they sit.
+    VariableSummary offset =
+        PosteriorSummary.of("x", new double[][] {{1e9 + 1, 1e9 + 2, 1e9 + 3, 1e9 + 4}});
+    assertEquals(Math.sqrt(5.0 / 3), offset.sd(), 1e-15);
+    // A spread beyond the double range: the sample sd of -1.5, 1.5, 1.5 (times 2^1023) is
+    // sqrt(3) 2^1023, about 1.56e308; reported as that or as +infinity, never as small.
+    VariableSummary wide =
+        PosteriorSummary.of("x", new double[][] {{-0x1.8p1023, 0x1.8p1023, 0x1.8p1023}});
+    assertTrue(wide.sd() >= Math.sqrt(3) * 0x1p1023 * (1 - 1e-15), "sd " + wide.sd());
   }
 
   @Test

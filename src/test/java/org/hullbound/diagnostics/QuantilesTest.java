@@ -53,6 +53,8 @@ class QuantilesTest {
     double max = Double.MAX_VALUE;
     assertEquals(0, Quantiles.of(new double[] {-max, max}, 0.5));
     assertEquals(-max, Quantiles.of(new double[] {-max, max}, 0));
+    // Definition 7 at h = 1.75: x_1 + 0.75 (x_2 - x_1) = max / 2, though x_2 - x_1 overflows.
+    assertEquals(max / 2, Quantiles.of(new double[] {-max, max}, 0.75), Math.ulp(max));
   }
 
   @Test

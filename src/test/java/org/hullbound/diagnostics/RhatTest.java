@@ -6,6 +6,7 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.util.Arrays;
 import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.function.Executable;
 
 class RhatTest {
 
@@ -89,6 +90,8 @@ class RhatTest {
     for (double scale : new double[] {1e-300, 1e300}) {
       assertEquals(reference, Rhat.split(Draws.of(raw).map(x -> x * scale)), 1e-12);
     }
+    // Near the top of the double range, where a draw plus the centre would overflow.
+    assertEquals(reference, Rhat.split(Draws.of(raw).map(x -> 0x1p1023 + 0x1p1019 * x)), 1e-12);
   }
 
   @Test
@@ -112,8 +115,15 @@ class RhatTest {
   @Test
   void rejectsTooFewDrawsAndNonFiniteDraws() {
     assertThrows(IllegalArgumentException.class, () -> Rhat.basic(Draws.of(new double[][] {{1}})));
-    assertThrows(
-        IllegalArgumentException.class, () -> Rhat.rankNormalized(Draws.of(new double[][] {{1, 2, 3}})));
+    for (Executable call :
+        new Executable[] {
+          () -> Rhat.rankNormalized(Draws.of(new double[][] {{1, 2, 3}, {3, 2, 1}})),
+          () -> Rhat.split(Draws.of(new double[][] {{1, 2, 3}, {3, 2, 1}}))
+        }) {
+      // Split chains need two halves of at least two draws (Vehtari et al. 2021, section 4.1).
+      String message = assertThrows(IllegalArgumentException.class, call).getMessage();
+      assertTrue(message.contains("at least 4"), message);
+    }
     assertThrows(
         NonFiniteDrawException.class,
         () -> Rhat.rankNormalized(Draws.of(new double[][] {{1, 2, 3, Double.NaN}})));

@@ -8,6 +8,9 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
 import java.util.function.DoubleSupplier;
 import java.util.function.DoubleUnaryOperator;
 import java.util.stream.Stream;
+import org.apache.commons.math3.distribution.BetaDistribution;
+import org.apache.commons.math3.distribution.ExponentialDistribution;
+import org.apache.commons.math3.distribution.GammaDistribution;
 import org.apache.commons.math3.distribution.NormalDistribution;
 import org.apache.commons.math3.distribution.TDistribution;
 import org.apache.commons.math3.random.Well19937c;
@@ -133,6 +136,69 @@ class AdaptiveRejectionMetropolisTest {
     assertEquals(0, arms.statistics().metropolisRejections());
   }
 
+  static Stream<Target> logConcaveTargets() {
+    ExponentialDistribution exponential = new ExponentialDistribution(1);
+    GammaDistribution gamma = new GammaDistribution(3, 1);
+    BetaDistribution beta = new BetaDistribution(2, 5);
+    NormalDistribution normal = new NormalDistribution(0, 1);
+    // Exact draws are not needed: every transition is an independent exact draw (see below).
+    return Stream.of(
+        new Target("exponential(1) on (0, inf)", x -> -x, 0, INF, null,
+            exponential::cumulativeProbability, new double[] {0.5, 1, 1.5}),
+        new Target("reflected exponential(1) on (-inf, 0)", x -> x, -INF, 0, null,
+            x -> 1 - exponential.cumulativeProbability(-x), new double[] {-1.5, -1, -0.5}),
+        new Target("gamma(3, 1)", x -> 2 * Math.log(x) - x, 0, INF, null,
+            gamma::cumulativeProbability, new double[] {1, 2, 4}),
+        new Target("beta(2, 5)", x -> Math.log(x) + 4 * Math.log1p(-x), 0, 1, null,
+            beta::cumulativeProbability, new double[] {0.1, 0.25, 0.5}),
+        new Target("normal(0, 1), points off centre", x -> -0.5 * x * x, -INF, INF, null,
+            normal::cumulativeProbability, new double[] {-1, 0.5, 2}));
+  }
+
+  /**
+   * Gilks, Best and Tan (1995), section 3: for log-concave f the secant envelope lies above log f,
+   * so the Metropolis-Hastings step accepts every candidate and each transition returns a fresh
+   * exact draw of adaptive rejection sampling, whatever the current state. So 20000 transitions
+   * from one fixed state are 20000 independent draws from f: KS against commons-math3 at level
+   * 1e-5, power 0.99 against a CDF error of 3.64 / sqrt(20000) = 0.026 (GoodnessOfFit). Seed: the
+   * target name's hash. The targets put the envelope's outer pieces on the left, the right and
+   * both ends.
+   */
+  @ParameterizedTest(name = "{0}")
+  @MethodSource("logConcaveTargets")
+  void onLogConcaveTargetsEveryTransitionIsAnExactDraw(Target target) {
+    AdaptiveRejectionMetropolis arms = AdaptiveRejectionMetropolis.of(target.logDensity(),
+        target.lower(), target.upper(), target.initialPoints(), 20);
+    assertTrue(Double.isNaN(arms.statistics().evaluationsPerTransition()));
+    var rng = MarkovChecks.rng(target.name().hashCode());
+    double current = target.initialPoints()[1];
+    double[] draws = new double[20_000];
+    for (int i = 0; i < draws.length; i++) {
+      draws[i] = arms.next(current, rng);
+      assertTrue(draws[i] > target.lower() && draws[i] < target.upper(), "draw " + draws[i]);
+    }
+    ArmsStatistics statistics = arms.statistics();
+    assertEquals(0, statistics.metropolisRejections(), statistics.toString());
+    assertEquals(20_000, statistics.transitions());
+    assertEquals((double) statistics.evaluations() / 20_000, statistics.evaluationsPerTransition());
+    double p = GoodnessOfFit.ksPValue(draws, target.cdf());
+    assertTrue(p > GoodnessOfFit.LEVEL, "KS p-value " + p + ", " + statistics);
+  }
+
+  @Test
+  void rejectedCandidatesAreAddedUpToTheCapWhichCountsTheSearchPoints() {
+    // Normal(1, 2) from -2, 1, 4: the bounded search adds one point toward each infinite end
+    // (at -8 and 10, where log f is 3 or more below the top), so every call starts from 5
+    // abscissae; with maxPoints 6 one rejected candidate fills the envelope and no call may go
+    // beyond it (the class comment: points stop being added at maxPoints, search points counted).
+    Target target = normal();
+    AdaptiveRejectionMetropolis arms = AdaptiveRejectionMetropolis.of(target.logDensity(),
+        target.lower(), target.upper(), target.initialPoints(), 6);
+    MarkovChecks.oneStepFromExactStarts(arms, target.exact(), 2000, MarkovChecks.rng(7));
+    assertTrue(arms.statistics().adaptiveRejections() > 0, arms.statistics().toString());
+    assertEquals(6, arms.statistics().largestEnvelope(), arms.statistics().toString());
+  }
+
   @Test
   void onTheMixtureTheMetropolisStepCorrects() {
     Target target = mixture("mixture", new double[] {1.5, 2, 2.5}, 71);
@@ -229,6 +295,16 @@ class AdaptiveRejectionMetropolisTest {
         () -> AdaptiveRejectionMetropolis.of(f, -INF, INF, new double[] {0, Double.NaN, 1}, 10));
     SliceSamplerTest.assertMessage("maxPoints",
         () -> AdaptiveRejectionMetropolis.of(f, -INF, INF, new double[] {0, 1, 2}, 2));
+    SliceSamplerTest.assertMessage("initialPoints[0]",
+        () -> AdaptiveRejectionMetropolis.of(f, 0, 2, new double[] {0, 1, 1.5}, 10));
+    // The documented minimum: maxPoints may equal the number of initial points.
+    AdaptiveRejectionMetropolis smallest =
+        AdaptiveRejectionMetropolis.of(f, -INF, INF, new double[] {0, 1, 2}, 3);
+    assertEquals(3, smallest.maxPoints());
+    double[] points = smallest.initialPoints();
+    assertArrayEquals(new double[] {0, 1, 2}, points);
+    points[0] = -9; // a copy: the sampler's own points are unchanged
+    assertArrayEquals(new double[] {0, 1, 2}, smallest.initialPoints());
     SliceSamplerTest.assertMessage("lower",
         () -> AdaptiveRejectionMetropolis.of(f, INF, INF, new double[] {0, 1, 2}, 5));
     assertThrows(NullPointerException.class,

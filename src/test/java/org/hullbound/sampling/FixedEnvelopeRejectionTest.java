@@ -24,6 +24,30 @@ class FixedEnvelopeRejectionTest {
   private static final DoubleUnaryOperator TRUNCATED_NORMAL =
       x -> -0.5 * x * x - 0.5 * Math.log(2 * Math.PI) - Math.log(Q5);
 
+  /** A proposal from its draw and its log-density (support: the whole line, as the default). */
+  private static Proposal proposal(
+      java.util.function.ToDoubleFunction<RandomGenerator> draw, DoubleUnaryOperator logDensity) {
+    return new Proposal() {
+      @Override
+      public double draw(RandomGenerator rng) {
+        return draw.applyAsDouble(rng);
+      }
+
+      @Override
+      public double logDensity(double x) {
+        return logDensity.applyAsDouble(x);
+      }
+    };
+  }
+
+  /** The uniform proposal on (0, 1), by its density 1 there. */
+  private static final Proposal UNIFORM = proposal(rng -> rng.nextDouble(), x -> 0);
+
+  /** The standard Cauchy proposal, drawn by inversion of its CDF. */
+  private static final Proposal CAUCHY = proposal(
+      rng -> Math.tan(Math.PI * (rng.nextDouble() - 0.5)),
+      x -> -Math.log(Math.PI) - Math.log1p(x * x));
+
   private static RandomGenerator rng(long seed) {
     return RandomGeneratorFactory.of("L64X128MixRandom").create(seed);
   }
@@ -121,20 +145,9 @@ class FixedEnvelopeRejectionTest {
     // Target N(0,1) on the real line, proposal Cauchy(0,1) (inversion of the Cauchy CDF).
     // Source (direct calculation): log(phi/cauchy) = -x^2/2 + log(1+x^2) + log(pi) - log(2 pi)/2
     // is largest at x = +-1, where M = sqrt(2 pi / e) = 1.5203 (a textbook value, recalled).
-    Proposal cauchy = new Proposal() {
-      @Override
-      public double draw(RandomGenerator rng) {
-        return Math.tan(Math.PI * (rng.nextDouble() - 0.5));
-      }
-
-      @Override
-      public double logDensity(double x) {
-        return -Math.log(Math.PI) - Math.log1p(x * x);
-      }
-    };
     DoubleUnaryOperator normal = x -> -0.5 * x * x - 0.5 * Math.log(2 * Math.PI);
     FixedEnvelopeRejection sampler = FixedEnvelopeRejection.withComputedBound(
-        normal, Double.NEGATIVE_INFINITY, Double.POSITIVE_INFINITY, cauchy);
+        normal, Double.NEGATIVE_INFINITY, Double.POSITIVE_INFINITY, CAUCHY);
     assertEquals(Math.sqrt(2 * Math.PI / Math.E), sampler.bound(), 1e-9);
     // Seed 11, n = 16000, KS at level 1e-5 against commons-math3's N(0,1); power >= 0.99
     // against a CDF error of 3.64 / sqrt(n) = 0.029.
@@ -146,20 +159,42 @@ class FixedEnvelopeRejectionTest {
     assertTrue(GoodnessOfFit.ksPValue(draws, STANDARD) > GoodnessOfFit.LEVEL);
   }
 
+  /**
+   * The log ratio h = max(3 exp(-((y - 0.7) / 0.02)^2), 1 - (y - 0.3)^2), with y the distance
+   * from the finite end (or from 0 on the whole line): a broad bump of height 1 and a peak of
+   * height 3 only 0.02 wide, between the dyadic points (0.5, 0.75, ...) that sit near the ends and
+   * far out. The supremum is 3 by construction; a search that saw only the broad bump would
+   * return about 1. The grid of 512 points on the support's bounded transform is what finds the
+   * peak (EnvelopeBound's contract: a scan whose spacing is finer than the peak).
+   */
+  static double narrowPeakRatio(double y) {
+    return Math.max(3 * Math.exp(-Math.pow((y - 0.7) / 0.02, 2)), 1 - (y - 0.3) * (y - 0.3));
+  }
+
+  @Test
+  void aNarrowPeakOfTheRatioIsFoundOnEveryShapeOfSupport() {
+    // (0, 1), uniform proposal.
+    assertEquals(3, FixedEnvelopeRejection.withComputedBound(
+        x -> narrowPeakRatio(x), 0, 1, UNIFORM).logBound(), 1e-9);
+    // (0, inf), proposal Exp(1).
+    Proposal exponential = Proposal.exponentialTail(0, 1);
+    assertEquals(3, FixedEnvelopeRejection.withComputedBound(
+        x -> narrowPeakRatio(x) - x, 0, Double.POSITIVE_INFINITY, exponential).logBound(), 1e-9);
+    // (-inf, 0), proposal -Exp(1).
+    Proposal reflected = proposal(rng -> Math.log1p(-rng.nextDouble()), x -> x);
+    assertEquals(3, FixedEnvelopeRejection.withComputedBound(
+        x -> narrowPeakRatio(-x) + x, Double.NEGATIVE_INFINITY, 0, reflected).logBound(), 1e-9);
+    // The whole line, proposal Cauchy(0, 1); the ratio falls like -y^2 on both sides.
+    assertEquals(3, FixedEnvelopeRejection.withComputedBound(
+        x -> narrowPeakRatio(x) + CAUCHY.logDensity(x), Double.NEGATIVE_INFINITY,
+        Double.POSITIVE_INFINITY, CAUCHY).logBound(), 1e-9);
+  }
+
   @Test
   void unboundedRatioIsAClearError() {
     // A Cauchy target under a normal proposal: f/g grows like exp(x^2/2) / x^2.
-    Proposal normal = new Proposal() {
-      @Override
-      public double draw(RandomGenerator rng) {
-        return rng.nextGaussian();
-      }
-
-      @Override
-      public double logDensity(double x) {
-        return -0.5 * x * x - 0.5 * Math.log(2 * Math.PI);
-      }
-    };
+    Proposal normal =
+        proposal(rng -> rng.nextGaussian(), x -> -0.5 * x * x - 0.5 * Math.log(2 * Math.PI));
     IllegalArgumentException e = assertThrows(IllegalArgumentException.class,
         () -> FixedEnvelopeRejection.withComputedBound(
             x -> -Math.log1p(x * x), Double.NEGATIVE_INFINITY, Double.POSITIVE_INFINITY, normal));
@@ -174,17 +209,8 @@ class FixedEnvelopeRejectionTest {
   @Test
   void aSingularityAtAFiniteEndIsAnUnboundedRatio() {
     // beta(0.5, 1) under a uniform proposal on (0, 1): f/g = x^(-1/2) / 2 is unbounded at 0.
-    Proposal uniform = new Proposal() {
-      @Override
-      public double draw(RandomGenerator rng) {
-        return rng.nextDouble();
-      }
-
-      @Override
-      public double logDensity(double x) {
-        return x >= 0 && x <= 1 ? 0 : Double.NEGATIVE_INFINITY;
-      }
-    };
+    Proposal uniform =
+        proposal(rng -> rng.nextDouble(), x -> x >= 0 && x <= 1 ? 0 : Double.NEGATIVE_INFINITY);
     IllegalArgumentException e = assertThrows(IllegalArgumentException.class,
         () -> FixedEnvelopeRejection.withComputedBound(
             x -> -0.5 * Math.log(x) - Math.log(2), 0, 1, uniform));
@@ -192,16 +218,37 @@ class FixedEnvelopeRejectionTest {
   }
 
   @Test
+  void aRatioThatGrowsTowardAFiniteEndIsAnErrorAtEitherEnd() {
+    // log(f/g) = -log(distance to the end) / 2 inside (0, 1), but 0 at the end itself: the scan's
+    // largest value is at the point nearest the end and the end is lower, so the ratio grows
+    // toward the end and no finite M was found (EnvelopeBound's rule for finite ends).
+    String lower = assertThrows(IllegalArgumentException.class,
+        () -> FixedEnvelopeRejection.withComputedBound(
+            x -> x == 0 ? 0 : -0.5 * Math.log(x), 0, 1, UNIFORM)).getMessage();
+    assertTrue(lower.contains("grows toward the end 0.0"), lower);
+    String upper = assertThrows(IllegalArgumentException.class,
+        () -> FixedEnvelopeRejection.withComputedBound(
+            x -> x == 1 ? 0 : -0.5 * Math.log1p(-x), 0, 1, UNIFORM)).getMessage();
+    assertTrue(upper.contains("grows toward the end 1.0"), upper);
+  }
+
+  @Test
   void aBoundThatIsTooSmallIsDetected() {
     FixedEnvelopeRejection sampler = FixedEnvelopeRejection.of(
         TRUNCATED_NORMAL, TAIL, Double.POSITIVE_INFINITY, Proposal.exponentialTail(TAIL, 1),
         Math.log(2.0));
-    assertThrows(EnvelopeViolationException.class, () -> {
+    EnvelopeViolationException e = assertThrows(EnvelopeViolationException.class, () -> {
       RandomGenerator rng = rng(5);
       for (int i = 0; i < 1000; i++) {
         sampler.sample(rng);
       }
     });
+    // The exception carries the offending point, its log ratio log f - log g and the bound.
+    double logRatio = TRUNCATED_NORMAL.applyAsDouble(e.point()) - (-(e.point() - TAIL));
+    assertTrue(e.point() > TAIL, "point " + e.point());
+    assertEquals(logRatio, e.logRatio(), 1e-12);
+    assertEquals(Math.log(2.0), e.logBound());
+    assertTrue(e.logRatio() > e.logBound());
   }
 
   /**
@@ -217,8 +264,17 @@ class FixedEnvelopeRejectionTest {
     RejectionLimitException stuck =
         assertTimeoutPreemptively(java.time.Duration.ofMinutes(1),
             () -> assertThrows(RejectionLimitException.class, () -> sampler.sample(rng(3))));
-    // log M = 0: the cap is max(100000, 100 e^0) = 100000
+    // log M = 0: the cap is max(100000, 100 e^0) = 100000, and that many proposals were made.
     assertEquals(100_000, stuck.proposals());
+    assertEquals(100_000, sampler.statistics().proposals());
+    // log M = log 4000: the cap is 100 M = 400000 (a correct envelope needs more than 100 M
+    // proposals with probability below e^-100, as the class documents).
+    FixedEnvelopeRejection wide = FixedEnvelopeRejection.of(
+        x -> x < TAIL + 1e-9 ? 0.0 : Double.NEGATIVE_INFINITY, TAIL, Double.POSITIVE_INFINITY,
+        Proposal.exponentialTail(TAIL, 1), Math.log(4000));
+    RejectionLimitException wideStuck =
+        assertThrows(RejectionLimitException.class, () -> wide.sample(rng(4)));
+    assertEquals(400_000, wideStuck.proposals(), 1);
     assertTrue(stuck.getMessage().startsWith("fixed-envelope rejection: no proposal accepted"));
   }
 
@@ -261,9 +317,18 @@ class FixedEnvelopeRejectionTest {
     DensityEvaluationException e =
         assertThrows(DensityEvaluationException.class, () -> infinite.sample(rng(1)));
     assertEquals(Double.POSITIVE_INFINITY, e.value());
+    assertTrue(e.point() > TAIL, "point " + e.point());
     assertThrows(DensityEvaluationException.class,
         () -> FixedEnvelopeRejection.withComputedBound(
             x -> Double.NaN, TAIL, Double.POSITIVE_INFINITY, Proposal.exponentialTail(TAIL, 1)));
+  }
+
+  @Test
+  void theComputedBoundChecksTheSupportFirst() {
+    String message = assertThrows(IllegalArgumentException.class,
+        () -> FixedEnvelopeRejection.withComputedBound(
+            TRUNCATED_NORMAL, 7, TAIL, Proposal.exponentialTail(TAIL, 1))).getMessage();
+    assertTrue(message.contains("lower must be < upper"), message);
   }
 
   @Test

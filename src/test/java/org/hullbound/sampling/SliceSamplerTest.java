@@ -115,6 +115,25 @@ class SliceSamplerTest {
   }
 
   @Test
+  void everyStepOutAndEveryShrinkCostsOneEvaluation() {
+    // Neal (2003), figures 3 and 5: a transition evaluates the current point, the two first ends
+    // of the interval, one more point per step out and per shrink, and the accepted point. On
+    // the whole line with a step budget too large to run out (a zero share has probability
+    // 5e-10), evaluations = 4 transitions + steps out + shrinks. Width 0.1 against a standard
+    // normal makes both steps out and shrinks happen.
+    SliceSampler slice = SliceSampler.of(x -> -0.5 * x * x, Double.NEGATIVE_INFINITY,
+        Double.POSITIVE_INFINITY, 0.1, Integer.MAX_VALUE);
+    assertEquals(0.1, slice.width());
+    assertEquals(Integer.MAX_VALUE, slice.maxSteps());
+    assertTrue(Double.isNaN(slice.statistics().evaluationsPerTransition()));
+    MarkovChecks.thinnedChain(slice, 0.5, 0, 1, 400, MarkovChecks.rng(12));
+    SliceStatistics s = slice.statistics();
+    assertTrue(s.stepsOut() > 400 && s.shrinks() > 0, s.toString());
+    assertEquals(4 * 400 + s.stepsOut() + s.shrinks(), s.evaluations(), s.toString());
+    assertEquals(s.evaluations() / 400.0, s.evaluationsPerTransition());
+  }
+
+  @Test
   void neverEvaluatesOutsideTheOpenSupport() {
     RandomGenerator rng = MarkovChecks.rng(9);
     SliceSampler slice = SliceSampler.of(x -> {
