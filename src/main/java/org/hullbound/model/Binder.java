@@ -51,7 +51,8 @@ final class Binder {
       List<Boolean> imputed,
       int[] ownTerm,
       List<DataSummary> data,
-      Map<String, Integer> nodeCounts) {}
+      Map<String, Integer> nodeCounts,
+      DerivedQuantities derived) {}
 
   private final ModelFile model;
   private final SourceText source;
@@ -1097,11 +1098,14 @@ final class Binder {
       }
     }
     // Lets are checked even when nothing uses them, so a fault in one never hides.
+    DerivedQuantities.Builder derived = new DerivedQuantities.Builder();
     for (Node node : nodes.values()) {
       if (node.kind == Node.Kind.LET) {
+        List<Formula> values = new ArrayList<>(node.size);
         for (int e = 0; e < node.size; e++) {
-          resolveName(referenceTo(node, e), Map.of());
+          values.add(resolveName(referenceTo(node, e), Map.of()));
         }
+        chooseKept(node, values, derived);
       }
     }
     List<Term> terms = new ArrayList<>();
@@ -1138,7 +1142,39 @@ final class Binder {
         imputed,
         ownTerm,
         summaries,
-        counts);
+        counts,
+        derived.build());
+  }
+
+  /** Whether let {@code node}'s values go with the draws (see {@link DerivedQuantities}). */
+  private void chooseKept(Node node, List<Formula> values, DerivedQuantities.Builder derived) {
+    Statement.Let let = (Statement.Let) node.statement;
+    boolean scalar = node.target.indexSets().isEmpty();
+    if (let.keeping() == Statement.Keeping.HIDE) {
+      derived.leaveOut(node.name(), node.size, "marked hide");
+      return;
+    }
+    if (let.keeping() == Statement.Keeping.DEFAULT && !scalar) {
+      derived.leaveOut(node.name(), node.size, "a vector: write 'keep let' to keep it");
+      return;
+    }
+    if (values.stream().allMatch(Formula::known)) {
+      if (let.keeping() == Statement.Keeping.KEEP) {
+        throw error(
+            let.marker(),
+            "'" + node.name() + "' is fixed by the data (it depends on no param and no missing"
+                + " observation), so every draw would hold the same value",
+            "remove 'keep': a quantity of the data alone is not a result of the fit");
+      }
+      derived.leaveOut(node.name(), node.size, "fixed by the data, the same in every draw");
+      return;
+    }
+    List<String> labels = new ArrayList<>(node.size);
+    for (int e = 0; e < node.size; e++) {
+      labels.add(node.label(e));
+    }
+    derived.keep(node.name(), labels, values,
+        let.keeping() == Statement.Keeping.KEEP ? "marked keep" : "a scalar: kept by default");
   }
 
   private static Expression.Name referenceTo(Node node, int e) {

@@ -54,6 +54,7 @@ public final class BoundModel {
   private final double[] initialState;
   private final List<DataSummary> data;
   private final Map<String, Integer> nodeCounts;
+  private final DerivedQuantities derived;
   private final AtomicReferenceArray<ConditionalDensity> conditionals;
   /** Value and argument evaluators of every term, compiled on the first joint evaluation. */
   private volatile Evaluator[][] joint;
@@ -66,6 +67,7 @@ public final class BoundModel {
     this.ownTerm = result.ownTerm();
     this.data = List.copyOf(result.data());
     this.nodeCounts = Map.copyOf(result.nodeCounts());
+    this.derived = result.derived();
     int n = result.labels().size();
     // Terms are visited in order and each adds itself once per slot it reads, so each slot's
     // list is increasing without repeats; plain int arrays, as a set of boxed indexes per slot
@@ -233,6 +235,11 @@ public final class BoundModel {
   /** How many data, param and let nodes the model declares. */
   public Map<String, Integer> nodeCounts() {
     return nodeCounts;
+  }
+
+  /** The {@code let} quantities kept with the draws, and why each let is kept or not. */
+  public DerivedQuantities derived() {
+    return derived;
   }
 
   /** How many element-level terms (priors and likelihoods) the joint density has. */
