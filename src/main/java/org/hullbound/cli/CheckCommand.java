@@ -7,6 +7,7 @@ import java.util.Locale;
 import java.util.concurrent.Callable;
 import org.hullbound.model.BoundModel;
 import org.hullbound.model.DataSummary;
+import org.hullbound.model.DerivedQuantities;
 import org.hullbound.model.IndexSet;
 import org.hullbound.model.Unknown;
 import org.hullbound.model.Update;
@@ -126,6 +127,26 @@ public final class CheckCommand implements Callable<Integer> {
               + (group.size() > 1 ? " each, " + group.size() + " unknowns" : "")
               + (first.imputed() ? ", missing data" : ""));
       out.printf("  %-" + labelWidth + "s    %s%n", "", update.reason());
+    }
+    printDerived(model.derived(), out);
+  }
+
+  /** Each let, whether its values go with the draws (a column of draws.csv each) and why. */
+  private static void printDerived(DerivedQuantities derived, PrintWriter out) {
+    if (derived.choices().isEmpty()) {
+      return;
+    }
+    out.println();
+    out.println("lets: kept with the draws or not; why");
+    int nameWidth = 0;
+    for (DerivedQuantities.Choice choice : derived.choices()) {
+      nameWidth = Math.max(nameWidth, choice.name().length());
+    }
+    for (DerivedQuantities.Choice choice : derived.choices()) {
+      String kept = choice.kept()
+          ? "kept" + (choice.elements() > 1 ? " (" + choice.elements() + " columns)" : "")
+          : "not kept";
+      out.printf("  %-" + nameWidth + "s  %-18s  %s%n", choice.name(), kept, choice.why());
     }
   }
 

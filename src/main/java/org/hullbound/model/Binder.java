@@ -1150,12 +1150,13 @@ final class Binder {
   private void chooseKept(Node node, List<Formula> values, DerivedQuantities.Builder derived) {
     Statement.Let let = (Statement.Let) node.statement;
     boolean scalar = node.target.indexSets().isEmpty();
+    String declared = scalar ? node.name() : node.name() + setList(node.target.indexSets());
     if (let.keeping() == Statement.Keeping.HIDE) {
-      derived.leaveOut(node.name(), node.size, "marked hide");
+      derived.leaveOut(declared, node.size, "marked hide");
       return;
     }
     if (let.keeping() == Statement.Keeping.DEFAULT && !scalar) {
-      derived.leaveOut(node.name(), node.size, "a vector: write 'keep let' to keep it");
+      derived.leaveOut(declared, node.size, "a vector: write 'keep let' to keep it");
       return;
     }
     if (values.stream().allMatch(Formula::known)) {
@@ -1166,14 +1167,14 @@ final class Binder {
                 + " observation), so every draw would hold the same value",
             "remove 'keep': a quantity of the data alone is not a result of the fit");
       }
-      derived.leaveOut(node.name(), node.size, "fixed by the data, the same in every draw");
+      derived.leaveOut(declared, node.size, "fixed by the data, the same in every draw");
       return;
     }
     List<String> labels = new ArrayList<>(node.size);
     for (int e = 0; e < node.size; e++) {
       labels.add(node.label(e));
     }
-    derived.keep(node.name(), labels, values,
+    derived.keep(declared, labels, values,
         let.keeping() == Statement.Keeping.KEEP ? "marked keep" : "a scalar: kept by default");
   }
 

@@ -18,7 +18,7 @@ public final class DerivedQuantities {
   /**
    * What happens to one {@code let}: kept or not, and why, in plain words.
    *
-   * @param name the let's name
+   * @param name the let as declared, {@code ld50} or {@code rate[site]}
    * @param elements its number of elements (1 for a scalar)
    * @param kept whether its elements are columns of the draws
    * @param why the reason, e.g. {@code "a scalar: kept by default"}
