@@ -33,6 +33,7 @@ import org.hullbound.io.CheckpointFile;
 import org.hullbound.io.DrawsWriter;
 import org.hullbound.io.InitialValuesFile;
 import org.hullbound.model.BoundModel;
+import org.hullbound.model.EmptyCells;
 import org.hullbound.model.Unknown;
 import org.hullbound.report.HtmlReport;
 import org.hullbound.report.ReportInput;
@@ -123,6 +124,10 @@ public final class FitRun implements AutoCloseable {
       CheckpointFile.read(folder);
     }
     List<String> notes = new ArrayList<>();
+    for (String imputed : ImputedCells.of(model)) {
+      notes.add("note: " + imputed + (request.inputs().emptyCells() == EmptyCells.IMPUTED
+          ? " (--no-empty-cells refuses empty cells instead)" : ""));
+    }
     if (request.resume() == null) {
       RunSettings asked = settingsOf(request, 0L);
       refuseTooMuchMemory(asked, sampler.labels().size() + model.derived().size(), notes);

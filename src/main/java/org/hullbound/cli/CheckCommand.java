@@ -5,6 +5,7 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
 import java.util.concurrent.Callable;
+import org.hullbound.app.ImputedCells;
 import org.hullbound.model.BoundModel;
 import org.hullbound.model.DataSummary;
 import org.hullbound.model.DerivedQuantities;
@@ -62,6 +63,9 @@ public final class CheckCommand implements Callable<Integer> {
             d.rows(),
             d.rows() == 1 ? "" : "s",
             missing);
+      } else if (d.indexSet().equals(DataSummary.SCALARS)) {
+        out.printf("  %s: one row of scalars; columns %s%s%n",
+            d.source(), String.join(", ", d.columns()), missing);
       } else {
         out.printf(
             "  %s: %d rows over %s; columns %s%s%n",
@@ -71,6 +75,9 @@ public final class CheckCommand implements Callable<Integer> {
             String.join(", ", d.columns()),
             missing);
       }
+    }
+    for (String imputed : ImputedCells.of(model)) {
+      out.println("  " + imputed);
     }
     out.println();
     out.println("index sets");

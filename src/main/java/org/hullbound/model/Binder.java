@@ -66,16 +66,18 @@ final class Binder {
   private final Map<Node, Formula.Cells> cellsOf = new HashMap<>();
   private Formula.Slot[] slotFormulas = new Formula.Slot[16];
   private final Map<Node, CensoredRows> censoredRows = new HashMap<>();
+  private final EmptyCells emptyCells;
   private String modelName;
 
-  private Binder(ModelFile model, List<DataTable> tables) {
+  private Binder(ModelFile model, List<DataTable> tables, EmptyCells emptyCells) {
     this.model = model;
     this.source = model.source();
     this.tables = List.copyOf(tables);
+    this.emptyCells = emptyCells;
   }
 
-  static Result bind(ModelFile model, List<DataTable> tables) {
-    return new Binder(model, tables).run();
+  static Result bind(ModelFile model, List<DataTable> tables, EmptyCells emptyCells) {
+    return new Binder(model, tables, emptyCells).run();
   }
 
   static Predicate<String> readsColumn(ModelFile model) {
@@ -106,6 +108,7 @@ final class Binder {
     }
     checkCycles();
     bindInlineScalars();
+    bindFileScalars();
     sizeDeclaredSets();
     Map<Node, List<ColumnBinding>> columns = readTableHeaders();
     fileColumns.putAll(columns);
@@ -445,6 +448,81 @@ final class Binder {
     node.source = from;
   }
 
+  /**
+   * Binds scalar data read from a file of scalars: a header of scalar names and one data row.
+   * Before the index sets are sized, so that {@code index t = 1 .. n} may use such an {@code n}.
+   */
+  private void bindFileScalars() {
+    for (DataTable table : tables) {
+      for (int j = 0; j < table.header().size(); j++) {
+        String header = table.header().get(j).trim();
+        Node node = nodes.get(header);
+        if (node == null || node.kind != Node.Kind.DATA || node.inline != null
+            || !node.target.indexSets().isEmpty()) {
+          continue;
+        }
+        SourcePosition at = new SourcePosition(table.fileName(), 1, j + 1);
+        if (node.values != null) {
+          throw error(
+              at,
+              "column '" + header + "' is in both " + node.source + " and " + table.fileName(),
+              "give each column in one data file only");
+        }
+        if (table.rowCount() != 1) {
+          throw error(
+              at,
+              "'" + header + "' is a scalar, so the file that gives it has one data row; "
+                  + table.fileName() + " has " + table.rowCount(),
+              "give scalars in a file of their own, their names in the header and their values"
+                  + " in one row, or inline: data " + header + " = 5");
+        }
+        node.indexSets = List.of();
+        node.size = 1;
+        allocate(node, null);
+        node.source = table.fileName();
+        SourcePosition cell = new SourcePosition(table.fileName(), table.line(0), j + 1);
+        node.cells = new SourcePosition[] {cell};
+        DataColumn column = table.column(j);
+        if (column.invalid(0)) {
+          throw notANumber(column, header, cell);
+        }
+        if (emptyCells == EmptyCells.REFUSED && column.empty(0) && node.modelled()) {
+          throw emptyCell(node, 0, cell, header);
+        }
+        store(node, 0, column.missing(0), column.value(0), cell, column.shown(0));
+      }
+    }
+  }
+
+  private ModelException mixedScalarFile(
+      SourcePosition at, String scalar, String vectorColumn, String set) {
+    return error(
+        at,
+        "'" + scalar + "' is a scalar but column '" + vectorColumn + "' of the same file runs"
+            + " over '" + set + "'",
+        "give scalars in a file of their own, their names in the header and their values in one"
+            + " row, or inline: data " + scalar + " = 5");
+  }
+
+  private ModelException notANumber(DataColumn column, String header, SourcePosition at) {
+    String cell = column.firstInvalidText();
+    String reason = "is not a finite number";
+    try {
+      NumberSyntax.parse(cell);
+    } catch (NumberSyntax.InvalidNumberException ex) {
+      reason = ex.reason();
+    }
+    String separator = cell.contains(";") ? "';'" : cell.contains("\t") ? "a tab" : null;
+    return error(
+        at,
+        "'" + NumberSyntax.shortened(cell) + "' in column '" + header + "' " + reason,
+        separator != null
+            ? "the cell holds " + separator + ": hullbound reads comma-separated files; separate"
+                + " the cells with commas"
+            : "write a finite number (" + NumberSyntax.FORMS + "), or NA (or leave the cell"
+                + " empty) for a missing observation");
+  }
+
   private void sizeDeclaredSets() {
     for (Statement.Index index : indexStatements.values()) {
       if (index.sizedFromData()) {
@@ -496,6 +574,7 @@ final class Binder {
     for (DataTable table : tables) {
       String fileSet = null;
       String fileSetColumn = null;
+      String scalarColumn = null;
       Set<String> seen = new HashSet<>();
       List<String> columnNames = new ArrayList<>();
       for (int j = 0; j < table.header().size(); j++) {
@@ -530,10 +609,20 @@ final class Binder {
         }
         List<Identifier> nodeSets = node.target.indexSets();
         if (nodeSets.isEmpty()) {
-          throw error(
-              at,
-              "'" + base + "' is a scalar; give it inline (data " + base + " = value)",
-              null);
+          // Bound already (bindFileScalars); a file of scalars has no index set.
+          if (trailing.length != 0) {
+            throw error(at, "'" + base + "' is a scalar, so its column is named '" + base
+                + "'; got '" + header + "'", null);
+          }
+          if (fileSet != null) {
+            throw mixedScalarFile(at, base, fileSetColumn, fileSet);
+          }
+          scalarColumn = scalarColumn == null ? header : scalarColumn;
+          columnNames.add(header);
+          continue;
+        }
+        if (scalarColumn != null) {
+          throw mixedScalarFile(at, scalarColumn, header, nodeSets.get(0).text());
         }
         if (trailing.length != nodeSets.size() - 1) {
           throw error(
@@ -585,6 +674,9 @@ final class Binder {
         columnNames.add(header);
       }
       if (fileSet == null) {
+        if (scalarColumn != null) {
+          summaries.add(new DataSummary(table.fileName(), DataSummary.SCALARS, 1, columnNames, 0));
+        }
         continue;
       }
       int rows = table.rowCount();
@@ -681,6 +773,9 @@ final class Binder {
 
   private void bindDataValues(Map<Node, List<ColumnBinding>> columns) {
     for (Node node : nodes.values()) {
+      if (node.kind == Node.Kind.DATA && node.target.indexSets().isEmpty() && node.values == null) {
+        throw noScalarValue(node);
+      }
       if (node.kind != Node.Kind.DATA || node.target.indexSets().isEmpty()) {
         continue;
       }
@@ -725,22 +820,13 @@ final class Binder {
           boolean missing = column.missing(r);
           double value = column.value(r);
           if (column.invalid(r)) {
-            String cell = column.firstInvalidText();
-            String reason = "is not a finite number";
-            try {
-              NumberSyntax.parse(cell);
-            } catch (NumberSyntax.InvalidNumberException ex) {
-              reason = ex.reason();
-            }
-            throw error(
-                cellAt(binding, r),
-                "'" + NumberSyntax.shortened(cell) + "' in column '"
-                    + table.header().get(binding.column()) + "' " + reason,
-                "write a finite number (" + NumberSyntax.FORMS + "), or NA (or leave the cell"
-                    + " empty) for a missing observation");
+            throw notANumber(column, table.header().get(binding.column()), cellAt(binding, r));
           }
           if (missing && !node.modelled()) {
             throw missingCovariate(node, e, cellAt(binding, r), column.shown(r));
+          }
+          if (emptyCells == EmptyCells.REFUSED && column.empty(r)) {
+            throw emptyCell(node, e, cellAt(binding, r), table.header().get(binding.column()));
           }
           node.present[e] = true;
           node.missing[e] = missing;
@@ -773,6 +859,19 @@ final class Binder {
     }
   }
 
+  /** Scalar data {@code node} got a value neither inline nor from a data file. */
+  private ModelException noScalarValue(Node node) {
+    return error(
+        node.position(),
+        "no value for the scalar data '" + node.name() + "': "
+            + (tables.isEmpty()
+                ? "no data file was given"
+                : "no data file has a column '" + node.name() + "'"),
+        "give it inline (data " + node.name() + " = 5), or as a column of a data file of"
+            + " scalars (one row under the header)"
+            + (tables.isEmpty() ? "" : "; the data files read are " + tableNames()));
+  }
+
   private void store(
       Node node, int e, boolean missing, double value, SourcePosition at, String shown) {
     if (missing && !node.modelled()) {
@@ -782,6 +881,14 @@ final class Binder {
     node.missing[e] = missing;
     node.values[e] = value;
     node.cells[e] = at;
+  }
+
+  private ModelException emptyCell(Node node, int e, SourcePosition at, String header) {
+    return error(
+        at,
+        "empty cell in column '" + header + "' for '" + node.label(e) + "'; empty cells of"
+            + " modelled data are refused in this run, not imputed",
+        "fill in the value, or write NA where the observation is missing so that it is imputed");
   }
 
   private ModelException missingCovariate(Node node, int e, SourcePosition at, String shown) {
@@ -969,12 +1076,15 @@ final class Binder {
           NameSuggestion.hint(name, valid));
     }
     List<IndexSet> nodeSets = node.indexSets;
+    if (nodeSets == null && node.kind == Node.Kind.DATA && node.target.indexSets().isEmpty()) {
+      throw noScalarValue(node);
+    }
     if (nodeSets == null) {
       // Only inline scalars are bound while index bounds are evaluated.
       throw error(
           reference.position(),
-          "'" + name + "' cannot be used here: index bounds may use numbers and inline scalar"
-              + " data only",
+          "'" + name + "' cannot be used here: index bounds may use numbers and scalar data"
+              + " only",
           null);
     }
     if (reference.indexes().size() != nodeSets.size()) {

@@ -157,13 +157,26 @@ public final class BoundModel {
    * @throws ModelException for any semantic fault of the model or the data, positioned
    */
   public static BoundModel bind(ModelFile model, List<DataTable> data) {
+    return bind(model, data, EmptyCells.IMPUTED);
+  }
+
+  /**
+   * Binds {@code model} to its data tables, with {@code emptyCells} saying whether an empty cell
+   * of a modelled column is a missing observation or an error.
+   *
+   * @throws ModelException for any semantic fault of the model or the data, positioned
+   */
+  public static BoundModel bind(ModelFile model, List<DataTable> data, EmptyCells emptyCells) {
+    if (emptyCells == null) {
+      throw new IllegalArgumentException("emptyCells must not be null");
+    }
     if (model == null) {
       throw new IllegalArgumentException("model must not be null");
     }
     if (data == null) {
       throw new IllegalArgumentException("data must not be null (use an empty list)");
     }
-    return new BoundModel(Binder.bind(model, data));
+    return new BoundModel(Binder.bind(model, data, emptyCells));
   }
 
   /**
