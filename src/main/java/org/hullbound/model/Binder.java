@@ -468,6 +468,14 @@ final class Binder {
               "column '" + header + "' is in both " + node.source + " and " + table.fileName(),
               "give each column in one data file only");
         }
+        for (String other : table.header()) {
+          Node vector = nodes.get(columnBase(other.trim()));
+          if (vector != null && vector.kind == Node.Kind.DATA
+              && !vector.target.indexSets().isEmpty()) {
+            throw mixedScalarFile(
+                at, header, other.trim(), vector.target.indexSets().get(0).text());
+          }
+        }
         if (table.rowCount() != 1) {
           throw error(
               at,
@@ -574,7 +582,7 @@ final class Binder {
     for (DataTable table : tables) {
       String fileSet = null;
       String fileSetColumn = null;
-      String scalarColumn = null;
+      boolean scalarFile = false;
       Set<String> seen = new HashSet<>();
       List<String> columnNames = new ArrayList<>();
       for (int j = 0; j < table.header().size(); j++) {
@@ -609,20 +617,14 @@ final class Binder {
         }
         List<Identifier> nodeSets = node.target.indexSets();
         if (nodeSets.isEmpty()) {
-          // Bound already (bindFileScalars); a file of scalars has no index set.
+          // Bound already, in a file of scalars only (bindFileScalars).
           if (trailing.length != 0) {
             throw error(at, "'" + base + "' is a scalar, so its column is named '" + base
                 + "'; got '" + header + "'", null);
           }
-          if (fileSet != null) {
-            throw mixedScalarFile(at, base, fileSetColumn, fileSet);
-          }
-          scalarColumn = scalarColumn == null ? header : scalarColumn;
+          scalarFile = true;
           columnNames.add(header);
           continue;
-        }
-        if (scalarColumn != null) {
-          throw mixedScalarFile(at, scalarColumn, header, nodeSets.get(0).text());
         }
         if (trailing.length != nodeSets.size() - 1) {
           throw error(
@@ -674,7 +676,7 @@ final class Binder {
         columnNames.add(header);
       }
       if (fileSet == null) {
-        if (scalarColumn != null) {
+        if (scalarFile) {
           summaries.add(new DataSummary(table.fileName(), DataSummary.SCALARS, 1, columnNames, 0));
         }
         continue;
