@@ -77,6 +77,17 @@ class DerivedAndDataOptionsTest {
     assertEquals("chain,draw,lambda,count[2],count[3],rate[1],rate[2],rate[3],rate[4],wait",
         header);
     assertTrue(fitted.out().matches("(?s).*\nwait +\\|.*\\| +derived +n/a\n.*"), fitted.out());
+
+    // Read back: summarize summarises the derived columns, report DIR marks them from summary.csv.
+    CliRun summarized = CliRun.of("summarize", out.resolve("draws.csv").toString());
+    assertEquals(0, summarized.exit(), summarized.toString());
+    assertTrue(summarized.out().matches("(?s).*\nwait +\\| .*"), summarized.out());
+    Files.delete(out.resolve("report.html"));
+    CliRun report = CliRun.of("report", out.toString());
+    assertEquals(0, report.exit(), report.toString());
+    String page = Files.readString(out.resolve("report.html"));
+    assertTrue(page.contains("Not drawn: a let quantity, computed from the unknowns at each kept"
+        + " draw."), "the cost answer of a derived quantity");
   }
 
   @Test
