@@ -603,10 +603,15 @@ final class Binder {
               node == null
                   ? "is not a data name of the model"
                   : "names a " + node.kindWord() + ", and only data is read from files";
+          String separator =
+              header.contains(";") ? "';'" : header.contains("\t") ? "a tab" : null;
           throw error(
               at,
               "column '" + header + "' " + what + "; the data names are " + dataNames,
-              node == null ? NameSuggestion.hint(base, dataNames) : null);
+              separator != null
+                  ? "the header cell holds " + separator + ": hullbound reads comma-separated"
+                      + " files; separate the cells with commas"
+                  : node == null ? NameSuggestion.hint(base, dataNames) : null);
         }
         if (node.inline != null) {
           throw error(

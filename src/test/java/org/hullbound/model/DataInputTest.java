@@ -133,6 +133,17 @@ class DataInputTest {
   }
 
   @Test
+  void aHeaderCellHoldingAnotherSeparatorSaysSo() {
+    ModelException e =
+        assertThrows(
+            ModelException.class,
+            () -> TestModels.bind(COUNTS, table("days.csv", "count,day;weekday", "3,1;2")));
+    assertEquals(new SourcePosition("days.csv", 1, 2), e.position());
+    assertTrue(e.hint().contains("the header cell holds ';': hullbound reads comma-separated"),
+        e.hint());
+  }
+
+  @Test
   void aCellHoldingAnotherSeparatorSaysSo() {
     ModelException e =
         assertThrows(
