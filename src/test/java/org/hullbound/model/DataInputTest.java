@@ -17,6 +17,11 @@ import org.junit.jupiter.api.Test;
  */
 class DataInputTest {
 
+  /** The fault binding {@code model} to {@code tables} fails with. */
+  private static ModelException refused(String model, DataTable... tables) {
+    return assertThrows(ModelException.class, () -> TestModels.bind(model, tables));
+  }
+
   private static final String SCALAR_MODEL =
       String.join(
           "\n",
@@ -54,12 +59,10 @@ class DataInputTest {
   @Test
   void aScalarWithoutAValueIsAPositionedErrorNotAnInternalOne() {
     ModelException e =
-        assertThrows(
-            ModelException.class,
-            () -> TestModels.bind(
-                "index t\ndata  n\ndata y[t] ~ normal(mean = mu, sd = n)\n"
-                    + "param mu ~ normal(mean = 0, sd = 1)",
-                table("obs.csv", "y", "1", "2")));
+        refused(
+            "index t\ndata  n\ndata y[t] ~ normal(mean = mu, sd = n)\n"
+                + "param mu ~ normal(mean = 0, sd = 1)",
+            table("obs.csv", "y", "1", "2"));
     assertEquals(new SourcePosition("test.hbm", 2, 7), e.position());
     assertTrue(e.problem().contains("no value for the scalar data 'n': no data file has a column"
         + " 'n'"), e.problem());
@@ -82,9 +85,7 @@ class DataInputTest {
   @Test
   void aFileOfScalarsHasOneRow() {
     ModelException e =
-        assertThrows(
-            ModelException.class,
-            () -> TestModels.bind(SCALAR_MODEL, table("scalars.csv", "centre,n", "1,3", "2,3")));
+        refused(SCALAR_MODEL, table("scalars.csv", "centre,n", "1,3", "2,3"));
     assertEquals(new SourcePosition("scalars.csv", 1, 1), e.position());
     assertTrue(e.problem().contains("scalars.csv has 2"), e.problem());
   }
@@ -92,12 +93,10 @@ class DataInputTest {
   @Test
   void aScalarDoesNotShareAFileWithAVector() {
     ModelException e =
-        assertThrows(
-            ModelException.class,
-            () -> TestModels.bind(
-                "data y[t] ~ normal(mean = mu, sd = s)\nindex t\ndata s\n"
-                    + "param mu ~ normal(mean = 0, sd = 1)",
-                table("obs.csv", "y,s", "1,2")));
+        refused(
+            "data y[t] ~ normal(mean = mu, sd = s)\nindex t\ndata s\n"
+                + "param mu ~ normal(mean = 0, sd = 1)",
+            table("obs.csv", "y,s", "1,2"));
     assertEquals(new SourcePosition("obs.csv", 1, 2), e.position());
     assertTrue(e.problem().contains("'s' is a scalar but column 'y' of the same file runs over"
         + " 't'"), e.problem());
@@ -135,9 +134,7 @@ class DataInputTest {
   @Test
   void aHeaderCellHoldingAnotherSeparatorSaysSo() {
     ModelException e =
-        assertThrows(
-            ModelException.class,
-            () -> TestModels.bind(COUNTS, table("days.csv", "count,day;weekday", "3,1;2")));
+        refused(COUNTS, table("days.csv", "count,day;weekday", "3,1;2"));
     assertEquals(new SourcePosition("days.csv", 1, 2), e.position());
     assertTrue(e.hint().contains("the header cell holds ';': hullbound reads comma-separated"),
         e.hint());
@@ -146,9 +143,7 @@ class DataInputTest {
   @Test
   void aCellHoldingAnotherSeparatorSaysSo() {
     ModelException e =
-        assertThrows(
-            ModelException.class,
-            () -> TestModels.bind(COUNTS, table("days.csv", "count", "3", "4;5")));
+        refused(COUNTS, table("days.csv", "count", "3", "4;5"));
     assertEquals(new SourcePosition("days.csv", 3, 1), e.position());
     assertTrue(e.hint().contains("the cell holds ';': hullbound reads comma-separated files"),
         e.hint());
