@@ -35,6 +35,7 @@ import org.hullbound.io.DrawsWriter;
 import org.hullbound.io.InitialValuesFile;
 import org.hullbound.model.BoundModel;
 import org.hullbound.model.TestQuantities;
+import org.hullbound.model.EmptyCells;
 import org.hullbound.model.Unknown;
 import org.hullbound.report.HtmlReport;
 import org.hullbound.report.PredictiveChecks;
@@ -151,9 +152,13 @@ public final class FitRun implements AutoCloseable {
       notes.add("the model has no observed modelled data, so there is nothing to check against"
           + " replicates");
     }
+    for (String imputed : ImputedCells.of(model)) {
+      notes.add("note: " + imputed + (request.inputs().emptyCells() == EmptyCells.IMPUTED
+          ? " (--no-empty-cells refuses empty cells instead)" : ""));
+    }
     if (request.resume() == null) {
       RunSettings asked = settingsOf(request, 0L);
-      refuseTooMuchMemory(asked, sampler.labels().size(), notes);
+      refuseTooMuchMemory(asked, sampler.labels().size() + model.derived().size(), notes);
     }
     FolderLock lock = guard.lock(folder);
     try {
@@ -172,7 +177,7 @@ public final class FitRun implements AutoCloseable {
             RunSettings.of(
                 checkpoint.chains().size(), checkpoint.burnIn(), checkpoint.draws(),
                 checkpoint.thin(), checkpoint.seed());
-        refuseTooMuchMemory(settings, sampler.labels().size(), notes);
+        refuseTooMuchMemory(settings, sampler.labels().size() + model.derived().size(), notes);
       } else {
         settings =
             settingsOf(request, request.seed() != null ? request.seed() : new SecureRandom().nextLong());
@@ -229,7 +234,7 @@ public final class FitRun implements AutoCloseable {
    */
   public FitResult run(ProgressListener listener, StopSignal stop) {
     Path folder = folder();
-    DrawStore store = DrawStore.create(settings.chains(), settings.draws(), sampler.labels().size());
+    DrawStore store = DrawStore.create(settings.chains(), settings.draws(), columns().size());
     RunOutcome outcome;
     OffsetDateTime startedAt;
     long startNanos;
@@ -255,7 +260,9 @@ public final class FitRun implements AutoCloseable {
     try (DrawsWriter writer = openDraws(folder, kept);
         DrawsWriter replicatesFile = replicatesWriter) {
       sampled = true;
-      DrawSink both = both(writer, kept);
+      DrawSink both =
+          DerivedColumns.of(
+              both(writer, kept), model.derived(), sampler.labels().size(), settings.chains());
       startedAt = OffsetDateTime.now();
       startNanos = System.nanoTime();
       try {
@@ -380,16 +387,23 @@ public final class FitRun implements AutoCloseable {
     }
   }
 
+  /** The columns of the draws: the unknowns, then the kept derived quantities. */
+  private List<String> columns() {
+    List<String> columns = new ArrayList<>(sampler.labels());
+    columns.addAll(model.derived().labels());
+    return columns;
+  }
+
   /** A new draws file, or the checkpointed one continued (its draws handed to {@code store}). */
   private DrawsWriter openDraws(Path folder, DrawSink store) {
     if (checkpoint == null) {
-      return DrawsWriter.open(folder, sampler.labels());
+      return DrawsWriter.open(folder, columns());
     }
     int[] kept = new int[checkpoint.chains().size()];
     for (int chain = 0; chain < kept.length; chain++) {
       kept[chain] = checkpoint.chains().get(chain).draws();
     }
-    return DrawsWriter.resume(folder, sampler.labels(), kept, store);
+    return DrawsWriter.resume(folder, columns(), kept, store);
   }
 
   /**
@@ -532,6 +546,13 @@ public final class FitRun implements AutoCloseable {
         fact = UpdateFacts.exact(method, update.evaluationsPerDraw());
       }
       facts.put(label, fact);
+    }
+    List<String> derivedLabels = model.derived().labels();
+    for (int k = 0; k < derivedLabels.size(); k++) {
+      Draws draws = Draws.of(store.draws(labels.size() + k));
+      kepts.add(draws);
+      summaries.add(PosteriorSummary.of(derivedLabels.get(k), draws));
+      facts.put(derivedLabels.get(k), UpdateFacts.derived());
     }
     SummaryTable table =
         SummaryTable.of(summaries, facts).withIntervalLevel(request.level(), kepts);

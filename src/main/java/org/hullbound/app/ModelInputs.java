@@ -12,6 +12,7 @@ import org.hullbound.lang.SourceText;
 import org.hullbound.lang.Statement;
 import org.hullbound.model.BoundModel;
 import org.hullbound.model.DataTable;
+import org.hullbound.model.EmptyCells;
 
 /**
  * A model file and its data files, as named on a command line: read, parsed and bound the same
@@ -19,13 +20,19 @@ import org.hullbound.model.DataTable;
  *
  * @param modelFile the model (.hbm)
  * @param dataFiles the data CSV files, in the order given
+ * @param emptyCells whether an empty cell of a modelled column is imputed or refused
  */
-public record ModelInputs(Path modelFile, List<Path> dataFiles) {
+public record ModelInputs(Path modelFile, List<Path> dataFiles, EmptyCells emptyCells) {
   public ModelInputs {
-    if (modelFile == null || dataFiles == null) {
-      throw new IllegalArgumentException("modelFile and dataFiles must not be null");
+    if (modelFile == null || dataFiles == null || emptyCells == null) {
+      throw new IllegalArgumentException("modelFile, dataFiles and emptyCells must not be null");
     }
     dataFiles = List.copyOf(dataFiles);
+  }
+
+  /** The files, with empty cells of modelled columns imputed. */
+  public ModelInputs(Path modelFile, List<Path> dataFiles) {
+    this(modelFile, dataFiles, EmptyCells.IMPUTED);
   }
 
   /**
@@ -87,7 +94,7 @@ public record ModelInputs(Path modelFile, List<Path> dataFiles) {
   /** The model bound to its data. */
   public BoundModel bind() {
     ModelFile parsed = parse();
-    return BoundModel.bind(parsed, tables(parsed));
+    return BoundModel.bind(parsed, tables(parsed), emptyCells);
   }
 
   /** SHA-256 of the model and data texts as read now (see {@link CheckpointFile#inputHash}). */

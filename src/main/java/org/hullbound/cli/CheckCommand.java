@@ -5,8 +5,10 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
 import java.util.concurrent.Callable;
+import org.hullbound.app.ImputedCells;
 import org.hullbound.model.BoundModel;
 import org.hullbound.model.DataSummary;
+import org.hullbound.model.DerivedQuantities;
 import org.hullbound.model.IndexSet;
 import org.hullbound.model.TestQuantities;
 import org.hullbound.model.Unknown;
@@ -62,6 +64,9 @@ public final class CheckCommand implements Callable<Integer> {
             d.rows(),
             d.rows() == 1 ? "" : "s",
             missing);
+      } else if (d.indexSet().equals(DataSummary.SCALARS)) {
+        out.printf("  %s: one row of scalars; columns %s%s%n",
+            d.source(), String.join(", ", d.columns()), missing);
       } else {
         out.printf(
             "  %s: %d rows over %s; columns %s%s%n",
@@ -71,6 +76,9 @@ public final class CheckCommand implements Callable<Integer> {
             String.join(", ", d.columns()),
             missing);
       }
+    }
+    for (String imputed : ImputedCells.of(model)) {
+      out.println("  " + imputed);
     }
     out.println();
     out.println("index sets");
@@ -128,7 +136,27 @@ public final class CheckCommand implements Callable<Integer> {
               + (first.imputed() ? ", missing data" : ""));
       out.printf("  %-" + labelWidth + "s    %s%n", "", update.reason());
     }
+    printDerived(model.derived(), out);
     printTestQuantities(TestQuantities.of(model), out);
+  }
+
+  /** Each let, whether its values go with the draws (a column of draws.csv each) and why. */
+  private static void printDerived(DerivedQuantities derived, PrintWriter out) {
+    if (derived.choices().isEmpty()) {
+      return;
+    }
+    out.println();
+    out.println("lets: kept with the draws or not; why");
+    int nameWidth = 0;
+    for (DerivedQuantities.Choice choice : derived.choices()) {
+      nameWidth = Math.max(nameWidth, choice.name().length());
+    }
+    for (DerivedQuantities.Choice choice : derived.choices()) {
+      String kept = choice.kept()
+          ? "kept" + (choice.elements() > 1 ? " (" + choice.elements() + " columns)" : "")
+          : "not kept";
+      out.printf("  %-" + nameWidth + "s  %-18s  %s%n", choice.name(), kept, choice.why());
+    }
   }
 
   /** What {@code fit --replicate-checks} would compare, per modelled data name. */

@@ -4,6 +4,7 @@ import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
 import org.hullbound.app.ModelInputs;
+import org.hullbound.model.EmptyCells;
 import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 
@@ -22,8 +23,15 @@ public final class ModelOptions {
       description = "A data file (CSV with a header row); repeat for one file per index set.")
   List<Path> dataFiles = new ArrayList<>();
 
+  @Option(
+      names = "--no-empty-cells",
+      description = "Refuse an empty cell in a modelled data column (naming its file, line and"
+          + " column) instead of imputing it; cells written NA are still imputed.")
+  boolean noEmptyCells;
+
   /** The files as the application layer reads them. */
   ModelInputs inputs() {
-    return new ModelInputs(modelFile, dataFiles);
+    return new ModelInputs(
+        modelFile, dataFiles, noEmptyCells ? EmptyCells.REFUSED : EmptyCells.IMPUTED);
   }
 }

@@ -20,7 +20,7 @@ import java.util.List;
  *            | "data" declarator { "," declarator }
  *            | "data" declarator [ "=" inline ] [ "~" distribution [ censoring ] ]
  *            | "param" declarator "~" distribution
- *            | "let" declarator "=" expr
+ *            | [ "keep" | "hide" ] "let" declarator "=" expr
  *            | "check" name "=" expr
  * declarator = name [ "[" name { "," name } "]" ]
  * inline     = [ "-" ] number | "[" value { "," value } "]"      value = [ "-" ] number | "NA"
@@ -50,6 +50,10 @@ public final class Parser {
 
   private static final List<String> STATEMENT_KEYWORDS =
       List.of("model", "index", "data", "param", "let", "check");
+
+  /** The words that may stand before {@code let}; names everywhere else. */
+  private static final java.util.Map<String, Statement.Keeping> MARKS =
+      java.util.Map.of("keep", Statement.Keeping.KEEP, "hide", Statement.Keeping.HIDE);
 
   private final SourceText source;
   private final Lexer lexer;
@@ -143,17 +147,49 @@ public final class Parser {
       case INDEX -> indexStatement();
       case DATA -> dataStatement();
       case PARAM -> paramStatement();
-      case LET -> letStatement();
+      case LET -> letStatement(Statement.Keeping.DEFAULT, null);
       case CHECK -> checkStatement();
+      case NAME -> markedLet(keyword);
       default -> throw notAStatement(keyword);
     };
+  }
+
+  /**
+   * {@code keep let ...} or {@code hide let ...}. The two words are marks only right before
+   * {@code let}, not reserved: a model may still name a quantity {@code keep}.
+   */
+  private Statement markedLet(Token word) {
+    Statement.Keeping keeping = MARKS.get(word.text());
+    if (keeping == null) {
+      throw notAStatement(word);
+    }
+    Token next = peek(1);
+    if (next.kind() != Token.Kind.LET) {
+      boolean otherStatement =
+          next.kind() == Token.Kind.PARAM || next.kind() == Token.Kind.DATA
+              || next.kind() == Token.Kind.INDEX || next.kind() == Token.Kind.MODEL;
+      throw expected(
+          "'let' after '" + word.text() + "'",
+          next,
+          otherStatement
+              ? "'" + word.text() + "' marks a let only: every param is kept with the draws, and"
+                  + " data is known"
+              : "'" + word.text() + " let name = ...' " + (keeping == Statement.Keeping.KEEP
+                  ? "keeps a derived quantity with the draws" : "leaves one out of the draws"));
+    }
+    take();
+    return letStatement(keeping, word.position());
   }
 
   private ModelException notAStatement(Token found) {
     String hint = null;
     if (found.kind() == Token.Kind.NAME) {
-      hint = NameSuggestion.hint(found.text(), STATEMENT_KEYWORDS);
-      if (hint == null && peek(1).kind() == Token.Kind.TILDE) {
+      hint = peek(1).kind() == Token.Kind.LET
+          ? NameSuggestion.hint(found.text(), MARKS.keySet())
+          : NameSuggestion.hint(found.text(), STATEMENT_KEYWORDS);
+      if (hint == null && peek(1).kind() == Token.Kind.LET) {
+        hint = "only 'keep' or 'hide' may stand before 'let'";
+      } else if (hint == null && peek(1).kind() == Token.Kind.TILDE) {
         hint = "declare an unknown with 'param' or known values with 'data', as in 'param "
             + found.text() + " ~ normal(mean = 0, sd = 1)'";
       } else if (hint == null && peek(1).kind() == Token.Kind.EQUALS) {
@@ -398,7 +434,7 @@ public final class Parser {
     return new Statement.Param(target, prior, keyword.position());
   }
 
-  private Statement letStatement() {
+  private Statement letStatement(Statement.Keeping keeping, SourcePosition marker) {
     Token keyword = take();
     Declarator target = declarator("let");
     String name = target.name().text();
@@ -414,7 +450,7 @@ public final class Parser {
     }
     Expression value = expression();
     endOfStatement("an operator or the end of the line after the value of '" + name + "'");
-    return new Statement.Let(target, value, keyword.position());
+    return new Statement.Let(target, value, keyword.position(), keeping, marker);
   }
 
   /**

@@ -64,8 +64,47 @@ public sealed interface Statement {
   record Param(Declarator target, Distribution prior, SourcePosition position)
       implements Statement {}
 
-  /** {@code let <target> = <value>}. */
-  record Let(Declarator target, Expression value, SourcePosition position) implements Statement {}
+  /**
+   * {@code let <target> = <value>}, optionally marked {@code keep let} or {@code hide let}: whether
+   * its values go with the draws. {@code marker} is where the mark was written, {@code null} for
+   * {@link Keeping#DEFAULT}; {@code position} is the {@code let} keyword's.
+   */
+  record Let(
+      Declarator target, Expression value, SourcePosition position, Keeping keeping,
+      SourcePosition marker) implements Statement {
+    public Let {
+      if (keeping == null) {
+        throw new IllegalArgumentException("keeping must not be null");
+      }
+      if ((marker == null) != (keeping == Keeping.DEFAULT)) {
+        throw new IllegalArgumentException("a marker position goes with a keep or hide mark only");
+      }
+    }
+
+    /** An unmarked {@code let}. */
+    public Let(Declarator target, Expression value, SourcePosition position) {
+      this(target, value, position, Keeping.DEFAULT, null);
+    }
+  }
+
+  /**
+   * Whether a {@code let}'s values are kept with the draws: by default a scalar is and a vector is
+   * not (a linear predictor over 100,000 rows would swamp the draws file); {@code keep} and {@code
+   * hide} before {@code let} say so explicitly.
+   */
+  enum Keeping {
+    /** Unmarked: kept when a scalar. */
+    DEFAULT,
+    /** {@code keep let}: kept, every element of a vector too. */
+    KEEP,
+    /** {@code hide let}: never kept. */
+    HIDE;
+
+    /** The word written before {@code let}. */
+    public String word() {
+      return name().toLowerCase(java.util.Locale.ROOT);
+    }
+  }
 
   /**
    * {@code check <name> = <value>}: a test quantity of a posterior predictive check, one number

@@ -52,7 +52,8 @@ final class Binder {
       int[] ownTerm,
       List<DataSummary> data,
       Map<String, Integer> nodeCounts,
-      List<CheckFormula> checks) {}
+      List<CheckFormula> checks,
+      DerivedQuantities derived) {}
 
   /**
    * A {@code check} statement bound: the modelled data name it reads and its value, in which that
@@ -77,16 +78,18 @@ final class Binder {
   /** While a check is resolved: its data name, whose elements become slots from {@code replicatedBase}. */
   private Node replicated;
   private int replicatedBase;
+  private final EmptyCells emptyCells;
   private String modelName;
 
-  private Binder(ModelFile model, List<DataTable> tables) {
+  private Binder(ModelFile model, List<DataTable> tables, EmptyCells emptyCells) {
     this.model = model;
     this.source = model.source();
     this.tables = List.copyOf(tables);
+    this.emptyCells = emptyCells;
   }
 
-  static Result bind(ModelFile model, List<DataTable> tables) {
-    return new Binder(model, tables).run();
+  static Result bind(ModelFile model, List<DataTable> tables, EmptyCells emptyCells) {
+    return new Binder(model, tables, emptyCells).run();
   }
 
   static Predicate<String> readsColumn(ModelFile model) {
@@ -117,6 +120,7 @@ final class Binder {
     }
     checkCycles();
     bindInlineScalars();
+    bindFileScalars();
     sizeDeclaredSets();
     Map<Node, List<ColumnBinding>> columns = readTableHeaders();
     fileColumns.putAll(columns);
@@ -459,6 +463,89 @@ final class Binder {
     node.source = from;
   }
 
+  /**
+   * Binds scalar data read from a file of scalars: a header of scalar names and one data row.
+   * Before the index sets are sized, so that {@code index t = 1 .. n} may use such an {@code n}.
+   */
+  private void bindFileScalars() {
+    for (DataTable table : tables) {
+      for (int j = 0; j < table.header().size(); j++) {
+        String header = table.header().get(j).trim();
+        Node node = nodes.get(header);
+        if (node == null || node.kind != Node.Kind.DATA || node.inline != null
+            || !node.target.indexSets().isEmpty()) {
+          continue;
+        }
+        SourcePosition at = new SourcePosition(table.fileName(), 1, j + 1);
+        if (node.values != null) {
+          throw error(
+              at,
+              "column '" + header + "' is in both " + node.source + " and " + table.fileName(),
+              "give each column in one data file only");
+        }
+        for (String other : table.header()) {
+          Node vector = nodes.get(columnBase(other.trim()));
+          if (vector != null && vector.kind == Node.Kind.DATA
+              && !vector.target.indexSets().isEmpty()) {
+            throw mixedScalarFile(
+                at, header, other.trim(), vector.target.indexSets().get(0).text());
+          }
+        }
+        if (table.rowCount() != 1) {
+          throw error(
+              at,
+              "'" + header + "' is a scalar, so the file that gives it has one data row; "
+                  + table.fileName() + " has " + table.rowCount(),
+              "give scalars in a file of their own, their names in the header and their values"
+                  + " in one row, or inline: data " + header + " = 5");
+        }
+        node.indexSets = List.of();
+        node.size = 1;
+        allocate(node, null);
+        node.source = table.fileName();
+        SourcePosition cell = new SourcePosition(table.fileName(), table.line(0), j + 1);
+        node.cells = new SourcePosition[] {cell};
+        DataColumn column = table.column(j);
+        if (column.invalid(0)) {
+          throw notANumber(column, header, cell);
+        }
+        if (emptyCells == EmptyCells.REFUSED && column.empty(0) && node.modelled()) {
+          throw emptyCell(node, 0, cell, header);
+        }
+        store(node, 0, column.missing(0), column.value(0), cell, column.shown(0));
+      }
+    }
+  }
+
+  private ModelException mixedScalarFile(
+      SourcePosition at, String scalar, String vectorColumn, String set) {
+    return error(
+        at,
+        "'" + scalar + "' is a scalar but column '" + vectorColumn + "' of the same file runs"
+            + " over '" + set + "'",
+        "give scalars in a file of their own, their names in the header and their values in one"
+            + " row, or inline: data " + scalar + " = 5");
+  }
+
+  private ModelException notANumber(DataColumn column, String header, SourcePosition at) {
+    String cell = column.firstInvalidText();
+    String reason = "is not a finite number";
+    try {
+      NumberSyntax.parse(cell);
+    } catch (NumberSyntax.InvalidNumberException ex) {
+      reason = ex.reason();
+    }
+    String separator = cell.contains(";") ? "';'" : cell.contains("\t") ? "a tab" : null;
+    return error(
+        at,
+        "'" + NumberSyntax.shortened(cell) + "' in column '" + header + "' " + reason,
+        separator != null
+            ? "the cell holds " + separator + ": hullbound reads comma-separated files; separate"
+                + " the cells with commas"
+            : "write a finite number (" + NumberSyntax.FORMS + "), or NA (or leave the cell"
+                + " empty) for a missing observation");
+  }
+
   private void sizeDeclaredSets() {
     for (Statement.Index index : indexStatements.values()) {
       if (index.sizedFromData()) {
@@ -510,6 +597,7 @@ final class Binder {
     for (DataTable table : tables) {
       String fileSet = null;
       String fileSetColumn = null;
+      boolean scalarFile = false;
       Set<String> seen = new HashSet<>();
       List<String> columnNames = new ArrayList<>();
       for (int j = 0; j < table.header().size(); j++) {
@@ -530,10 +618,15 @@ final class Binder {
               node == null
                   ? "is not a data name of the model"
                   : "names a " + node.kindWord() + ", and only data is read from files";
+          String separator =
+              header.contains(";") ? "';'" : header.contains("\t") ? "a tab" : null;
           throw error(
               at,
               "column '" + header + "' " + what + "; the data names are " + dataNames,
-              node == null ? NameSuggestion.hint(base, dataNames) : null);
+              separator != null
+                  ? "the header cell holds " + separator + ": hullbound reads comma-separated"
+                      + " files; separate the cells with commas"
+                  : node == null ? NameSuggestion.hint(base, dataNames) : null);
         }
         if (node.inline != null) {
           throw error(
@@ -544,10 +637,14 @@ final class Binder {
         }
         List<Identifier> nodeSets = node.target.indexSets();
         if (nodeSets.isEmpty()) {
-          throw error(
-              at,
-              "'" + base + "' is a scalar; give it inline (data " + base + " = value)",
-              null);
+          // Bound already, in a file of scalars only (bindFileScalars).
+          if (trailing.length != 0) {
+            throw error(at, "'" + base + "' is a scalar, so its column is named '" + base
+                + "'; got '" + header + "'", null);
+          }
+          scalarFile = true;
+          columnNames.add(header);
+          continue;
         }
         if (trailing.length != nodeSets.size() - 1) {
           throw error(
@@ -599,6 +696,9 @@ final class Binder {
         columnNames.add(header);
       }
       if (fileSet == null) {
+        if (scalarFile) {
+          summaries.add(new DataSummary(table.fileName(), DataSummary.SCALARS, 1, columnNames, 0));
+        }
         continue;
       }
       int rows = table.rowCount();
@@ -695,6 +795,9 @@ final class Binder {
 
   private void bindDataValues(Map<Node, List<ColumnBinding>> columns) {
     for (Node node : nodes.values()) {
+      if (node.kind == Node.Kind.DATA && node.target.indexSets().isEmpty() && node.values == null) {
+        throw noScalarValue(node);
+      }
       if (node.kind != Node.Kind.DATA || node.target.indexSets().isEmpty()) {
         continue;
       }
@@ -739,22 +842,13 @@ final class Binder {
           boolean missing = column.missing(r);
           double value = column.value(r);
           if (column.invalid(r)) {
-            String cell = column.firstInvalidText();
-            String reason = "is not a finite number";
-            try {
-              NumberSyntax.parse(cell);
-            } catch (NumberSyntax.InvalidNumberException ex) {
-              reason = ex.reason();
-            }
-            throw error(
-                cellAt(binding, r),
-                "'" + NumberSyntax.shortened(cell) + "' in column '"
-                    + table.header().get(binding.column()) + "' " + reason,
-                "write a finite number (" + NumberSyntax.FORMS + "), or NA (or leave the cell"
-                    + " empty) for a missing observation");
+            throw notANumber(column, table.header().get(binding.column()), cellAt(binding, r));
           }
           if (missing && !node.modelled()) {
             throw missingCovariate(node, e, cellAt(binding, r), column.shown(r));
+          }
+          if (emptyCells == EmptyCells.REFUSED && column.empty(r)) {
+            throw emptyCell(node, e, cellAt(binding, r), table.header().get(binding.column()));
           }
           node.present[e] = true;
           node.missing[e] = missing;
@@ -787,6 +881,19 @@ final class Binder {
     }
   }
 
+  /** Scalar data {@code node} got a value neither inline nor from a data file. */
+  private ModelException noScalarValue(Node node) {
+    return error(
+        node.position(),
+        "no value for the scalar data '" + node.name() + "': "
+            + (tables.isEmpty()
+                ? "no data file was given"
+                : "no data file has a column '" + node.name() + "'"),
+        "give it inline (data " + node.name() + " = 5), or as a column of a data file of"
+            + " scalars (one row under the header)"
+            + (tables.isEmpty() ? "" : "; the data files read are " + tableNames()));
+  }
+
   private void store(
       Node node, int e, boolean missing, double value, SourcePosition at, String shown) {
     if (missing && !node.modelled()) {
@@ -796,6 +903,14 @@ final class Binder {
     node.missing[e] = missing;
     node.values[e] = value;
     node.cells[e] = at;
+  }
+
+  private ModelException emptyCell(Node node, int e, SourcePosition at, String header) {
+    return error(
+        at,
+        "empty cell in column '" + header + "' for '" + node.label(e) + "'; empty cells of"
+            + " modelled data are refused in this run, not imputed",
+        "fill in the value, or write NA where the observation is missing so that it is imputed");
   }
 
   private ModelException missingCovariate(Node node, int e, SourcePosition at, String shown) {
@@ -983,12 +1098,15 @@ final class Binder {
           NameSuggestion.hint(name, valid));
     }
     List<IndexSet> nodeSets = node.indexSets;
+    if (nodeSets == null && node.kind == Node.Kind.DATA && node.target.indexSets().isEmpty()) {
+      throw noScalarValue(node);
+    }
     if (nodeSets == null) {
       // Only inline scalars are bound while index bounds are evaluated.
       throw error(
           reference.position(),
-          "'" + name + "' cannot be used here: index bounds may use numbers and inline scalar"
-              + " data only",
+          "'" + name + "' cannot be used here: index bounds may use numbers and scalar data"
+              + " only",
           null);
     }
     if (reference.indexes().size() != nodeSets.size()) {
@@ -1119,11 +1237,14 @@ final class Binder {
       }
     }
     // Lets are checked even when nothing uses them, so a fault in one never hides.
+    DerivedQuantities.Builder derived = new DerivedQuantities.Builder();
     for (Node node : nodes.values()) {
       if (node.kind == Node.Kind.LET) {
+        List<Formula> values = new ArrayList<>(node.size);
         for (int e = 0; e < node.size; e++) {
-          resolveName(referenceTo(node, e), Map.of());
+          values.add(resolveName(referenceTo(node, e), Map.of()));
         }
+        chooseKept(node, values, derived);
       }
     }
     List<Term> terms = new ArrayList<>();
@@ -1161,7 +1282,40 @@ final class Binder {
         ownTerm,
         summaries,
         counts,
-        checks(labels.size()));
+        checks(labels.size()),
+        derived.build());
+  }
+
+  /** Whether let {@code node}'s values go with the draws (see {@link DerivedQuantities}). */
+  private void chooseKept(Node node, List<Formula> values, DerivedQuantities.Builder derived) {
+    Statement.Let let = (Statement.Let) node.statement;
+    boolean scalar = node.target.indexSets().isEmpty();
+    String declared = scalar ? node.name() : node.name() + setList(node.target.indexSets());
+    if (let.keeping() == Statement.Keeping.HIDE) {
+      derived.leaveOut(declared, node.size, "marked hide");
+      return;
+    }
+    if (let.keeping() == Statement.Keeping.DEFAULT && !scalar) {
+      derived.leaveOut(declared, node.size, "a vector: write 'keep let' to keep it");
+      return;
+    }
+    if (values.stream().allMatch(Formula::known)) {
+      if (let.keeping() == Statement.Keeping.KEEP) {
+        throw error(
+            let.marker(),
+            "'" + node.name() + "' is fixed by the data (it depends on no param and no missing"
+                + " observation), so every draw would hold the same value",
+            "remove 'keep': a quantity of the data alone is not a result of the fit");
+      }
+      derived.leaveOut(declared, node.size, "fixed by the data, the same in every draw");
+      return;
+    }
+    List<String> labels = new ArrayList<>(node.size);
+    for (int e = 0; e < node.size; e++) {
+      labels.add(node.label(e));
+    }
+    derived.keep(declared, labels, values,
+        let.keeping() == Statement.Keeping.KEEP ? "marked keep" : "a scalar: kept by default");
   }
 
   /** Binds every {@code check}: the one modelled data name it reads becomes slots from {@code base}. */

@@ -54,6 +54,7 @@ public final class BoundModel {
   private final double[] initialState;
   private final List<DataSummary> data;
   private final Map<String, Integer> nodeCounts;
+  private final DerivedQuantities derived;
   private final AtomicReferenceArray<ConditionalDensity> conditionals;
   private final List<Binder.CheckFormula> checks;
   /** Value and argument evaluators of every term, compiled on the first joint evaluation. */
@@ -68,6 +69,7 @@ public final class BoundModel {
     this.data = List.copyOf(result.data());
     this.nodeCounts = Map.copyOf(result.nodeCounts());
     this.checks = List.copyOf(result.checks());
+    this.derived = result.derived();
     int n = result.labels().size();
     // Terms are visited in order and each adds itself once per slot it reads, so each slot's
     // list is increasing without repeats; plain int arrays, as a set of boxed indexes per slot
@@ -157,13 +159,26 @@ public final class BoundModel {
    * @throws ModelException for any semantic fault of the model or the data, positioned
    */
   public static BoundModel bind(ModelFile model, List<DataTable> data) {
+    return bind(model, data, EmptyCells.IMPUTED);
+  }
+
+  /**
+   * Binds {@code model} to its data tables, with {@code emptyCells} saying whether an empty cell
+   * of a modelled column is a missing observation or an error.
+   *
+   * @throws ModelException for any semantic fault of the model or the data, positioned
+   */
+  public static BoundModel bind(ModelFile model, List<DataTable> data, EmptyCells emptyCells) {
+    if (emptyCells == null) {
+      throw new IllegalArgumentException("emptyCells must not be null");
+    }
     if (model == null) {
       throw new IllegalArgumentException("model must not be null");
     }
     if (data == null) {
       throw new IllegalArgumentException("data must not be null (use an empty list)");
     }
-    return new BoundModel(Binder.bind(model, data));
+    return new BoundModel(Binder.bind(model, data, emptyCells));
   }
 
   /**
@@ -235,6 +250,11 @@ public final class BoundModel {
   /** How many data, param and let nodes the model declares. */
   public Map<String, Integer> nodeCounts() {
     return nodeCounts;
+  }
+
+  /** The {@code let} quantities kept with the draws, and why each let is kept or not. */
+  public DerivedQuantities derived() {
+    return derived;
   }
 
   /** How many element-level terms (priors and likelihoods) the joint density has. */

@@ -74,6 +74,11 @@ public final class DataColumn {
     return missing.get(row);
   }
 
+  /** Whether the cell in {@code row} is empty (missing, and not written {@code NA}). */
+  public boolean empty(int row) {
+    return missing(row) && !writtenNa.get(row);
+  }
+
   /** Whether the cell in {@code row} is neither a finite number nor missing. */
   public boolean invalid(int row) {
     return Double.isNaN(value(row)) && !missing.get(row);

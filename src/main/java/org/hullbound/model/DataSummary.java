@@ -10,6 +10,9 @@ import java.util.List;
  */
 public record DataSummary(
     String source, String indexSet, int rows, List<String> columns, int missingCells) {
+  /** The {@code indexSet} of a data file of scalars (one row, no index set). */
+  public static final String SCALARS = "(scalars)";
+
   public DataSummary {
     columns = List.copyOf(columns);
   }

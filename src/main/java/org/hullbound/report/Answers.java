@@ -113,6 +113,9 @@ final class Answers {
       return "Not recorded: these draws came without update facts.";
     }
     UpdateFacts f = update.get();
+    if (f.isDerived()) {
+      return "Not drawn: a let quantity, computed from the unknowns at each kept draw.";
+    }
     StringBuilder line = new StringBuilder("Drawn by ").append(f.update());
     switch (f.fallback()) {
       case CHOSEN -> line.append(" (a fallback, chosen before the run)");

@@ -52,6 +52,19 @@ public record UpdateFacts(
     }
   }
 
+  /** The update name of a {@code let} quantity kept with the draws: computed, not drawn. */
+  public static final String DERIVED = "derived";
+
+  /** A {@code let} quantity computed from each kept draw of the unknowns. */
+  public static UpdateFacts derived() {
+    return new UpdateFacts(DERIVED, Double.NaN, Fallback.NONE, 0);
+  }
+
+  /** Whether these are the facts of a derived quantity rather than of an unknown. */
+  public boolean isDerived() {
+    return DERIVED.equals(update);
+  }
+
   /** An exact update (direct draw or adaptive rejection) used throughout. */
   public static UpdateFacts exact(String update, double evaluationsPerDraw) {
     return new UpdateFacts(update, evaluationsPerDraw, Fallback.NONE, 0);

@@ -11,6 +11,7 @@ import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
 import java.util.concurrent.TimeUnit;
+import org.junit.jupiter.api.BeforeEach;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
@@ -22,10 +23,26 @@ import org.junit.jupiter.api.io.TempDir;
 class FitResumeTest {
   @TempDir Path folder;
 
-  private static final String[] RUN = {
-    "fit", "models/seedlings.hbm", "--data", "models/seedlings.csv", "--chains", "2",
-    "--burn-in", "300", "--draws", "6000", "--seed", "17", "--quiet"
-  };
+  /**
+   * The seedlings demo with derived quantities kept with the draws (a scalar by default, a vector
+   * marked keep), so that their columns are resumed too: read back from the stopped run's file,
+   * then computed from the restored state.
+   */
+  private static final String DERIVED =
+      "let centre_odds = exp(centre)\nkeep let bench_share[bench] = expit(effect[bench])\n";
+
+  private Path model;
+  private String[] run;
+
+  @BeforeEach
+  void writeModel() throws Exception {
+    model = folder.resolve("seedlings_kept.hbm");
+    Files.writeString(model, Files.readString(Path.of("models/seedlings.hbm")) + DERIVED);
+    run = new String[] {
+      "fit", model.toString(), "--data", "models/seedlings.csv", "--chains", "2",
+      "--burn-in", "300", "--draws", "6000", "--seed", "17", "--quiet"
+    };
+  }
 
   private static String[] with(String[] base, String... more) {
     List<String> all = new ArrayList<>(List.of(base));
@@ -33,9 +50,9 @@ class FitResumeTest {
     return all.toArray(new String[0]);
   }
 
-  private static String[] resume(Path dir, String... more) {
+  private String[] resume(Path dir, String... more) {
     return with(
-        new String[] {"fit", "models/seedlings.hbm", "--data", "models/seedlings.csv", "--quiet",
+        new String[] {"fit", model.toString(), "--data", "models/seedlings.csv", "--quiet",
             "--resume", dir.toString()},
         more);
   }
@@ -62,7 +79,7 @@ class FitResumeTest {
                       Path.of(System.getProperty("java.home"), "bin", "java").toString(),
                       "-cp", System.getProperty("java.class.path"), "org.hullbound.cli.Main"
                     },
-                    with(RUN, "--threads", "2", "--out", stopped.toString())))
+                    with(run, "--threads", "2", "--out", stopped.toString())))
             .redirectErrorStream(true)
             .redirectOutput(folder.resolve("child.txt").toFile())
             .start();
@@ -81,9 +98,7 @@ class FitResumeTest {
 
     // Unusable checkpoints first, each refused without touching the run.
     Path changedModel = folder.resolve("seedlings.hbm");
-    Files.writeString(
-        changedModel,
-        Files.readString(Path.of("models/seedlings.hbm")) + "# one more comment\n");
+    Files.writeString(changedModel, Files.readString(model) + "# one more comment\n");
     CliRun otherModel =
         CliRun.of("fit", changedModel.toString(), "--data", "models/seedlings.csv", "--quiet",
             "--resume", stopped.toString());
@@ -113,7 +128,7 @@ class FitResumeTest {
     CliRun resumed = CliRun.of(resume(stopped, "--threads", "1", "--replicate-checks"));
     assertEquals(0, resumed.exit(), resumed.toString());
     Path whole = folder.resolve("whole");
-    CliRun uninterrupted = CliRun.of(with(RUN, "--out", whole.toString(), "--replicate-checks"));
+    CliRun uninterrupted = CliRun.of(with(run, "--out", whole.toString(), "--replicate-checks"));
     assertEquals(0, uninterrupted.exit(), uninterrupted.toString());
 
     Map<String, List<String>> expected = rowsByChain(whole.resolve("draws.csv"));
@@ -123,6 +138,11 @@ class FitResumeTest {
       assertEquals(expected.get(chain), actual.get(chain), "chain " + chain);
     }
     assertEquals(6000, actual.get("1").size());
+    assertTrue(
+        actual.get("header").get(0).endsWith(",centre_odds,bench_share[1],bench_share[2],"
+            + "bench_share[3],bench_share[4],bench_share[5],bench_share[6],bench_share[7],"
+            + "bench_share[8]"),
+        actual.get("header").get(0));
     assertEquals(
         Files.readString(whole.resolve("summary.csv")), Files.readString(stopped.resolve("summary.csv")),
         "the summary over all draws, and the evaluations per draw, are those of one run");

@@ -266,6 +266,62 @@ class ParserTest {
     }
   }
 
+  /** {@code keep let} and {@code hide let}: whether a derived quantity goes with the draws. */
+  @Nested
+  class KeepingMarks {
+
+    @Test
+    void anUnmarkedLetKeepsTheDefault() {
+      Statement.Let let = (Statement.Let) only("let ld50 = -alpha / beta");
+      assertEquals(Statement.Keeping.DEFAULT, let.keeping());
+      assertNull(let.marker());
+      assertEquals(new SourcePosition("test.hbm", 1, 1), let.position());
+    }
+
+    @Test
+    void keepBeforeLetMarksItKeptAndRemembersWhereTheMarkStands() {
+      Statement.Let let = (Statement.Let) only("  keep let rate[site] = exp(log_rate[site])");
+      assertEquals(Statement.Keeping.KEEP, let.keeping());
+      assertEquals(new SourcePosition("test.hbm", 1, 3), let.marker());
+      assertEquals(new SourcePosition("test.hbm", 1, 8), let.position());
+      assertEquals("rate", let.target().name().text());
+    }
+
+    @Test
+    void hideBeforeLetMarksItLeftOut() {
+      Statement.Let let = (Statement.Let) only("hide let scratch = 2 * alpha");
+      assertEquals(Statement.Keeping.HIDE, let.keeping());
+      assertEquals(new SourcePosition("test.hbm", 1, 1), let.marker());
+    }
+
+    @Test
+    void theMarksAreNotReservedWords() {
+      List<Statement> statements =
+          parse("data keep[t], hide[t]\nlet x = keep[1] + hide[2]\nparam keeps ~ normal(mean = 0, sd = 1)");
+      assertEquals(3, statements.size());
+      Statement.Data data = (Statement.Data) statements.get(0);
+      assertEquals("keep", data.targets().get(0).name().text());
+      assertEquals("(+ keep[1] hide[2])", Trees.show(((Statement.Let) statements.get(1)).value()));
+    }
+
+    @Test
+    void aMarkBeforeAnotherStatementIsAnErrorAtThatStatement() {
+      ModelException e =
+          assertThrows(ModelException.class, () -> parse("keep param mu ~ normal(mean = 0, sd = 1)"));
+      assertEquals(new SourcePosition("test.hbm", 1, 6), e.position());
+      assertTrue(e.problem().contains("expected 'let' after 'keep'"), e.problem());
+      assertTrue(e.hint().contains("every param is kept"), e.hint());
+    }
+
+    @Test
+    void aMisspeltMarkIsSuggested() {
+      ModelException e = assertThrows(ModelException.class, () -> parse("kept let x = 1"));
+      assertEquals(new SourcePosition("test.hbm", 1, 1), e.position());
+      assertEquals("did you mean 'keep'?", e.hint());
+    }
+  }
+
+
   @Nested
   class Expressions {
 
