@@ -524,8 +524,16 @@ public final class FitRun implements AutoCloseable {
           public Boolean fallback(UpdateRule.Fallback rule) {
             return true;
           }
+
+          @Override
+          public Boolean move(UpdateRule.Move rule) {
+            return false;
+          }
         };
     for (UpdateRule rule : sampler.sampler().rules()) {
+      if (rule.extra()) {
+        continue;
+      }
       boolean fallback = rule.accept(isFallback);
       for (int index : rule.indices()) {
         chosen[index] = fallback;
