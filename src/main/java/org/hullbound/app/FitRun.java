@@ -104,7 +104,8 @@ public final class FitRun implements AutoCloseable {
     try {
       Map<String, Double> given =
           request.initFile() == null ? Map.of() : InitialValuesFile.read(request.initFile());
-      sampler = ModelSampler.of(model, given);
+      sampler = request.moves()
+          ? ModelSampler.of(model, given) : ModelSampler.withoutMoves(model, given);
     } catch (StartingValueException invalid) {
       if (request.initFile() == null) {
         throw invalid;

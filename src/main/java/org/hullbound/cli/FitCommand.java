@@ -89,6 +89,11 @@ public final class FitCommand implements Callable<Integer> {
       description = "Probability of the central intervals in the summary and report, e.g. 0.9 (default: ${DEFAULT-VALUE}).")
   double level = SummaryTable.INTERVAL_LEVEL;
 
+  @Option(
+      names = "--no-moves",
+      description = "Leave out the moves along lines that check lists (shift, rescale, direction blocks): one unknown at a time only, for comparisons.")
+  boolean noMoves;
+
   @CommandLine.Spec CommandLine.Model.CommandSpec spec;
 
   @Override
@@ -157,7 +162,7 @@ public final class FitCommand implements Callable<Integer> {
         given.hasMatchedOption("--burn-in") ? burnIn : null,
         given.hasMatchedOption("--draws") ? draws : null,
         given.hasMatchedOption("--thin") ? thin : null,
-        seed.given(), threads, out.given(), resumeFolder, overwrite, level);
+        seed.given(), threads, out.given(), resumeFolder, overwrite, level).withMoves(!noMoves);
   }
 
   private void printHowToResume(Path folder, PrintWriter stdout) {
