@@ -27,8 +27,9 @@ import org.hullbound.model.family.SupportKind;
  *       K} of the {@code d - 1 = K} powers of {@code c} that the Jacobian {@code c^d} and Haar
  *       measure {@code dc / c} give.
  *   <li><b>Direction block</b>: real scalar (or small vector) unknowns that enter one argument of
- *       the same terms together, not already drawn jointly as a linear-normal block: drawn along
- *       directions learned during burn-in.
+ *       the same terms together, not already drawn jointly as a linear-normal block nor effects
+ *       of a shift or rescaling (whose ridge that move handles): drawn along directions learned
+ *       during burn-in.
  * </ul>
  *
  * <p>The proof along a line substitutes {@code x_j + t w_j} (or {@code c x_j}) for each moved
@@ -77,7 +78,14 @@ final class MovePatterns {
         }
       }
     }
-    moves.addAll(directionBlocks(f, nodes));
+    boolean[] grouped = new boolean[f.unknowns().size()];
+    for (Update move : moves) {
+      int[] members = ((Update.GroupMove) move).members();
+      for (int k = 1; k < members.length; k++) {
+        grouped[members[k]] = true;
+      }
+    }
+    moves.addAll(directionBlocks(f, nodes, grouped));
     return moves;
   }
 
@@ -200,14 +208,19 @@ final class MovePatterns {
             smooth(f, members)));
   }
 
-  private static List<Update> directionBlocks(Facts f, Map<String, List<Integer>> nodes) {
+  /**
+   * Blocks of unknowns outside the groups of effects that a shift or rescaling moves ({@code
+   * grouped}), whose ridge that move handles; the intercept or scale of such a move may join.
+   */
+  private static List<Update> directionBlocks(
+      Facts f, Map<String, List<Integer>> nodes, boolean[] grouped) {
     int n = f.unknowns().size();
     int[] root = new int[n];
     boolean[] candidate = new boolean[n];
     for (List<Integer> node : nodes.values()) {
       for (int j : node) {
         root[j] = j;
-        candidate[j] = node.size() <= LARGEST_BLOCK_NODE && real(f, j)
+        candidate[j] = node.size() <= LARGEST_BLOCK_NODE && real(f, j) && !grouped[j]
             && !(f.updates()[j] instanceof Update.LinearNormalBlock);
       }
     }
