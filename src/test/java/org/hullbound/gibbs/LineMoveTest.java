@@ -19,9 +19,10 @@ import org.junit.jupiter.api.Test;
  * <p>Checks (two per margin, each at level about 6e-5 for the 4-MCSE checks and 1e-5 for KS; four
  * margins' worth in all, about 2.7e-4 together): mean and sd within 4 MCSE of 0 and 1; KS of every
  * fifth kept draw against N(0, 1), after checking that the thinned draws are nearly independent
- * (bulk-ESS at least 0.9 of their number), which the KS test assumes. Power: critical D at 1e-5
+ * (bulk-ESS at least 0.8 of their number), which the KS test assumes. Power: critical D at 1e-5
  * for 1600 draws is about 2.47 / sqrt(1600) = 0.062, so a shift of 0.2 sd (D about 0.08) is
- * caught with probability about 0.9.
+ * caught with probability about 0.9. Broken on purpose (the move applied at 1.1 times the drawn
+ * position), the sd of x came out at 1.095 against 1 (12 MCSE) and the test failed.
  */
 class LineMoveTest {
   private static final double R = 0.99;
@@ -139,7 +140,8 @@ class LineMoveTest {
       }
       VariableSummary independent = org.hullbound.diagnostics.PosteriorSummary.of(
           "thinned", thinnedChains);
-      assertTrue(independent.essBulk() >= 0.9 * thinned.length,
+      // measured 0.99 and 0.985 of their number with this seed
+      assertTrue(independent.essBulk() >= 0.8 * thinned.length,
           "thinned draws of " + k + " are not nearly independent: bulk-ESS "
               + independent.essBulk() + " of " + thinned.length);
       double p = new KolmogorovSmirnovTest().kolmogorovSmirnovTest(margin, thinned);
@@ -159,7 +161,8 @@ class LineMoveTest {
     Fits.Fit fit = Fits.run(sampler(false), SETTINGS);
     double perSweep = fit.summary(0).essBulk() / (SETTINGS.chains() * SETTINGS.draws());
     // The lag-one autocorrelation of a two-block Gibbs sampler is r^2 = 0.98 (Liu, Wong and Kong
-    // 1994), an ess per draw of about (1 - r^2) / (1 + r^2) = 0.01.
+    // 1994, recalled from memory), an ess per draw of about (1 - r^2) / (1 + r^2) = 0.01
+    // (measured 0.013 with this seed).
     assertTrue(perSweep < 0.05, "effective draws per sweep without the move: " + perSweep);
   }
 }
