@@ -306,6 +306,14 @@ public final class FitRun implements AutoCloseable {
       throw new CheckpointException(
           "the checkpoint in " + resumeFolder + " has other unknowns than this model");
     }
+    int updaters = checkpoint.chains().get(0).kernel().updaters().size();
+    if (updaters != sampler.sampler().rules().size()) {
+      // the moves along lines are extra updaters: a run with and one without them differ here
+      throw new CheckpointException(
+          "the run in " + resumeFolder + " was made " + (request.moves() ? "with --no-moves"
+              : "with the moves along lines") + "; resume it " + (request.moves()
+              ? "with --no-moves" : "without --no-moves") + ", as it was started");
+    }
     List<String> conflicts = new ArrayList<>();
     conflict(conflicts, "--chains", request.chains(), checkpoint.chains().size());
     conflict(conflicts, "--burn-in", request.burnIn(), checkpoint.burnIn());
