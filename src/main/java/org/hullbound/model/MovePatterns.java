@@ -185,17 +185,7 @@ final class MovePatterns {
       replace.put(j, Formulas.apply(Op.MULTIPLY,
           List.of(new Formula.Slot(j), new Formula.Slot(n))));
     }
-    Set<Integer> touched = new TreeSet<>();
-    for (int j : members) {
-      touched.add(f.ownTerm()[j]);
-      for (int t : f.dependents()[j]) {
-        touched.add(t);
-      }
-    }
-    List<Term> moved = new ArrayList<>();
-    for (int t : touched) {
-      moved.add(substitute(f.terms().get(t), replace));
-    }
+    List<Term> moved = movedTerms(f, members, replace);
     Verdict proof = prove(moved, n, members.length - 1);
     String groupName = f.unknowns().get(group.get(0)).node();
     String reason = "rescale " + label(f, scale) + " and every " + groupName + " by c > 0: the "
@@ -262,23 +252,13 @@ final class MovePatterns {
             Formulas.apply(Op.MULTIPLY, List.of(new Formula.Slot(n + 1 + k),
                 new Formula.Slot(n))))));
       }
-      Set<Integer> touched = new TreeSet<>();
-      for (int j : members) {
-        touched.add(f.ownTerm()[j]);
-        for (int t : f.dependents()[j]) {
-          touched.add(t);
-        }
-      }
-      List<Term> moved = new ArrayList<>();
-      for (int t : touched) {
-        moved.add(substitute(f.terms().get(t), replace));
-      }
+      List<Term> moved = movedTerms(f, members, replace);
       Verdict proof = prove(moved, n, 0);
       List<String> names = new ArrayList<>();
       for (int j : members) {
         names.add(label(f, j));
       }
-      String reason = String.join(", ", names) + " enter the same " + (touched.size()
+      String reason = String.join(", ", names) + " enter the same " + (moved.size()
           - members.length) + " terms together: drawn along the eigenvectors of their burn-in"
           + " covariance, fixed after burn-in (hit-and-run with fixed directions, Belisle,"
           + " Romeijn and Smith 1993); " + proof.reason();
@@ -287,6 +267,22 @@ final class MovePatterns {
               smooth(f, members))));
     }
     return found;
+  }
+
+  /** The own and dependent terms of {@code members}, each once, with the line substituted. */
+  private static List<Term> movedTerms(Facts f, int[] members, Map<Integer, Formula> replace) {
+    Set<Integer> touched = new TreeSet<>();
+    for (int j : members) {
+      touched.add(f.ownTerm()[j]);
+      for (int t : f.dependents()[j]) {
+        touched.add(t);
+      }
+    }
+    List<Term> moved = new ArrayList<>();
+    for (int t : touched) {
+      moved.add(substitute(f.terms().get(t), replace));
+    }
+    return moved;
   }
 
   private static int find(int[] root, int j) {

@@ -31,6 +31,12 @@ class MovePatternsTest {
       param effect[group] ~ normal(mean = 0, sd = spread)
       """;
 
+  private static Update.GroupMove groupMove(BoundModel model, Update.MoveKind kind) {
+    return model.moves().stream()
+        .filter(m -> m instanceof Update.GroupMove g && g.kind() == kind)
+        .map(Update.GroupMove.class::cast).findFirst().orElseThrow();
+  }
+
   @Test
   void aGroupModelGetsAShiftARescaleAndADirectionBlock() {
     BoundModel model = bind(CLINICS);
@@ -116,15 +122,11 @@ class MovePatternsTest {
         param spread ~ half-normal(sd = 1)
         param effect[group] ~ normal(mean = 0, sd = spread)
         """);
-    Update.GroupMove rescale = model.moves().stream()
-        .filter(m -> m instanceof Update.GroupMove g && g.kind() == Update.MoveKind.RESCALE)
-        .map(Update.GroupMove.class::cast).findFirst().orElseThrow();
+    Update.GroupMove rescale = groupMove(model, Update.MoveKind.RESCALE);
     assertFalse(rescale.logConcave(), rescale.reason());
     assertTrue(rescale.reason().contains("not provably log-concave along the line: student-t is"
         + " not concave in location"), rescale.reason());
-    Update.GroupMove shift = model.moves().stream()
-        .filter(m -> m instanceof Update.GroupMove g && g.kind() == Update.MoveKind.SHIFT)
-        .map(Update.GroupMove.class::cast).findFirst().orElseThrow();
+    Update.GroupMove shift = groupMove(model, Update.MoveKind.SHIFT);
     // the shift leaves the student-t terms alone: only normal priors move
     assertTrue(shift.logConcave(), shift.reason());
   }
