@@ -18,11 +18,29 @@ import java.nio.file.Path;
  * @param resume the folder of an interrupted run to continue, or null
  * @param overwrite whether an earlier run's files in the folder may be replaced
  * @param level the probability inside the central intervals of the summary and report
+ * @param moves whether the sweep adds the model's moves along lines ({@code
+ *     BoundModel.moves()}); true unless turned off for a comparison
  */
 public record FitRequest(
     ModelInputs inputs, Path initFile, Integer chains, Integer burnIn, Integer draws,
     Integer thin, Long seed, Integer threads, Path out, Path resume, boolean overwrite,
-    double level) {
+    double level, boolean moves) {
+
+  /** A request with the moves along lines on, as by default. */
+  public FitRequest(
+      ModelInputs inputs, Path initFile, Integer chains, Integer burnIn, Integer draws,
+      Integer thin, Long seed, Integer threads, Path out, Path resume, boolean overwrite,
+      double level) {
+    this(inputs, initFile, chains, burnIn, draws, thin, seed, threads, out, resume, overwrite,
+        level, true);
+  }
+
+  /** The same request with the moves along lines on or off. */
+  public FitRequest withMoves(boolean on) {
+    return new FitRequest(inputs, initFile, chains, burnIn, draws, thin, seed, threads, out,
+        resume, overwrite, level, on);
+  }
+
   public FitRequest {
     if (inputs == null) {
       throw new IllegalArgumentException("inputs must not be null");

@@ -129,7 +129,8 @@ public final class FitRun implements AutoCloseable {
     try {
       Map<String, Double> given =
           request.initFile() == null ? Map.of() : InitialValuesFile.read(request.initFile());
-      sampler = ModelSampler.of(model, given);
+      sampler = request.moves()
+          ? ModelSampler.of(model, given) : ModelSampler.withoutMoves(model, given);
     } catch (StartingValueException invalid) {
       if (request.initFile() == null) {
         throw invalid;
@@ -359,6 +360,14 @@ public final class FitRun implements AutoCloseable {
     if (!checkpoint.columns().equals(sampler.labels())) {
       throw new CheckpointException(
           "the checkpoint in " + resumeFolder + " has other unknowns than this model");
+    }
+    int updaters = checkpoint.chains().get(0).kernel().updaters().size();
+    if (updaters != sampler.sampler().rules().size()) {
+      // the moves along lines are extra updaters: a run with and one without them differ here
+      throw new CheckpointException(
+          "the run in " + resumeFolder + " was made " + (request.moves() ? "with --no-moves"
+              : "with the moves along lines") + "; resume it " + (request.moves()
+              ? "with --no-moves" : "without --no-moves") + ", as it was started");
     }
     List<String> conflicts = new ArrayList<>();
     conflict(conflicts, "--chains", request.chains(), checkpoint.chains().size());
@@ -611,8 +620,16 @@ public final class FitRun implements AutoCloseable {
           public Boolean fallback(UpdateRule.Fallback rule) {
             return true;
           }
+
+          @Override
+          public Boolean move(UpdateRule.Move rule) {
+            return false;
+          }
         };
     for (UpdateRule rule : sampler.sampler().rules()) {
+      if (rule.extra()) {
+        continue;
+      }
       boolean fallback = rule.accept(isFallback);
       for (int index : rule.indices()) {
         chosen[index] = fallback;

@@ -136,6 +136,7 @@ public final class CheckCommand implements Callable<Integer> {
               + (first.imputed() ? ", missing data" : ""));
       out.printf("  %-" + labelWidth + "s    %s%n", "", update.reason());
     }
+    printMoves(model, out);
     printDerived(model.derived(), out);
     printTestQuantities(TestQuantities.of(model), out);
   }
@@ -202,7 +203,76 @@ public final class CheckCommand implements Callable<Integer> {
           public String linearNormalBlock(Update.LinearNormalBlock block) {
             return "exact block normal (" + block.size() + " jointly)";
           }
+
+          @Override
+          public String groupMove(Update.GroupMove move) {
+            return move.kind().word() + " move, " + lineDraw(move.logConcave());
+          }
+
+          @Override
+          public String directionBlock(Update.DirectionBlock block) {
+            return "direction block, " + lineDraw(block.logConcave());
+          }
         });
+  }
+
+  private static String lineDraw(boolean logConcave) {
+    return logConcave ? "adaptive rejection along the line" : "fallback along the line";
+  }
+
+  /** The moves along lines added after the one-at-a-time updates, with their reasons. */
+  private static void printMoves(BoundModel model, PrintWriter out) {
+    List<Update> moves = model.moves();
+    if (moves.isEmpty()) {
+      return;
+    }
+    out.println();
+    out.println("moves added to every sweep after the updates above (off with --no-moves)");
+    for (Update move : moves) {
+      int[] members = move.accept(new MemberVisitor());
+      List<String> labels = new ArrayList<>();
+      for (int index : members) {
+        labels.add(model.unknowns().get(index).label());
+      }
+      String who = labels.size() <= 4 ? String.join(", ", labels)
+          : String.join(", ", labels.subList(0, 2)) + " .. " + labels.get(labels.size() - 1)
+              + " (" + labels.size() + " unknowns)";
+      out.printf("  %s: %s%n", updateName(move), who);
+      out.printf("    %s%n", move.reason());
+    }
+  }
+
+  /** The unknowns a move changes. */
+  private static final class MemberVisitor implements Update.Visitor<int[]> {
+    @Override
+    public int[] conjugate(Update.Conjugate update) {
+      return new int[0];
+    }
+
+    @Override
+    public int[] adaptiveRejection(Update.AdaptiveRejection update) {
+      return new int[0];
+    }
+
+    @Override
+    public int[] fallback(Update.Fallback update) {
+      return new int[0];
+    }
+
+    @Override
+    public int[] linearNormalBlock(Update.LinearNormalBlock update) {
+      return update.members();
+    }
+
+    @Override
+    public int[] groupMove(Update.GroupMove update) {
+      return update.members();
+    }
+
+    @Override
+    public int[] directionBlock(Update.DirectionBlock update) {
+      return update.members();
+    }
   }
 
   /** Consecutive unknowns of one node with the same scale, kind of update and reason. */

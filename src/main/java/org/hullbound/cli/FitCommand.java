@@ -101,6 +101,11 @@ public final class FitCommand implements Callable<Integer> {
       description = "With the checks, also write every replicated data set to DIR/replicates.csv (can be far larger than draws.csv).")
   boolean keepReplicates;
 
+  @Option(
+      names = "--no-moves",
+      description = "Leave out the moves along lines that check lists (shift, rescale, direction blocks): one unknown at a time only, for comparisons.")
+  boolean noMoves;
+
   @CommandLine.Spec CommandLine.Model.CommandSpec spec;
 
   @Override
@@ -180,7 +185,8 @@ public final class FitCommand implements Callable<Integer> {
         given.hasMatchedOption("--burn-in") ? burnIn : null,
         given.hasMatchedOption("--draws") ? draws : null,
         given.hasMatchedOption("--thin") ? thin : null,
-        seed.given(), threads, out.given(), resumeFolder, overwrite, level.value());
+        seed.given(), threads, out.given(), resumeFolder, overwrite, level.value())
+        .withMoves(!noMoves);
   }
 
   private void printHowToResume(Path folder, PrintWriter stdout) {

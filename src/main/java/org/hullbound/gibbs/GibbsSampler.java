@@ -30,7 +30,8 @@ public final class GibbsSampler implements KernelFactory {
 
   /**
    * @param dimension the length of the state
-   * @param rules updates covering each entry 0 .. dimension - 1 exactly once, in sweep order
+   * @param rules updates covering each entry 0 .. dimension - 1 exactly once, in sweep order,
+   *     besides extra moves ({@link UpdateRule#extra()})
    * @param starts the starting values of each chain
    */
   public static GibbsSampler of(int dimension, List<UpdateRule> rules, StartingValues starts) {
@@ -47,7 +48,7 @@ public final class GibbsSampler implements KernelFactory {
           throw new IllegalArgumentException(
               "rule index must be in [0, " + dimension + "), got " + index);
         }
-        covered[index]++;
+        covered[index] += rule.extra() ? 0 : 1;
       }
     }
     for (int index = 0; index < dimension; index++) {
@@ -120,6 +121,11 @@ public final class GibbsSampler implements KernelFactory {
           @Override
           public Updater fallback(UpdateRule.Fallback fallback) {
             return new FallbackUpdater(fallback, adaptationSweeps, Double.NaN, 1.0);
+          }
+
+          @Override
+          public Updater move(UpdateRule.Move move) {
+            return new LineMoveUpdater(move, adaptationSweeps);
           }
         });
   }

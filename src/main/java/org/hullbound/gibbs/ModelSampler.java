@@ -44,7 +44,15 @@ public final class ModelSampler {
    * @throws StartingValueException when a given value names no unknown or lies outside the support
    */
   public static ModelSampler of(BoundModel model, Map<String, Double> given) {
-    return build(model, given, true);
+    return build(model, given, true, true);
+  }
+
+  /**
+   * The same sampler without the extra moves along lines ({@link BoundModel#moves()}): one
+   * unknown (or block) at a time only, for comparisons and benchmarks of the moves.
+   */
+  public static ModelSampler withoutMoves(BoundModel model, Map<String, Double> given) {
+    return build(model, given, true, false);
   }
 
   /**
@@ -53,10 +61,11 @@ public final class ModelSampler {
    * block draw need; {@link #of} is the sampler to use.
    */
   public static ModelSampler withoutBlocks(BoundModel model, Map<String, Double> given) {
-    return build(model, given, false);
+    return build(model, given, false, true);
   }
 
-  private static ModelSampler build(BoundModel model, Map<String, Double> given, boolean blocks) {
+  private static ModelSampler build(
+      BoundModel model, Map<String, Double> given, boolean blocks, boolean moves) {
     List<Unknown> unknowns = model.unknowns();
     model.requireUnknowns();
     List<String> labels = new ArrayList<>();
@@ -80,6 +89,11 @@ public final class ModelSampler {
       Update update = blocks ? model.update(index) : model.singleUpdate(index);
       reasons.add(update.reason());
       ruleFor(model, unknown, update, base).ifPresent(rules::add);
+    }
+    if (moves) {
+      for (Update move : model.moves()) {
+        rules.add(MoveRules.of(move));
+      }
     }
     StartingValues starts = ModelStartingValues.of(model, base, given);
     return new ModelSampler(
@@ -168,6 +182,16 @@ public final class ModelSampler {
           @Override
           public Optional<UpdateRule> linearNormalBlock(Update.LinearNormalBlock block) {
             return block.members()[0] == index ? Optional.of(blockRule(block)) : Optional.empty();
+          }
+
+          @Override
+          public Optional<UpdateRule> groupMove(Update.GroupMove move) {
+            throw new IllegalStateException("a move is an extra update, not one unknown's");
+          }
+
+          @Override
+          public Optional<UpdateRule> directionBlock(Update.DirectionBlock block) {
+            throw new IllegalStateException("a move is an extra update, not one unknown's");
           }
         });
   }

@@ -6,8 +6,9 @@ import java.util.List;
 import java.util.Set;
 
 /**
- * How each unknown was updated over all chains of a run: the method, density evaluations per
- * draw, and any switch to the fallback at run time.
+ * How each unknown was updated over all chains of a run: the method (with {@code + shift move}
+ * and the like for the extra moves that also moved it), density evaluations per draw (the moves'
+ * shared among the unknowns they move), and any switch to the fallback at run time.
  *
  * @param index the unknown's state entry
  * @param method the method used (chains that switched name both methods)
@@ -26,12 +27,14 @@ public record UpdateReport(
   /** The reports of every state entry of a finished run, in state order. */
   public static List<UpdateReport> of(int dimension, List<? extends ChainKernel> kernels) {
     List<Set<String>> methods = new ArrayList<>();
+    List<Set<String>> moves = new ArrayList<>();
     long[] evaluations = new long[dimension];
     long[] draws = new long[dimension];
     List<List<String>> notes = new ArrayList<>();
     long[] firstSwitch = new long[dimension];
     for (int i = 0; i < dimension; i++) {
       methods.add(new LinkedHashSet<>());
+      moves.add(new LinkedHashSet<>());
       notes.add(new ArrayList<>());
     }
     for (int chain = 0; chain < kernels.size(); chain++) {
@@ -40,6 +43,14 @@ public record UpdateReport(
       }
       for (Updater updater : kernel.updaters()) {
         int[] indices = updater.indices();
+        if (updater.extra()) {
+          // a move's cost is shared by the unknowns it moves; its line draws are not their draws
+          for (int index : indices) {
+            moves.get(index).add(updater.method());
+            evaluations[index] += updater.evaluations() / indices.length;
+          }
+          continue;
+        }
         for (int index : indices) {
           methods.get(index).add(updater.method());
           evaluations[index] += updater.evaluations() / indices.length;
@@ -57,7 +68,9 @@ public record UpdateReport(
       double perDraw = draws[i] == 0 ? 0.0 : (double) evaluations[i] / draws[i];
       reports.add(
           new UpdateReport(
-              i, String.join(" / ", methods.get(i)), perDraw, notes.get(i), firstSwitch[i]));
+              i, String.join(" / ", methods.get(i))
+                  + (moves.get(i).isEmpty() ? "" : " + " + String.join(" + ", moves.get(i))),
+              perDraw, notes.get(i), firstSwitch[i]));
     }
     return reports;
   }

@@ -20,6 +20,14 @@ public sealed interface UpdateRule {
   /** Calls the method of {@code visitor} for this kind of rule and returns its result. */
   <R> R accept(Visitor<R> visitor);
 
+  /**
+   * True for an extra update that moves entries other rules already draw ({@link Move}): it does
+   * not count towards each entry's one rule.
+   */
+  default boolean extra() {
+    return false;
+  }
+
   /** One method per kind of rule; see {@link #accept(Visitor)}. */
   interface Visitor<R> {
     R conjugate(Conjugate rule);
@@ -29,6 +37,8 @@ public sealed interface UpdateRule {
     R adaptiveRejection(AdaptiveRejection rule);
 
     R fallback(Fallback rule);
+
+    R move(Move rule);
   }
 
   /** An exact draw from a conjugate full conditional; uses no density evaluation. */
@@ -89,6 +99,33 @@ public sealed interface UpdateRule {
     @Override
     public <R> R accept(Visitor<R> visitor) {
       return visitor.fallback(this);
+    }
+  }
+
+  /**
+   * An extra update after the one-at-a-time ones: a draw of the position along the line of {@code
+   * line} (a generalised Gibbs move, Liu and Sabatti 2000; or, for a learned line, one draw along
+   * each direction fixed after burn-in), by adaptive rejection where {@code logConcave}, else by
+   * the fallback. Each draw leaves the joint posterior invariant, so adding it to the sweep does
+   * too.
+   *
+   * @param name the move in a few words, such as {@code shift move}
+   */
+  record Move(String name, LineTarget line, boolean logConcave, String reason)
+      implements UpdateRule {
+    @Override
+    public int[] indices() {
+      return line.members();
+    }
+
+    @Override
+    public boolean extra() {
+      return true;
+    }
+
+    @Override
+    public <R> R accept(Visitor<R> visitor) {
+      return visitor.move(this);
     }
   }
 

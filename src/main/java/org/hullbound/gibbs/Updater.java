@@ -10,7 +10,8 @@ import java.util.random.RandomGenerator;
  * counts the density evaluations it spends, which the summary reports per draw.
  */
 public sealed interface Updater
-    permits ConjugateUpdater, BlockNormalUpdater, AdaptiveRejectionUpdater, FallbackUpdater {
+    permits ConjugateUpdater, BlockNormalUpdater, AdaptiveRejectionUpdater, FallbackUpdater,
+        LineMoveUpdater {
 
   /** Draws the unknown(s) anew; {@code state} holds natural-scale values. */
   void update(double[] state, RandomGenerator rng);
@@ -41,6 +42,11 @@ public sealed interface Updater
    * @throws IllegalArgumentException when {@code saved} does not fit this updater
    */
   void restore(UpdaterState saved);
+
+  /** True for an extra move ({@link UpdateRule#extra()}): its draws are not draws of one unknown. */
+  default boolean extra() {
+    return false;
+  }
 
   /** A note for the report when the updater changed method during the run, else {@code null}. */
   default String switchNote() {

@@ -59,6 +59,8 @@ public final class BoundModel {
   private final List<Binder.CheckFormula> checks;
   /** Value and argument evaluators of every term, compiled on the first joint evaluation. */
   private volatile Evaluator[][] joint;
+  /** The moves along lines ({@link MovePatterns}), found on the first call of {@link #moves}. */
+  private volatile List<Update> moves;
 
   private BoundModel(Binder.Result result) {
     this.name = result.name();
@@ -360,6 +362,21 @@ public final class BoundModel {
   public int dependentCount(int index) {
     checkIndex(index);
     return dependents[index].length;
+  }
+
+  /**
+   * The extra updates that move several unknowns at once along a line ({@link Update.GroupMove},
+   * {@link Update.DirectionBlock}), each with its reason, found from the model's structure by
+   * {@link MovePatterns} on the first call.
+   */
+  public List<Update> moves() {
+    List<Update> found = moves;
+    if (found == null) {
+      found = List.copyOf(MovePatterns.find(new MovePatterns.Facts(
+          terms, ownTerm, dependents, unknowns, updates, cuts, smooth)));
+      moves = found;
+    }
+    return found;
   }
 
   /** Labels of the terms that depend on unknown {@code index} (its blanket without itself). */

@@ -29,6 +29,10 @@ public sealed interface Update {
     R fallback(Fallback update);
 
     R linearNormalBlock(LinearNormalBlock update);
+
+    R groupMove(GroupMove update);
+
+    R directionBlock(DirectionBlock update);
   }
 
   /** An exact draw: {@link #posterior(double[])} gives the conditional's family and arguments. */
@@ -92,6 +96,65 @@ public sealed interface Update {
     @Override
     public <R> R accept(Visitor<R> visitor) {
       return visitor.linearNormalBlock(this);
+    }
+  }
+
+  /**
+   * An extra update after the one-at-a-time ones (from {@link BoundModel#moves()}): a generalised
+   * Gibbs move (Liu and Sabatti 2000) of several unknowns at once along the line of {@code line},
+   * a shift ({@code intercept + d}, every effect {@code - d}) or a rescaling of a hierarchical
+   * scale with its effects ({@code c} times each). {@code logConcave} says whether the line's
+   * density was proved log-concave (then drawn by adaptive rejection, else by the fallback);
+   * {@code reason} gives the pattern and the proof.
+   */
+  record GroupMove(MoveKind kind, String reason, boolean logConcave, LineDensity line)
+      implements Update {
+    /** The unknowns the move changes, in state order of the pattern (the lead unknown first). */
+    public int[] members() {
+      return line.members();
+    }
+
+    @Override
+    public <R> R accept(Visitor<R> visitor) {
+      return visitor.groupMove(this);
+    }
+  }
+
+  /**
+   * An extra update after the one-at-a-time ones: a block of coefficients that enter the same
+   * linear predictors, drawn along fixed directions learned during burn-in (the eigenvectors of
+   * the block's burn-in covariance), one exact line draw per direction: a hit-and-run kernel with
+   * a fixed set of directions (Belisle, Romeijn and Smith 1993). {@code line} reads the direction
+   * from its frame.
+   */
+  record DirectionBlock(String reason, boolean logConcave, LineDensity line) implements Update {
+    /** The block's unknowns. */
+    public int[] members() {
+      return line.members();
+    }
+
+    @Override
+    public <R> R accept(Visitor<R> visitor) {
+      return visitor.directionBlock(this);
+    }
+  }
+
+  /** The group moves recognised (Liu and Sabatti 2000). */
+  enum MoveKind {
+    /** An intercept-like unknown up by d, the group effects that offset it down by d. */
+    SHIFT("shift"),
+    /** A hierarchical scale and its zero-mean effects multiplied by c > 0. */
+    RESCALE("rescale");
+
+    private final String word;
+
+    MoveKind(String word) {
+      this.word = word;
+    }
+
+    /** The move's name in a few words, as check and the summary show it. */
+    public String word() {
+      return word;
     }
   }
 

@@ -31,7 +31,9 @@ import org.junit.jupiter.params.provider.CsvSource;
  * <p>The models cover every updater with adaptive state: {@code seedlings} (a conjugate normal
  * centre, adaptive rejection with warm starts for the spread and the effects), {@code sensors}
  * (ARMS fallback for the level and the drift, tuned during burn-in), and a bimodal conditional
- * claimed log-concave, which switches from adaptive rejection to ARMS at run time.
+ * claimed log-concave, which switches from adaptive rejection to ARMS at run time; {@code clinics}
+ * and {@code extract} add the moves along lines (a shift, a rescale, direction blocks whose
+ * directions are learned at the end of burn-in, between the two stops).
  */
 class ResumeExactnessTest {
   private static final int BURN_IN = 50;
@@ -138,7 +140,8 @@ class ResumeExactnessTest {
    */
   @ParameterizedTest(name = "{0} with {1} thread(s)")
   @CsvSource({
-    "seedlings, 1", "seedlings, 4", "sensors, 1", "sensors, 4", "switching, 1", "switching, 4"
+    "seedlings, 1", "seedlings, 4", "sensors, 1", "sensors, 4", "switching, 1", "switching, 4",
+    "clinics, 1", "extract, 2"
   })
   void anInterruptedAndResumedRunMakesExactlyTheDrawsOfAnUninterruptedOne(String name, int threads)
       throws IOException {

@@ -30,6 +30,7 @@ public final class DemoData {
     files.put("shifts.csv", shifts());
     files.put("sensors.csv", sensors());
     files.put("orchard.csv", orchard());
+    files.put("extract.csv", extract());
     return files;
   }
 
@@ -84,6 +85,22 @@ public final class DemoData {
       int planted = 20 + random.nextInt(11);
       int survived = binomial(random, planted, inverseLogit(effect[bench]));
       csv.append(planted).append(',').append(bench + 1).append(',').append(survived).append('\n');
+    }
+    return csv.toString();
+  }
+
+  /**
+   * 12 concentrations of a plant extract, 4.0 to 6.2 log2 units in steps of 0.2 (far from 0, not
+   * centred), 30 nematodes a plate, one plate each; deaths with true intercept -11 and slope 2.2
+   * on the logit scale (half die at 5.0).
+   */
+  static String extract() {
+    RandomGenerator random = random(20261202L);
+    StringBuilder csv = new StringBuilder("concentration,exposed,dead\n");
+    for (int plate = 0; plate < 12; plate++) {
+      double concentration = Math.round(40 + 2 * plate) / 10.0;
+      int dead = binomial(random, 30, inverseLogit(-11 + 2.2 * concentration));
+      csv.append(concentration).append(",30,").append(dead).append('\n');
     }
     return csv.toString();
   }

@@ -1,0 +1,148 @@
+package org.hullbound.model;
+
+import java.util.List;
+import org.hullbound.model.family.Scale;
+
+/**
+ * The density of the position {@code t} along one line through the state, compiled once from the
+ * terms the line moves: what a move along a direction (a translation {@code x + t w}) or a
+ * rescaling ({@code c x} for {@code c = t > 0}) of several unknowns at once draws from.
+ *
+ * <p>Generalised Gibbs (Liu and Sabatti 2000, J. Amer. Statist. Assoc. 95, 585-598): for a group
+ * of transformations {@code g} acting on the state, drawing {@code g} from {@code p(g(x)) |J_g(x)|
+ * H(dg)}, with {@code H} the group's left Haar measure and {@code J_g} the Jacobian of {@code x ->
+ * g(x)}, and moving to {@code g(x)} leaves {@code p} invariant. For translations along a fixed
+ * {@code w} the Jacobian is 1 and {@code H(dt) = dt}, so {@code t} has density {@code p(x + t w)}.
+ * For the multiplicative group acting on {@code d} coordinates the Jacobian is {@code c^d} and
+ * {@code H(dc) = dc / c}, so {@code c} has density {@code c^(d - 1) p(c x)} on {@code c > 0}
+ * (their scale example): {@link #logDensity} adds {@code (d - 1) log c}.
+ *
+ * <p>The frame an evaluation reads is the state (natural values) in entries {@code 0 .. n - 1},
+ * entry {@code n} unused (the position is the argument), and for a direction learned at run time
+ * its weights in entries {@code n + 1 ..} ({@link #direct}). Terms left unchanged by every point
+ * of the line (the linear predictors a shift leaves alone) are not compiled at all. Immutable;
+ * chains share it, each with its own frame.
+ */
+public final class LineDensity {
+  /** How the line moves its members. */
+  enum Geometry {
+    /** {@code x_j + t w_j}, {@code w} fixed when the move was found. */
+    FIXED_TRANSLATION,
+    /** {@code x_j + t w_j}, {@code w} read from the frame (learned during burn-in). */
+    LEARNED_TRANSLATION,
+    /** {@code c x_j} for {@code c = t > 0}. */
+    RESCALING
+  }
+
+  private final int dimension;
+  private final int[] members;
+  private final double[] weights;
+  private final Geometry geometry;
+  private final CompiledConditional compiled;
+  private final double jacobianPower;
+
+  LineDensity(int dimension, int[] members, double[] weights, Geometry geometry,
+      List<Term> movedTerms, boolean smooth) {
+    this.dimension = dimension;
+    this.members = members.clone();
+    this.weights = weights == null ? null : weights.clone();
+    this.geometry = geometry;
+    boolean rescaling = geometry == Geometry.RESCALING;
+    Unknown position = new Unknown(dimension, "line position", "line position", Scale.NATURAL,
+        rescaling ? 0 : Double.NEGATIVE_INFINITY, Double.POSITIVE_INFINITY, false, false);
+    this.compiled = new CompiledConditional(
+        position, movedTerms,
+        Formula.constant(rescaling ? 0 : Double.NEGATIVE_INFINITY),
+        Formula.constant(Double.POSITIVE_INFINITY),
+        ArgumentBounds.of(dimension, movedTerms.get(0), List.of(), Double.NaN, Double.NaN),
+        smooth);
+    this.jacobianPower = rescaling ? members.length - 1 : 0;
+  }
+
+  /** The state entries the line moves. */
+  public int[] members() {
+    return members.clone();
+  }
+
+  /** True for a rescaling ({@code c x}), false for a translation ({@code x + t w}). */
+  public boolean rescales() {
+    return geometry == Geometry.RESCALING;
+  }
+
+  /** True when the direction is set at run time through {@link #direct}. */
+  public boolean learned() {
+    return geometry == Geometry.LEARNED_TRANSLATION;
+  }
+
+  /** The frame entry a draw of the position may use as its own (entry {@code n}). */
+  public int position() {
+    return dimension;
+  }
+
+  /** The length of the frame that {@link #logDensity} reads. */
+  public int frameLength() {
+    return dimension + 1 + (learned() ? members.length : 0);
+  }
+
+  /** Copies the state (natural values) into {@code frame}: the base point {@code t} starts from. */
+  public void load(double[] state, double[] frame) {
+    System.arraycopy(state, 0, frame, 0, dimension);
+  }
+
+  /** Writes a learned direction's weights, one per member, into {@code frame}. */
+  public void direct(double[] direction, double[] frame) {
+    if (!learned() || direction.length != members.length) {
+      throw new IllegalArgumentException(
+          "direction must give one weight per member of a learned line, got " + direction.length);
+    }
+    System.arraycopy(direction, 0, frame, dimension + 1, members.length);
+  }
+
+  /** The position of the base point itself: 0 for a translation, 1 for a rescaling. */
+  public double identity() {
+    return rescales() ? 1 : 0;
+  }
+
+  /** The lower end of the positions: 0 for a rescaling, {@code -inf} for a translation. */
+  public double lower() {
+    return rescales() ? 0 : Double.NEGATIVE_INFINITY;
+  }
+
+  /**
+   * The log-density of position {@code t} from the base point in {@code frame}, up to a constant,
+   * with the Jacobian and Haar factor of a rescaling; {@code slope[0]} receives d/dt when {@code
+   * slope} is not null.
+   */
+  public double logDensity(double t, double[] frame, double[] slope) {
+    double value = compiled.logDensity(t, frame, slope);
+    if (jacobianPower == 0 || value == Double.NEGATIVE_INFINITY) {
+      return value;
+    }
+    if (slope != null) {
+      slope[0] += jacobianPower / t;
+    }
+    return value + jacobianPower * Math.log(t);
+  }
+
+  /** Moves {@code state} to position {@code t} of the line through it ({@code frame} as loaded). */
+  public void apply(double t, double[] state, double[] frame) {
+    for (int k = 0; k < members.length; k++) {
+      int j = members[k];
+      switch (geometry) {
+        case RESCALING -> state[j] = frame[j] * t;
+        case FIXED_TRANSLATION -> state[j] = frame[j] + t * weights[k];
+        default -> state[j] = frame[j] + t * frame[dimension + 1 + k];
+      }
+    }
+  }
+
+  /** False when a moved term is not differentiable along the line. */
+  public boolean smooth() {
+    return compiled.smooth();
+  }
+
+  /** How many terms an evaluation sums (those the line changes). */
+  public int termCount() {
+    return compiled.termCount();
+  }
+}
