@@ -590,6 +590,11 @@ public final class FitRun implements AutoCloseable {
           public Boolean fallback(UpdateRule.Fallback rule) {
             return true;
           }
+
+          @Override
+          public Boolean discrete(UpdateRule.Discrete rule) {
+            return false;
+          }
         };
     for (UpdateRule rule : sampler.sampler().rules()) {
       boolean fallback = rule.accept(isFallback);

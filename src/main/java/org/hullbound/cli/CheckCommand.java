@@ -171,6 +171,11 @@ public final class CheckCommand implements Callable<Integer> {
           }
 
           @Override
+          public String discrete(Update.Discrete discrete) {
+            return discrete.finite() ? "exact enumeration" : "integer hull";
+          }
+
+          @Override
           public String linearNormalBlock(Update.LinearNormalBlock block) {
             return "exact block normal (" + block.size() + " jointly)";
           }

@@ -121,6 +121,11 @@ public final class GibbsSampler implements KernelFactory {
           public Updater fallback(UpdateRule.Fallback fallback) {
             return new FallbackUpdater(fallback, adaptationSweeps, Double.NaN, 1.0);
           }
+
+          @Override
+          public Updater discrete(UpdateRule.Discrete discrete) {
+            return new DiscreteUpdater(discrete);
+          }
         });
   }
 }

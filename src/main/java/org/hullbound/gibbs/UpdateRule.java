@@ -29,6 +29,8 @@ public sealed interface UpdateRule {
     R adaptiveRejection(AdaptiveRejection rule);
 
     R fallback(Fallback rule);
+
+    R discrete(Discrete rule);
   }
 
   /** An exact draw from a conjugate full conditional; uses no density evaluation. */
@@ -89,6 +91,24 @@ public sealed interface UpdateRule {
     @Override
     public <R> R accept(Visitor<R> visitor) {
       return visitor.fallback(this);
+    }
+  }
+
+  /**
+   * An exact draw of a whole-valued unknown: enumeration of its conditional log mass over a finite
+   * support, or the integer hull ({@code hull.DiscreteAdaptiveRejection}) when {@code logConcave}
+   * and the support is unbounded or too large to enumerate.
+   */
+  record Discrete(int index, ScalarConditional conditional, String reason, boolean logConcave)
+      implements UpdateRule {
+    @Override
+    public int[] indices() {
+      return new int[] {index};
+    }
+
+    @Override
+    public <R> R accept(Visitor<R> visitor) {
+      return visitor.discrete(this);
     }
   }
 

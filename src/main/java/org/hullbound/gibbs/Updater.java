@@ -10,7 +10,8 @@ import java.util.random.RandomGenerator;
  * counts the density evaluations it spends, which the summary reports per draw.
  */
 public sealed interface Updater
-    permits ConjugateUpdater, BlockNormalUpdater, AdaptiveRejectionUpdater, FallbackUpdater {
+    permits ConjugateUpdater, BlockNormalUpdater, AdaptiveRejectionUpdater, FallbackUpdater,
+        DiscreteUpdater {
 
   /** Draws the unknown(s) anew; {@code state} holds natural-scale values. */
   void update(double[] state, RandomGenerator rng);

@@ -514,6 +514,14 @@ public final class BoundModel {
         lo = Formula.constant(0);
         hi = own.arguments().get(0);
         break;
+      case WHOLE_BETWEEN_FIRST_TWO_ARGUMENTS:
+        lo = own.arguments().get(0);
+        hi = own.arguments().get(1);
+        break;
+      case CATEGORY:
+        lo = Formula.constant(1);
+        hi = Formula.constant(own.arguments().size());
+        break;
       default:
         lo = Formula.constant(Double.NEGATIVE_INFINITY);
         hi = Formula.constant(Double.POSITIVE_INFINITY);
