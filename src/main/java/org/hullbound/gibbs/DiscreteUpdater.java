@@ -26,6 +26,7 @@ final class DiscreteUpdater implements Updater {
 
   private final int index;
   private final ScalarConditional conditional;
+  private final boolean finite;
   private final boolean logConcave;
   private double[] weights = new double[16];
   private long draws;
@@ -35,6 +36,7 @@ final class DiscreteUpdater implements Updater {
   DiscreteUpdater(UpdateRule.Discrete rule) {
     this.index = rule.index();
     this.conditional = rule.conditional();
+    this.finite = rule.finite();
     this.logConcave = rule.logConcave();
   }
 
@@ -118,7 +120,7 @@ final class DiscreteUpdater implements Updater {
 
   @Override
   public String method() {
-    return logConcave ? "exact discrete (enumeration or integer hull)" : "exact enumeration";
+    return !finite ? "integer hull" : logConcave ? "enumeration or integer hull" : "enumeration";
   }
 
   @Override

@@ -168,7 +168,8 @@ public final class ModelSampler {
           @Override
           public Optional<UpdateRule> discrete(Update.Discrete discrete) {
             return Optional.of(new UpdateRule.Discrete(
-                index, adapt(model.conditional(index)), discrete.reason(), discrete.logConcave()));
+                index, adapt(model.conditional(index)), discrete.reason(), discrete.finite(),
+                discrete.logConcave()));
           }
 
           @Override

@@ -99,7 +99,8 @@ public sealed interface UpdateRule {
    * support, or the integer hull ({@code hull.DiscreteAdaptiveRejection}) when {@code logConcave}
    * and the support is unbounded or too large to enumerate.
    */
-  record Discrete(int index, ScalarConditional conditional, String reason, boolean logConcave)
+  record Discrete(
+      int index, ScalarConditional conditional, String reason, boolean finite, boolean logConcave)
       implements UpdateRule {
     @Override
     public int[] indices() {

@@ -15,8 +15,8 @@ import java.util.random.RandomGenerator;
  *
  * <ol>
  *   <li>Start with chords at {@code guess - spread}, {@code guess}, {@code guess + spread}
- *       (rounded, moved inside the range), stepping outward with doubling steps on an unbounded
- *       side until the outermost chord falls away there.
+ *       (rounded, moved inside the range), stepping outward with doubling steps until the
+ *       outermost chord falls away on each side or reaches its end of the range.
  *   <li>Draw k from the envelope and a uniform U; accept when {@code log U <= l(k) - u(k)} (the
  *       squeeze, no evaluation).
  *   <li>Otherwise evaluate h(k), accept when {@code log U <= h(k) - u(k)}, and add the chord at k
@@ -155,13 +155,15 @@ public final class DiscreteAdaptiveRejection {
     while (true) {
       long leftmost = chords.firstKey();
       long rightmost = chords.lastKey();
-      boolean leftOk = lower > Double.NEGATIVE_INFINITY || chords.get(leftmost)[1] > 0;
-      boolean rightOk = upper < Double.POSITIVE_INFINITY || chords.get(rightmost)[1] < 0;
+      // On a bounded side the search stops at the end: there the envelope is finite anyway, but a
+      // chord that still rises far from the end would put its mass where h is tiny.
+      boolean leftOk = leftmost <= lower || chords.get(leftmost)[1] > 0;
+      boolean rightOk = rightmost + 1 >= upper || chords.get(rightmost)[1] < 0;
       if (leftOk && rightOk) {
         break;
       }
       if (!leftOk) {
-        double a = (double) leftmost - leftStep;
+        double a = Math.max(lower, (double) leftmost - leftStep);
         if (leftSteps++ == options.maximumSearchSteps() || -a > GeometricHull.LARGEST_WHOLE) {
           throw new NonIntegrableHullException(
               "no rising chord found below " + leftmost + ": the mass does not fall away towards"
@@ -171,7 +173,7 @@ public final class DiscreteAdaptiveRejection {
         addChord(chords, (long) a);
       }
       if (!rightOk) {
-        double a = (double) rightmost + rightStep;
+        double a = Math.min(upper - 1, (double) rightmost + rightStep);
         if (rightSteps++ == options.maximumSearchSteps() || a > GeometricHull.LARGEST_WHOLE) {
           throw new NonIntegrableHullException(
               "no falling chord found above " + rightmost + ": the mass does not fall away"
