@@ -163,7 +163,16 @@ public final class BoundModel {
     if (data == null) {
       throw new IllegalArgumentException("data must not be null (use an empty list)");
     }
-    return new BoundModel(Binder.bind(model, data));
+    Binder.Result bound = Binder.bind(model, data);
+    try {
+      return new BoundModel(bound);
+    } catch (ModelException e) {
+      // the update analysis refuses a discrete param at its declaration: quote that line
+      if (e.position().file().equals(model.source().fileName())) {
+        throw ModelException.at(model.source(), e.position(), e.problem(), e.hint());
+      }
+      throw e;
+    }
   }
 
   /**

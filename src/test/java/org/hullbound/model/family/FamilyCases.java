@@ -10,8 +10,6 @@ import net.jqwik.api.Combinators;
 import net.jqwik.api.RandomDistribution;
 import org.apache.commons.math3.distribution.BetaDistribution;
 import org.apache.commons.math3.distribution.BinomialDistribution;
-import org.apache.commons.math3.distribution.EnumeratedIntegerDistribution;
-import org.apache.commons.math3.distribution.UniformIntegerDistribution;
 import org.apache.commons.math3.distribution.CauchyDistribution;
 import org.apache.commons.math3.distribution.ExponentialDistribution;
 import org.apache.commons.math3.distribution.GammaDistribution;
@@ -272,23 +270,6 @@ final class FamilyCases {
             + a[1] * Math.log(a[1] / (a[1] + a[0])) + x * Math.log(a[0] / (a[1] + a[0])),
         null,
         (x, a) -> 1.0, "closed form, Johnson, Kemp and Kotz 2005, 5.1"));
-    cases.add(new Case("whole-uniform", parametrisation("whole-uniform", "lower", "upper"),
-        Combinators.combine(whole(-50, 50), whole(0, 100))
-            .as((lower, width) -> new double[] {lower, lower + width}),
-        (a, q) -> Math.min(a[1], a[0] + floorCount(q, a[1] - a[0] + 1)),
-        (x, a) -> new UniformIntegerDistribution(null, (int) a[0], (int) a[1]).logProbability((int) x),
-        (x, a) -> new UniformIntegerDistribution(null, (int) a[0], (int) a[1])
-            .cumulativeProbability((int) x),
-        (x, a) -> 1.0, cm + "UniformIntegerDistribution"));
-    cases.add(new Case("categorical over 3", Categorical.withCategories(
-            parametrisation("categorical", "p"), 3),
-        args(logUniform(0.01, 10), logUniform(0.01, 10), logUniform(0.01, 10)),
-        (a, q) -> Math.min(3, 1 + floorCount(q, 3)),
-        (x, a) -> new EnumeratedIntegerDistribution(null, new int[] {1, 2, 3}, a)
-            .logProbability((int) x),
-        (x, a) -> new EnumeratedIntegerDistribution(null, new int[] {1, 2, 3}, a)
-            .cumulativeProbability((int) x),
-        (x, a) -> 1.0, cm + "EnumeratedIntegerDistribution (weights normalised)"));
     return List.copyOf(cases);
   }
 
