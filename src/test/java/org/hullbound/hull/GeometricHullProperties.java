@@ -57,6 +57,21 @@ class GeometricHullProperties {
     return GeometricHull.of(h.lower(), h.upper(), anchors, values, next);
   }
 
+  /**
+   * The hull of chords at the offsets, or {@code null} when there is none to check: a one-point
+   * range, or an outermost chord that rises on an unbounded side.
+   */
+  private static GeometricHull hullOrNull(GeneratedLogConcaveMass h, List<Integer> offsets) {
+    if (h.upper() - h.lower() < 1) {
+      return null;
+    }
+    try {
+      return hull(h, offsets);
+    } catch (NonIntegrableHullException e) {
+      return null;
+    }
+  }
+
   private static long anchorInside(GeneratedLogConcaveMass h, long a) {
     return (long) Math.max(h.lower(), Math.min(h.upper() - 1, a));
   }
@@ -68,14 +83,9 @@ class GeometricHullProperties {
   @Property(tries = 400, seed = "20261202")
   void envelopeBoundsAndSqueezeLiesBelowAtEveryInteger(
       @ForAll("masses") GeneratedLogConcaveMass h, @ForAll("offsets") List<Integer> offsets) {
-    if (h.upper() - h.lower() < 1) {
+    GeometricHull hull = hullOrNull(h, offsets);
+    if (hull == null) {
       return;
-    }
-    GeometricHull hull;
-    try {
-      hull = hull(h, offsets);
-    } catch (NonIntegrableHullException e) {
-      return; // the outermost chord rises on an unbounded side: no envelope to check
     }
     long from = (long) Math.max(h.lower(), h.centre() - 300);
     long to = (long) Math.min(h.upper(), h.centre() + 300);
@@ -99,13 +109,8 @@ class GeometricHullProperties {
   @Property(tries = 200, seed = "4401117")
   void envelopeMassIsAtLeastTheMassItBounds(
       @ForAll("masses") GeneratedLogConcaveMass h, @ForAll("offsets") List<Integer> offsets) {
-    if (h.upper() - h.lower() < 1) {
-      return;
-    }
-    GeometricHull hull;
-    try {
-      hull = hull(h, offsets);
-    } catch (NonIntegrableHullException e) {
+    GeometricHull hull = hullOrNull(h, offsets);
+    if (hull == null) {
       return;
     }
     long from = (long) Math.max(h.lower(), h.centre() - 2000);

@@ -155,6 +155,14 @@ abstract class BaseParametrisation implements Parametrisation {
     };
   }
 
+  /** Refuses a truncation {@code [lo, hi]} of a discrete family with {@code lo > hi} (or NaN). */
+  static void requireOrdered(double lo, double hi) {
+    if (!(lo <= hi)) {
+      throw new IllegalArgumentException(
+          "the truncation needs lo <= hi, got lo = " + format(lo) + ", hi = " + format(hi));
+    }
+  }
+
   /** A number as a user wrote it: {@code -1} rather than {@code -1.0}. */
   static String format(double value) {
     return NumberSyntax.written(value);

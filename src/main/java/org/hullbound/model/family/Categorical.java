@@ -87,10 +87,7 @@ public final class Categorical {
     @Override
     public double logProbabilityBetween(
         double lo, double hi, double[] args, double[] gradientOfArgs) {
-      if (!(lo <= hi)) {
-        throw new IllegalArgumentException(
-            "the truncation needs lo <= hi, got lo = " + format(lo) + ", hi = " + format(hi));
-      }
+      requireOrdered(lo, hi);
       double first = Math.max(Math.ceil(lo), 1);
       double last = Math.min(Math.floor(hi), args.length);
       double inside = 0;

@@ -41,10 +41,7 @@ final class WholeUniform {
     @Override
     public double logProbabilityBetween(
         double lo, double hi, double[] args, double[] gradientOfArgs) {
-      if (!(lo <= hi)) {
-        throw new IllegalArgumentException(
-            "the truncation needs lo <= hi, got lo = " + format(lo) + ", hi = " + format(hi));
-      }
+      requireOrdered(lo, hi);
       Arrays.fill(gradientOfArgs, 0, 2, 0.0);
       double first = Math.max(Math.ceil(lo), args[0]);
       double last = Math.min(Math.floor(hi), args[1]);
