@@ -129,7 +129,7 @@ public final class DiscreteAdaptiveRejection {
   public SamplerStatistics statistics() {
     return new SamplerStatistics(
         evaluations, proposals, squeezeAcceptances, densityAcceptances, rejections,
-        hull == null ? 0 : hull.size());
+        hull == null ? 0 : hull.size(), 0); // every rejection here follows an evaluation
   }
 
   /** The anchors of the current chords, ascending (empty for a one-point range). */
