@@ -625,6 +625,11 @@ public final class FitRun implements AutoCloseable {
           public Boolean move(UpdateRule.Move rule) {
             return false;
           }
+
+          @Override
+          public Boolean discrete(UpdateRule.Discrete rule) {
+            return false;
+          }
         };
     for (UpdateRule rule : sampler.sampler().rules()) {
       if (rule.extra()) {

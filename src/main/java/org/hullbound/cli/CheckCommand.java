@@ -200,6 +200,11 @@ public final class CheckCommand implements Callable<Integer> {
           }
 
           @Override
+          public String discrete(Update.Discrete discrete) {
+            return discrete.finite() ? "exact enumeration" : "integer hull";
+          }
+
+          @Override
           public String linearNormalBlock(Update.LinearNormalBlock block) {
             return "exact block normal (" + block.size() + " jointly)";
           }
@@ -256,6 +261,11 @@ public final class CheckCommand implements Callable<Integer> {
 
     @Override
     public int[] fallback(Update.Fallback update) {
+      return new int[0];
+    }
+
+    @Override
+    public int[] discrete(Update.Discrete update) {
       return new int[0];
     }
 

@@ -127,6 +127,11 @@ public final class GibbsSampler implements KernelFactory {
           public Updater move(UpdateRule.Move move) {
             return new LineMoveUpdater(move, adaptationSweeps);
           }
+
+          @Override
+          public Updater discrete(UpdateRule.Discrete discrete) {
+            return new DiscreteUpdater(discrete);
+          }
         });
   }
 }

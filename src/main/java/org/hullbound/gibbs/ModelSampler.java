@@ -180,6 +180,13 @@ public final class ModelSampler {
           }
 
           @Override
+          public Optional<UpdateRule> discrete(Update.Discrete discrete) {
+            return Optional.of(new UpdateRule.Discrete(
+                index, adapt(model.conditional(index)), discrete.reason(), discrete.finite(),
+                discrete.logConcave()));
+          }
+
+          @Override
           public Optional<UpdateRule> linearNormalBlock(Update.LinearNormalBlock block) {
             return block.members()[0] == index ? Optional.of(blockRule(block)) : Optional.empty();
           }

@@ -35,6 +35,11 @@ final class MoveRules {
           }
 
           @Override
+          public UpdateRule discrete(Update.Discrete update) {
+            throw notAMove(update);
+          }
+
+          @Override
           public UpdateRule groupMove(Update.GroupMove update) {
             return new UpdateRule.Move(update.kind().word() + " move", target(update.line()),
                 update.logConcave(), update.reason());

@@ -39,6 +39,8 @@ public sealed interface UpdateRule {
     R fallback(Fallback rule);
 
     R move(Move rule);
+
+    R discrete(Discrete rule);
   }
 
   /** An exact draw from a conjugate full conditional; uses no density evaluation. */
@@ -126,6 +128,25 @@ public sealed interface UpdateRule {
     @Override
     public <R> R accept(Visitor<R> visitor) {
       return visitor.move(this);
+    }
+  }
+
+  /**
+   * An exact draw of a whole-valued unknown: enumeration of its conditional log mass over a finite
+   * support, or the integer hull ({@code hull.DiscreteAdaptiveRejection}) when {@code logConcave}
+   * and the support is unbounded or too large to enumerate.
+   */
+  record Discrete(
+      int index, ScalarConditional conditional, String reason, boolean finite, boolean logConcave)
+      implements UpdateRule {
+    @Override
+    public int[] indices() {
+      return new int[] {index};
+    }
+
+    @Override
+    public <R> R accept(Visitor<R> visitor) {
+      return visitor.discrete(this);
     }
   }
 

@@ -11,7 +11,7 @@ import java.util.random.RandomGenerator;
  */
 public sealed interface Updater
     permits ConjugateUpdater, BlockNormalUpdater, AdaptiveRejectionUpdater, FallbackUpdater,
-        LineMoveUpdater {
+        LineMoveUpdater, DiscreteUpdater {
 
   /** Draws the unknown(s) anew; {@code state} holds natural-scale values. */
   void update(double[] state, RandomGenerator rng);

@@ -26,6 +26,7 @@ import org.hullbound.lang.NumberSyntax;
 import org.hullbound.lang.SourcePosition;
 import org.hullbound.lang.SourceText;
 import org.hullbound.lang.Statement;
+import org.hullbound.model.family.Categorical;
 import org.hullbound.model.family.Families;
 import org.hullbound.model.family.Family;
 import org.hullbound.model.family.Parametrisation;
@@ -303,13 +304,6 @@ final class Binder {
     node.argumentExpressions = new Expression[p.argumentNames().size()];
     for (int k = 0; k < node.argumentExpressions.length; k++) {
       node.argumentExpressions[k] = given.get(p.argumentNames().get(k)).value();
-    }
-    if (node.kind == Node.Kind.PARAM && p.discrete()) {
-      throw error(
-          d.family().position(),
-          "param '" + node.name() + "' has the discrete family " + familyName
-              + "; params must have a continuous family",
-          "model a count as data, or use a continuous family such as gamma");
     }
   }
 
@@ -1387,7 +1381,13 @@ final class Binder {
     Parametrisation p = node.parametrisation;
     List<Formula> args = new ArrayList<>();
     boolean allKnown = true;
-    for (Expression a : node.argumentExpressions) {
+    Expression[] argumentExpressions = node.argumentExpressions;
+    if (Categorical.takesVector(p)) {
+      argumentExpressions = VectorArgument.expand(node.argumentExpressions[0], this::vectorSet,
+          this::error);
+      p = Categorical.withCategories(p, argumentExpressions.length);
+    }
+    for (Expression a : argumentExpressions) {
       Formula f = resolve(a, env);
       args.add(f);
       allKnown &= f.known();
@@ -1402,7 +1402,7 @@ final class Binder {
       if (problem != null) {
         SourcePosition origin = ((Formula.Constant) args.get(k)).origin();
         throw error(
-            origin != null ? origin : node.argumentExpressions[k].position(),
+            origin != null ? origin : argumentExpressions[k].position(),
             "invalid arguments of " + p.family().name() + " for '" + node.label(e) + "': " + problem,
             null);
       }
@@ -1481,6 +1481,17 @@ final class Binder {
     return rows.censored(env, node.label(e));
   }
 
+  /** The one index set of the node called {@code name}, for {@link VectorArgument}. */
+  private VectorArgument.Shape vectorSet(String name) {
+    Node node = nodes.get(name);
+    if (node == null || node.indexSets == null) {
+      return null;
+    }
+    List<IndexSet> list = node.indexSets;
+    return new VectorArgument.Shape(node.kindWord(), list.size(),
+        list.isEmpty() ? null : list.get(0));
+  }
+
   private double knownBound(Expression e, Map<String, Integer> env, String which) {
     Formula f = resolve(e, env);
     if (!(f instanceof Formula.Constant c)) {
@@ -1511,6 +1522,8 @@ final class Binder {
               : !Double.isNaN(known[0]) && y > known[0]
                   ? "it exceeds " + p.argumentNames().get(0) + " = " + number(known[0]) : null;
           case BINARY -> y == 0 || y == 1 ? null : "it must be 0 or 1";
+          case WHOLE_BETWEEN_FIRST_TWO_ARGUMENTS, CATEGORY -> !whole
+              ? "it is not a whole number, and " + family + " needs one" : null;
         };
     if (problem == null && allKnown) {
       problem = p.checkValue(y, known);

@@ -180,7 +180,16 @@ public final class BoundModel {
     if (data == null) {
       throw new IllegalArgumentException("data must not be null (use an empty list)");
     }
-    return new BoundModel(Binder.bind(model, data, emptyCells));
+    Binder.Result bound = Binder.bind(model, data, emptyCells);
+    try {
+      return new BoundModel(bound);
+    } catch (ModelException e) {
+      // the update analysis refuses a discrete param at its declaration: quote that line
+      if (e.position().file().equals(model.source().fileName())) {
+        throw ModelException.at(model.source(), e.position(), e.problem(), e.hint());
+      }
+      throw e;
+    }
   }
 
   /**
@@ -550,6 +559,14 @@ public final class BoundModel {
       case COUNT_UP_TO_FIRST_ARGUMENT:
         lo = Formula.constant(0);
         hi = own.arguments().get(0);
+        break;
+      case WHOLE_BETWEEN_FIRST_TWO_ARGUMENTS:
+        lo = own.arguments().get(0);
+        hi = own.arguments().get(1);
+        break;
+      case CATEGORY:
+        lo = Formula.constant(1);
+        hi = Formula.constant(own.arguments().size());
         break;
       default:
         lo = Formula.constant(Double.NEGATIVE_INFINITY);

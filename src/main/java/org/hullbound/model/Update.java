@@ -33,6 +33,8 @@ public sealed interface Update {
     R groupMove(GroupMove update);
 
     R directionBlock(DirectionBlock update);
+
+    R discrete(Discrete update);
   }
 
   /** An exact draw: {@link #posterior(double[])} gives the conditional's family and arguments. */
@@ -64,6 +66,19 @@ public sealed interface Update {
     @Override
     public <R> R accept(Visitor<R> visitor) {
       return visitor.fallback(this);
+    }
+  }
+
+  /**
+   * An exact draw of a whole-valued unknown: by enumeration of its conditional's log mass over a
+   * finite support, or, when {@code logConcave} (its differences are proved non-increasing), by
+   * the integer hull ({@code hull.DiscreteAdaptiveRejection}) on an unbounded support or one too
+   * large to enumerate; {@code finite} says whether the support is finite at every state.
+   */
+  record Discrete(String reason, boolean finite, boolean logConcave) implements Update {
+    @Override
+    public <R> R accept(Visitor<R> visitor) {
+      return visitor.discrete(this);
     }
   }
 

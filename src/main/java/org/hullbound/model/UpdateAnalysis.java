@@ -98,6 +98,10 @@ final class UpdateAnalysis {
       return new Choice(scale, conjugate);
     }
     if (discrete) {
+      Update exact = DiscreteAnalysis.choose(slot, own, dependents, imputed);
+      if (exact != null) {
+        return new Choice(scale, exact);
+      }
       return new Choice(
           scale,
           new Update.Fallback(

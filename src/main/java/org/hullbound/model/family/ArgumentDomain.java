@@ -8,7 +8,11 @@ enum ArgumentDomain {
   REAL("must be a finite number"),
   POSITIVE("must be > 0"),
   PROBABILITY("must be between 0 and 1"),
-  WHOLE("must be a whole number >= 0");
+  WHOLE("must be a whole number >= 0"),
+  /** A weight: {@code >= 0} and finite (an entry of a categorical's vector). */
+  NON_NEGATIVE("must be >= 0 and finite"),
+  /** A whole number of either sign (the bounds of a whole-number uniform). */
+  INTEGER("must be a whole number");
 
   /** Relative step of the Richardson-extrapolated central difference. */
   static final double RELATIVE_STEP = 1e-3;
@@ -29,6 +33,8 @@ enum ArgumentDomain {
       case POSITIVE -> value > 0 && value < Double.POSITIVE_INFINITY;
       case PROBABILITY -> value >= 0 && value <= 1;
       case WHOLE -> value >= 0 && value < 0x1p53 && value == Math.rint(value);
+      case NON_NEGATIVE -> value >= 0 && value < Double.POSITIVE_INFINITY;
+      case INTEGER -> Math.abs(value) < 0x1p53 && value == Math.rint(value);
     };
   }
 
@@ -36,9 +42,9 @@ enum ArgumentDomain {
   double step(double value) {
     return switch (this) {
       case REAL -> RELATIVE_STEP * Math.max(1.0, Math.abs(value));
-      case POSITIVE -> RELATIVE_STEP * value;
+      case POSITIVE, NON_NEGATIVE -> RELATIVE_STEP * value;
       case PROBABILITY -> RELATIVE_STEP * Math.min(value, 1.0 - value);
-      case WHOLE -> 0.0;
+      case WHOLE, INTEGER -> 0.0;
     };
   }
 }

@@ -67,6 +67,8 @@ abstract class BaseParametrisation implements Parametrisation {
       case POSITIVE -> new ArgumentRange(0, Double.POSITIVE_INFINITY, false);
       case PROBABILITY -> new ArgumentRange(0, 1, true);
       case WHOLE -> new ArgumentRange(0, 0x1p53 - 1, true);
+      case NON_NEGATIVE -> new ArgumentRange(0, Double.POSITIVE_INFINITY, true);
+      case INTEGER -> new ArgumentRange(-0x1p53 + 1, 0x1p53 - 1, true);
     };
   }
 
@@ -104,6 +106,9 @@ abstract class BaseParametrisation implements Parametrisation {
       case COUNT -> ArgumentDomain.WHOLE.accepts(x);
       case COUNT_UP_TO_FIRST_ARGUMENT -> ArgumentDomain.WHOLE.accepts(x) && x <= args[0];
       case BINARY -> x == 0 || x == 1;
+      case WHOLE_BETWEEN_FIRST_TWO_ARGUMENTS ->
+          x == Math.rint(x) && x >= args[0] && x <= args[1];
+      case CATEGORY -> x == Math.rint(x) && x >= 1 && x <= args.length;
     };
   }
 
@@ -144,7 +149,18 @@ abstract class BaseParametrisation implements Parametrisation {
       case COUNT_UP_TO_FIRST_ARGUMENT -> "a count must be a whole number between 0 and "
           + names.get(0) + " = " + format(args[0]) + got;
       case BINARY -> "a " + family + " value must be 0 or 1" + got;
+      case WHOLE_BETWEEN_FIRST_TWO_ARGUMENTS -> "a " + family + " value must be a whole number"
+          + " in lower .. upper = " + format(args[0]) + " .. " + format(args[1]) + got;
+      case CATEGORY -> "a " + family + " value must be a category 1 .. " + args.length + got;
     };
+  }
+
+  /** Refuses a truncation {@code [lo, hi]} of a discrete family with {@code lo > hi} (or NaN). */
+  static void requireOrdered(double lo, double hi) {
+    if (!(lo <= hi)) {
+      throw new IllegalArgumentException(
+          "the truncation needs lo <= hi, got lo = " + format(lo) + ", hi = " + format(hi));
+    }
   }
 
   /** A number as a user wrote it: {@code -1} rather than {@code -1.0}. */

@@ -120,6 +120,23 @@ final class Binomial {
       return -trials * Math.exp(logMass(n, trials - 1.0, args) - logScale) * probabilitySlope(args);
     }
 
+    // log C(n, x) + x logit(p): differences log((n - x)/(x + 1)) + logit(p) fall in x.
+    @Override
+    public final Curvature curvatureInWholeValue(double[] knownArgs) {
+      return Curvature.concave(family().name() + " log mass has differences log((trials - x)/(x"
+          + " + 1)) + logit(p), falling in x");
+    }
+
+    // log C(n, x) + n log(1 - p) in n: differences log((n + 1)/(n + 1 - x)) + log(1 - p) fall.
+    @Override
+    public final Curvature curvatureInWholeArgument(int k, double[] knownArgs) {
+      if (withTrials && k == 0) {
+        return Curvature.concave("binomial log mass in trials n has differences log((n + 1)/(n"
+            + " + 1 - x)) + log(1 - p), falling in n");
+      }
+      return super.curvatureInWholeArgument(k, knownArgs);
+    }
+
     final Curvature trialsFact() {
       return Curvature.notEstablished("binomial trials is a whole number: concavity in a continuous argument does not apply");
     }

@@ -35,6 +35,8 @@ import org.hullbound.lang.NameSuggestion;
  *   <tr><td>binomial</td><td>trials, p · trials, logit_p</td></tr>
  *   <tr><td>bernoulli</td><td>p · logit_p</td></tr>
  *   <tr><td>negative-binomial</td><td>mean, size</td></tr>
+ *   <tr><td>categorical</td><td>p (a vector of K weights)</td></tr>
+ *   <tr><td>whole-uniform</td><td>lower, upper</td></tr>
  * </table>
  */
 public final class Families {
@@ -56,7 +58,9 @@ public final class Families {
       Poisson.family(),
       Binomial.binomial(),
       Binomial.bernoulli(),
-      NegativeBinomial.family());
+      NegativeBinomial.family(),
+      Categorical.family(),
+      WholeUniform.family());
 
   private static final List<String> SORTED_NAMES = sortedNames();
 

@@ -169,7 +169,12 @@ public final class FamilyDraws {
       RandomGenerator rng) {
     double[] ignored = new double[args.length];
     double logTarget = Math.log(openUniform(rng)) + logMass;
-    double first = Math.max(0, Math.ceil(lower));
+    double supportLower = switch (family.support()) {
+      case WHOLE_BETWEEN_FIRST_TWO_ARGUMENTS -> args[0];
+      case CATEGORY -> 1;
+      default -> 0;
+    };
+    double first = Math.max(supportLower, Math.ceil(lower));
     double last = Math.floor(upper);
     double a = first - 1;
     double b;
@@ -253,6 +258,24 @@ public final class FamilyDraws {
         double mean = arg(names, args, "mean");
         double size = arg(names, args, "size");
         return poisson(standardGamma(size, rng) * (mean / size), rng);
+      }
+      case "whole-uniform":
+        return args[0] + Math.min(args[1] - args[0],
+            Math.floor(rng.nextDouble() * (args[1] - args[0] + 1)));
+      case "categorical": {
+        double total = 0;
+        for (double w : args) {
+          total += w;
+        }
+        double target = rng.nextDouble() * total;
+        double running = 0;
+        for (int k = 0; k < args.length; k++) {
+          running += args[k];
+          if (target < running) {
+            return k + 1;
+          }
+        }
+        return args.length;
       }
       default:
         throw new IllegalArgumentException(

@@ -90,6 +90,18 @@ final class NegativeBinomial {
       return -Math.exp(logDerivative - logScale);
     }
 
+    // lgamma(x + size) - lgamma(x + 1) + x log(mean/(size + mean)): differences
+    // log((x + size)/(x + 1)) + const, falling in x exactly when size >= 1.
+    @Override
+    public Curvature curvatureInWholeValue(double[] knownArgs) {
+      return known(knownArgs, 1) && knownArgs[1] >= 1
+          ? Curvature.concave("negative-binomial log mass has differences log((x + size)/(x + 1))"
+              + " + log(mean/(size + mean)), falling in x since size >= 1")
+          : Curvature.notEstablished("negative-binomial log mass is concave in a whole value only"
+              + " for a known size >= 1 (its differences log((x + size)/(x + 1)) rise when size"
+              + " < 1)");
+    }
+
     @Override
     public Curvature curvatureInArgument(int k, Scale scale, double[] knownArgs) {
       if (k == 0) {

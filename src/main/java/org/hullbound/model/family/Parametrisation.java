@@ -120,4 +120,30 @@ public interface Parametrisation {
    * @param knownArgs the arguments, with {@code NaN} for those that are unknown
    */
   Curvature curvatureInArgument(int k, Scale scale, double[] knownArgs);
+
+  /**
+   * For a discrete family: whether the log mass, as a function of the whole value, has
+   * non-increasing differences {@code h(x + 1) - h(x)} (it is discretely log-concave) for every
+   * value of the unknown arguments, which makes a latent count's conditional drawable by the
+   * integer hull ({@code hull.DiscreteAdaptiveRejection}).
+   *
+   * @param knownArgs the arguments, with {@code NaN} for those that are unknown
+   */
+  default Curvature curvatureInWholeValue(double[] knownArgs) {
+    return Curvature.notEstablished(
+        "no rule shows the " + family().name() + " log mass concave in a whole value");
+  }
+
+  /**
+   * Whether the log mass, as a function of the whole-number argument {@code k} (binomial {@code
+   * trials}), has non-increasing differences for every value in the support and of the other
+   * unknown arguments.
+   *
+   * @param knownArgs the arguments, with {@code NaN} for those that are unknown
+   */
+  default Curvature curvatureInWholeArgument(int k, double[] knownArgs) {
+    return Curvature.notEstablished(
+        "no rule shows the " + family().name() + " log mass concave in its whole argument "
+            + argumentNames().get(k));
+  }
 }

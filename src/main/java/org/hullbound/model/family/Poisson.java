@@ -48,6 +48,13 @@ final class Poisson {
       return IncompleteGamma.logLower(n + 1.0, rate(args));
     }
 
+    // x log(rate) - lgamma(x + 1): differences log(rate) - log(x + 1) fall in x.
+    @Override
+    public final Curvature curvatureInWholeValue(double[] knownArgs) {
+      return Curvature.concave(
+          "poisson log mass has differences log(rate) - log(x + 1), falling in x");
+    }
+
     /** d rate / d argument. */
     abstract double rateSlope(double[] args);
 

@@ -41,6 +41,8 @@ class FamiliesTest {
     TABLE.put("binomial", List.of(List.of("trials", "p"), List.of("trials", "logit_p")));
     TABLE.put("bernoulli", List.of(List.of("p"), List.of("logit_p")));
     TABLE.put("negative-binomial", List.of(List.of("mean", "size")));
+    TABLE.put("categorical", List.of(List.of("p")));
+    TABLE.put("whole-uniform", List.of(List.of("lower", "upper")));
   }
 
   @Test

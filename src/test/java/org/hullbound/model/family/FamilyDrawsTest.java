@@ -127,7 +127,14 @@ final class FamilyDrawsTest {
         discrete("bernoulli", new String[] {"p"}, new double[] {0.7}, new BinomialDistribution(1, 0.7)),
         discrete("bernoulli", new String[] {"logit_p"}, new double[] {-2}, new BinomialDistribution(1, 1 / (1 + Math.exp(2)))),
         // negative-binomial(mean, size): commons-math's Pascal(r = size, p = size / (size + mean)) counts failures.
-        discrete("negative-binomial", new String[] {"mean", "size"}, new double[] {6, 3}, new PascalDistribution(3, 3.0 / 9)));
+        discrete("negative-binomial", new String[] {"mean", "size"}, new double[] {6, 3}, new PascalDistribution(3, 3.0 / 9)),
+        discrete("whole-uniform", new String[] {"lower", "upper"}, new double[] {-3, 12},
+            new org.apache.commons.math3.distribution.UniformIntegerDistribution(-3, 12)),
+        Arguments.of("categorical[0.5, 0.2, 0.3]",
+            Categorical.withCategories(parametrisation("categorical", "p"), 3),
+            new double[] {0.5, 0.2, 0.3},
+            new org.apache.commons.math3.distribution.EnumeratedIntegerDistribution(
+                new int[] {1, 2, 3}, new double[] {0.5, 0.2, 0.3})));
   }
 
   /**
