@@ -5,6 +5,7 @@ import java.util.List;
 import java.util.Optional;
 import org.hullbound.gibbs.RunSettings;
 import org.hullbound.report.PredictiveChecks;
+import org.hullbound.report.ReportInput;
 import org.hullbound.report.SummaryTable;
 import org.hullbound.report.Verdicts;
 
@@ -39,13 +40,17 @@ public record FitResult(
   }
 
   /**
-   * The summary of a run that kept draws: the table, its verdicts, where the table is, and the
-   * posterior predictive checks ({@link PredictiveChecks#none()} when not asked for).
+   * The summary of a run that kept draws: the table, its verdicts, where the table is, the
+   * posterior predictive checks ({@link PredictiveChecks#none()} when not asked for), and what the
+   * report page was rendered from (null for a summary made outside a run), so that a caller can
+   * render it again with more sections ({@link FitRun#rewriteReport}).
    */
-  public record Summary(SummaryTable table, Verdicts verdicts, Path file, PredictiveChecks checks) {
+  public record Summary(
+      SummaryTable table, Verdicts verdicts, Path file, PredictiveChecks checks,
+      ReportInput report) {
     /** A summary without predictive checks. */
     public Summary(SummaryTable table, Verdicts verdicts, Path file) {
-      this(table, verdicts, file, PredictiveChecks.none());
+      this(table, verdicts, file, PredictiveChecks.none(), null);
     }
   }
 }

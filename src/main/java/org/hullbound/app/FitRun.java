@@ -39,6 +39,7 @@ import org.hullbound.model.EmptyCells;
 import org.hullbound.model.Unknown;
 import org.hullbound.report.HtmlReport;
 import org.hullbound.report.PredictiveChecks;
+import org.hullbound.report.ProbabilityTable;
 import org.hullbound.report.ReportInput;
 import org.hullbound.report.ReportOptions;
 import org.hullbound.report.ReportWriter;
@@ -573,13 +574,14 @@ public final class FitRun implements AutoCloseable {
       checks = predictiveChecks(replicates);
       AtomicFiles.write(folder.resolve(PredictiveChecks.FILE_NAME), checks.csv());
     }
-    Path reportFile = writeReport(folder,
+    ReportInput page =
         ReportInput.of(header, table, verdicts, kepts,
                 ReportOptions.defaults().withIntervalLevel(request.level()))
-            .withSources(sources), checks);
+            .withSources(sources);
+    Path reportFile = writeReport(folder, page, checks);
     return new FitResult(
         model.name(), settings, folder, outcome.stoppedEarly(), kept, summarised,
-        java.util.Optional.of(new FitResult.Summary(table, verdicts, summaryFile, checks)),
+        java.util.Optional.of(new FitResult.Summary(table, verdicts, summaryFile, checks, page)),
         switchNotes, imputed, drawsFile, reportFile);
   }
 
@@ -646,6 +648,29 @@ public final class FitRun implements AutoCloseable {
   /** Renders the page and writes it atomically; returns its path. */
   private static Path writeReport(Path folder, ReportInput input) {
     return writeReport(folder, input, PredictiveChecks.none());
+  }
+
+  /**
+   * Renders the report of {@code result} again with the probability statements of {@code
+   * probabilities} (computed by the caller from the draws after the run, so that a statement naming
+   * no unknown costs no draw) and writes it over the first; returns its path.
+   *
+   * @throws IllegalArgumentException if {@code result} kept no draws or an argument is null
+   */
+  public static Path rewriteReport(FitResult result, ProbabilityTable probabilities) {
+    if (result == null || probabilities == null
+        || result.summary().isEmpty() || result.summary().get().report() == null) {
+      throw new IllegalArgumentException("result must have kept draws; probabilities not null");
+    }
+    FitResult.Summary summary = result.summary().get();
+    Path file = result.reportFile();
+    try {
+      ReportWriter.writeAtomically(
+          file, HtmlReport.render(summary.report(), summary.checks(), probabilities));
+    } catch (IOException e) {
+      throw new UncheckedIOException("cannot write " + file + ": " + e.getMessage(), e);
+    }
+    return file;
   }
 
   private static Path writeReport(Path folder, ReportInput input, PredictiveChecks checks) {

@@ -160,6 +160,7 @@ public final class FitCommand implements Callable<Integer> {
               ProbabilityOption.estimate(probability.expand(draws.variables()), draws::draws);
           stdout.print(ProbabilityOption.text(estimates));
           stdout.println("probabilities: " + ProbabilityOption.write(result.folder(), estimates));
+          FitRun.rewriteReport(result, ProbabilityOption.table(estimates));
           stdout.flush();
         }
         if (result.stoppedEarly()) {

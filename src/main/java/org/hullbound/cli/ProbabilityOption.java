@@ -1,5 +1,7 @@
 package org.hullbound.cli;
 
+import java.io.IOException;
+import java.io.StringReader;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
@@ -7,11 +9,14 @@ import java.util.Locale;
 import java.util.function.Function;
 import java.util.regex.Matcher;
 import java.util.regex.Pattern;
+import org.apache.commons.csv.CSVFormat;
+import org.apache.commons.csv.CSVRecord;
 import org.hullbound.app.RunRefusedException;
 import org.hullbound.diagnostics.Draws;
 import org.hullbound.diagnostics.TailShare;
 import org.hullbound.io.AtomicFiles;
 import org.hullbound.lang.NumberSyntax;
+import org.hullbound.report.ProbabilityTable;
 import picocli.CommandLine.Option;
 
 /**
@@ -151,6 +156,42 @@ public final class ProbabilityOption {
 
   private static String written(double value) {
     return Double.isNaN(value) ? "" : Double.toString(value);
+  }
+
+  /** The estimates as the report's table of probability statements. */
+  static ProbabilityTable table(List<Estimate> estimates) {
+    List<ProbabilityTable.Row> rows = new ArrayList<>();
+    for (Estimate e : estimates) {
+      rows.add(new ProbabilityTable.Row(
+          e.statement().text(), e.share().estimate(), e.share().mcse()));
+    }
+    return ProbabilityTable.of(rows);
+  }
+
+  /**
+   * The table of a {@value #FILE_NAME} that {@link #csv} wrote, read back for a page drawn again
+   * from a run folder.
+   *
+   * @throws IllegalArgumentException when {@code text} is not such a file
+   */
+  static ProbabilityTable fromCsv(String text) {
+    List<ProbabilityTable.Row> rows = new ArrayList<>();
+    try {
+      for (CSVRecord r : CSVFormat.RFC4180.builder().setHeader().setSkipHeaderRecord(true).get()
+          .parse(new StringReader(text)).getRecords()) {
+        Statement statement =
+            new Statement(r.get("unknown"), r.get("side").equals("above"),
+                NumberSyntax.parse(r.get("value")));
+        String mcse = r.get("mcse");
+        rows.add(new ProbabilityTable.Row(
+            statement.text(), Double.parseDouble(r.get("probability")),
+            mcse.isEmpty() ? Double.NaN : Double.parseDouble(mcse)));
+      }
+    } catch (IOException | RuntimeException bad) {
+      throw new IllegalArgumentException(
+          "not a table of probability statements: " + bad.getMessage(), bad);
+    }
+    return ProbabilityTable.of(rows);
   }
 
   /** Writes {@link #csv} to {@value #FILE_NAME} in {@code folder}; returns the file. */

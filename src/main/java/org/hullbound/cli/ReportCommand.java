@@ -33,6 +33,7 @@ import org.hullbound.io.DrawsWriter;
 import org.hullbound.model.DataSummary;
 import org.hullbound.report.HtmlReport;
 import org.hullbound.report.PredictiveChecks;
+import org.hullbound.report.ProbabilityTable;
 import org.hullbound.report.ReportInput;
 import org.hullbound.report.ReportOptions;
 import org.hullbound.report.ReportWriter;
@@ -175,7 +176,9 @@ public final class ReportCommand implements Callable<Integer> {
             header, warnings, built.conclusion(), built.unknowns(), options, sources);
     Path target = out != null ? out : folder.resolve(FitRun.REPORT_FILE);
     ReportWriter.writeAtomically(
-        target, HtmlReport.render(input, predictiveChecks(folder, stderr)));
+        target,
+        HtmlReport.render(
+            input, predictiveChecks(folder, stderr), probabilityStatements(folder, stderr)));
     stdout.println("report: " + target);
     stdout.flush();
     return 0;
@@ -210,6 +213,21 @@ public final class ReportCommand implements Callable<Integer> {
           + "), so the page shows no predictive checks");
       stderr.flush();
       return PredictiveChecks.none();
+    }
+  }
+
+  private static ProbabilityTable probabilityStatements(Path folder, PrintWriter stderr) {
+    Path file = folder.resolve(ProbabilityOption.FILE_NAME);
+    if (!Files.isRegularFile(file)) {
+      return ProbabilityTable.none();
+    }
+    try {
+      return ProbabilityOption.fromCsv(Files.readString(file));
+    } catch (IOException | IllegalArgumentException unreadable) {
+      stderr.println("hullbound report: note: cannot read " + file + " (" + unreadable.getMessage()
+          + "), so the page shows no probability statements");
+      stderr.flush();
+      return ProbabilityTable.none();
     }
   }
 

@@ -44,8 +44,19 @@ public final class HtmlReport {
    * @throws IllegalArgumentException if an argument is null
    */
   public static String render(ReportInput input, PredictiveChecks checks) {
-    if (input == null || checks == null) {
-      throw new IllegalArgumentException("input and checks must not be null");
+    return render(input, checks, ProbabilityTable.none());
+  }
+
+  /**
+   * The complete report page with the user's probability statements and the posterior predictive
+   * checks after the summary.
+   *
+   * @throws IllegalArgumentException if an argument is null
+   */
+  public static String render(
+      ReportInput input, PredictiveChecks checks, ProbabilityTable probabilities) {
+    if (input == null || checks == null || probabilities == null) {
+      throw new IllegalArgumentException("input, checks and probabilities must not be null");
     }
     StringBuilder html = new StringBuilder(64 * 1024);
     String model =
@@ -58,10 +69,11 @@ public final class HtmlReport {
         .append(Style.CSS)
         .append("</style></head>\n<body><main>\n");
     header(html, input, model);
-    contents(html, input, checks);
+    contents(html, input, checks, probabilities);
     warnings(html, input.warnings(), input.conclusion());
     sources(html, input.sources());
     table(html, input);
+    probabilities.section(html);
     checks.section(html);
     IndexedIntervals.section(html, input);
     PairPlots.section(html, input);
@@ -91,13 +103,18 @@ public final class HtmlReport {
   }
 
   /** The table of contents: the page's sections, and each plotted unknown by name. */
-  private static void contents(StringBuilder html, ReportInput input, PredictiveChecks checks) {
+  private static void contents(
+      StringBuilder html, ReportInput input, PredictiveChecks checks,
+      ProbabilityTable probabilities) {
     html.append("<nav class=\"contents\" id=\"contents\"><h2>On this page</h2><ol>")
         .append("<li><a href=\"#warnings\">Warnings</a></li>");
     if (!input.sources().isEmpty()) {
       html.append("<li><a href=\"#sources\">Model and data</a></li>");
     }
     html.append("<li><a href=\"#summary\">Summary</a></li>");
+    if (probabilities.hasSection()) {
+      html.append("<li><a href=\"#probabilities\">Probability statements</a></li>");
+    }
     if (checks.hasSection()) {
       html.append("<li><a href=\"#predictive\">Posterior predictive checks</a></li>");
     }
@@ -667,7 +684,8 @@ public final class HtmlReport {
         th,td{padding:4px 10px;text-align:right;white-space:nowrap;
           border-bottom:1px solid var(--rule)}
         th{font-weight:600;font-size:12.5px;color:var(--muted);border-bottom:1.5px solid var(--ink)}
-        th:first-child,td.name,.text{text-align:left}
+        th:first-child,td.name,td.statement,.text{text-align:left}
+        table.probabilities{min-width:0}
         tr.groups th{text-align:center;text-transform:uppercase;letter-spacing:.08em;
           font-size:11px;border-bottom:1px solid var(--rule)}
         tr.groups th+th{border-left:2px solid var(--rule)}

@@ -54,4 +54,33 @@ class ProbabilityOptionTest {
     assertEquals("unknown,side,value,probability,mcse,indicator_ess", lines.get(0));
     assertTrue(lines.get(1).startsWith("\"spread\",below,0.5,"), lines.toString());
   }
+
+  @Test
+  void theReportShowsTheStatementsAfterFitAndAfterReportDir() throws Exception {
+    Path out = folder.resolve("run");
+    CliRun run = CliRun.of("fit", "models/seedlings.hbm", "--data", "models/seedlings.csv",
+        "--quiet", "--seed", "2", "--draws", "200", "--burn-in", "200", "--out", out.toString(),
+        "--probability", "effect[1..2] > 0");
+    assertEquals(0, run.exit(), run.toString());
+    // the share printed on the terminal is the one the page shows, to its four decimals
+    String printed = run.out().substring(run.out().indexOf("P(effect[1] > 0) = ") + 19);
+    String share = printed.substring(0, 6);
+    for (String page : List.of(
+        Files.readString(out.resolve("report.html")), rerendered(out))) {
+      int section = page.indexOf("<section id=\"probabilities\">");
+      assertTrue(section > page.indexOf("id=\"summary\""), "the statements follow the summary");
+      assertTrue(page.contains("<a href=\"#probabilities\">"), "the contents link to them");
+      String table = page.substring(section, page.indexOf("</section>", section));
+      assertTrue(table.contains("<td class=\"statement\">effect[1] &gt; 0</td><td>" + share),
+          table);
+      assertTrue(table.contains("<td class=\"statement\">effect[2] &gt; 0</td>"), table);
+    }
+  }
+
+  private static String rerendered(Path out) throws Exception {
+    Files.delete(out.resolve("report.html"));
+    CliRun report = CliRun.of("report", out.toString());
+    assertEquals(0, report.exit(), report.toString());
+    return Files.readString(out.resolve("report.html"));
+  }
 }
