@@ -220,7 +220,7 @@ public final class CheckpointFile {
       if (parts[k].length() != 16) {
         throw new IllegalArgumentException("expected 16 hexadecimal digits, got '" + parts[k] + "'");
       }
-      words[k] = HEX.fromHexDigitsToLong(parts[k]);
+      words[k] = HexFormat.fromHexDigitsToLong(parts[k]);
     }
     return words;
   }

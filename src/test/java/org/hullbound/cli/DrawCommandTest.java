@@ -124,12 +124,12 @@ class DrawCommandTest {
           }
 
           @Override
-          public boolean isSupportLowerBoundInclusive() {
+          @SuppressWarnings("deprecation") public boolean isSupportLowerBoundInclusive() {
             return true;
           }
 
           @Override
-          public boolean isSupportUpperBoundInclusive() {
+          @SuppressWarnings("deprecation") public boolean isSupportUpperBoundInclusive() {
             return true;
           }
 

@@ -70,12 +70,12 @@ class FallbackSwitchTest {
     }
 
     @Override
-    public boolean isSupportLowerBoundInclusive() {
+    @SuppressWarnings("deprecation") public boolean isSupportLowerBoundInclusive() {
       return false;
     }
 
     @Override
-    public boolean isSupportUpperBoundInclusive() {
+    @SuppressWarnings("deprecation") public boolean isSupportUpperBoundInclusive() {
       return false;
     }
 

@@ -68,12 +68,12 @@ class PredictiveDrawTest {
           }
 
           @Override
-          public boolean isSupportLowerBoundInclusive() {
+          @SuppressWarnings("deprecation") public boolean isSupportLowerBoundInclusive() {
             return true;
           }
 
           @Override
-          public boolean isSupportUpperBoundInclusive() {
+          @SuppressWarnings("deprecation") public boolean isSupportUpperBoundInclusive() {
             return true;
           }
 

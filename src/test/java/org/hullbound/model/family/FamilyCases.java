@@ -91,6 +91,7 @@ final class FamilyCases {
   }
 
   @SafeVarargs
+  @SuppressWarnings("varargs") // each is only read, so handing it on to List.of is safe
   static Arbitrary<double[]> args(Arbitrary<Double>... each) {
     return Combinators.combine(List.of(each))
         .as(list -> list.stream().mapToDouble(Double::doubleValue).toArray());

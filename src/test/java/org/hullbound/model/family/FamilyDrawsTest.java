@@ -231,8 +231,8 @@ final class FamilyDrawsTest {
       @Override public double getNumericalVariance() { return Double.NaN; }
       @Override public double getSupportLowerBound() { return lower; }
       @Override public double getSupportUpperBound() { return upper; }
-      @Override public boolean isSupportLowerBoundInclusive() { return true; }
-      @Override public boolean isSupportUpperBoundInclusive() { return true; }
+      @Override @SuppressWarnings("deprecation") public boolean isSupportLowerBoundInclusive() { return true; }
+      @Override @SuppressWarnings("deprecation") public boolean isSupportUpperBoundInclusive() { return true; }
       @Override public boolean isSupportConnected() { return true; }
     };
     double pValue = new KolmogorovSmirnovTest().kolmogorovSmirnovTest(truncated, draws);
@@ -366,8 +366,8 @@ final class FamilyDrawsTest {
       @Override public double getNumericalVariance() { return Double.NaN; }
       @Override public double getSupportLowerBound() { return Double.NEGATIVE_INFINITY; }
       @Override public double getSupportUpperBound() { return Double.POSITIVE_INFINITY; }
-      @Override public boolean isSupportLowerBoundInclusive() { return false; }
-      @Override public boolean isSupportUpperBoundInclusive() { return false; }
+      @Override @SuppressWarnings("deprecation") public boolean isSupportLowerBoundInclusive() { return false; }
+      @Override @SuppressWarnings("deprecation") public boolean isSupportUpperBoundInclusive() { return false; }
       @Override public boolean isSupportConnected() { return true; }
     };
   }
