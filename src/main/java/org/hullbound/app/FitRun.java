@@ -397,8 +397,8 @@ public final class FitRun implements AutoCloseable {
     }
   }
 
-  /** The columns of the draws: the unknowns, then the kept derived quantities. */
-  private List<String> columns() {
+  /** The columns of draws.csv: every scalar unknown, then the kept derived quantities. */
+  public List<String> columns() {
     List<String> columns = new ArrayList<>(sampler.labels());
     columns.addAll(model.derived().labels());
     return columns;

@@ -146,6 +146,10 @@ public final class FitCommand implements Callable<Integer> {
           }
           stderr.flush();
         }
+        if (probability.given()) {
+          // before sampling: a statement that is malformed or names no column costs no draw
+          probability.expand(run.columns());
+        }
         FitResult result;
         try {
           result = run.run(listener, stop);

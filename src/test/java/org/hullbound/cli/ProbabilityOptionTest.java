@@ -77,6 +77,18 @@ class ProbabilityOptionTest {
     }
   }
 
+  @Test
+  void fitRefusesAStatementNamingNoColumnBeforeItSamples() throws Exception {
+    Path out = folder.resolve("refused");
+    CliRun run = CliRun.of("fit", "models/seedlings.hbm", "--data", "models/seedlings.csv",
+        "--quiet", "--seed", "2", "--draws", "200", "--burn-in", "200", "--out", out.toString(),
+        "--probability", "efect[1] > 0");
+    assertEquals(2, run.exit(), run.toString());
+    assertTrue(run.errorIsPlain(), run.toString());
+    assertTrue(run.err().contains("efect[1]"), run.err());
+    assertTrue(!Files.exists(out.resolve("draws.csv")), "nothing was sampled");
+  }
+
   private static String rerendered(Path out) throws Exception {
     Files.delete(out.resolve("report.html"));
     CliRun report = CliRun.of("report", out.toString());
