@@ -24,13 +24,18 @@ public final class Verdicts {
   public static final double DEFAULT_MIN_ESS = 400;
 
   private final List<Verdict> verdicts;
+  /** Rows judged: the unknowns and the kept derived quantities. */
   private final int unknowns;
+  /** Of those, the derived quantities (kept {@code let}s), which the closing line names apart. */
+  private final int derived;
   private final double maxRhat;
   private final double minEss;
 
-  private Verdicts(List<Verdict> verdicts, int unknowns, double maxRhat, double minEss) {
+  private Verdicts(
+      List<Verdict> verdicts, int unknowns, int derived, double maxRhat, double minEss) {
     this.verdicts = verdicts;
     this.unknowns = unknowns;
+    this.derived = derived;
     this.maxRhat = maxRhat;
     this.minEss = minEss;
   }
@@ -60,7 +65,12 @@ public final class Verdicts {
     for (VariableSummary summary : table.summaries()) {
       judge(summary, table.updates().get(summary.name()), maxRhat, minEss, found);
     }
-    return new Verdicts(List.copyOf(found), table.summaries().size(), maxRhat, minEss);
+    int derived = 0;
+    for (VariableSummary summary : table.summaries()) {
+      UpdateFacts facts = table.updates().get(summary.name());
+      derived += facts != null && facts.isDerived() ? 1 : 0;
+    }
+    return new Verdicts(List.copyOf(found), table.summaries().size(), derived, maxRhat, minEss);
   }
 
   /** The findings, unknown by unknown in table order; empty when all is well. */
@@ -86,8 +96,9 @@ public final class Verdicts {
       lines.add("no unknowns to judge");
     } else if (verdicts.isEmpty()) {
       lines.add(
-          (unknowns == 1 ? "The unknown looks"
-              : unknowns == 2 ? "Both unknowns look" : "All " + unknowns + " unknowns look")
+          (unknowns == 1 ? "The " + noun(1) + " looks"
+              : unknowns == 2 ? "Both " + noun(2) + " look"
+                  : "All " + unknowns + " " + noun(unknowns) + " look")
               + " converged: R-hat at most "
               + plain(maxRhat)
               + ", bulk-ESS and tail-ESS at least "
@@ -96,14 +107,30 @@ public final class Verdicts {
     } else {
       long flagged = verdicts.stream().map(Verdict::unknown).distinct().count();
       lines.add(
-          (unknowns == 1 ? "The unknown needs"
+          (unknowns == 1 ? "The " + noun(1) + " needs"
               : flagged == unknowns
-                  ? (unknowns == 2 ? "Both unknowns need" : "All " + unknowns + " unknowns need")
-                  : flagged + " of " + unknowns + " unknowns " + (flagged == 1 ? "needs" : "need"))
+                  ? (unknowns == 2 ? "Both " + noun(2) + " need"
+                      : "All " + unknowns + " " + noun(unknowns) + " need")
+                  : flagged + " of " + unknowns + " " + noun(unknowns) + " "
+                      + (flagged == 1 ? "needs" : "need"))
               + " attention (see above)"
               + (flagged < unknowns ? "; the others look converged." : "."));
     }
     return List.copyOf(lines);
+  }
+
+  /**
+   * What the closing line counts: "unknowns", or, when kept derived quantities are among the rows,
+   * "quantities" with the split in brackets, so that a model of 2 unknowns and 5 lets is not
+   * called one of 7 unknowns.
+   */
+  private String noun(int count) {
+    if (derived == 0) {
+      return count == 1 ? "unknown" : "unknowns";
+    }
+    int drawn = unknowns - derived;
+    return (count == 1 ? "quantity" : "quantities") + " (" + drawn
+        + (drawn == 1 ? " unknown, " : " unknowns, ") + derived + " derived)";
   }
 
   private static void judge(

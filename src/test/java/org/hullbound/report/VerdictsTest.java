@@ -76,6 +76,21 @@ class VerdictsTest {
   }
 
   @Test
+  void derivedQuantitiesAreCountedApartFromTheUnknowns() {
+    SummaryTable table =
+        SummaryTable.of(
+            List.of(Summaries.fine("alpha"), Summaries.fine("beta"), Summaries.fine("ld50")),
+            Map.of(
+                "alpha", UpdateFacts.exact("adaptive rejection", 2.9),
+                "beta", UpdateFacts.exact("adaptive rejection", 2.9),
+                "ld50", UpdateFacts.derived()));
+    assertEquals(
+        "All 3 quantities (2 unknowns, 1 derived) look converged: R-hat at most 1.01, bulk-ESS"
+            + " and tail-ESS at least 400, no fallback update.",
+        Verdicts.of(table).lines().get(0));
+  }
+
+  @Test
   void anUnknownNamedLikeTheWordingStillReadsOnce() {
     // The bulk finding once said "for the centre", which read twice for an unknown called centre.
     String text = judge(Summaries.converged("centre", 1.0, 1.0, 212, 3000)).verdicts().get(0).text();
