@@ -31,6 +31,7 @@ import org.hullbound.io.DrawsReader;
 import org.hullbound.io.DrawsTable;
 import org.hullbound.io.DrawsWriter;
 import org.hullbound.model.DataSummary;
+import org.hullbound.lang.NumberSyntax;
 import org.hullbound.report.HtmlReport;
 import org.hullbound.report.PredictiveChecks;
 import org.hullbound.report.ProbabilityTable;
@@ -248,7 +249,11 @@ public final class ReportCommand implements Callable<Integer> {
           continue;
         }
         String evaluations = row.get("evaluations_per_draw");
-        double perDraw = evaluations.isBlank() ? Double.NaN : Double.parseDouble(evaluations);
+        // the file writes an undefined cost as NaN; every other number in the language's grammar
+        double perDraw =
+            evaluations.isBlank() || evaluations.equals("NaN")
+                ? Double.NaN
+                : NumberSyntax.parse(evaluations);
         String sweep = row.get("fallback_sweep");
         UpdateFacts fact =
             switch (row.get("fallback")) {
@@ -256,7 +261,7 @@ public final class ReportCommand implements Callable<Integer> {
               case "no" -> UpdateFacts.exact(update, perDraw);
               default ->
                   UpdateFacts.switchedToFallback(
-                      update, perDraw, sweep.isBlank() ? 0 : Long.parseLong(sweep));
+                      update, perDraw, sweep.isBlank() ? 0 : NumberSyntax.parseWhole(sweep));
             };
         facts.put(row.get("unknown"), fact);
       }

@@ -119,4 +119,21 @@ class ReportCommandTest {
     assertEquals("fill_weights", ReportCommand.modelName("", "models/fill_weights.hbm"));
     assertEquals("", ReportCommand.modelName("", ""));
   }
+
+  @Test
+  void updateFactsAreReadInTheLanguagesNumberGrammarOnly() throws Exception {
+    Path summary = shared.resolve("facts").resolve("summary.csv");
+    Files.createDirectories(summary.getParent());
+    String header = "unknown,update,evaluations_per_draw,fallback,fallback_sweep\n";
+    java.io.StringWriter notes = new java.io.StringWriter();
+    Files.writeString(summary, header + "a,adaptive rejection,2.5,no,\nb,ARMS fallback,7,switched,120\n"
+        + "c,derived,NaN,no,\n");
+    var facts = ReportCommand.updateFacts(summary, new java.io.PrintWriter(notes));
+    assertEquals(3, facts.size(), notes.toString());
+    assertEquals(120, facts.get("b").switchSweep());
+    // Java's own forms (a type suffix here) are not numbers of the language: the file is not used
+    Files.writeString(summary, header + "a,adaptive rejection,2.5d,no,\n");
+    assertTrue(ReportCommand.updateFacts(summary, new java.io.PrintWriter(notes)).isEmpty());
+    assertTrue(notes.toString().contains("could not be read"), notes.toString());
+  }
 }
