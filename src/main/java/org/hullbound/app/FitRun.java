@@ -83,11 +83,14 @@ public final class FitRun implements AutoCloseable {
   private final FolderLock lock;
   private final List<String> notes;
   private final PredictiveOptions predictive;
+  /** The test quantities of the predictive checks; null when they were not asked for. */
+  private final TestQuantities tests;
   private boolean sampled;
 
   private FitRun(
       FitRequest request, BoundModel model, ModelSampler sampler, RunSettings settings,
-      Checkpoint checkpoint, FolderLock lock, List<String> notes, PredictiveOptions predictive) {
+      Checkpoint checkpoint, FolderLock lock, List<String> notes, PredictiveOptions predictive,
+      TestQuantities tests) {
     this.request = request;
     this.model = model;
     this.sampler = sampler;
@@ -96,6 +99,7 @@ public final class FitRun implements AutoCloseable {
     this.lock = lock;
     this.notes = notes;
     this.predictive = predictive;
+    this.tests = tests;
   }
 
   /**
@@ -150,7 +154,9 @@ public final class FitRun implements AutoCloseable {
       CheckpointFile.read(folder);
     }
     List<String> notes = new ArrayList<>();
-    if (predictive.checks() && TestQuantities.of(model).quantities().isEmpty()) {
+    // Once here: finding them walks every term of the model.
+    TestQuantities tests = predictive.checks() ? TestQuantities.of(model) : null;
+    if (tests != null && tests.quantities().isEmpty()) {
       notes.add("the model has no observed modelled data, so there is nothing to check against"
           + " replicates");
     }
@@ -189,7 +195,8 @@ public final class FitRun implements AutoCloseable {
         settings = settings.withThreads(request.threads());
       }
       return new FitRun(
-          request, model, sampler, settings, checkpoint, lock, List.copyOf(notes), predictive);
+          request, model, sampler, settings, checkpoint, lock, List.copyOf(notes), predictive,
+          tests);
     } catch (RuntimeException refused) {
       lock.releaseAndRemoveIfEmpty();
       throw refused;
@@ -247,7 +254,6 @@ public final class FitRun implements AutoCloseable {
     ReplicatedStatistics replicates = null;
     DrawsWriter replicatesWriter = null;
     if (predictive.checks()) {
-      TestQuantities tests = TestQuantities.of(model);
       if (predictive.writeReplicates()) {
         List<String> columns = new ArrayList<>();
         for (int node = 0; node < tests.nodes().size(); node++) {
@@ -663,20 +669,18 @@ public final class FitRun implements AutoCloseable {
       throw new IllegalArgumentException("result must have kept draws; probabilities not null");
     }
     FitResult.Summary summary = result.summary().get();
-    Path file = result.reportFile();
-    try {
-      ReportWriter.writeAtomically(
-          file, HtmlReport.render(summary.report(), summary.checks(), probabilities));
-    } catch (IOException e) {
-      throw new UncheckedIOException("cannot write " + file + ": " + e.getMessage(), e);
-    }
-    return file;
+    return writeReport(result.folder(), summary.report(), summary.checks(), probabilities);
   }
 
   private static Path writeReport(Path folder, ReportInput input, PredictiveChecks checks) {
+    return writeReport(folder, input, checks, ProbabilityTable.none());
+  }
+
+  private static Path writeReport(
+      Path folder, ReportInput input, PredictiveChecks checks, ProbabilityTable probabilities) {
     Path file = folder.resolve(REPORT_FILE);
     try {
-      ReportWriter.writeAtomically(file, HtmlReport.render(input, checks));
+      ReportWriter.writeAtomically(file, HtmlReport.render(input, checks, probabilities));
     } catch (IOException e) {
       throw new UncheckedIOException("cannot write " + file + ": " + e.getMessage(), e);
     }

@@ -14,6 +14,7 @@ import java.util.List;
 import java.util.Map;
 import java.util.Optional;
 import java.util.concurrent.Callable;
+import java.util.function.Function;
 import java.util.regex.Matcher;
 import java.util.regex.Pattern;
 import org.apache.commons.csv.CSVFormat;
@@ -179,7 +180,11 @@ public final class ReportCommand implements Callable<Integer> {
     ReportWriter.writeAtomically(
         target,
         HtmlReport.render(
-            input, predictiveChecks(folder, stderr), probabilityStatements(folder, stderr)));
+            input,
+            readBack(folder.resolve(PredictiveChecks.FILE_NAME), PredictiveChecks::fromCsv,
+                PredictiveChecks.none(), "predictive checks", stderr),
+            readBack(folder.resolve(ProbabilityOption.FILE_NAME), ProbabilityOption::fromCsv,
+                ProbabilityTable.none(), "probability statements", stderr)));
     stdout.println("report: " + target);
     stdout.flush();
     return 0;
@@ -198,40 +203,29 @@ public final class ReportCommand implements Callable<Integer> {
   }
 
   /**
+   * The table of an optional section, read back from {@code file} in the run folder: {@code none}
+   * when the file is absent (the run did not ask for that section) or unreadable (a note says so),
+   * since the page can be drawn without it.
+   */
+  private static <T> T readBack(
+      Path file, Function<String, T> parse, T none, String section, PrintWriter stderr) {
+    if (!Files.isRegularFile(file)) {
+      return none;
+    }
+    try {
+      return parse.apply(Files.readString(file));
+    } catch (IOException | IllegalArgumentException unreadable) {
+      stderr.println("hullbound report: note: cannot read " + file + " (" + unreadable.getMessage()
+          + "), so the page shows no " + section);
+      stderr.flush();
+      return none;
+    }
+  }
+
+  /**
    * The update facts of each unknown from fit's summary.csv; none when the file is missing or
    * unreadable (a note says so), since the page can be drawn without them.
    */
-  /** The p-values of {@code fit --replicate-checks}, when the folder has them. */
-  private static PredictiveChecks predictiveChecks(Path folder, PrintWriter stderr) {
-    Path file = folder.resolve(PredictiveChecks.FILE_NAME);
-    if (!Files.isRegularFile(file)) {
-      return PredictiveChecks.none();
-    }
-    try {
-      return PredictiveChecks.fromCsv(Files.readString(file));
-    } catch (IOException | IllegalArgumentException unreadable) {
-      stderr.println("hullbound report: note: cannot read " + file + " (" + unreadable.getMessage()
-          + "), so the page shows no predictive checks");
-      stderr.flush();
-      return PredictiveChecks.none();
-    }
-  }
-
-  private static ProbabilityTable probabilityStatements(Path folder, PrintWriter stderr) {
-    Path file = folder.resolve(ProbabilityOption.FILE_NAME);
-    if (!Files.isRegularFile(file)) {
-      return ProbabilityTable.none();
-    }
-    try {
-      return ProbabilityOption.fromCsv(Files.readString(file));
-    } catch (IOException | IllegalArgumentException unreadable) {
-      stderr.println("hullbound report: note: cannot read " + file + " (" + unreadable.getMessage()
-          + "), so the page shows no probability statements");
-      stderr.flush();
-      return ProbabilityTable.none();
-    }
-  }
-
   static Map<String, UpdateFacts> updateFacts(Path summaryFile, PrintWriter stderr) {
     Map<String, UpdateFacts> facts = new HashMap<>();
     if (!Files.isRegularFile(summaryFile)) {

@@ -62,12 +62,10 @@ public final class Verdicts {
       throw new IllegalArgumentException("minEss must be finite and > 0, got " + minEss);
     }
     List<Verdict> found = new ArrayList<>();
-    for (VariableSummary summary : table.summaries()) {
-      judge(summary, table.updates().get(summary.name()), maxRhat, minEss, found);
-    }
     int derived = 0;
     for (VariableSummary summary : table.summaries()) {
       UpdateFacts facts = table.updates().get(summary.name());
+      judge(summary, facts, maxRhat, minEss, found);
       derived += facts != null && facts.isDerived() ? 1 : 0;
     }
     return new Verdicts(List.copyOf(found), table.summaries().size(), derived, maxRhat, minEss);
