@@ -27,21 +27,15 @@ final class CensoredRows {
     Formula resolve(Expression expression, Map<String, Integer> env);
   }
 
-  /** Makes the positioned error of the model or data file at fault. */
-  @FunctionalInterface
-  interface Errors {
-    ModelException at(SourcePosition position, String problem, String hint);
-  }
-
   private final Censoring clause;
   private final Parametrisation observed;
   private final Parametrisation censored;
   private final Resolver resolver;
-  private final Errors errors;
+  private final BindingErrors errors;
 
   private CensoredRows(
       Censoring clause, Parametrisation observed, Parametrisation censored, Resolver resolver,
-      Errors errors) {
+      BindingErrors errors) {
     this.clause = clause;
     this.observed = observed;
     this.censored = censored;
@@ -55,7 +49,7 @@ final class CensoredRows {
    * @throws ModelException when the family has no distribution function (a discrete family)
    */
   static CensoredRows of(
-      Censoring clause, Parametrisation observed, Resolver resolver, Errors errors) {
+      Censoring clause, Parametrisation observed, Resolver resolver, BindingErrors errors) {
     Parametrisation censored = Censored.of(observed).orElseThrow(() -> errors.at(
         clause.position(),
         "censoring needs a continuous family with a distribution function, and "

@@ -12,7 +12,7 @@ import org.hullbound.model.family.Parametrisation;
  * One declared name of the model while it is being bound: a {@code data}, {@code param} or
  * {@code let} node, its index sets, and (for data) its values element by element.
  *
- * <p>Mutable only inside {@link Binder}; nothing outside the binder sees it.
+ * <p>Mutable only inside the binder's phases ({@link Binder}); nothing outside them sees it.
  */
 final class Node {
   enum Kind {
@@ -39,7 +39,7 @@ final class Node {
   double[] values;
   boolean[] present;
   boolean[] missing;
-  /** Positions of inline values; {@code null} for data read from files (see Binder.cellOf). */
+  /** Positions of inline values; {@code null} for data read from files (see DataBinding.cellOf). */
   SourcePosition[] cells;
   int[] slots;
   String source;

@@ -1,9 +1,8 @@
 package org.hullbound.model;
 
-import java.util.ArrayList;
 import java.util.List;
+import java.util.Map;
 import org.hullbound.lang.Expression;
-import org.hullbound.lang.Functions;
 import org.hullbound.lang.ModelException;
 import org.hullbound.lang.NameSuggestion;
 import org.hullbound.lang.Parser;
@@ -90,61 +89,32 @@ public final class UnivariateExpression {
   }
 
   /** Turns the syntax tree into a folded formula with x in slot 0. */
-  private static final class Resolver {
+  private static final class Resolver implements ExpressionLowering.Leaves {
     private final SourceText source;
+    private final ExpressionLowering lowering;
 
     Resolver(SourceText source) {
       this.source = source;
+      this.lowering = new ExpressionLowering(this, this::error);
     }
 
     Formula resolve(Expression e) {
-      if (e instanceof Expression.Number number) {
-        return Formula.constant(number.value());
-      }
-      if (e instanceof Expression.Negation negation) {
-        return Formulas.apply(Op.NEGATE, List.of(resolve(negation.operand())));
-      }
-      if (e instanceof Expression.Binary binary) {
-        Op op =
-            switch (binary.operator()) {
-              case ADD -> Op.ADD;
-              case SUBTRACT -> Op.SUBTRACT;
-              case MULTIPLY -> Op.MULTIPLY;
-              case DIVIDE -> Op.DIVIDE;
-              case POWER -> Op.POWER;
-            };
-        return Formulas.apply(op, List.of(resolve(binary.left()), resolve(binary.right())));
-      }
-      if (e instanceof Expression.Call call) {
-        return call(call);
-      }
-      if (e instanceof Expression.Sum sum) {
-        throw error(sum.position(), "sum(" + sum.indexSet().text() + ": ...) needs an index set,"
-            + " and an expression in x has none", "write the terms out one by one");
-      }
-      return name((Expression.Name) e);
+      return lowering.lower(e, Map.of());
     }
 
-    private Formula call(Expression.Call call) {
-      String name = call.function().text();
-      Op op = Op.function(name);
-      if (op == null) {
-        throw error(call.function().position(), "unknown function '" + name + "'; the functions"
-            + " are " + String.join(", ", Functions.names()), NameSuggestion.hint(name,
-                Functions.names()));
-      }
-      if (call.arguments().size() != op.arity()) {
-        throw error(call.function().position(), name + " takes " + op.arity() + " argument"
-            + (op.arity() == 1 ? "" : "s") + ", got " + call.arguments().size(), null);
-      }
-      List<Formula> parts = new ArrayList<>();
-      for (Expression argument : call.arguments()) {
-        parts.add(resolve(argument));
-      }
-      return Formulas.apply(op, parts);
+    @Override
+    public Formula sum(Expression.Sum sum, Map<String, Integer> env) {
+      throw error(sum.position(), "sum(" + sum.indexSet().text() + ": ...) needs an index set,"
+          + " and an expression in x has none", "write the terms out one by one");
     }
 
-    private Formula name(Expression.Name reference) {
+    @Override
+    public boolean sums() {
+      return false;
+    }
+
+    @Override
+    public Formula name(Expression.Name reference, Map<String, Integer> env) {
       String name = reference.name().text();
       if (!name.equals(VARIABLE)) {
         throw error(reference.name().position(), "unknown name '" + name + "'; the only variable"

@@ -3,7 +3,6 @@ package org.hullbound.model;
 import java.util.function.Function;
 import org.hullbound.lang.Expression;
 import org.hullbound.lang.ModelException;
-import org.hullbound.lang.SourcePosition;
 
 /**
  * The vector argument of a family that takes one ({@code categorical(p = w)}): the bare name of a
@@ -19,12 +18,6 @@ final class VectorArgument {
   /** What the binder knows of a name: its kind word, its number of index sets, its first set. */
   record Shape(String kind, int dimensions, IndexSet set) {}
 
-  /** Makes the binder's positioned error. */
-  @FunctionalInterface
-  interface Errors {
-    ModelException at(SourcePosition position, String problem, String hint);
-  }
-
   private VectorArgument() {}
 
   /**
@@ -33,7 +26,8 @@ final class VectorArgument {
    * @param shapes the shape of a declared name, {@code null} when there is none
    * @throws ModelException when the argument is not the bare name of a vector
    */
-  static Expression[] expand(Expression argument, Function<String, Shape> shapes, Errors errors) {
+  static Expression[] expand(
+      Expression argument, Function<String, Shape> shapes, BindingErrors errors) {
     String hint = "write the name of a vector declared over one index set, as in data w[k] ="
         + " [0.2, 0.5, 0.3] and categorical(p = w)";
     if (!(argument instanceof Expression.Name name) || !name.indexes().isEmpty()) {

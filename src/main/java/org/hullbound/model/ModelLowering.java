@@ -1,0 +1,232 @@
+package org.hullbound.model;
+
+import static org.hullbound.model.BindingScope.setList;
+
+import java.util.ArrayList;
+import java.util.Arrays;
+import java.util.HashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.Set;
+import java.util.TreeSet;
+import org.hullbound.lang.Expression;
+import org.hullbound.lang.NameSuggestion;
+import org.hullbound.lang.SourcePosition;
+
+/**
+ * The names and sums of a model file lowered to formulas of one element: an index set's bound
+ * value, a data element's constant (which finds its cell for messages), an unknown's slot, a
+ * let's formula (cached per element) and a sum expanded over its set. Numbers, operators and
+ * functions are {@link ExpressionLowering}'s, shared with {@link UnivariateExpression}.
+ *
+ * <p>While a {@code check} is bound ({@link #replicating}), the checked data name's elements are
+ * slots after every unknown, so that one formula serves the observed and the replicated data.
+ */
+final class ModelLowering implements ExpressionLowering.Leaves {
+  private final BindingScope scope;
+  private final DataBinding data;
+  private final ExpressionLowering lowering;
+  private final Map<Node, Formula[]> letCache = new HashMap<>();
+  private Formula.Slot[] slotFormulas = new Formula.Slot[16];
+  /** While a check is resolved: its data name, whose elements are slots from replicatedBase. */
+  private Node replicated;
+  private int replicatedBase;
+
+  ModelLowering(BindingScope scope, DataBinding data) {
+    this.scope = scope;
+    this.data = data;
+    this.lowering = new ExpressionLowering(this, scope::error);
+  }
+
+  /** Resolves {@code e} with the index sets in {@code env} bound to the given elements. */
+  Formula resolve(Expression e, Map<String, Integer> env) {
+    return lowering.lower(e, env);
+  }
+
+  /**
+   * Resolves {@code e} with the elements of data {@code checked} as slots from {@code base}, not
+   * its values (lets are then not cached).
+   */
+  Formula replicating(Node checked, int base, Expression e) {
+    replicated = checked;
+    replicatedBase = base;
+    try {
+      return resolve(e, Map.of());
+    } finally {
+      replicated = null;
+    }
+  }
+
+  @Override
+  public boolean sums() {
+    return true;
+  }
+
+  @Override
+  public Formula sum(Expression.Sum sum, Map<String, Integer> env) {
+    String setName = sum.indexSet().text();
+    IndexSet set = scope.sets.get(setName);
+    if (set == null) {
+      throw scope.error(
+          sum.indexSet().position(),
+          "unknown index set '" + setName + "' in sum",
+          NameSuggestion.hint(setName, scope.indexStatements.keySet()));
+    }
+    if (env.containsKey(setName)) {
+      throw scope.error(
+          sum.indexSet().position(),
+          "sum over '" + setName + "' inside an expression that already runs over '" + setName
+              + "'",
+          null);
+    }
+    List<Formula> terms = new ArrayList<>();
+    Map<String, Integer> inner = new HashMap<>(env);
+    for (int v = set.lower(); v <= set.upper(); v++) {
+      inner.put(setName, v);
+      terms.add(lowering.lower(sum.body(), inner));
+    }
+    return Formulas.apply(Op.ADD, terms);
+  }
+
+  @Override
+  public Formula name(Expression.Name reference, Map<String, Integer> env) {
+    String name = reference.name().text();
+    if (scope.indexStatements.containsKey(name)) {
+      if (!reference.indexes().isEmpty()) {
+        throw scope.error(reference.position(), "index set '" + name + "' cannot be indexed", null);
+      }
+      Integer value = env.get(name);
+      if (value == null) {
+        throw scope.error(
+            reference.position(),
+            "index set '" + name + "' is not bound here; only "
+                + (env.isEmpty() ? "the sets of the statement" : env.keySet().toString())
+                + " can be used as values",
+            null);
+      }
+      return Formula.constant(value);
+    }
+    Node node = scope.nodes.get(name);
+    if (node == null) {
+      Set<String> valid = new TreeSet<>(scope.nodes.keySet());
+      valid.addAll(env.keySet());
+      throw scope.error(
+          reference.position(),
+          "unknown name '" + name + "'",
+          NameSuggestion.hint(name, valid));
+    }
+    List<IndexSet> nodeSets = node.indexSets;
+    if (nodeSets == null && node.kind == Node.Kind.DATA && node.target.indexSets().isEmpty()) {
+      throw data.noScalarValue(node);
+    }
+    if (nodeSets == null) {
+      // Only inline scalars are bound while index bounds are evaluated.
+      throw scope.error(
+          reference.position(),
+          "'" + name + "' cannot be used here: index bounds may use numbers and scalar data"
+              + " only",
+          null);
+    }
+    if (reference.indexes().size() != nodeSets.size()) {
+      throw scope.error(
+          reference.position(),
+          "'" + name + "' runs over " + setList(node.target.indexSets()) + " and needs "
+              + nodeSets.size() + " index" + (nodeSets.size() == 1 ? "" : "es") + ", got "
+              + reference.indexes().size(),
+          nodeSets.isEmpty() ? "write " + name + " without brackets"
+              : "write " + name + setList(node.target.indexSets()));
+    }
+    int[] index = new int[nodeSets.size()];
+    for (int i = 0; i < index.length; i++) {
+      Expression indexExpression = reference.indexes().get(i);
+      IndexSet expected = nodeSets.get(i);
+      if (indexExpression instanceof Expression.Name bare
+          && bare.indexes().isEmpty()
+          && scope.indexStatements.containsKey(bare.name().text())
+          && !bare.name().text().equals(expected.name())) {
+        throw scope.error(
+            bare.position(),
+            "'" + name + "' is indexed by '" + expected.name() + "' here, got index set '"
+                + bare.name().text() + "'",
+            "map one set to the other with integer data, as in " + name + "["
+                + expected.name() + "_of[" + bare.name().text() + "]]");
+      }
+      Formula resolved = resolve(indexExpression, env);
+      if (!(resolved instanceof Formula.Constant c)) {
+        throw scope.error(
+            indexExpression.position(),
+            "the index of '" + name + "' depends on an unknown; indexes must be known data",
+            null);
+      }
+      double v = c.value();
+      if (v != Math.rint(v)) {
+        throw scope.error(
+            blame(c, indexExpression),
+            "index " + v + " of '" + name + "' is not a whole number",
+            "'" + name + "' is indexed by '" + expected.name() + "' (" + expected.range() + ")");
+      }
+      if (!expected.contains(v)) {
+        throw scope.error(
+            blame(c, indexExpression),
+            "index value " + (long) v + " is outside index set '" + expected.name() + "' ("
+                + expected.range() + "), which indexes '" + name + "'",
+            null);
+      }
+      index[i] = (int) v;
+    }
+    int offset = node.offset(index);
+    switch (node.kind) {
+      case DATA:
+        if (node == replicated) {
+          return slot(replicatedBase + offset);
+        }
+        if (node.missing[offset] && node.slots == null) {
+          throw scope.error(reference.position(), "'" + name + "' is missing and cannot be used"
+              + " here", null);
+        }
+        if (node.missing[offset]) {
+          return slot(node.slots[offset]);
+        }
+        return new Formula.Constant(node.values[offset], data.cells(node), offset);
+      case PARAM:
+        return slot(node.slots[offset]);
+      default:
+        Map<String, Integer> letEnv = new HashMap<>();
+        for (int i = 0; i < index.length; i++) {
+          letEnv.put(nodeSets.get(i).name(), index[i]);
+        }
+        if (replicated != null) {
+          // Not cached: inside a check the checked name's elements are slots, not its data.
+          return resolve(node.letValue, letEnv);
+        }
+        Formula[] cache = letCache.computeIfAbsent(node, k -> new Formula[k.size]);
+        if (cache[offset] == null) {
+          cache[offset] = resolve(node.letValue, letEnv);
+        }
+        return cache[offset];
+    }
+  }
+
+  /**
+   * The data cell an index value came from, or the index expression: worked out only for a
+   * message, as finding a cell's line costs more than resolving the index (once per row).
+   */
+  private static SourcePosition blame(Formula.Constant index, Expression indexExpression) {
+    SourcePosition origin = index.origin();
+    return origin != null ? origin : indexExpression.position();
+  }
+
+  /**
+   * The one {@link Formula.Slot} of unknown {@code index}: a term per data row refers to the same
+   * few unknowns, and a copy per reference would cost 16 bytes each.
+   */
+  Formula.Slot slot(int index) {
+    if (index >= slotFormulas.length) {
+      slotFormulas = Arrays.copyOf(slotFormulas, Math.max(index + 1, 2 * slotFormulas.length));
+    }
+    if (slotFormulas[index] == null) {
+      slotFormulas[index] = new Formula.Slot(index);
+    }
+    return slotFormulas[index];
+  }
+}
