@@ -22,7 +22,8 @@ import picocli.CommandLine.Command;
       ReportCommand.class,
       DrawCommand.class,
       ValidateCommand.class,
-      CalibrateCommand.class
+      CalibrateCommand.class,
+      FitUnitsCommand.class
     })
 public final class Main implements Runnable {
 
