@@ -19,7 +19,8 @@ import org.hullbound.io.CsvData;
  *   <li>a folder with one subfolder per unit, named as the unit, holding that unit's CSV files
  *       (read in name order, as if each were given with {@code --data});
  *   <li>CSV files with a unit column: every file that has the column is split by its value (each
- *       unit keeps the header and its own rows, the column included), files without it are shared.
+ *       unit keeps its own rows, without the unit column, which is no data of the model), files
+ *       without it are shared.
  * </ul>
  *
  * <p>Files given as shared ({@code --data} beside a units folder) follow each unit's own files. A
@@ -79,6 +80,7 @@ public final class BatchUnits {
   public static List<UnitData> byColumn(List<Path> files, String column) {
     Map<String, Map<Path, List<CsvData.TextRow>>> rowsByUnit = new LinkedHashMap<>();
     Map<Path, List<String>> headers = new LinkedHashMap<>();
+    Map<Path, Integer> unitColumns = new LinkedHashMap<>();
     List<Path> sharedFiles = new ArrayList<>();
     for (Path file : files) {
       List<CsvData.TextRow> rows = CsvData.readText(file);
@@ -89,6 +91,7 @@ public final class BatchUnits {
         continue;
       }
       headers.put(file, header);
+      unitColumns.put(file, at);
       for (CsvData.TextRow row : rows.subList(1, rows.size())) {
         String unit = at < row.cells().size() ? row.cells().get(at) : "";
         if (unit.isEmpty()) {
@@ -111,7 +114,8 @@ public final class BatchUnits {
       List<DataText> texts = new ArrayList<>();
       for (Map.Entry<Path, List<String>> split : headers.entrySet()) {
         texts.add(new DataText(split.getKey().toString(),
-            csv(split.getValue(), unit.getValue().getOrDefault(split.getKey(), List.of()))));
+            csv(split.getValue(), unit.getValue().getOrDefault(split.getKey(), List.of()),
+                unitColumns.get(split.getKey()))));
       }
       texts.addAll(shared);
       units.add(UnitData.of(unit.getKey(), texts));
@@ -120,6 +124,14 @@ public final class BatchUnits {
       throw new RunRefusedException("the files with the unit column '" + column + "' have no rows");
     }
     return units;
+  }
+
+  private static List<String> without(List<String> cells, int dropped) {
+    List<String> kept = new ArrayList<>(cells);
+    if (dropped < kept.size()) {
+      kept.remove(dropped);
+    }
+    return kept;
   }
 
   private static List<DataText> readAll(List<Path> files) {
@@ -138,14 +150,14 @@ public final class BatchUnits {
     }
   }
 
-  /** The header and rows as CSV (RFC 4180, quoted only where needed). */
-  private static String csv(List<String> header, List<CsvData.TextRow> rows) {
+  /** The header and rows without column {@code dropped}, as CSV (RFC 4180, quoted where needed). */
+  private static String csv(List<String> header, List<CsvData.TextRow> rows, int dropped) {
     StringBuilder out = new StringBuilder();
     try {
       CSVPrinter printer = new CSVPrinter(out, CSVFormat.RFC4180.builder().setRecordSeparator("\n").get());
-      printer.printRecord(header);
+      printer.printRecord(without(header, dropped));
       for (CsvData.TextRow row : rows) {
-        printer.printRecord(row.cells());
+        printer.printRecord(without(row.cells(), dropped));
       }
       printer.flush();
     } catch (IOException e) {
