@@ -23,26 +23,27 @@ CP="target/spark/hullbound-spark.jar:$(cat target/spark/classpath.txt)"
 # the same --add-opens list as the profile's tests (pom.xml, spark.java.options)
 OPTS=$(sed -n 's:.*<spark.java.options>\(.*\)</spark.java.options>.*:\1:p' pom.xml)
 
-# milliseconds of one calibration: $1 the folder name, $2 replicates, the rest extra options
+# milliseconds of one calibration: $1 the folder name, $2 replicates, $3 extra JVM options (may be
+# empty), the rest calibrate's own options
 calibrate() {
-  local name=$1 replicates=$2
-  shift 2
+  local name=$1 replicates=$2 jvm=$3
+  shift 3
   local start end
   start=$(date +%s%N)
   # shellcheck disable=SC2086
-  java $OPTS "$@" -cp "$CP" org.hullbound.cli.Main calibrate "${MODEL:-models/seedlings.hbm}" \
+  java $OPTS $jvm -cp "$CP" org.hullbound.cli.Main calibrate "${MODEL:-models/seedlings.hbm}" \
     --data "${DATA:-models/seedlings.csv}" --replicates "$replicates" --seed 3 --quiet \
-    --overwrite --out "$OUT/$name" >/dev/null
+    --overwrite --out "$OUT/$name" "$@" >/dev/null
   end=$(date +%s%N)
   echo $(( (end - start) / 1000000 ))
 }
 
 echo "uptime before: $(uptime)"
-local_small=$(calibrate local-small "$R_SMALL" --workers 2)
-local_large=$(calibrate local-large "$R_LARGE" --workers 2)
+local_small=$(calibrate local-small "$R_SMALL" "" --workers 2)
+local_large=$(calibrate local-large "$R_LARGE" "" --workers 2)
 # -Dspark.master is what spark-submit --master sets
-spark_small=$(calibrate spark-small "$R_SMALL" -Dspark.master='local[2]' --spark)
-spark_large=$(calibrate spark-large "$R_LARGE" -Dspark.master='local[2]' --spark)
+spark_small=$(calibrate spark-small "$R_SMALL" "-Dspark.master=local[2]" --spark)
+spark_large=$(calibrate spark-large "$R_LARGE" "-Dspark.master=local[2]" --spark)
 echo "uptime after:  $(uptime)"
 
 cmp "$OUT/local-large/ranks.csv" "$OUT/spark-large/ranks.csv"
@@ -57,8 +58,8 @@ awk -v ls="$local_small" -v ll="$local_large" -v ss="$spark_small" -v sl="$spark
 }'
 
 if [[ "${CLINICS:-0}" == 1 ]]; then
-  c_small=$(MODEL=models/clinics.hbm DATA=models/clinics.csv calibrate clinics-small 10 --workers 2)
-  c_large=$(MODEL=models/clinics.hbm DATA=models/clinics.csv calibrate clinics-large 30 --workers 2)
+  c_small=$(MODEL=models/clinics.hbm DATA=models/clinics.csv calibrate clinics-small 10 "" --workers 2)
+  c_large=$(MODEL=models/clinics.hbm DATA=models/clinics.csv calibrate clinics-large 30 "" --workers 2)
   awk -v s="$c_small" -v l="$c_large" 'BEGIN {
     p = (l - s) / 20;
     printf "clinics, 2 workers: %.0f ms a replicate wall, %.0f core-ms a replicate\n", p, 2 * p;

@@ -45,7 +45,8 @@ public final class SparkTasks implements TaskEngine {
             .setIfMissing("spark.master", "local[*]")
             .setIfMissing("spark.app.name", "hullbound")
             // our own progress line instead of Spark's console bar
-            .setIfMissing("spark.ui.showConsoleProgress", "false");
+            .setIfMissing("spark.ui.showConsoleProgress", "false")
+            .setIfMissing("spark.log.level", "WARN");
     JavaSparkContext context = new JavaSparkContext(settled);
     context.setLogLevel("WARN");
     return new SparkTasks(context, true);
