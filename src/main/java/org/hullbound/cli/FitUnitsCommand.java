@@ -12,7 +12,6 @@ import org.hullbound.app.ModelInputs;
 import org.hullbound.app.TaskEngine;
 import org.hullbound.app.UnitData;
 import org.hullbound.app.UnitOutcome;
-import org.hullbound.gibbs.RunSettings;
 import picocli.CommandLine;
 import picocli.CommandLine.ArgGroup;
 import picocli.CommandLine.Command;
@@ -63,17 +62,7 @@ public final class FitUnitsCommand implements Callable<Integer> {
     String column;
   }
 
-  @Option(names = "--chains", paramLabel = "N", description = "Chains per unit (default: ${DEFAULT-VALUE}).")
-  int chains = RunSettings.DEFAULT_CHAINS;
-
-  @Option(names = "--draws", paramLabel = "N", description = "Kept draws per chain (default: ${DEFAULT-VALUE}).")
-  int draws = RunSettings.DEFAULT_DRAWS;
-
-  @Option(names = "--burn-in", paramLabel = "N", description = "Sweeps discarded first (default: ${DEFAULT-VALUE}).")
-  int burnIn = RunSettings.DEFAULT_BURN_IN;
-
-  @Option(names = "--thin", paramLabel = "K", description = "Keep every K-th sweep (default: ${DEFAULT-VALUE}).")
-  int thin = 1;
+  @Mixin SweepOptions sweeps;
 
   @Mixin SeedOption seed;
 
@@ -114,7 +103,7 @@ public final class FitUnitsCommand implements Callable<Integer> {
             : BatchUnits.byColumn(inputs.dataFiles(), form.column);
     BatchRequest request =
         new BatchRequest(
-            inputs.modelFile(), units, chains, burnIn, draws, thin, seed.given(), out.given(),
+            inputs.modelFile(), units, sweeps.chains, sweeps.burnIn, sweeps.draws, sweeps.thin, seed.given(), out.given(),
             overwrite, level.value(), inputs.emptyCells(), keepDraws);
     BatchResult result;
     try (BatchRun run = BatchRun.prepare(request); TaskEngine tasks = engine.open()) {
