@@ -33,10 +33,11 @@ import picocli.CommandLine.Option;
     sortOptions = false,
     description = {
       "Fit one model to many units' data sets, each unit alone, side by side.",
-      "Units come from a folder with one subfolder of CSV files per unit (--units), or from",
-      "data files with a column naming each row's unit (--unit-column). Each unit's seed comes",
-      "from --seed and its name, so 'fit' on that unit alone repeats it. DIR/summary.csv holds",
-      "every unit's summary, DIR/units.csv each unit's seed, status and verdict or error."
+      "Units come from a folder with one subfolder of CSV files per unit",
+      "(--units), or from data files with a column naming each row's unit",
+      "(--unit-column). Each unit's seed comes from --seed and its name, so",
+      "'fit' on that unit alone with that seed repeats it. DIR/summary.csv holds",
+      "every unit's summary, DIR/units.csv each unit's seed, status and verdict."
     })
 public final class FitUnitsCommand implements Callable<Integer> {
 

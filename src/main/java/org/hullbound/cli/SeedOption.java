@@ -11,7 +11,7 @@ public final class SeedOption {
       paramLabel = "S",
       description =
           "Seed of the random generators; the same seed and settings give the same results"
-              + " (default: fit and draw draw one and print it, validate and calibrate use a fixed"
+              + " (default: fit, fit-units and draw draw one and print it, validate and calibrate use a fixed"
               + " one).")
   Long seed;
 
