@@ -308,7 +308,7 @@ public final class FitRun implements AutoCloseable {
     }
   }
 
-  private static void checkOptions(FitRequest request) {
+  static void checkOptions(FitRequest request) {
     if (request.out() != null && request.out().toString().isBlank()) {
       throw new RunRefusedException("--out must name a folder, got an empty name");
     }

@@ -8,15 +8,14 @@ import java.nio.file.Path;
 import java.util.List;
 import java.util.concurrent.Callable;
 import org.hullbound.app.FolderLock;
-import org.hullbound.app.ModelInputs;
 import org.hullbound.app.RunRefusedException;
-import org.hullbound.lang.ModelFile;
+import org.hullbound.app.TaskEngine;
 import org.hullbound.validation.Calibration;
 import org.hullbound.validation.CalibrationFiles;
 import org.hullbound.validation.CalibrationResult;
 import org.hullbound.validation.CalibrationSettings;
 import org.hullbound.validation.CalibrationText;
-import org.hullbound.validation.PosteriorFitter;
+import org.hullbound.validation.CalibrationTask;
 import picocli.CommandLine;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
@@ -62,6 +61,11 @@ public final class CalibrateCommand implements Callable<Integer> {
 
   @Mixin OutputFolder out;
 
+  @Mixin EngineOptions engine;
+
+  @Option(names = "--quiet", description = "No progress display.")
+  boolean quiet;
+
   @Option(
       names = "--overwrite",
       description = "Replace the files of an earlier calibration in DIR (without it, calibrate refuses to start).")
@@ -88,10 +92,11 @@ public final class CalibrateCommand implements Callable<Integer> {
       ErrorReporting.traceUnderDebug(spec.commandLine(), invalid);
       return status;
     }
-    ModelInputs inputs = model.inputs();
-    ModelFile parsed = inputs.parse();
-    Calibration calibration =
-        Calibration.of(parsed, inputs.tables(parsed), PosteriorFitter.gibbs());
+    if (engine.problem() != null) {
+      return ErrorReporting.userError(spec.commandLine(), engine.problem());
+    }
+    CalibrationTask task = CalibrationTask.of(model.inputs(), settings);
+    Calibration calibration = task.calibration();
     Path folder = out.orDefault("calibrate", calibration.modelName());
     List<Path> earlier = earlierFiles(folder);
     if (!earlier.isEmpty() && !overwrite) {
@@ -100,17 +105,14 @@ public final class CalibrateCommand implements Callable<Integer> {
               + (earlier.size() > 1 ? " and " + (earlier.size() - 1) + " more" : "")
               + "); give --overwrite to replace it, or --out with another folder");
     }
-    int every = Math.max(1, replicates / 10);
     CalibrationResult result;
     List<Path> pictures;
     FolderLock lock = FolderLock.take(folder);
-    try {
-      result = calibration.run(settings, done -> {
-        if (done % every == 0 || done == replicates) {
-          stderr.printf("hullbound calibrate: %d of %d replicates%n", done, replicates);
-          stderr.flush();
-        }
-      });
+    try (TaskEngine tasks = engine.open()) {
+      TaskProgressLine progress =
+          TaskProgressLine.of(stderr, System.console() != null, "calibrate", "replicates");
+      result = task.run(tasks, quiet ? TaskEngine.Progress.none() : progress);
+      progress.finish();
       for (Path file : earlierFiles(folder)) {
         Files.deleteIfExists(file);
       }

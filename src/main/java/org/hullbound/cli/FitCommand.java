@@ -48,17 +48,7 @@ public final class FitCommand implements Callable<Integer> {
 
   @Mixin ModelOptions model;
 
-  @Option(names = "--chains", paramLabel = "N", description = "Chains, run in parallel (default: ${DEFAULT-VALUE}).")
-  int chains = RunSettings.DEFAULT_CHAINS;
-
-  @Option(names = "--draws", paramLabel = "N", description = "Kept draws per chain (default: ${DEFAULT-VALUE}).")
-  int draws = RunSettings.DEFAULT_DRAWS;
-
-  @Option(names = "--burn-in", paramLabel = "N", description = "Sweeps discarded first (default: ${DEFAULT-VALUE}).")
-  int burnIn = RunSettings.DEFAULT_BURN_IN;
-
-  @Option(names = "--thin", paramLabel = "K", description = "Keep every K-th sweep (default: ${DEFAULT-VALUE}).")
-  int thin = 1;
+  @Mixin SweepOptions sweeps;
 
   @Mixin SeedOption seed;
 
@@ -186,10 +176,10 @@ public final class FitCommand implements Callable<Integer> {
     }
     return new FitRequest(
         model.inputs(), initFile,
-        given.hasMatchedOption("--chains") ? chains : null,
-        given.hasMatchedOption("--burn-in") ? burnIn : null,
-        given.hasMatchedOption("--draws") ? draws : null,
-        given.hasMatchedOption("--thin") ? thin : null,
+        given.hasMatchedOption("--chains") ? sweeps.chains : null,
+        given.hasMatchedOption("--burn-in") ? sweeps.burnIn : null,
+        given.hasMatchedOption("--draws") ? sweeps.draws : null,
+        given.hasMatchedOption("--thin") ? sweeps.thin : null,
         seed.given(), threads, out.given(), resumeFolder, overwrite, level.value())
         .withMoves(!noMoves);
   }

@@ -22,7 +22,8 @@ import picocli.CommandLine.Command;
       ReportCommand.class,
       DrawCommand.class,
       ValidateCommand.class,
-      CalibrateCommand.class
+      CalibrateCommand.class,
+      FitUnitsCommand.class
     })
 public final class Main implements Runnable {
 
@@ -68,6 +69,8 @@ public final class Main implements Runnable {
         command == null ? null : switch (command) {
           case "fit" -> "keep fewer draws (--draws, or --thin K to keep every K-th sweep)";
           case "calibrate" -> "make fewer or smaller fits (--replicates, --draws, --thin)";
+          case "fit-units" -> "keep fewer draws per unit (--draws, --thin) or fit fewer units at"
+              + " once (--workers)";
           case "validate" -> "run fewer draws or cases (--draws, --case)";
           case "draw" -> "make fewer draws (--draws)";
           default -> null;

@@ -11,8 +11,8 @@ public final class SeedOption {
       paramLabel = "S",
       description =
           "Seed of the random generators; the same seed and settings give the same results"
-              + " (default: fit and draw draw one and print it, validate and calibrate use a fixed"
-              + " one).")
+              + " (default: fit, fit-units and draw draw one and print it, validate and"
+              + " calibrate use a fixed one).")
   Long seed;
 
   /** The seed given, or null. */

@@ -56,7 +56,15 @@ public final class CsvData {
 
   /** Reads CSV {@code text} as if it were the file {@code fileName}, keeping every column. */
   public static DataTable parse(String fileName, String text) {
-    return parse(fileName, new StringReader(text), column -> true);
+    return parse(fileName, text, column -> true);
+  }
+
+  /**
+   * Reads CSV {@code text} as if it were the file {@code fileName}, keeping the columns {@code
+   * keep} accepts, as {@link #read(Path, Predicate)} does for a file.
+   */
+  public static DataTable parse(String fileName, String text, Predicate<String> keep) {
+    return parse(fileName, new StringReader(text), keep);
   }
 
   /** A record of a CSV file as text: the line it starts on and its trimmed cells. */

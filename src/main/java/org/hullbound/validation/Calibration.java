@@ -89,34 +89,73 @@ public final class Calibration {
   }
 
   /**
-   * Runs every replicate.
+   * Runs every replicate, one after another.
    *
    * @param progress called after each replicate with the number done (may be a no-op)
    * @throws SimulationException when a prior or likelihood cannot be drawn
    */
   public CalibrationResult run(CalibrationSettings settings, java.util.function.IntConsumer progress) {
-    int bins = settings.binCount();
-    PriorSimulation simulation = PriorSimulation.of(bound);
-    SplittableGenerator root = (SplittableGenerator) RandomGeneratorFactory.of(ALGORITHM).create(settings.seed());
-    List<String> labels = labels();
+    SplittableGenerator root = root(settings);
     int[][] ranks = new int[settings.replicates()][];
     for (int n = 0; n < settings.replicates(); n++) {
-      RandomGenerator rng = root.split();
-      // (1) prior draw, (2) simulated data.
-      double[] truth = simulation.drawUnknowns(rng);
-      SimulatedData.Inputs inputs =
-          SimulatedData.replace(model, tables, simulation.simulateObservations(truth, rng));
-      BoundModel replicate = BoundModel.bind(inputs.model(), inputs.tables());
-      // (3) the fit, with its own seed from this replicate's stream.
-      double[][] posterior =
-          fitter.fit(replicate, settings.draws(), settings.thin(), settings.burnIn(), rng.nextLong());
-      // (4) ranks.
-      ranks[n] = new int[labels.size()];
-      for (int i = 0; i < labels.size(); i++) {
-        ranks[n][i] = rank(truth[i], posterior[i], rng);
-      }
+      ranks[n] = replicate(settings, root.split());
       progress.accept(n + 1);
     }
+    return result(settings, ranks);
+  }
+
+  /**
+   * The ranks of replicate {@code n} (from 0) alone, the same as {@link #run} finds for it: its
+   * generator is the root's {@code (n + 1)}-th split, whichever machine or order runs it, so that
+   * replicates can run as independent tasks ({@link CalibrationTask}).
+   */
+  public int[] replicate(CalibrationSettings settings, int n) {
+    if (n < 0 || n >= settings.replicates()) {
+      throw new IllegalArgumentException(
+          "n must be in 0 .. " + (settings.replicates() - 1) + ", got " + n);
+    }
+    SplittableGenerator root = root(settings);
+    for (int skipped = 0; skipped < n; skipped++) {
+      root.split();
+    }
+    return replicate(settings, root.split());
+  }
+
+  private static SplittableGenerator root(CalibrationSettings settings) {
+    return (SplittableGenerator) RandomGeneratorFactory.of(ALGORITHM).create(settings.seed());
+  }
+
+  /** Steps (1) to (4) of one replicate with its own generator {@code rng}. */
+  private int[] replicate(CalibrationSettings settings, RandomGenerator rng) {
+    PriorSimulation simulation = PriorSimulation.of(bound);
+    List<String> labels = labels();
+    // (1) prior draw, (2) simulated data.
+    double[] truth = simulation.drawUnknowns(rng);
+    SimulatedData.Inputs inputs =
+        SimulatedData.replace(model, tables, simulation.simulateObservations(truth, rng));
+    BoundModel replicate = BoundModel.bind(inputs.model(), inputs.tables());
+    // (3) the fit, with its own seed from this replicate's stream.
+    double[][] posterior =
+        fitter.fit(replicate, settings.draws(), settings.thin(), settings.burnIn(), rng.nextLong());
+    // (4) ranks.
+    int[] ranks = new int[labels.size()];
+    for (int i = 0; i < labels.size(); i++) {
+      ranks[i] = rank(truth[i], posterior[i], rng);
+    }
+    return ranks;
+  }
+
+  /**
+   * The uniformity tests of every unknown over {@code ranks} ({@code [replicate][unknown]}, as
+   * {@link #replicate} gives them, in replicate order).
+   */
+  public CalibrationResult result(CalibrationSettings settings, int[][] ranks) {
+    if (ranks.length != settings.replicates()) {
+      throw new IllegalArgumentException(
+          "ranks must hold " + settings.replicates() + " replicates, got " + ranks.length);
+    }
+    int bins = settings.binCount();
+    List<String> labels = labels();
     List<RankUniformity> tests = new ArrayList<>();
     for (int i = 0; i < labels.size(); i++) {
       int[] column = new int[ranks.length];

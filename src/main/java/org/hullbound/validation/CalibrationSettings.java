@@ -11,7 +11,8 @@ package org.hullbound.validation;
  *     divisor of L + 1 that leaves at least 5 expected ranks per bin, capped at 50
  * @param seed the seed from which every replicate's generator is split
  */
-public record CalibrationSettings(int replicates, int draws, int thin, int burnIn, int bins, long seed) {
+public record CalibrationSettings(int replicates, int draws, int thin, int burnIn, int bins, long seed)
+    implements java.io.Serializable {
   public static final int DEFAULT_DRAWS = 99;
   public static final int DEFAULT_THIN = 2;
   public static final int DEFAULT_BURN_IN = 200;

@@ -44,6 +44,7 @@ class MainTest {
     }
     assertTrue(Main.outOfMemory("fit").contains("--draws, or --thin K"));
     assertTrue(Main.outOfMemory("calibrate").contains("--replicates"));
+    assertTrue(Main.outOfMemory("fit-units").contains("--workers"));
     assertTrue(Main.outOfMemory("validate").contains("--case"));
     assertTrue(Main.outOfMemory("draw").contains("(--draws)"));
     assertEquals("hullbound: out of memory; give the JVM more, e.g. HULLBOUND_JAVA_OPTS=-Xmx8g",

@@ -26,12 +26,12 @@ class SharedOptionsTest {
 
   @Test
   void modelDataAndSeedAreTheSameOptionsInEveryCommandThatTakesThem() {
-    for (String command : new String[] {"check", "fit", "calibrate"}) {
+    for (String command : new String[] {"check", "fit", "calibrate", "fit-units"}) {
       CliRun help = CliRun.of(command, "--help");
       assertTrue(help.out().contains("MODEL"), command + help.out());
       assertTrue(help.out().contains("--data=FILE"), command + help.out());
     }
-    for (String command : new String[] {"fit", "calibrate", "validate"}) {
+    for (String command : new String[] {"fit", "calibrate", "validate", "fit-units"}) {
       CliRun help = CliRun.of(command, "--help");
       assertTrue(help.out().contains("--seed=S"), command + help.out());
     }
