@@ -72,15 +72,37 @@ class AdaptiveRejectionSamplerTest {
         Target.normal(0, 1).sampler(derivativeFree, HullOptions.defaults());
     int start = sampler.statistics().evaluations() > 0 ? (int) sampler.statistics().evaluations() : -1;
     assertEquals(derivativeFree ? 3 : 2, start, "evaluations of the automatic start");
+    assertTrue(Double.isNaN(sampler.statistics().evaluationsPerDraw()), "no draw yet");
+    assertTrue(Double.isNaN(sampler.statistics().acceptanceRate()), "no proposal yet");
     draws(sampler, 3, 10_000);
     SamplerStatistics s = sampler.statistics();
     assertEquals(10_000, s.draws());
+    assertEquals((double) s.evaluations() / 10_000, s.evaluationsPerDraw());
+    assertEquals(10_000.0 / s.proposals(), s.acceptanceRate());
     assertEquals(s.proposals(), s.squeezeAcceptances() + s.densityAcceptances() + s.rejections());
     // every density acceptance cost one evaluation; a rejection costs one unless the envelope
     // above the hull rejected it first (on segments drawn from uniformly)
     assertTrue(s.evaluations() >= start + s.densityAcceptances(), s.toString());
     assertTrue(s.evaluations() <= start + s.densityAcceptances() + s.rejections(), s.toString());
     assertEquals(s.hullSize(), sampler.abscissae().length);
+  }
+
+  @Test
+  void theFactoriesWithoutOptionsUseTheDefaultsAndSayWhichHullTheyBuild() {
+    DifferentiableLogDensity normal = x -> new Evaluation(-0.5 * x * x, -x);
+    AdaptiveRejectionSampler tangents = AdaptiveRejectionSampler.withDerivatives(
+        normal, Support.real());
+    AdaptiveRejectionSampler secants = AdaptiveRejectionSampler.derivativeFree(
+        x -> -0.5 * x * x, Support.above(-5));
+    assertArrayEquals(draws(AdaptiveRejectionSampler.withDerivatives(
+        normal, Support.real(), HullOptions.defaults()), 4, 200), draws(tangents, 4, 200));
+    assertArrayEquals(draws(AdaptiveRejectionSampler.derivativeFree(
+        x -> -0.5 * x * x, Support.above(-5), HullOptions.defaults()), 4, 200),
+        draws(secants, 4, 200));
+    assertEquals("AdaptiveRejectionSampler[tangent hull, " + tangents.abscissae().length
+        + " abscissae, support (-inf, +inf)]", tangents.toString());
+    assertEquals("AdaptiveRejectionSampler[secant hull, " + secants.abscissae().length
+        + " abscissae, support [-5.0, +inf)]", secants.toString());
   }
 
   @ParameterizedTest(name = "derivative-free {0}")
