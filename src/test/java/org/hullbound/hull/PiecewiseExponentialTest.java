@@ -122,6 +122,28 @@ class PiecewiseExponentialTest {
   }
 
   @Test
+  void selectionAfterResealingFollowsTheNewWeights() {
+    // Four flat pieces of width 1 and masses 1, 1, 1, 1, then, resealed in the same object (as
+    // the sampler does after each insertion), 100, 1, 1, 1: the inverse of the new discrete
+    // distribution (cumulative 100, 101, 102, 103 of 103) gives piece 0 below u = 100/103, the
+    // others in thirds of the remaining 3/103; the guide table of the first layout must not
+    // survive into the second (Chen and Asau 1974's table is rebuilt with the weights).
+    PiecewiseExponential p = new PiecewiseExponential(4);
+    for (double[] values : new double[][] {{0, 0, 0, 0}, {Math.log(100), 0, 0, 0}}) {
+      p.reset(4, 0);
+      for (int j = 0; j < 4; j++) {
+        p.add(j, j + 1, j, values[j], 0, Double.POSITIVE_INFINITY, 0);
+      }
+      p.seal();
+    }
+    for (double u = 0; u < 1; u += 1.0 / 1024) {
+      double mass = u * 103;
+      int expected = mass < 100 ? 0 : mass < 101 ? 1 : mass < 102 ? 2 : 3;
+      assertEquals(expected, p.select(u), "u = " + u);
+    }
+  }
+
+  @Test
   void massesAwayFromTheAnchorKeepTheLineThere() {
     // Closed forms (direct integration): exp(v + s (x - a)) over [b, inf) with s < 0 is
     // exp(v + s (b - a)) / |s|; over (-inf, b] with s > 0 it is exp(v + s (b - a)) / s; over
