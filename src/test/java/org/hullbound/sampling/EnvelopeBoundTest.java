@@ -112,6 +112,8 @@ class EnvelopeBoundTest {
     // 2e-9 lower is beyond rounding: the ratio grows toward that end and no M is given.
     assertTrue(refusal(x -> x == 0 ? -2e-9 : -x, 0, 1).contains("grows toward the end 0.0"));
     assertTrue(refusal(x -> x == 1 ? -2e-9 : -(1 - x), 0, 1).contains("grows toward the end 1.0"));
+    // the same at an end at 0, where the points near it do not round onto the end itself
+    assertTrue(refusal(x -> x == 0 ? -2e-9 : x, -1, 0).contains("grows toward the end 0.0"));
   }
 
   @Test
@@ -126,6 +128,11 @@ class EnvelopeBoundTest {
     assertEquals(3, supremum(x -> peakAt(-end - x, far, width), -INF, -end), 1e-9);
     assertEquals(3, supremum(x -> peakAt(x, far, width), -INF, INF), 1e-9);
     assertEquals(3, supremum(x -> peakAt(-x, far, width), -INF, INF), 1e-9);
+    // The far points reach 2^64: a peak at 2^63 is inside the scan, not at its outermost point.
+    double outer = Math.scalb(1.0, 63);
+    double outerWidth = Math.scalb(1.0, 61);
+    assertEquals(3, supremum(x -> peakAt(x, outer, outerWidth), -INF, INF), 1e-9);
+    assertEquals(3, supremum(x -> peakAt(-x, outer, outerWidth), -INF, INF), 1e-9);
   }
 
   @Test
@@ -140,8 +147,8 @@ class EnvelopeBoundTest {
   @Test
   void theGridSpansABoundedSupportOfAnyWidth() {
     // The narrow peak of FixedEnvelopeRejectionTest (0.7 of the way along, half-width 0.02 of
-    // it) on (2, 6) instead of (0, 1): found by the grid laid over the whole width.
+    // it) on (100, 104) instead of (0, 1): found by the grid laid over the whole width.
     assertEquals(3, supremum(
-        x -> FixedEnvelopeRejectionTest.narrowPeakRatio((x - 2) / 4), 2, 6), 1e-9);
+        x -> FixedEnvelopeRejectionTest.narrowPeakRatio((x - 100) / 4), 100, 104), 1e-9);
   }
 }
