@@ -52,6 +52,12 @@ class EnvelopeBoundTest {
   }
 
   @Test
+  void aProposalsSupportIsTheWholeLineUnlessItSaysOtherwise() {
+    assertEquals(Double.NEGATIVE_INFINITY, FLAT.lower());
+    assertEquals(INF, FLAT.upper());
+  }
+
+  @Test
   void aRatioLargestAtAFiniteEndHasItsValueThereAsTheBound() {
     // Direct calculation: x on (2, 5) is largest at 5, -x at 2 (sup over the closed interval;
     // the ends are searched as limits).
