@@ -76,12 +76,14 @@ final class EnvelopeBound {
 
   /**
    * A maximum at the outermost far point, or at the point nearest a finite end while the end
-   * itself is lower, means the ratio grows toward that end: no finite M was found.
+   * itself is lower, means the ratio grows toward that end: no finite M was found. The first
+   * largest value is taken, so only at the lower far point can it tie with its neighbour: a ratio
+   * flat out there (a proposal equal to the target) is bounded, not growing.
    */
   private static void checkNotAtOpenEnd(
       double[] xs, double[] hs, int best, double lower, double upper) {
     int last = xs.length - 1;
-    if (best == 0 && lower == Double.NEGATIVE_INFINITY
+    if (best == 0 && lower == Double.NEGATIVE_INFINITY && hs[0] > hs[1]
         || best == last && upper == Double.POSITIVE_INFINITY) {
       throw new IllegalArgumentException(
           "the ratio f/g still grows at x = " + xs[best] + " toward "

@@ -72,15 +72,84 @@ class AdaptiveRejectionSamplerTest {
         Target.normal(0, 1).sampler(derivativeFree, HullOptions.defaults());
     int start = sampler.statistics().evaluations() > 0 ? (int) sampler.statistics().evaluations() : -1;
     assertEquals(derivativeFree ? 3 : 2, start, "evaluations of the automatic start");
+    assertTrue(Double.isNaN(sampler.statistics().evaluationsPerDraw()), "no draw yet");
+    assertTrue(Double.isNaN(sampler.statistics().acceptanceRate()), "no proposal yet");
     draws(sampler, 3, 10_000);
     SamplerStatistics s = sampler.statistics();
     assertEquals(10_000, s.draws());
+    assertEquals((double) s.evaluations() / 10_000, s.evaluationsPerDraw());
+    assertEquals(10_000.0 / s.proposals(), s.acceptanceRate());
     assertEquals(s.proposals(), s.squeezeAcceptances() + s.densityAcceptances() + s.rejections());
     // every density acceptance cost one evaluation; a rejection costs one unless the envelope
     // above the hull rejected it first (on segments drawn from uniformly)
     assertTrue(s.evaluations() >= start + s.densityAcceptances(), s.toString());
     assertTrue(s.evaluations() <= start + s.densityAcceptances() + s.rejections(), s.toString());
     assertEquals(s.hullSize(), sampler.abscissae().length);
+  }
+
+  /**
+   * N(+-1000, 1) from abscissae at 0 and +-1 (the mode on one side): the search doubles its step
+   * outward from the starting range 1, reaching +-2^n after n steps. The tangent at 2^10 = 1024
+   * falls (Gilks and Wild 1992, section 2.2); the chord from 512 to 1024 still rises, as it spans
+   * the mode, so the secant form (Gilks 1992) needs one step more, to 2048. The cap on steps per
+   * side is exact: that many are enough, one fewer stops the search at the last point reached
+   * with a typed error naming that point and the side.
+   */
+  @ParameterizedTest(name = "derivative-free {0}")
+  @ValueSource(booleans = {false, true})
+  void theOutwardSearchTakesAtMostTheStepsAllowedPerSide(boolean derivativeFree) {
+    int needed = derivativeFree ? 11 : 10;
+    for (double side : new double[] {1, -1}) {
+      double mode = 1000 * side;
+      HullOptions enough =
+          HullOptions.defaults().withStartingAbscissae(0, side).withMaximumSearchSteps(needed);
+      assertTrue(Math.abs(farNormal(mode, derivativeFree, enough).sample(rng(1)) - mode) < 10);
+      NonIntegrableHullException e = assertThrows(NonIntegrableHullException.class,
+          () -> farNormal(mode, derivativeFree, enough.withMaximumSearchSteps(needed - 1)));
+      assertEquals(Math.scalb(side, needed - 1), e.x(), e.getMessage());
+      assertTrue(e.getMessage().contains((side > 0 ? "upper" : "lower") + " side")
+          && e.getMessage().contains("after " + (needed - 1) + " doubling steps"), e.getMessage());
+    }
+  }
+
+  private static AdaptiveRejectionSampler farNormal(
+      double mode, boolean derivativeFree, HullOptions options) {
+    return derivativeFree
+        ? AdaptiveRejectionSampler.derivativeFree(
+            x -> -0.5 * (x - mode) * (x - mode), Support.real(), options)
+        : AdaptiveRejectionSampler.withDerivatives(
+            x -> new Evaluation(-0.5 * (x - mode) * (x - mode), mode - x), Support.real(), options);
+  }
+
+  /**
+   * Gilks (1992): the secant hull's outermost chords must fall away. A first chord that is flat
+   * (h(-1) = h(0) for h = -(x + 1/2)^2 from the automatic start -1, 0, 1) does not fall, so the
+   * search steps on instead of leaving a hull of infinite mass.
+   */
+  @Test
+  void aFlatOuterChordIsNotAFallingOne() {
+    AdaptiveRejectionSampler sampler = AdaptiveRejectionSampler.derivativeFree(
+        x -> -(x + 0.5) * (x + 0.5), Support.real(), HullOptions.defaults());
+    assertTrue(sampler.abscissae()[0] < -1, Arrays.toString(sampler.abscissae()));
+    assertTrue(Double.isFinite(sampler.sample(rng(2))));
+  }
+
+  @Test
+  void theFactoriesWithoutOptionsUseTheDefaultsAndSayWhichHullTheyBuild() {
+    DifferentiableLogDensity normal = x -> new Evaluation(-0.5 * x * x, -x);
+    AdaptiveRejectionSampler tangents = AdaptiveRejectionSampler.withDerivatives(
+        normal, Support.real());
+    AdaptiveRejectionSampler secants = AdaptiveRejectionSampler.derivativeFree(
+        x -> -0.5 * x * x, Support.above(-5));
+    assertArrayEquals(draws(AdaptiveRejectionSampler.withDerivatives(
+        normal, Support.real(), HullOptions.defaults()), 4, 200), draws(tangents, 4, 200));
+    assertArrayEquals(draws(AdaptiveRejectionSampler.derivativeFree(
+        x -> -0.5 * x * x, Support.above(-5), HullOptions.defaults()), 4, 200),
+        draws(secants, 4, 200));
+    assertEquals("AdaptiveRejectionSampler[tangent hull, " + tangents.abscissae().length
+        + " abscissae, support (-inf, +inf)]", tangents.toString());
+    assertEquals("AdaptiveRejectionSampler[secant hull, " + secants.abscissae().length
+        + " abscissae, support [-5.0, +inf)]", secants.toString());
   }
 
   @ParameterizedTest(name = "derivative-free {0}")

@@ -21,6 +21,15 @@ class HullOptionsTest {
   }
 
   @Test
+  void theTextFormNamesTheStartAndEveryLimit() {
+    assertEquals("HullOptions[automatic start, guess 0.0, spread 1.0, maximumHullSize 64,"
+        + " logConcavityTolerance 1.0E-8, maximumSearchSteps 64, maximumProposals 100000]",
+        HullOptions.defaults().toString());
+    assertTrue(HullOptions.defaults().withStartingAbscissae(0, 1).toString()
+        .startsWith("HullOptions[starting abscissae [0.0, 1.0], maximumHullSize 64"));
+  }
+
+  @Test
   void withMethodsReturnNewValuesAndLeaveTheOriginal() {
     HullOptions base = HullOptions.defaults();
     HullOptions changed = base.withMaximumHullSize(10).withAutomaticStart(3, 0.5);

@@ -152,4 +152,9 @@ final class IndependentHull {
   int size() {
     return pieces.size();
   }
+
+  /** log of the envelope's total mass, the integral of exp(E) over the support. */
+  double logTotalMass() {
+    return scale + Math.log(total);
+  }
 }

@@ -95,6 +95,7 @@ class PiecewiseExponentialTest {
     p.add(0, Double.POSITIVE_INFINITY, 0, 0, 0.0, Double.POSITIVE_INFINITY, 0);
     NonIntegrableHullException e = assertThrows(NonIntegrableHullException.class, p::seal);
     assertTrue(e.getMessage().contains("upper"), e.getMessage());
+    assertTrue(e.getMessage().contains("expected < 0"), e.getMessage());
   }
 
   @Test
@@ -118,6 +119,90 @@ class PiecewiseExponentialTest {
     assertEquals(0, p.select(0.249));
     assertEquals(1, p.select(0.251));
     assertEquals(1, p.select(Math.nextDown(1.0)));
+  }
+
+  @Test
+  void selectionAfterResealingFollowsTheNewWeights() {
+    // Four flat pieces of width 1 and masses 1, 1, 1, 1, then, resealed in the same object (as
+    // the sampler does after each insertion), 100, 1, 1, 1: the inverse of the new discrete
+    // distribution (cumulative 100, 101, 102, 103 of 103) gives piece 0 below u = 100/103, the
+    // others in thirds of the remaining 3/103; the guide table of the first layout must not
+    // survive into the second (Chen and Asau 1974's table is rebuilt with the weights).
+    PiecewiseExponential p = new PiecewiseExponential(4);
+    for (double[] values : new double[][] {{0, 0, 0, 0}, {Math.log(100), 0, 0, 0}}) {
+      p.reset(4, 0);
+      for (int j = 0; j < 4; j++) {
+        p.add(j, j + 1, j, values[j], 0, Double.POSITIVE_INFINITY, 0);
+      }
+      p.seal();
+    }
+    for (double u = 0; u < 1; u += 1.0 / 1024) {
+      double mass = u * 103;
+      int expected = mass < 100 ? 0 : mass < 101 ? 1 : mass < 102 ? 2 : 3;
+      assertEquals(expected, p.select(u), "u = " + u);
+    }
+  }
+
+  @Test
+  void massesAwayFromTheAnchorKeepTheLineThere() {
+    // Closed forms (direct integration): exp(v + s (x - a)) over [b, inf) with s < 0 is
+    // exp(v + s (b - a)) / |s|; over (-inf, b] with s > 0 it is exp(v + s (b - a)) / s; over
+    // [0, 1] with v = 0, s = 2, a = 0 it is (e^2 - 1) / 2.
+    assertEquals(0.5 - 2 * (3 - 1) - Math.log(2),
+        PiecewiseExponential.logMass(3, Double.POSITIVE_INFINITY, 1, 0.5, -2), 1e-15);
+    assertEquals(0.5 + 2 * (3 - 1) - Math.log(2),
+        PiecewiseExponential.logMass(Double.NEGATIVE_INFINITY, 3, 1, 0.5, 2), 1e-15);
+    assertEquals(Math.log(Math.expm1(2) / 2), PiecewiseExponential.logMass(0, 1, 0, 0, 2), 1e-15);
+    // an empty or inverted interval has no mass
+    assertEquals(Double.NEGATIVE_INFINITY, PiecewiseExponential.logMass(1, 1, 0, 0, 1));
+    assertEquals(Double.NEGATIVE_INFINITY, PiecewiseExponential.logMass(2, 1, 0, 0, 1));
+    // the same for an unbounded piece sealed in place, anchored away from its end
+    PiecewiseExponential p = new PiecewiseExponential(1);
+    p.add(3, Double.POSITIVE_INFINITY, 1, 0.5, -2, Double.POSITIVE_INFINITY, 0);
+    p.seal();
+    assertEquals(0.5 - 4 - Math.log(2), p.logMass[0], 1e-15);
+  }
+
+  @Test
+  void theReferenceIsTheLargestOfTheFirstValues() {
+    assertEquals(5, PiecewiseExponential.highest(new double[] {-3, 5, 2, 9}, 3));
+    assertEquals(-3, PiecewiseExponential.highest(new double[] {-3, 5}, 1));
+  }
+
+  @Test
+  void pieceOfFindsThePieceStartingAtOrBeforeThePointAndNoneOutside() {
+    PiecewiseExponential p = new PiecewiseExponential(3);
+    p.add(0, 1, 0, 0, 0, Double.POSITIVE_INFINITY, 0);
+    p.add(1, 2.5, 1, 0, 0, Double.POSITIVE_INFINITY, 0);
+    p.add(2.5, 4, 2.5, 0, 0, Double.POSITIVE_INFINITY, 0);
+    p.seal();
+    assertEquals(0, p.pieceOf(0));
+    assertEquals(0, p.pieceOf(0.5));
+    assertEquals(1, p.pieceOf(1));
+    assertEquals(2, p.pieceOf(2.5));
+    assertEquals(2, p.pieceOf(4));
+    assertEquals(-1, p.pieceOf(Math.nextDown(0.0)));
+    assertEquals(-1, p.pieceOf(Math.nextUp(4.0)));
+    assertEquals(-1, p.pieceOf(Double.NaN));
+    assertEquals("PiecewiseExponential[0.0, 1.0, 2.5]", p.toString());
+  }
+
+  @Test
+  void aHullWithoutPiecesHasNoMassAndNamesNoPoint() {
+    NonIntegrableHullException e =
+        assertThrows(NonIntegrableHullException.class, new PiecewiseExponential(1)::seal);
+    assertTrue(e.getMessage().contains("no finite positive mass"), e.getMessage());
+    assertTrue(Double.isNaN(e.x()));
+  }
+
+  @Test
+  void aLowerUnboundedPieceThatDoesNotRiseIsRefusedNamingThatSide() {
+    PiecewiseExponential p = new PiecewiseExponential(2);
+    p.add(Double.NEGATIVE_INFINITY, 0, 0, 0, 0.0, Double.POSITIVE_INFINITY, 0);
+    NonIntegrableHullException e = assertThrows(NonIntegrableHullException.class, p::seal);
+    assertTrue(e.getMessage().contains("on the unbounded lower side"), e.getMessage());
+    assertTrue(e.getMessage().contains("expected > 0"), e.getMessage());
+    assertEquals(0, e.x());
   }
 
   private static PiecewiseExponential single(

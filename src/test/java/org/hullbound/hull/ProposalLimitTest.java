@@ -76,6 +76,9 @@ class ProposalLimitTest {
     assertTrue(stuck.getMessage().contains("no proposal accepted in 100000 proposals"),
         stuck.getMessage());
     assertTrue(Double.isFinite(stuck.x()), "the last proposal is named");
+    double highest = java.util.Arrays.stream(stuck.values()).max().orElseThrow();
+    assertTrue(stuck.getMessage().contains("highest log-density at an abscissa " + highest + ")"),
+        stuck.getMessage());
   }
 
   @Test

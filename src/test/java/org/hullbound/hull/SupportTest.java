@@ -23,6 +23,23 @@ class SupportTest {
   }
 
   @Test
+  void containsIncludesTheEndsAndNothingBeyond() {
+    Support interval = Support.between(-1, 3);
+    assertTrue(interval.contains(-1) && interval.contains(3) && interval.contains(0));
+    assertFalse(interval.contains(Math.nextDown(-1.0)) || interval.contains(Math.nextUp(3.0)));
+    assertFalse(Support.above(2).contains(1) || Support.below(2).contains(3));
+  }
+
+  @Test
+  void theTextFormBracketsFiniteEndsAndOpensInfiniteOnes() {
+    // interval notation (common practice): a finite end is included, an infinite one is not
+    assertEquals("[-1.0, 3.0]", Support.between(-1, 3).toString());
+    assertEquals("(-inf, +inf)", Support.real().toString());
+    assertEquals("[2.0, +inf)", Support.above(2).toString());
+    assertEquals("(-inf, 2.0]", Support.below(2).toString());
+  }
+
+  @Test
   void invertedBoundsAreRefusedWithBothValuesNamed() {
     IllegalArgumentException e =
         assertThrows(IllegalArgumentException.class, () -> Support.between(2, 1));
@@ -41,5 +58,8 @@ class SupportTest {
         () -> new Support(Double.POSITIVE_INFINITY, Double.POSITIVE_INFINITY));
     assertThrows(
         IllegalArgumentException.class, () -> Support.between(0, Double.POSITIVE_INFINITY));
+    IllegalArgumentException lower = assertThrows(
+        IllegalArgumentException.class, () -> Support.between(Double.NEGATIVE_INFINITY, 0));
+    assertTrue(lower.getMessage().contains("lower bound must be finite"), lower.getMessage());
   }
 }
