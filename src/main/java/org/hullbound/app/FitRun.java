@@ -73,7 +73,7 @@ public final class FitRun implements AutoCloseable {
   /** Files that mark a folder as holding an earlier run; checkpoint files start with {@code checkpoint}. */
   public static final List<String> OUTPUT_FILES =
       List.of(DrawsWriter.FILE_NAME, SUMMARY_FILE, REPORT_FILE, RunFactsFile.FILE_NAME,
-          PredictiveChecks.FILE_NAME, REPLICATES_FILE);
+          PredictiveChecks.FILE_NAME, PredictiveChecks.SWEEPS_FILE, REPLICATES_FILE);
 
   private final FitRequest request;
   private final BoundModel model;
@@ -592,6 +592,7 @@ public final class FitRun implements AutoCloseable {
     if (replicates != null) {
       checks = predictiveChecks(replicates);
       AtomicFiles.write(folder.resolve(PredictiveChecks.FILE_NAME), checks.csv());
+      writeCheckSweeps(folder, replicates);
     }
     ReportInput page =
         ReportInput.of(header, table, verdicts, kepts,
@@ -618,6 +619,42 @@ public final class FitRun implements AutoCloseable {
           replicates.observed(q), replicates.replicated(q)));
     }
     return PredictiveChecks.of(inputs);
+  }
+
+  /**
+   * Every quantity's observed and replicated value of every kept sweep, to {@link
+   * PredictiveChecks#SWEEPS_FILE}: {@code report DIR} draws the panels from it again.
+   */
+  private static void writeCheckSweeps(Path folder, ReplicatedStatistics replicates) {
+    List<TestQuantities.Quantity> quantities = replicates.quantities();
+    List<String> columns = new ArrayList<>();
+    for (TestQuantities.Quantity quantity : quantities) {
+      for (String side : List.of("observed", "replicated")) {
+        columns.add(PredictiveChecks.sweepColumn(
+            quantity.node(), quantity.statistic(), quantity.fromModelFile(), side));
+      }
+    }
+    if (quantities.isEmpty()) {
+      return;
+    }
+    double[][][] observed = new double[quantities.size()][][];
+    double[][][] replicated = new double[quantities.size()][][];
+    for (int q = 0; q < quantities.size(); q++) {
+      observed[q] = replicates.observed(q);
+      replicated[q] = replicates.replicated(q);
+    }
+    try (DrawsWriter writer = DrawsWriter.open(folder, PredictiveChecks.SWEEPS_FILE, columns)) {
+      double[] row = new double[columns.size()];
+      for (int chain = 0; chain < observed[0].length; chain++) {
+        for (int draw = 0; draw < observed[0][chain].length; draw++) {
+          for (int q = 0; q < quantities.size(); q++) {
+            row[2 * q] = observed[q][chain][draw];
+            row[2 * q + 1] = replicated[q][chain][draw];
+          }
+          writer.accept(chain, draw + 1, row);
+        }
+      }
+    }
   }
 
   /** Which state entries the model's analysis gave to the fallback from the start. */
