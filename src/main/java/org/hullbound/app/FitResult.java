@@ -42,8 +42,7 @@ public record FitResult(
   /**
    * The summary of a run that kept draws: the table, its verdicts, where the table is, the
    * posterior predictive checks ({@link PredictiveChecks#none()} when not asked for), and what the
-   * report page was rendered from (null for a summary made outside a run), so that a caller can
-   * render it again with more sections ({@link FitRun#rewriteReport}).
+   * report page was rendered from (null for a summary made outside a run).
    */
   public record Summary(
       SummaryTable table, Verdicts verdicts, Path file, PredictiveChecks checks,

@@ -73,7 +73,7 @@ public final class FitRun implements AutoCloseable {
   /** Files that mark a folder as holding an earlier run; checkpoint files start with {@code checkpoint}. */
   public static final List<String> OUTPUT_FILES =
       List.of(DrawsWriter.FILE_NAME, SUMMARY_FILE, REPORT_FILE, RunFactsFile.FILE_NAME,
-          PredictiveChecks.FILE_NAME, REPLICATES_FILE);
+          PredictiveChecks.FILE_NAME, PredictiveChecks.SWEEPS_FILE, REPLICATES_FILE);
 
   private final FitRequest request;
   private final BoundModel model;
@@ -242,6 +242,18 @@ public final class FitRun implements AutoCloseable {
    *     checkpoint
    */
   public FitResult run(ProgressListener listener, StopSignal stop) {
+    return run(listener, stop, ProbabilitySection.none());
+  }
+
+  /**
+   * As {@link #run(ProgressListener, StopSignal)}, with the probability statements of {@code
+   * probabilities} estimated from the kept draws and shown in the report, which is rendered once.
+   */
+  public FitResult run(
+      ProgressListener listener, StopSignal stop, ProbabilitySection probabilities) {
+    if (probabilities == null) {
+      throw new IllegalArgumentException("probabilities must not be null");
+    }
     Path folder = folder();
     DrawStore store = DrawStore.create(settings.chains(), settings.draws(), columns().size());
     RunOutcome outcome;
@@ -285,7 +297,7 @@ public final class FitRun implements AutoCloseable {
     }
     Duration elapsed = Duration.ofNanos(Math.max(0, System.nanoTime() - startNanos));
     saveCheckpoint(folder, outcome);
-    return summarise(outcome, store, replicates, folder, startedAt, elapsed);
+    return summarise(outcome, store, replicates, probabilities, folder, startedAt, elapsed);
   }
 
   private static DrawSink both(DrawSink first, DrawSink second) {
@@ -514,8 +526,8 @@ public final class FitRun implements AutoCloseable {
   }
 
   private FitResult summarise(
-      RunOutcome outcome, DrawStore store, ReplicatedStatistics replicates, Path folder,
-      OffsetDateTime startedAt, Duration elapsed) {
+      RunOutcome outcome, DrawStore store, ReplicatedStatistics replicates,
+      ProbabilitySection probabilities, Path folder, OffsetDateTime startedAt, Duration elapsed) {
     List<String> labels = sampler.labels();
     int kept = store.commonDraws();
     int[] summarised = store.chainsWithDraws();
@@ -531,7 +543,8 @@ public final class FitRun implements AutoCloseable {
     if (kept == 0) {
       Path reportFile = writeReport(folder, new ReportInput(header,
           List.of("No draws were kept (the run stopped during burn-in), so there is no summary."),
-          "", List.of(), ReportOptions.defaults(), sources));
+          "", List.of(), ReportOptions.defaults(), sources), PredictiveChecks.none(),
+          ProbabilityTable.none());
       return new FitResult(
           model.name(), settings, folder, outcome.stoppedEarly(), kept, summarised,
           java.util.Optional.empty(), List.of(), imputed, drawsFile, reportFile);
@@ -579,12 +592,16 @@ public final class FitRun implements AutoCloseable {
     if (replicates != null) {
       checks = predictiveChecks(replicates);
       AtomicFiles.write(folder.resolve(PredictiveChecks.FILE_NAME), checks.csv());
+      writeCheckSweeps(folder, replicates);
     }
     ReportInput page =
         ReportInput.of(header, table, verdicts, kepts,
                 ReportOptions.defaults().withIntervalLevel(request.level()))
             .withSources(sources);
-    Path reportFile = writeReport(folder, page, checks);
+    List<String> columns = columns();
+    ProbabilityTable statements =
+        probabilities.of(label -> store.draws(requireColumn(columns, label)));
+    Path reportFile = writeReport(folder, page, checks, statements);
     return new FitResult(
         model.name(), settings, folder, outcome.stoppedEarly(), kept, summarised,
         java.util.Optional.of(new FitResult.Summary(table, verdicts, summaryFile, checks, page)),
@@ -602,6 +619,42 @@ public final class FitRun implements AutoCloseable {
           replicates.observed(q), replicates.replicated(q)));
     }
     return PredictiveChecks.of(inputs);
+  }
+
+  /**
+   * Every quantity's observed and replicated value of every kept sweep, to {@link
+   * PredictiveChecks#SWEEPS_FILE}: {@code report DIR} draws the panels from it again.
+   */
+  private static void writeCheckSweeps(Path folder, ReplicatedStatistics replicates) {
+    List<TestQuantities.Quantity> quantities = replicates.quantities();
+    List<String> columns = new ArrayList<>();
+    for (TestQuantities.Quantity quantity : quantities) {
+      for (String side : List.of("observed", "replicated")) {
+        columns.add(PredictiveChecks.sweepColumn(
+            quantity.node(), quantity.statistic(), quantity.fromModelFile(), side));
+      }
+    }
+    if (quantities.isEmpty()) {
+      return;
+    }
+    double[][][] observed = new double[quantities.size()][][];
+    double[][][] replicated = new double[quantities.size()][][];
+    for (int q = 0; q < quantities.size(); q++) {
+      observed[q] = replicates.observed(q);
+      replicated[q] = replicates.replicated(q);
+    }
+    try (DrawsWriter writer = DrawsWriter.open(folder, PredictiveChecks.SWEEPS_FILE, columns)) {
+      double[] row = new double[columns.size()];
+      for (int chain = 0; chain < observed[0].length; chain++) {
+        for (int draw = 0; draw < observed[0][chain].length; draw++) {
+          for (int q = 0; q < quantities.size(); q++) {
+            row[2 * q] = observed[q][chain][draw];
+            row[2 * q + 1] = replicated[q][chain][draw];
+          }
+          writer.accept(chain, draw + 1, row);
+        }
+      }
+    }
   }
 
   /** Which state entries the model's analysis gave to the fallback from the start. */
@@ -651,31 +704,16 @@ public final class FitRun implements AutoCloseable {
     return chosen;
   }
 
-  /** Renders the page and writes it atomically; returns its path. */
-  private static Path writeReport(Path folder, ReportInput input) {
-    return writeReport(folder, input, PredictiveChecks.none());
-  }
-
-  /**
-   * Renders the report of {@code result} again with the probability statements of {@code
-   * probabilities} (computed by the caller from the draws after the run, so that a statement naming
-   * no unknown costs no draw) and writes it over the first; returns its path.
-   *
-   * @throws IllegalArgumentException if {@code result} kept no draws or an argument is null
-   */
-  public static Path rewriteReport(FitResult result, ProbabilityTable probabilities) {
-    if (result == null || probabilities == null
-        || result.summary().isEmpty() || result.summary().get().report() == null) {
-      throw new IllegalArgumentException("result must have kept draws; probabilities not null");
+  /** The index of {@code label} among the draws' columns. */
+  private static int requireColumn(List<String> columns, String label) {
+    int index = columns.indexOf(label);
+    if (index < 0) {
+      throw new IllegalArgumentException("there is no column " + label + " among " + columns);
     }
-    FitResult.Summary summary = result.summary().get();
-    return writeReport(result.folder(), summary.report(), summary.checks(), probabilities);
+    return index;
   }
 
-  private static Path writeReport(Path folder, ReportInput input, PredictiveChecks checks) {
-    return writeReport(folder, input, checks, ProbabilityTable.none());
-  }
-
+  /** Renders the page once and writes it atomically; returns its path. */
   private static Path writeReport(
       Path folder, ReportInput input, PredictiveChecks checks, ProbabilityTable probabilities) {
     Path file = folder.resolve(REPORT_FILE);

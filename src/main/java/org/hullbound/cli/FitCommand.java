@@ -2,6 +2,7 @@ package org.hullbound.cli;
 
 import java.io.PrintWriter;
 import java.nio.file.Path;
+import java.util.ArrayList;
 import java.util.List;
 import java.util.concurrent.Callable;
 import org.hullbound.report.PredictiveChecks;
@@ -9,14 +10,13 @@ import org.hullbound.app.RunRefusedException;
 import org.hullbound.app.FitRequest;
 import org.hullbound.app.FitResult;
 import org.hullbound.app.FitRun;
+import org.hullbound.app.ProbabilitySection;
 import org.hullbound.app.PredictiveOptions;
 import org.hullbound.gibbs.MemoryBudget;
 import org.hullbound.gibbs.ProgressListener;
 import org.hullbound.gibbs.RunSettings;
 import org.hullbound.gibbs.StopSignal;
 import org.hullbound.io.CheckpointFile;
-import org.hullbound.io.DrawsReader;
-import org.hullbound.io.DrawsTable;
 import picocli.CommandLine;
 import picocli.CommandLine.Command;
 import picocli.CommandLine.Mixin;
@@ -136,25 +136,30 @@ public final class FitCommand implements Callable<Integer> {
           }
           stderr.flush();
         }
-        if (probability.given()) {
-          // before sampling: a statement that is malformed or names no column costs no draw
-          probability.expand(run.columns());
-        }
+        // Expanded once, before sampling: a statement that is malformed or names no column costs
+        // no draw; estimated once from the kept draws, before the page is rendered once.
+        List<ProbabilityOption.Statement> statements =
+            probability.given() ? probability.expand(run.columns()) : List.of();
+        List<List<ProbabilityOption.Estimate>> estimated = new ArrayList<>();
+        ProbabilitySection section = statements.isEmpty()
+            ? ProbabilitySection.none()
+            : draws -> {
+                List<ProbabilityOption.Estimate> estimates =
+                    ProbabilityOption.estimate(statements, draws);
+                estimated.add(estimates);
+                return ProbabilityOption.table(estimates);
+              };
         FitResult result;
         try {
-          result = run.run(listener, stop);
+          result = run.run(listener, stop, section);
         } finally {
           display.finish();
         }
         print(result, stdout, stderr);
-        if (probability.given() && result.summary().isPresent()) {
-          // after the files: a statement naming no unknown loses no draw
-          DrawsTable draws = DrawsReader.read(result.drawsFile());
-          List<ProbabilityOption.Estimate> estimates =
-              ProbabilityOption.estimate(probability.expand(draws.variables()), draws::draws);
+        if (!estimated.isEmpty()) {
+          List<ProbabilityOption.Estimate> estimates = estimated.get(0);
           stdout.print(ProbabilityOption.text(estimates));
           stdout.println("probabilities: " + ProbabilityOption.write(result.folder(), estimates));
-          FitRun.rewriteReport(result, ProbabilityOption.table(estimates));
           stdout.flush();
         }
         if (result.stoppedEarly()) {

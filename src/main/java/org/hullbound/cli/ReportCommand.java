@@ -1,6 +1,7 @@
 package org.hullbound.cli;
 
 import java.io.IOException;
+import java.io.UncheckedIOException;
 import java.io.PrintWriter;
 import java.io.Reader;
 import java.nio.file.Files;
@@ -30,6 +31,7 @@ import org.hullbound.io.CheckpointException;
 import org.hullbound.io.CheckpointFile;
 import org.hullbound.io.DrawsReader;
 import org.hullbound.io.DrawsTable;
+import org.hullbound.lang.ModelException;
 import org.hullbound.io.DrawsWriter;
 import org.hullbound.model.DataSummary;
 import org.hullbound.lang.NumberSyntax;
@@ -181,8 +183,7 @@ public final class ReportCommand implements Callable<Integer> {
         target,
         HtmlReport.render(
             input,
-            readBack(folder.resolve(PredictiveChecks.FILE_NAME), PredictiveChecks::fromCsv,
-                PredictiveChecks.none(), "predictive checks", stderr),
+            predictiveChecks(folder, stderr),
             readBack(folder.resolve(ProbabilityOption.FILE_NAME), ProbabilityOption::fromCsv,
                 ProbabilityTable.none(), "probability statements", stderr)));
     stdout.println("report: " + target);
@@ -200,6 +201,30 @@ public final class ReportCommand implements Callable<Integer> {
             : "; the folder has no checkpoint.txt, so the seed and burn-in show as 0")
         + (modelFound ? "" : "; the model file was not found, so its text is not shown")
         + "; the data files are not recorded in the folder.";
+  }
+
+  /**
+   * The predictive checks of the run in {@code folder}: its table, computed again from the
+   * per-sweep file when fit wrote one, so that the panels are fit's own (a folder of an older
+   * run has the table alone, and the page then shows the p-values without the panels).
+   */
+  private static PredictiveChecks predictiveChecks(Path folder, PrintWriter stderr) {
+    PredictiveChecks rows = readBack(folder.resolve(PredictiveChecks.FILE_NAME),
+        PredictiveChecks::fromCsv, PredictiveChecks.none(), "predictive checks", stderr);
+    Path sweeps = folder.resolve(PredictiveChecks.SWEEPS_FILE);
+    if (rows.isEmpty() || !Files.isRegularFile(sweeps)) {
+      return rows;
+    }
+    try {
+      DrawsTable table = DrawsReader.read(sweeps);
+      return PredictiveChecks.fromSweeps(
+          rows, column -> table.hasVariable(column) ? table.draws(column) : null);
+    } catch (UncheckedIOException | ModelException | IllegalArgumentException unreadable) {
+      stderr.println("hullbound report: note: cannot read " + sweeps + " ("
+          + unreadable.getMessage() + "), so the predictive checks show no panels");
+      stderr.flush();
+      return rows;
+    }
   }
 
   /**

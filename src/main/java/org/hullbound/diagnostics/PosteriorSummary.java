@@ -100,6 +100,9 @@ public final class PosteriorSummary {
     if (rhat.bulk() == Double.POSITIVE_INFINITY) {
       notes.add("every half-chain is constant but they differ: the chains are stuck apart");
     }
+    if (twoValued(sorted)) {
+      return twoValued(name, draws, sorted, split, splitSorted, scores, rhat, mean, sd, notes);
+    }
     if (Double.isNaN(rhat.tail())) {
       notes.add(
           "the draws folded around their median are all equal, so tail R-hat and hence R-hat"
@@ -146,6 +149,69 @@ public final class PosteriorSummary {
         mcseQ975,
         VariableSummary.State.COMPLETE,
         notes);
+  }
+
+  /** Whether every draw is one of two values (the draws are known not to be constant). */
+  private static boolean twoValued(double[] sorted) {
+    double low = sorted[0];
+    double high = sorted[sorted.length - 1];
+    for (double x : sorted) {
+      if (x != low && x != high) {
+        return false;
+      }
+    }
+    return true;
+  }
+
+  /**
+   * The summary of draws of two values a &lt; b (a bernoulli, a categorical over two values, a
+   * whole number that the data pin to two): tail-ESS is left undefined and the verdict rests on
+   * bulk-ESS and R-hat.
+   *
+   * <p>Why (common practice, argued here): the draws are a + (b - a) I(x = b), so everything they
+   * say is the share of b. Rank normalisation maps two values to two scores, an affine map of
+   * that indicator, so bulk-ESS is the effective sample size of the share itself, and bulk R-hat
+   * compares the chains' shares. The tail quantiles of Vehtari et al. (2021, section 4.3) sit on
+   * the two values, where the quantile indicator is either constant (undefined) or the same
+   * indicator again, so tail-ESS adds nothing; folding around the median (their tail R-hat) gives
+   * the same indicator or, when the median falls between the values, a constant, so R-hat is the
+   * bulk R-hat here.
+   */
+  private static VariableSummary twoValued(
+      String name, Draws draws, double[] sorted, Draws split, double[] splitSorted, Draws scores,
+      RankNormalizedRhat rhat, double mean, double sd, List<String> notes) {
+    double nan = Double.NaN;
+    notes.add(
+        "the draws take two values only (" + plain(sorted[0]) + " and "
+            + plain(sorted[sorted.length - 1]) + "): their distribution is the share at the upper value, measured by bulk-ESS, so"
+            + " tail-ESS is not defined and convergence is judged on bulk-ESS and R-hat");
+    double essMean = EffectiveSampleSize.of(split);
+    return new VariableSummary(
+        name,
+        draws.chainCount(),
+        draws.length(),
+        mean,
+        sd,
+        Quantiles.of(sorted, 0.025),
+        Quantiles.of(sorted, 0.5),
+        Quantiles.of(sorted, 0.975),
+        rhat.bulk(),
+        rhat.bulk(),
+        rhat.tail(),
+        EffectiveSampleSize.of(scores),
+        nan,
+        essMean,
+        sd / Math.sqrt(essMean),
+        quantileError(split, splitSorted, sorted, 0.025),
+        quantileError(split, splitSorted, sorted, 0.5),
+        quantileError(split, splitSorted, sorted, 0.975),
+        VariableSummary.State.TWO_VALUED,
+        notes);
+  }
+
+  /** A whole number without a decimal point ({@code 9}, as the model language writes it). */
+  private static String plain(double x) {
+    return x == Math.rint(x) && Math.abs(x) < 1e15 ? Long.toString((long) x) : Double.toString(x);
   }
 
   private static double quantileError(

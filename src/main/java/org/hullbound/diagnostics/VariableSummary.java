@@ -60,6 +60,12 @@ public record VariableSummary(
     COMPLETE,
     /** All draws are equal: mean and quantiles are that value, sd 0; R-hat, ESS, MCSE NaN. */
     CONSTANT,
+    /**
+     * Everything was computed but tail-ESS, which draws of two values only do not have: their
+     * whole distribution is the share at the upper value, whose effective sample size is the
+     * bulk-ESS, so convergence is judged on bulk-ESS and R-hat alone.
+     */
+    TWO_VALUED,
     /** Fewer than 4 draws per chain: moments and quantiles only; R-hat, ESS, MCSE NaN. */
     TOO_SHORT,
     /** Some draws are NaN or infinite: nothing is computed, every statistic is NaN. */

@@ -39,9 +39,37 @@ public sealed interface Expression {
     }
   }
 
-  /** {@code sum(set: body)}: inside {@code body} the set's name stands for the current element. */
-  record Sum(Identifier indexSet, Expression body, SourcePosition position)
-      implements Expression {}
+  /**
+   * A reduction over an index set, {@code sum(set: body)}, {@code max(set: body)} or {@code
+   * min(set: body)}: inside {@code body} the set's name stands for the current element. The
+   * largest and smallest are for {@code check} statements only (the parser refuses them
+   * elsewhere), where a kink costs nothing.
+   */
+  record Sum(Identifier indexSet, Expression body, SourcePosition position, Reduction reduction)
+      implements Expression {
+    /** A plain sum. */
+    public Sum(Identifier indexSet, Expression body, SourcePosition position) {
+      this(indexSet, body, position, Reduction.SUM);
+    }
+  }
+
+  /** What a {@link Sum} does with its terms; the word is the one written before the parenthesis. */
+  enum Reduction {
+    SUM("sum"),
+    MAX("max"),
+    MIN("min");
+
+    private final String word;
+
+    Reduction(String word) {
+      this.word = word;
+    }
+
+    /** As written: {@code sum}, {@code max}, {@code min}. */
+    public String word() {
+      return word;
+    }
+  }
 
   /** The binary operators, loosest first; {@code ^} binds tightest and groups to the right. */
   enum Operator {

@@ -27,14 +27,25 @@ public final class Functions {
     }
     arity.put("min", 2);
     arity.put("max", 2);
+    arity.put("above", 2);
+    arity.put("below", 2);
     return Map.copyOf(arity);
+  }
+
+  /**
+   * The indicators {@code above(x, c)} (1 when x &gt; c, else 0) and {@code below(x, c)} (1 when x
+   * &lt; c): allowed in {@code check} statements only, like the reductions {@code max(set: ...)}
+   * and {@code min(set: ...)}, because a step has no slope for a sampler to use.
+   */
+  public static boolean checkOnly(String name) {
+    return "above".equals(name) || "below".equals(name);
   }
 
   /** Every function name, in the order the language documentation lists them. */
   public static List<String> names() {
     return List.of(
         "exp", "log", "log1p", "expm1", "sqrt", "abs", "logit", "expit", "log_expit", "lgamma",
-        "min", "max");
+        "min", "max", "above", "below");
   }
 
   /**

@@ -61,6 +61,8 @@ public final class Parser {
   private int buffered;
   private Token previous;
   private int nesting;
+  /** Whether the value of a {@code check} is being read: only there may indicators and largest or smallest reductions stand. */
+  private boolean inCheck;
   private Statement.ModelName modelName;
 
   private Parser(SourceText source) {
@@ -477,7 +479,13 @@ public final class Parser {
     if (!accept(Token.Kind.EQUALS)) {
       throw expected("'=' after the name of check '" + name.text() + "'", peek(), null);
     }
-    Expression value = expression();
+    inCheck = true;
+    Expression value;
+    try {
+      value = expression();
+    } finally {
+      inCheck = false;
+    }
     endOfStatement("an operator or the end of the line after the value of check '" + name.text() + "'");
     return new Statement.Check(name, value, keyword.position());
   }
@@ -679,7 +687,21 @@ public final class Parser {
     Token nameToken = take();
     Identifier name = new Identifier(nameToken.text(), nameToken.position());
     if (at(Token.Kind.OPEN_PAREN)) {
-      return nameToken.text().equals("sum") ? sum(nameToken) : call(name);
+      if (nameToken.text().equals("sum")) {
+        return sum(nameToken, Expression.Reduction.SUM);
+      }
+      boolean extreme = nameToken.text().equals("max") || nameToken.text().equals("min");
+      if (extreme && peek(1).kind() == Token.Kind.NAME) {
+        // max(a, b) is the function; max(set: ...) the reduction, told apart by the ':' after
+        // the first name, which needs one more token than the lookahead holds: take the '('.
+        Token open = take();
+        if (peek(1).kind() == Token.Kind.COLON) {
+          return sum(nameToken, nameToken.text().equals("max")
+              ? Expression.Reduction.MAX : Expression.Reduction.MIN);
+        }
+        return call(name, open);
+      }
+      return call(name);
     }
     List<Expression> indexes = new ArrayList<>();
     int height = 1;
@@ -701,6 +723,11 @@ public final class Parser {
   }
 
   private Parsed call(Identifier function) {
+    return call(function, null);
+  }
+
+  /** A call; {@code open} is its '(' when already taken, else null. */
+  private Parsed call(Identifier function, Token open) {
     if (!Functions.isFunction(function.text())) {
       List<String> known = new ArrayList<>(Functions.names());
       known.add("sum");
@@ -714,7 +741,16 @@ public final class Parser {
               + String.join(", ", Functions.names()) + " and sum(set: expression)",
           hint != null ? hint : "to multiply, write '" + function.text() + " * (...)'");
     }
-    take();
+    if (Functions.checkOnly(function.text()) && !inCheck) {
+      throw error(
+          function.position(),
+          "'" + function.text() + "' is an indicator, which only a check may use",
+          "an indicator is a step with no slope for a sampler; count with it in a check, as in"
+              + " check high = sum(obs: " + function.text() + "(y[obs], 10))");
+    }
+    if (open == null) {
+      take();
+    }
     List<Expression> arguments = new ArrayList<>();
     int height = 1;
     if (!accept(Token.Kind.CLOSE_PAREN)) {
@@ -747,19 +783,30 @@ public final class Parser {
         new Expression.Call(function, arguments, function.position()), height, previous);
   }
 
-  private Parsed sum(Token sumToken) {
-    take();
-    String shape = "a sum is written sum(set: expression), as in sum(coef: x[coef])";
-    Identifier set = name("the name of an index set after 'sum('", shape);
+  private Parsed sum(Token sumToken, Expression.Reduction reduction) {
+    String word = reduction.word();
+    if (reduction == Expression.Reduction.SUM) {
+      take();
+    } else if (!inCheck) {
+      throw error(
+          sumToken.position(),
+          "the largest or smallest over a set, " + word + "(set: ...), is for checks only",
+          "a kink at every tie gives a sampler no slope; use it in a check, as in check top = "
+              + word + "(obs: y[obs]), or max(a, b) of two values");
+    }
+    String shape = reduction == Expression.Reduction.SUM
+        ? "a sum is written sum(set: expression), as in sum(coef: x[coef])"
+        : "written " + word + "(set: expression), as in " + word + "(obs: y[obs])";
+    Identifier set = name("the name of an index set after '" + word + "('", shape);
     if (!accept(Token.Kind.COLON)) {
-      throw expected("':' after the index set '" + set.text() + "' of the sum", peek(), shape);
+      throw expected("':' after the index set '" + set.text() + "' of the " + word, peek(), shape);
     }
     Parsed body = additive();
     if (!accept(Token.Kind.CLOSE_PAREN)) {
-      throw expected("an operator or ')' to close the sum", peek(), null);
+      throw expected("an operator or ')' to close the " + word, peek(), null);
     }
     return grown(
-        new Expression.Sum(set, body.expression(), sumToken.position()),
+        new Expression.Sum(set, body.expression(), sumToken.position(), reduction),
         body.height() + 1,
         sumToken);
   }

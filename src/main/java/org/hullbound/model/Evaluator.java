@@ -55,6 +55,9 @@ abstract class Evaluator {
         return new Divide(left, right);
       case POWER:
         return new Power(left, right);
+      case ABOVE:
+      case BELOW:
+        return new Indicator(op, left, right);
       default:
         return new Extremum(op == Op.MAX, left, right);
     }
@@ -203,6 +206,24 @@ abstract class Evaluator {
       }
       frame.slope = slope;
       return p;
+    }
+  }
+
+  /** A step: its slope is 0 wherever it is defined. */
+  private static final class Indicator extends Pair {
+    private final Op op;
+
+    Indicator(Op op, Evaluator left, Evaluator right) {
+      super(left, right);
+      this.op = op;
+    }
+
+    @Override
+    double eval(Frame frame) {
+      double a = left.eval(frame);
+      double b = right.eval(frame);
+      frame.slope = 0;
+      return op.binary(a, b);
     }
   }
 

@@ -28,7 +28,11 @@ enum Op {
   LOG_EXPIT("log_expit", 1, true),
   LGAMMA("lgamma", 1, true),
   MIN("min", 2, false),
-  MAX("max", 2, false);
+  MAX("max", 2, false),
+  /** 1 when a &gt; b, else 0: an indicator, for checks only (the parser keeps it out of densities). */
+  ABOVE("above", 2, false),
+  /** 1 when a &lt; b, else 0. */
+  BELOW("below", 2, false);
 
   private final String symbol;
   private final int arity;
@@ -139,6 +143,10 @@ enum Op {
         return Math.min(a, b);
       case MAX:
         return Math.max(a, b);
+      case ABOVE:
+        return a > b ? 1 : 0;
+      case BELOW:
+        return a < b ? 1 : 0;
       default:
         throw new IllegalStateException(this + " is not a two-argument operation");
     }

@@ -38,6 +38,13 @@ public final class PredictiveChecks {
           "node", "quantity", "source", "observed", "observed_varies", "replicated_mean",
           "replicated_sd", "p_value", "p_value_mcse", "tie_share", "sweeps", "flag");
 
+  /**
+   * The per-sweep file beside {@link #FILE_NAME}: each quantity's observed and replicated value
+   * of every kept sweep, columns named by {@link #sweepColumn}, so that {@code report DIR} draws
+   * the panels again as {@code fit} drew them.
+   */
+  public static final String SWEEPS_FILE = "predictive_sweeps.csv";
+
   /** p-values below this are flagged. */
   public static final double LOW = 0.05;
 
@@ -140,6 +147,36 @@ public final class PredictiveChecks {
       throw new IllegalArgumentException("not a table of predictive checks: " + bad.getMessage(), bad);
     }
     return new PredictiveChecks(rows);
+  }
+
+  /**
+   * The column of {@link #SWEEPS_FILE} holding one side ({@code observed} or {@code replicated})
+   * of a quantity, e.g. {@code y mean observed} or {@code y check top replicated}; a {@code check}
+   * may share a default quantity's name, so the source is part of it.
+   */
+  public static String sweepColumn(String node, String quantity, boolean fromModelFile, String side) {
+    return node + (fromModelFile ? " check " : " ") + quantity + " " + side;
+  }
+
+  /**
+   * The checks of {@code rows} (read back from {@link #FILE_NAME}) computed again from their
+   * per-sweep values, {@code [chain][draw]} by {@link #sweepColumn}, so that the panels and every
+   * figure are {@code fit}'s own; {@code rows} unchanged when a quantity's columns are missing.
+   */
+  public static PredictiveChecks fromSweeps(
+      PredictiveChecks rows, java.util.function.Function<String, double[][]> sweeps) {
+    List<Input> inputs = new ArrayList<>();
+    for (Row row : rows.rows()) {
+      double[][] observed =
+          sweeps.apply(sweepColumn(row.node(), row.quantity(), row.fromModelFile(), "observed"));
+      double[][] replicated =
+          sweeps.apply(sweepColumn(row.node(), row.quantity(), row.fromModelFile(), "replicated"));
+      if (observed == null || replicated == null) {
+        return rows;
+      }
+      inputs.add(new Input(row.node(), row.quantity(), row.fromModelFile(), observed, replicated));
+    }
+    return of(inputs);
   }
 
   /** The inverse of {@link SummaryTable#full}. */
@@ -364,7 +401,7 @@ public final class PredictiveChecks {
           html.append(": ").append(Markup.escape(r.words()));
         }
         if (r.replicated().length == 0) {
-          html.append(" (the histogram is drawn by fit only)");
+          html.append(" (no histogram: the run folder has no ").append(SWEEPS_FILE).append(')');
         }
         html.append("</figcaption></figure>");
       }

@@ -45,7 +45,8 @@ public final class ProbabilityTable {
    * @throws IllegalArgumentException if {@code rows} is null or holds null
    */
   public static ProbabilityTable of(List<Row> rows) {
-    if (rows == null || rows.contains(null)) {
+    // not rows.contains(null): an immutable list throws on a null query
+    if (rows == null || rows.stream().anyMatch(java.util.Objects::isNull)) {
       throw new IllegalArgumentException("rows must not be null or hold null");
     }
     return rows.isEmpty() ? NONE : new ProbabilityTable(List.copyOf(rows));

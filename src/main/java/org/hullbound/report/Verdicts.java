@@ -14,7 +14,8 @@ import org.hullbound.diagnostics.VariableSummary;
  * states the conclusion. The default thresholds are those recommended by Vehtari, Gelman,
  * Simpson, Carpenter and Buerkner (2021), Bayesian Analysis 16(2), section 4.4 (as recalled):
  * R-hat below 1.01, and bulk and tail effective sample size of at least 400 (100 per chain for
- * four chains).
+ * four chains). Draws of two values only have no tail-ESS and are judged on bulk-ESS and R-hat
+ * ({@link VariableSummary.State#TWO_VALUED}); the closing line says so.
  */
 public final class Verdicts {
   /** Largest acceptable R-hat by default (Vehtari et al. 2021). */
@@ -28,14 +29,18 @@ public final class Verdicts {
   private final int unknowns;
   /** Of those, the derived quantities (kept {@code let}s), which the closing line names apart. */
   private final int derived;
+  /** Of the rows, those whose draws take two values only, judged without tail-ESS. */
+  private final List<String> twoValued;
   private final double maxRhat;
   private final double minEss;
 
   private Verdicts(
-      List<Verdict> verdicts, int unknowns, int derived, double maxRhat, double minEss) {
+      List<Verdict> verdicts, int unknowns, int derived, List<String> twoValued, double maxRhat,
+      double minEss) {
     this.verdicts = verdicts;
     this.unknowns = unknowns;
     this.derived = derived;
+    this.twoValued = twoValued;
     this.maxRhat = maxRhat;
     this.minEss = minEss;
   }
@@ -63,12 +68,18 @@ public final class Verdicts {
     }
     List<Verdict> found = new ArrayList<>();
     int derived = 0;
+    List<String> twoValued = new ArrayList<>();
     for (VariableSummary summary : table.summaries()) {
       UpdateFacts facts = table.updates().get(summary.name());
       judge(summary, facts, maxRhat, minEss, found);
       derived += facts != null && facts.isDerived() ? 1 : 0;
+      if (summary.state() == VariableSummary.State.TWO_VALUED) {
+        twoValued.add(summary.name());
+      }
     }
-    return new Verdicts(List.copyOf(found), table.summaries().size(), derived, maxRhat, minEss);
+    return new Verdicts(
+        List.copyOf(found), table.summaries().size(), derived, List.copyOf(twoValued), maxRhat,
+        minEss);
   }
 
   /** The findings, unknown by unknown in table order; empty when all is well. */
@@ -101,6 +112,7 @@ public final class Verdicts {
               + plain(maxRhat)
               + ", bulk-ESS and tail-ESS at least "
               + plain(minEss)
+              + twoValuedClause()
               + ", no fallback update.");
     } else {
       long flagged = verdicts.stream().map(Verdict::unknown).distinct().count();
@@ -115,6 +127,22 @@ public final class Verdicts {
               + (flagged < unknowns ? "; the others look converged." : "."));
     }
     return List.copyOf(lines);
+  }
+
+  /**
+   * Says which rows were judged without tail-ESS: draws of two values have none (see {@link
+   * org.hullbound.diagnostics.VariableSummary.State#TWO_VALUED}).
+   */
+  private String twoValuedClause() {
+    if (twoValued.isEmpty()) {
+      return "";
+    }
+    int shown = Math.min(3, twoValued.size());
+    String names = String.join(", ", twoValued.subList(0, shown))
+        + (twoValued.size() > shown ? " and " + (twoValued.size() - shown) + " more" : "");
+    return " (" + names + (twoValued.size() == 1 ? " takes" : " take") + " two values only:"
+        + " tail-ESS is not defined there, so " + (twoValued.size() == 1 ? "it is" : "they are")
+        + " judged on bulk-ESS and R-hat alone)";
   }
 
   /**
@@ -161,7 +189,7 @@ public final class Verdicts {
                   + ": only "
                   + s.drawsPerChain()
                   + " draws per chain, too few to judge convergence; run longer"));
-      case COMPLETE -> judgeDiagnostics(s, maxRhat, minEss, found);
+      case COMPLETE, TWO_VALUED -> judgeDiagnostics(s, maxRhat, minEss, found);
     }
     if (facts != null) {
       judgeUpdate(name, facts, found);
@@ -232,7 +260,7 @@ public final class Verdicts {
                   + plain(minEss)
                   + "); the 2.5% and 97.5% points are imprecise; "
                   + runLonger(s.essTail(), minEss)));
-    } else if (Double.isNaN(s.essTail())) {
+    } else if (Double.isNaN(s.essTail()) && s.state() != VariableSummary.State.TWO_VALUED) {
       found.add(
           new Verdict(
               name,

@@ -1,6 +1,7 @@
 package org.hullbound.validation;
 
 import java.util.ArrayList;
+import java.util.Arrays;
 import java.util.List;
 import java.util.random.RandomGenerator;
 import java.util.random.RandomGenerator.SplittableGenerator;
@@ -83,9 +84,15 @@ public final class Calibration {
     return bound.name();
   }
 
-  /** The model's unknowns, in state order. */
+  /**
+   * What is ranked: the model's unknowns in state order, then its kept derived quantities (a
+   * function of the unknowns ranks uniformly too when the sampler is exact).
+   */
   public List<String> labels() {
-    return bound.unknowns().stream().map(u -> u.label()).toList();
+    List<String> labels = new ArrayList<>();
+    bound.unknowns().forEach(u -> labels.add(u.label()));
+    labels.addAll(bound.derived().labels());
+    return labels;
   }
 
   /**
@@ -130,9 +137,12 @@ public final class Calibration {
     PriorSimulation simulation = PriorSimulation.of(bound);
     List<String> labels = labels();
     // (1) prior draw, (2) simulated data.
-    double[] truth = simulation.drawUnknowns(rng);
+    double[] unknowns = simulation.drawUnknowns(rng);
     SimulatedData.Inputs inputs =
-        SimulatedData.replace(model, tables, simulation.simulateObservations(truth, rng));
+        SimulatedData.replace(model, tables, simulation.simulateObservations(unknowns, rng));
+    // The kept derived quantities' prior values, computed as fit computes them from a state.
+    double[] truth = Arrays.copyOf(unknowns, labels.size());
+    bound.derived().evaluate(unknowns, truth, unknowns.length);
     BoundModel replicate = BoundModel.bind(inputs.model(), inputs.tables());
     // (3) the fit, with its own seed from this replicate's stream.
     double[][] posterior =

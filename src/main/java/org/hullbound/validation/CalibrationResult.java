@@ -3,13 +3,13 @@ package org.hullbound.validation;
 import java.util.List;
 
 /**
- * What a simulation-based calibration run gave: every replicate's rank of every unknown, and the
- * uniformity test per unknown.
+ * What a simulation-based calibration run gave: every replicate's rank of every unknown and kept
+ * derived quantity, and the uniformity test of each.
  *
  * @param modelName the model's name
- * @param labels the unknowns, in state order
- * @param ranks {@code [replicate][unknown]}, each in 0 .. settings.draws()
- * @param tests one per unknown, in state order
+ * @param labels the unknowns in state order, then the kept derived quantities
+ * @param ranks {@code [replicate][label]}, each in 0 .. settings.draws()
+ * @param tests one per label, in the labels' order
  * @param settings the run's settings
  */
 public record CalibrationResult(

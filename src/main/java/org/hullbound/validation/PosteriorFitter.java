@@ -18,7 +18,8 @@ public interface PosteriorFitter {
    * @param draws posterior draws kept, L
    * @param thin sweeps per kept draw
    * @param burnIn sweeps discarded first
-   * @return {@code [unknown][draw]}, unknowns in state order, {@code draws} each
+   * @return {@code [column][draw]}, {@code draws} each: the unknowns in state order, then the
+   *     model's kept derived quantities (its {@code let}s, as {@code fit} keeps them)
    */
   double[][] fit(BoundModel model, int draws, int thin, int burnIn, long seed);
 

@@ -11,6 +11,7 @@ import org.hullbound.gibbs.UpdateReport;
 import org.hullbound.lang.ModelException;
 import org.hullbound.lang.NameSuggestion;
 import org.hullbound.model.BoundModel;
+import org.hullbound.report.UpdateFacts;
 
 /**
  * Runs the validation suite: fits each case's model with the Gibbs driver at a fixed seed and
@@ -94,8 +95,8 @@ public final class Validator {
       if (index < 0) {
         return new CaseOutcome(
             c.name(), checks,
-            q.name() + " names '" + q.unknown() + "', which is not an unknown of the model; unknowns are "
-                + String.join(", ", labels));
+            q.name() + " names '" + q.unknown() + "', which is neither an unknown nor a kept"
+                + " derived quantity of the model; these are " + String.join(", ", labels));
       }
       Estimates estimate = Estimates.of(q.statistic(), fit.draws(index));
       double tolerance = settings.k() * estimate.mcse() + q.floor();
@@ -103,7 +104,7 @@ public final class Validator {
       checks.add(
           new QuantityCheck(
               q.name(), q.reference(), estimate.value(), estimate.mcse(), tolerance,
-              updates.get(index).method(), pass));
+              index < fit.unknownCount() ? updates.get(index).method() : UpdateFacts.DERIVED, pass));
     }
     return new CaseOutcome(c.name(), checks, null);
   }

@@ -32,7 +32,7 @@ class PredictiveChecksCalibrationTest {
     InMemoryFit fit = InMemoryFit.of(model, settings);
     ReplicatedStatistics replicates =
         ReplicatedStatistics.of(TestQuantities.of(model), 1, seed, DRAWS, null);
-    int unknowns = fit.labels().size();
+    int unknowns = fit.unknownCount();
     double[][][] draws = new double[unknowns][][];
     for (int k = 0; k < unknowns; k++) {
       draws[k] = fit.draws(k);

@@ -62,7 +62,9 @@ class FitReplicateChecksTest {
     assertEquals(0, again.exit(), again.toString());
     String redrawn = Files.readString(out.resolve("report.html"));
     assertTrue(redrawn.contains("id=\"predictive\""), "report DIR keeps the checks");
-    assertTrue(redrawn.contains("the histogram is drawn by fit only"));
+    // the histograms too, from predictive_sweeps.csv (reportDirRedrawsThePanelsOfFitsOwnPage)
+    assertEquals(5, redrawn.split("class=\"plot plot-predictive\"", -1).length - 1);
+    assertFalse(redrawn.contains("no histogram"));
   }
 
   @Test
@@ -134,5 +136,80 @@ class FitReplicateChecksTest {
         run.toString());
     assertFalse(Files.exists(out.resolve("predictive_checks.csv"))
         && Files.readString(out.resolve("predictive_checks.csv")).contains("nitrate"));
+  }
+
+  /**
+   * The largest and smallest over a set and the indicators in checks. Observed values by hand from
+   * the ten counts: the largest is 11, the smallest count less 0 is 0, two counts exceed 5 (7 and
+   * 11), five are below 0.5. Replicated, {@code max(obs: y[obs])} is the default max statistic and
+   * the share below 0.5 is the default zero share, so their p-values agree to the bit.
+   */
+  @Test
+  void largestSmallestAndIndicatorsInChecks() throws IOException {
+    Path model = model(String.join("\n",
+        "index obs",
+        "data  y[obs] = [3, 0, 0, 7, 2, 0, 11, 0, 1, 0] ~ poisson(rate = r)",
+        "param r ~ gamma(shape = 2, rate = 1)",
+        "check top = max(obs: y[obs])",
+        "check bottom = min(obs: y[obs] + 0)",
+        "check high = sum(obs: above(y[obs], 5))",
+        "check zeros = sum(obs: below(y[obs], 0.5)) / 10",
+        ""));
+    Path out = folder.resolve("out");
+    CliRun run = CliRun.of("fit", model.toString(), "--chains", "2", "--burn-in", "50", "--draws",
+        "400", "--seed", "3", "--out", out.toString(), "--quiet", "--replicate-checks");
+    assertEquals(0, run.exit(), run.toString());
+    List<CSVRecord> rows = csv(out.resolve(PredictiveChecks.FILE_NAME));
+    java.util.Map<String, CSVRecord> by = new java.util.HashMap<>();
+    for (CSVRecord row : rows.subList(1, rows.size())) {
+      by.put(row.get(1), row);
+    }
+    assertEquals("11.0", by.get("top").get(3));
+    assertEquals("0.0", by.get("bottom").get(3));
+    assertEquals("2.0", by.get("high").get(3));
+    assertEquals("0.5", by.get("zeros").get(3));
+    for (int column : new int[] {5, 6, 7}) {
+      assertEquals(by.get("max").get(column), by.get("top").get(column), "max, column " + column);
+      assertEquals(by.get("min").get(column), by.get("bottom").get(column), "min, column " + column);
+      assertEquals(by.get("zero_share").get(column), by.get("zeros").get(column), "zeros, column " + column);
+    }
+  }
+
+  /**
+   * {@code report DIR} draws the predictive-check panels again from predictive_sweeps.csv: the
+   * section equals fit's own to the byte (it showed the p-values without histograms). A folder
+   * without the file still gets the p-values, and says why there is no histogram.
+   */
+  @Test
+  void reportDirRedrawsThePanelsOfFitsOwnPage() throws IOException {
+    Path model = model(String.join("\n",
+        "index obs",
+        "data  y[obs] = [3, 0, 0, 7, 2, 0, 11, 0, 1, 0] ~ poisson(rate = r)",
+        "param r ~ gamma(shape = 2, rate = 1)",
+        "check spread = sum(obs: (y[obs] - r) ^ 2 / r)",
+        "check top = max(obs: y[obs])",
+        ""));
+    Path out = folder.resolve("out");
+    CliRun run = CliRun.of("fit", model.toString(), "--chains", "2", "--burn-in", "50", "--draws",
+        "300", "--seed", "8", "--out", out.toString(), "--quiet", "--replicate-checks");
+    assertEquals(0, run.exit(), run.toString());
+    assertTrue(Files.isRegularFile(out.resolve(PredictiveChecks.SWEEPS_FILE)));
+    String fitted = predictiveSection(Files.readString(out.resolve("report.html")));
+    assertTrue(fitted.contains("<svg") && !fitted.contains("no histogram"), fitted);
+    Files.delete(out.resolve("report.html"));
+    CliRun again = CliRun.of("report", out.toString());
+    assertEquals(0, again.exit(), again.toString());
+    assertEquals(fitted, predictiveSection(Files.readString(out.resolve("report.html"))));
+
+    Files.delete(out.resolve(PredictiveChecks.SWEEPS_FILE));
+    assertEquals(0, CliRun.of("report", out.toString()).exit());
+    String older = predictiveSection(Files.readString(out.resolve("report.html")));
+    assertTrue(older.contains("(no histogram: the run folder has no predictive_sweeps.csv)"), older);
+  }
+
+  private static String predictiveSection(String page) {
+    int start = page.indexOf("<section id=\"predictive\">");
+    assertTrue(start >= 0, "the page has a predictive section");
+    return page.substring(start, page.indexOf("</section>\n</section>", start));
   }
 }

@@ -33,7 +33,9 @@ class ValidateCommandTest {
     assertEquals(0, run.status(), run.out() + run.err());
     assertTrue(run.out().contains("gamma_poisson  [passed]"), run.out());
     assertTrue(run.out().matches("(?s).*mean\\(lambda\\) +3\\.523810 .*pass +conjugate gamma.*"), run.out());
-    assertTrue(run.out().contains("2 of 2 quantities and 1 of 1 cases passed."), run.out());
+    // The case's derived quantity (let wait = 1 / lambda) is computed and checked as fit keeps it.
+    assertTrue(run.out().matches("(?s).*mean\\(wait\\) +0\\.291667 .*pass +derived.*"), run.out());
+    assertTrue(run.out().contains("4 of 4 quantities and 1 of 1 cases passed."), run.out());
   }
 
   @Test
@@ -78,7 +80,7 @@ class ValidateCommandTest {
     assertTrue(run.out().contains("Bonferroni"), run.out());
     assertTrue(run.out().contains("so about 1% of them fall below 0.01 by chance"), run.out());
     java.util.List<String> ranks = Files.readAllLines(out.resolve("ranks.csv"));
-    assertEquals("replicate,lambda", ranks.get(0));
+    assertEquals("replicate,lambda,wait", ranks.get(0), "the derived wait is ranked too");
     assertEquals(61, ranks.size());
     String svg = Files.readString(out.resolve("ranks-lambda.svg"));
     assertTrue(svg.startsWith("<svg") && svg.contains("ranks of lambda"), svg);
@@ -88,7 +90,7 @@ class ValidateCommandTest {
         "validation/gamma_poisson/calls.csv", "--replicates", "10", "--draws", "19", "--seed", "5",
         "--out", out.toString());
     assertEquals(2, again.status(), again.err());
-    assertTrue(again.err().contains("holds an earlier calibration (ranks-lambda.svg and 1 more);"
+    assertTrue(again.err().contains("holds an earlier calibration (ranks-lambda.svg and 2 more);"
         + " give --overwrite to replace it"), again.err());
     assertEquals(61, Files.readAllLines(out.resolve("ranks.csv")).size());
     Run replaced = run("calibrate", "validation/gamma_poisson/model.hbm", "--data",

@@ -169,4 +169,49 @@ class PosteriorSummaryTest {
     VariableSummary s = PosteriorSummary.of("x", new double[][] {{0.7}});
     assertTrue(s.notes().get(0).startsWith("the only draw is 0.7"), s.notes().toString());
   }
+
+  /**
+   * Draws of two values (a bernoulli): tail-ESS is not defined and the state says so; bulk-ESS
+   * is the effective sample size of the share at the upper value. ESS is invariant under an
+   * affine map of the draws (common practice: autocorrelations are), and rank normalisation maps
+   * two values to two scores, so bulk-ESS equals the plain split-chain ESS of the draws (the ESS
+   * of the mean) up to rounding. Independent draws with P(1) = 0.3 on a fixed seed.
+   */
+  @Test
+  void twoValuedDrawsHaveNoTailEssAndAreJudgedOnTheShare() {
+    java.util.random.RandomGenerator rng = SimulatedChains.random(5);
+    double[][] draws = new double[4][1000];
+    for (double[] chain : draws) {
+      for (int i = 0; i < chain.length; i++) {
+        chain[i] = rng.nextDouble() < 0.3 ? 1 : 0;
+      }
+    }
+    VariableSummary s = PosteriorSummary.of("flag", draws);
+    assertEquals(VariableSummary.State.TWO_VALUED, s.state(), s.notes().toString());
+    assertTrue(Double.isNaN(s.essTail()));
+    assertEquals(s.essMean(), s.essBulk(), 1e-9 * s.essMean());
+    assertTrue(s.essBulk() > 3000, "nearly independent draws: " + s.essBulk());
+    assertEquals(s.rhatBulk(), s.rhat());
+    assertTrue(s.notes().get(0).startsWith("the draws take two values only (0 and 1)"), s.notes().toString());
+  }
+
+  /**
+   * Two values split exactly in half: the median falls between them and the draws folded around
+   * it are constant, so the tail R-hat is undefined; R-hat is then the bulk R-hat, which compares
+   * the chains' shares (it was NaN, and the unknown flagged as undefined).
+   */
+  @Test
+  void twoValuesSplitInHalfStillHaveAnRhat() {
+    double[][] draws = {{0, 1, 0, 1, 0, 1, 0, 1}, {1, 0, 1, 0, 1, 0, 1, 0}};
+    VariableSummary s = PosteriorSummary.of("flag", draws);
+    assertEquals(VariableSummary.State.TWO_VALUED, s.state());
+    assertTrue(Double.isNaN(s.rhatTail()));
+    assertTrue(Double.isFinite(s.rhat()) && s.rhat() == s.rhatBulk(), "rhat " + s.rhat());
+  }
+
+  @Test
+  void threeValuesAreNotTwoValued() {
+    double[][] draws = {{0, 1, 2, 1, 0, 1, 2, 1}, {1, 0, 1, 2, 1, 0, 1, 2}};
+    assertEquals(VariableSummary.State.COMPLETE, PosteriorSummary.of("k", draws).state());
+  }
 }

@@ -17,14 +17,21 @@ class FunctionsTest {
     assertEquals(
         List.of(
             "exp", "log", "log1p", "expm1", "sqrt", "abs", "logit", "expit",
-            "log_expit", "lgamma", "min", "max"),
+            "log_expit", "lgamma", "min", "max", "above", "below"),
         Functions.names());
+  }
+
+  @Test
+  void theIndicatorsAloneAreForChecksOnly() {
+    for (String name : Functions.names()) {
+      assertEquals(name.equals("above") || name.equals("below"), Functions.checkOnly(name), name);
+    }
   }
 
   @Test
   void minAndMaxTakeTwoArgumentsTheOthersOne() {
     for (String name : Functions.names()) {
-      int expected = name.equals("min") || name.equals("max") ? 2 : 1;
+      int expected = List.of("min", "max", "above", "below").contains(name) ? 2 : 1;
       assertEquals(expected, Functions.arity(name), name);
       assertTrue(Functions.isFunction(name));
     }

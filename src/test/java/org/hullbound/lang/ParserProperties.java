@@ -227,7 +227,10 @@ class ParserProperties {
         }
         return new Expression.Negation(operand, NOWHERE);
       case 4:
-        String function = Functions.names().get(random.nextInt(Functions.names().size()));
+        // The indicators are for checks only, and these expressions are read as lets.
+        List<String> anywhere =
+            Functions.names().stream().filter(name -> !Functions.checkOnly(name)).toList();
+        String function = anywhere.get(random.nextInt(anywhere.size()));
         List<Expression> arguments = new ArrayList<>();
         for (int i = 0; i < Functions.arity(function); i++) {
           arguments.add(randomExpression(random, depth - 1));

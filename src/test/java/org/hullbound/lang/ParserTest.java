@@ -368,11 +368,38 @@ class ParserTest {
     void everyFunctionOfTheLanguageParsesWithItsArity() {
       for (String name : Functions.names()) {
         String call = Functions.arity(name) == 1 ? name + "(x)" : name + "(x, y)";
-        Expression.Call parsed =
-            assertInstanceOf(Expression.Call.class, ((Statement.Let) only("let z = " + call)).value());
+        // The indicators only in a check (see largestSmallestAndIndicatorsAreForChecksOnly).
+        Expression value = Functions.checkOnly(name)
+            ? ((Statement.Check) only("check z = " + call)).value()
+            : ((Statement.Let) only("let z = " + call)).value();
+        Expression.Call parsed = assertInstanceOf(Expression.Call.class, value);
         assertEquals(name, parsed.function().text());
         assertEquals(Functions.arity(name), parsed.arguments().size());
       }
+    }
+
+    @Test
+    void largestSmallestAndIndicatorsAreForChecksOnly() {
+      Expression.Sum top = assertInstanceOf(Expression.Sum.class,
+          ((Statement.Check) only("check top = max(obs: y[obs])")).value());
+      assertEquals(Expression.Reduction.MAX, top.reduction());
+      assertEquals("obs", top.indexSet().text());
+      assertEquals(13, top.position().column());
+      Expression.Sum low = assertInstanceOf(Expression.Sum.class,
+          ((Statement.Check) only("check low = min(obs: y[obs] - 1)")).value());
+      assertEquals(Expression.Reduction.MIN, low.reduction());
+      // Two values stay the function, in a check and anywhere else.
+      assertInstanceOf(Expression.Call.class, ((Statement.Check) only("check m = max(a, b)")).value());
+      assertInstanceOf(Expression.Call.class, ((Statement.Let) only("let m = min(obs, b)")).value());
+      assertEquals(Expression.Reduction.SUM, assertInstanceOf(Expression.Sum.class,
+          ((Statement.Let) only("let s = sum(obs: y[obs])")).value()).reduction());
+      ModelException largest = assertThrows(ModelException.class, () -> only("let top = max(obs: y[obs])"));
+      assertTrue(largest.render().contains("is for checks only"), largest.render());
+      ModelException indicator = assertThrows(ModelException.class, () -> only("let n = above(y, 2)"));
+      assertTrue(indicator.render().contains("'above' is an indicator, which only a check may use"),
+          indicator.render());
+      // In a check, the flag is lowered again for the next statement.
+      assertThrows(ModelException.class, () -> Parser.parse("m.hbm", "check a = below(y, 1)\nlet b = below(y, 1)\n"));
     }
 
     @Test

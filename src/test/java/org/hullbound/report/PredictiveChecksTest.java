@@ -112,7 +112,7 @@ class PredictiveChecksTest {
     assertEquals(0, read.rows().get(0).replicated().length);
     StringBuilder html = new StringBuilder();
     read.section(html);
-    assertTrue(html.toString().contains("the histogram is drawn by fit only"));
+    assertTrue(html.toString().contains("(no histogram: the run folder has no predictive_sweeps.csv)"));
   }
 
   @Test

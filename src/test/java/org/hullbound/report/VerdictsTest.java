@@ -193,6 +193,28 @@ class VerdictsTest {
   }
 
   @Test
+  void twoValuedUnknownsAreJudgedWithoutTailEssAndTheClosingLineSaysSo() {
+    double[][] indicator = new double[4][400];
+    for (double[] chain : indicator) {
+      for (int i = 0; i < chain.length; i++) {
+        chain[i] = (i * 7 + 3) % 5 < 2 ? 1 : 0;
+      }
+    }
+    VariableSummary flag = PosteriorSummary.of("flag", indicator);
+    assertEquals(VariableSummary.State.TWO_VALUED, flag.state());
+    Verdicts verdicts = judge(Summaries.fine("a"), flag);
+    assertTrue(verdicts.allWell(), verdicts.lines().toString());
+    assertEquals(
+        List.of("Both unknowns look converged: R-hat at most 1.01, bulk-ESS and tail-ESS at least"
+            + " 400 (flag takes two values only: tail-ESS is not defined there, so it is judged on"
+            + " bulk-ESS and R-hat alone), no fallback update."),
+        verdicts.lines());
+    // A nearly discrete unknown of more values with an undefined tail-ESS is still flagged.
+    VariableSummary piled = Summaries.converged("piled", 1.001, 1.001, 3000, Double.NaN);
+    assertEquals(List.of(Verdict.Kind.FEW_TAIL_DRAWS), kinds(judge(piled)));
+  }
+
+  @Test
   void chosenThresholdsApplyAndAreValidated() {
     VariableSummary s = Summaries.converged("a", 1.03, 1.0, 150, 150);
     assertTrue(Verdicts.of(SummaryTable.of(List.of(s)), 1.05, 100).allWell());

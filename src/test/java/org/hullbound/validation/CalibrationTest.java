@@ -103,6 +103,28 @@ final class CalibrationTest {
     assertTrue(result.tests().get(0).pValue() > 1e-4, "p-value " + result.tests().get(0).pValue());
   }
 
+  /**
+   * Kept {@code let} quantities are ranked too, their prior value computed from the prior draw as
+   * {@code fit} computes it from a kept state. Ranks are invariant under an increasing function
+   * and reversed by a decreasing one (common practice: a rank counts the draws below the truth, and
+   * a strictly monotone map keeps or reverses every comparison), so at every replicate the rank of
+   * {@code exp(mu)} equals mu's and that of {@code -mu} is L - mu's, exactly.
+   */
+  @Test
+  void keptDerivedQuantitiesAreRankedFromThePriorDrawsOwnValue() {
+    String text = NORMAL_MEAN + "let grown = exp(mu)\nlet flipped = -mu\n";
+    CalibrationSettings few = new CalibrationSettings(20, 99, 1, 20, 0, 5);
+    CalibrationResult result =
+        Calibration.of(parse(text), List.of(), PosteriorFitter.gibbs()).run(few, n -> { });
+    assertEquals(List.of("mu", "grown", "flipped"), result.labels());
+    assertEquals(3, result.tests().size());
+    int[][] ranks = result.ranks();
+    for (int[] replicate : ranks) {
+      assertEquals(replicate[0], replicate[1], "exp keeps the order");
+      assertEquals(99 - replicate[0], replicate[2], "negation reverses it");
+    }
+  }
+
   @Test
   void theSameSeedGivesTheSameRanks() {
     CalibrationSettings few = new CalibrationSettings(5, 9, 1, 5, 2, 9);

@@ -11,6 +11,7 @@ import net.jqwik.api.RandomDistribution;
 import org.apache.commons.math3.distribution.BetaDistribution;
 import org.apache.commons.math3.distribution.BinomialDistribution;
 import org.apache.commons.math3.distribution.CauchyDistribution;
+import org.apache.commons.math3.distribution.EnumeratedIntegerDistribution;
 import org.apache.commons.math3.distribution.ExponentialDistribution;
 import org.apache.commons.math3.distribution.GammaDistribution;
 import org.apache.commons.math3.distribution.LaplaceDistribution;
@@ -20,6 +21,7 @@ import org.apache.commons.math3.distribution.NormalDistribution;
 import org.apache.commons.math3.distribution.PascalDistribution;
 import org.apache.commons.math3.distribution.PoissonDistribution;
 import org.apache.commons.math3.distribution.TDistribution;
+import org.apache.commons.math3.distribution.UniformIntegerDistribution;
 import org.apache.commons.math3.distribution.UniformRealDistribution;
 import org.apache.commons.math3.distribution.WeibullDistribution;
 import org.apache.commons.math3.special.Beta;
@@ -160,8 +162,9 @@ final class FamilyCases {
         args(logUniform(0.5, 200), mean, positive),
         (a, q) -> a[1] + a[2] * spread(q, 20),
         (x, a) -> new TDistribution(null, a[0]).logDensity((x - a[1]) / a[2]) - Math.log(a[2]),
-        (x, a) -> new TDistribution(null, a[0]).cumulativeProbability((x - a[1]) / a[2]),
-        (x, a) -> a[2], cm + "TDistribution, location-scale transformed"));
+        (x, a) -> studentTCdf((x - a[1]) / a[2], a[0]),
+        (x, a) -> a[2], cm + "TDistribution, location-scale transformed (near the centre A&S 26.7.1 with"
+            + " commons-math3 Beta.regularizedBeta)"));
     cases.add(new Case("cauchy", parametrisation("cauchy", "location", "scale"), args(mean, positive),
         (a, q) -> a[0] + a[1] * spread(q, 20),
         (x, a) -> Math.log(new CauchyDistribution(null, a[0], a[1]).density(x)),
@@ -271,7 +274,63 @@ final class FamilyCases {
             + a[1] * Math.log(a[1] / (a[1] + a[0])) + x * Math.log(a[0] / (a[1] + a[0])),
         null,
         (x, a) -> 1.0, "closed form, Johnson, Kemp and Kotz 2005, 5.1"));
+    cases.add(new Case("whole-uniform", parametrisation("whole-uniform", "lower", "upper"),
+        Combinators.combine(whole(-50, 50), whole(0, 100)).as((lower, span) -> new double[] {lower, lower + span}),
+        (a, q) -> a[0] + Math.min(a[1] - a[0], floorCount(q, a[1] - a[0] + 1)),
+        (x, a) -> new UniformIntegerDistribution(null, (int) a[0], (int) a[1]).logProbability((int) x),
+        (x, a) -> new UniformIntegerDistribution(null, (int) a[0], (int) a[1]).cumulativeProbability((int) x),
+        (x, a) -> 1.0, cm + "UniformIntegerDistribution"));
+    for (int categories : new int[] {2, 5}) {
+      cases.add(categorical(categories, cm));
+    }
     return List.copyOf(cases);
+  }
+
+  /**
+   * The categorical over 1 .. K with K positive weights, which the family normalises, as does
+   * commons-math3's EnumeratedIntegerDistribution; K = 2 is the two-valued case.
+   */
+  private static Case categorical(int categories, String cm) {
+    List<Arbitrary<Double>> weights = new ArrayList<>();
+    for (int k = 0; k < categories; k++) {
+      weights.add(logUniform(0.01, 100));
+    }
+    int[] values = new int[categories];
+    for (int k = 0; k < categories; k++) {
+      values[k] = k + 1;
+    }
+    Parametrisation p = Categorical.withCategories(parametrisation("categorical", "p"), categories);
+    return new Case("categorical(p), K = " + categories, p,
+        Combinators.combine(weights).as(list -> list.stream().mapToDouble(Double::doubleValue).toArray()),
+        (a, q) -> 1 + Math.min(categories - 1, floorCount(q, categories)),
+        (x, a) -> new EnumeratedIntegerDistribution(null, values, a).logProbability((int) x),
+        (x, a) -> new EnumeratedIntegerDistribution(null, values, a).cumulativeProbability((int) x),
+        (x, a) -> 1.0, cm + "EnumeratedIntegerDistribution (weights normalised)");
+  }
+
+  /**
+   * Whether argument {@code k} of {@code p} is a whole number (binomial trials, whole-uniform
+   * bounds): the log-density is not differentiable in it, and its gradient entry is 0 by
+   * convention.
+   */
+  static boolean wholeArgument(Parametrisation p, int k) {
+    return p instanceof BaseParametrisation base
+        && (base.domain(k) == ArgumentDomain.WHOLE || base.domain(k) == ArgumentDomain.INTEGER);
+  }
+
+  /**
+   * The t distribution function. Within one scale unit of the centre, A&S 26.7.1 written with
+   * the symmetry of the incomplete beta (A&S 26.5.2): F(t) = 1/2 + sign(t) I_{t^2/(df + t^2)}(1/2,
+   * df/2) / 2, whose argument is small there; commons-math3 3.6.1's TDistribution evaluates I at
+   * df/(df + t^2), near 1, and was seen to lose 5e-10 of F at t = -1.3e-6, df = 32. Further out,
+   * where its argument is not near 1 and the tail needs no subtraction, commons-math3 itself.
+   */
+  private static double studentTCdf(double t, double df) {
+    if (Math.abs(t) > 1) {
+      return new TDistribution(null, df).cumulativeProbability(t);
+    }
+    double half = 0.5 * Beta.regularizedBeta(t * t / (df + t * t), 0.5, 0.5 * df);
+    return t < 0 ? 0.5 - half : 0.5 + half;
   }
 
   static double invLogit(double x) {
