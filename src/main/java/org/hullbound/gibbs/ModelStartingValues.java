@@ -17,14 +17,18 @@ import org.hullbound.model.Unknown;
  * posterior). When the prior cannot be drawn (an argument drawn from its own prior is invalid), or
  * the drawn start has zero density or a non-finite value anywhere, the start falls back to the
  * model's valid start moved by uniform(-2, 2) on each sampling scale (common practice), and
- * finally to the undispersed start. Every random number comes from the chain's own generator, so
- * a seed reproduces the starts.
+ * finally to the undispersed start. A whole-number unknown whose conditional is zero at its start
+ * (a latent count drawn below the count observed of it) is first moved to the nearest whole number
+ * above, else below, where its conditional is positive. Every random number comes from the chain's
+ * own generator, so a seed reproduces the starts.
  */
 final class ModelStartingValues implements StartingValues {
   private final BoundModel model;
   private final PriorSimulation prior;
   private final double[] base;
   private final Map<String, Double> given;
+  /** How far a whole-number start is searched each way for a positive conditional. */
+  private static final int DISCRETE_SEARCH = 10_000;
 
   private ModelStartingValues(BoundModel model, double[] base, Map<String, Double> given) {
     this.model = model;
@@ -82,6 +86,7 @@ final class ModelStartingValues implements StartingValues {
         return false;
       }
     }
+    moveDiscreteIntoSupport(draw);
     if (zeroDensityAt(draw) != null) {
       return false;
     }
@@ -91,6 +96,7 @@ final class ModelStartingValues implements StartingValues {
 
   private void undispersed(double[] state) {
     disperse(state, null, false);
+    moveDiscreteIntoSupport(state);
     Unknown fault = zeroDensityAt(state);
     if (fault != null) {
       String origin = given.containsKey(fault.label()) ? "given" : "model's";
@@ -126,6 +132,62 @@ final class ModelStartingValues implements StartingValues {
       }
       state[index] = density.toNatural(u);
     }
+  }
+
+  /**
+   * Moves each whole-number unknown not given with --init, whose conditional is zero at its value,
+   * to the nearest whole number with a positive conditional: first upwards, then downwards, at
+   * most {@link #DISCRETE_SEARCH} steps each way. A few passes, as one move can change another's
+   * conditional; what stays at zero density is reported by the caller.
+   */
+  private void moveDiscreteIntoSupport(double[] state) {
+    for (int pass = 0; pass < 3; pass++) {
+      boolean moved = false;
+      for (Unknown unknown : model.unknowns()) {
+        if (!unknown.discrete() || given.containsKey(unknown.label())) {
+          continue;
+        }
+        int index = unknown.index();
+        if (positiveAt(unknown, state, state[index])) {
+          continue;
+        }
+        double found = nearestPositive(unknown, state);
+        if (!Double.isNaN(found)) {
+          state[index] = found;
+          moved = true;
+        }
+      }
+      if (!moved) {
+        return;
+      }
+    }
+  }
+
+  /** The nearest whole number above, else below, with a positive conditional; NaN if none. */
+  private double nearestPositive(Unknown unknown, double[] state) {
+    double start = state[unknown.index()];
+    for (int step = 1; step <= DISCRETE_SEARCH; step++) {
+      if (positiveAt(unknown, state, start + step)) {
+        return start + step;
+      }
+    }
+    for (int step = 1; step <= DISCRETE_SEARCH; step++) {
+      if (positiveAt(unknown, state, start - step)) {
+        return start - step;
+      }
+    }
+    return Double.NaN;
+  }
+
+  /** Whether {@code unknown}'s conditional is positive and finite at the natural value {@code value}. */
+  private boolean positiveAt(Unknown unknown, double[] state, double value) {
+    ConditionalDensity density = model.conditional(unknown.index());
+    double u = density.toSamplingScale(value);
+    if (!(u >= density.lowerBound(state) && u <= density.upperBound(state))) {
+      return false;
+    }
+    double logDensity = density.logDensity(u, state, null);
+    return logDensity > Double.NEGATIVE_INFINITY && logDensity < Double.POSITIVE_INFINITY;
   }
 
   /** The first unknown whose conditional is zero (or undefined) at {@code state}, else null. */

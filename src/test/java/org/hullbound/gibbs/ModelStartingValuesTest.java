@@ -129,4 +129,24 @@ class ModelStartingValuesTest {
     assertTrue(e.getMessage().contains("at test.hbm:2:6 has log-density NaN: mean must be a"
         + " finite number, got NaN"), e.getMessage());
   }
+
+  @Test
+  void aLatentCountStartsNoLowerThanTheCountObservedOfIt() {
+    // A binomial count cannot exceed its trials (common practice): every clutch must start at
+    // or above the chicks hatched from it, whatever the prior draw or the model's start.
+    BoundModel model =
+        bind(
+            "index nest = 1 .. 4\n"
+                + "param clutch ~ gamma(shape = 2, rate = 0.5)\n"
+                + "param hatching ~ beta(a = 8, b = 4)\n"
+                + "param laid[nest] ~ poisson(rate = clutch)\n"
+                + "data hatched[nest] = [2, 9, 0, 14] ~ binomial(trials = laid[nest], p = hatching)\n");
+    double[] hatched = {2, 9, 0, 14};
+    for (double[] start : starts(model, Map.of(), 30, 11L)) {
+      for (int i = 0; i < hatched.length; i++) {
+        double laid = start[model.unknown("laid[" + (i + 1) + "]").index()];
+        assertTrue(laid >= hatched[i] && laid == Math.rint(laid), "laid[" + (i + 1) + "] = " + laid);
+      }
+    }
+  }
 }
