@@ -39,7 +39,10 @@ class ClinicsAgreementTest {
     int n = model.unknowns().size();
     RandomGenerator[] generators = ChainSeeds.split(20261202L, 3);
 
-    AnchorKernel anchor = AnchorKernel.of(model, null, NoUTurnSampler.Settings.of(300));
+    // depth at most 6 (64 steps; clinics needs about 4 doublings): a broken integrator then fails
+    // in bounded time instead of running 1024 steps an iteration
+    AnchorKernel anchor =
+        AnchorKernel.of(model, null, new NoUTurnSampler.Settings(300, 0.8, 6));
     double[][][] anchorDraws = run(anchor, generators[0], 300, 1000);
 
     ModelSampler gibbs = ModelSampler.of(model, Map.of());

@@ -51,7 +51,10 @@ class CorrelatedNormalTest {
   void drawsTheCorrelatedNormalAndTheHalfNormal() {
     BoundModel model = AnchorModels.withoutData("correlated", MODEL);
     RandomGenerator rng = ChainSeeds.split(20261202L, 1)[0];
-    AnchorKernel kernel = AnchorKernel.of(model, null, NoUTurnSampler.Settings.of(1000));
+    // depth at most 6 (64 steps; this target needs about 2 or 3 doublings): a broken integrator
+    // then fails in bounded time instead of running 1024 steps an iteration
+    AnchorKernel kernel =
+        AnchorKernel.of(model, null, new NoUTurnSampler.Settings(1000, 0.8, 6));
     for (int i = 0; i < 1000; i++) {
       kernel.sweep(rng);
     }
