@@ -1,5 +1,6 @@
 package org.hullbound.anchor;
 
+import java.util.Arrays;
 import java.util.random.RandomGenerator;
 
 /**
@@ -100,7 +101,7 @@ public final class NoUTurnSampler {
     this.settings = settings;
     this.windows = WarmupWindows.of(settings.warmup());
     this.inverseMass = new double[dimension];
-    java.util.Arrays.fill(inverseMass, 1);
+    Arrays.fill(inverseMass, 1);
     this.position = start;
     this.gradient = startGradient;
     this.logDensity = startLogDensity;
@@ -288,8 +289,8 @@ public final class NoUTurnSampler {
         inverseMass[i] = n / (n + 5) * variance + 1e-3 * 5 / (n + 5);
       }
       windowCount = 0;
-      java.util.Arrays.fill(windowMean, 0);
-      java.util.Arrays.fill(windowSquares, 0);
+      Arrays.fill(windowMean, 0);
+      Arrays.fill(windowSquares, 0);
       stepSize = reasonableStepSize(rng);
       averaging = DualAveraging.from(stepSize, settings.targetAcceptance());
     }

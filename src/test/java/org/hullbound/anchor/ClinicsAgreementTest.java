@@ -1,10 +1,10 @@
 package org.hullbound.anchor;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
-import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.util.ArrayList;
 import java.util.List;
+import java.util.Locale;
 import java.util.Map;
 import java.util.random.RandomGenerator;
 import org.hullbound.diagnostics.PosteriorSummary;
@@ -64,12 +64,12 @@ class ClinicsAgreementTest {
       double combined = Math.hypot(a.mcseMean(), g.mcseMean());
       double z = (a.mean() - g.mean()) / combined;
       if (!(Math.abs(z) < Z)) {
-        failures.add(String.format(java.util.Locale.ROOT, "%s: anchor %.4f, gibbs %.4f, z %.2f",
+        failures.add(String.format(Locale.ROOT, "%s: anchor %.4f, gibbs %.4f, z %.2f",
             label, a.mean(), g.mean(), z));
       }
     }
     assertEquals(List.of(), failures, "means more than " + Z + " combined MCSE apart");
-    assertTrue(anchor.statistics().iterations() == 1000);
+    assertEquals(1000, anchor.statistics().iterations());
   }
 
   /** Draws [unknown][1][kept] of {@code kernel} after {@code warmup} sweeps. */

@@ -31,9 +31,11 @@ import org.junit.jupiter.api.Test;
  * 2.47 / sqrt(4000) = 0.039, so a shift of 0.12 sd in a margin is caught with probability about
  * 0.99 (GoodnessOfFit's argument). Seed 20261202, warm-up 1000.
  *
- * <p>Broken on purpose: with the leapfrog's second momentum half-step of the wrong sign, every
- * check here failed; with the log-Jacobian left out of {@link ModelTarget}'s value, the KS test of
- * s failed (and {@code ModelTargetTest}'s gradient check).
+ * <p>Broken on purpose, it failed both times, at the first check: with the leapfrog's second
+ * momentum half-step of the wrong sign the thinned draws of x had a bulk-ESS of 32 of 4000 (the
+ * chain barely moved); with the log-Jacobian left out of {@link ModelTarget}'s value, 27 of 4000
+ * (without it, s's density on the log scale tends to a constant as s goes to 0: an improper
+ * target, whose effect on the whole chain this check saw first).
  */
 class CorrelatedNormalTest {
   static final String MODEL = """
