@@ -28,7 +28,11 @@ import org.junit.jupiter.api.Test;
  * burn-in and 2000 kept sweeps; seed 20261202 split three ways. Power: the weakest mean is the
  * spread's, with MCSE 0.0063 (anchor, ess about 270 of its posterior sd 0.11) and 0.0024 (Gibbs,
  * ess about 1900), 0.0067 combined, so a bias of 0.04 in its mean (0.4 posterior sd) is caught
- * with probability about 0.9. BROKEN-ON-PURPOSE
+ * with probability about 0.9. Broken on purpose (the leapfrog's second momentum half-step of the
+ * wrong sign), 12 of the 39 means failed (the spread 0.33 against 0.49, z = -20). With the
+ * log-Jacobian left out of the target's value this test passed: that moves the spread's mean by
+ * about -var / mean = -0.02, 3 combined MCSE, below its reach; {@code ModelTargetTest} and {@code
+ * CorrelatedNormalTest} fail on that break.
  */
 class ClinicsAgreementTest {
   private static final double Z = 4.70;
