@@ -146,6 +146,11 @@ public class GibbsSweepBenchmark {
 
   @TearDown(Level.Trial)
   public void report() throws IOException {
+    if (record.keptDraws() < PosteriorSummary.MINIMUM_DRAWS_PER_CHAIN) {
+      System.out.printf(Locale.ROOT, "%n[%s, %s] %d sweeps kept: too few for an ess; run longer"
+          + " iterations (-r)%n", sampler, model, record.keptDraws());
+      return;
+    }
     String weakest = record.weakest();
     String named = NAMED.get(model);
     double sweepsPerSecond = record.sweepsPerCpuSecond();
