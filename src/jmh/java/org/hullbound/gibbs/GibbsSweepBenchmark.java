@@ -65,7 +65,8 @@ public class GibbsSweepBenchmark {
   /**
    * A bundled demo ({@code models/NAME.hbm} with its data) or {@code clinics-grown} (a tenth of the
    * pilot and burn-in sweeps, as each sweep costs a hundred times more; the anchor's warm-up 150
-   * iterations, the shortest with the full schedule of windows).
+   * iterations, the shortest with the full schedule of windows, unless {@code
+   * -Dhullbound.anchorWarmup=N} says otherwise).
    */
   @Param({"clinics", "seedlings", "extract", "clinics-grown"})
   public String model;
@@ -100,7 +101,7 @@ public class GibbsSweepBenchmark {
           WithinGibbsBaseline.Kind.RANDOM_WALK, start, pilotSds(gibbs, generators[0], shorter),
           burnIn);
       case "no-u-turn" -> {
-        burnIn = grown ? 150 : BURN_IN;
+        burnIn = Integer.getInteger("hullbound.anchorWarmup", grown ? 150 : BURN_IN);
         kernel = AnchorKernel.of(bound, start, NoUTurnSampler.Settings.of(burnIn));
       }
       default ->
