@@ -106,12 +106,16 @@ class FitFolderTest {
     assertTrue(Files.exists(out.resolve("checkpoint.txt")), "interrupted with a checkpoint");
 
     Process resumed = longFit(out, "--resume", out.toString());
-    long deadline = System.nanoTime() + TimeUnit.SECONDS.toNanos(60);
+    long deadline = System.nanoTime() + TimeUnit.SECONDS.toNanos(120);
     while (System.nanoTime() < deadline && resumed.isAlive()
         && Files.readString(out.resolve("run.lock")).isBlank()) {
       Thread.sleep(50);
     }
     assertTrue(resumed.isAlive(), "the first resume runs");
+    // Without the first resume's lock the second would really resume a run thinned by 10^6 and
+    // not end: fail here instead (seen on a machine loaded by many builds).
+    assertFalse(Files.readString(out.resolve("run.lock")).isBlank(),
+        "the first resume took the folder's lock within 120 s");
     CliRun again = CliRun.of("fit", MODEL, "--data", DATA, "--quiet", "--resume", out.toString());
     assertEquals(2, again.exit(), again.toString());
     assertTrue(again.err().contains("pid " + resumed.pid()), again.err());
