@@ -8,6 +8,7 @@ import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.List;
 import org.hullbound.io.CsvData;
+import org.hullbound.io.DataLoadingHeap;
 import org.hullbound.lang.ModelFile;
 import org.hullbound.lang.Parser;
 import org.hullbound.lang.SourceText;
@@ -33,7 +34,7 @@ public final class CheckHeap {
     ModelFile model =
         Parser.parse(SourceText.of(modelFile.toString(), Files.readString(modelFile)));
     MemoryMXBean memory = ManagementFactory.getMemoryMXBean();
-    long before = settledHeap(memory);
+    long before = DataLoadingHeap.settledHeap(memory);
     for (MemoryPoolMXBean pool : ManagementFactory.getMemoryPoolMXBeans()) {
       pool.resetPeakUsage();
     }
@@ -55,7 +56,7 @@ public final class CheckHeap {
         peak += pool.getPeakUsage().getUsed();
       }
     }
-    long held = settledHeap(memory) - before;
+    long held = DataLoadingHeap.settledHeap(memory) - before;
     System.out.printf(
         "%s: %d rows, %d used columns, %d unknowns, %d terms, %d moves; %.1f MB held by the"
             + " bound model, %.1f bytes per row per used column; pools' peaks summed %.1f MB;"
@@ -66,15 +67,5 @@ public final class CheckHeap {
     if (bound.termCount() < 0) {
       System.out.println(bound);
     }
-  }
-
-  private static long settledHeap(MemoryMXBean memory) throws InterruptedException {
-    long used = Long.MAX_VALUE;
-    for (int i = 0; i < 5; i++) {
-      System.gc();
-      Thread.sleep(100);
-      used = Math.min(used, memory.getHeapMemoryUsage().getUsed());
-    }
-    return used;
   }
 }
