@@ -43,7 +43,8 @@ public final class DataLoadingHeap {
     }
   }
 
-  private static long settledHeap(MemoryMXBean memory) throws InterruptedException {
+  /** The used heap after five full collections, the least seen (also for {@code CheckHeap}). */
+  public static long settledHeap(MemoryMXBean memory) throws InterruptedException {
     long used = Long.MAX_VALUE;
     for (int i = 0; i < 5; i++) {
       System.gc();

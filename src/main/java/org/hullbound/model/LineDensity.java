@@ -1,6 +1,7 @@
 package org.hullbound.model;
 
 import java.util.List;
+import java.util.function.Supplier;
 import org.hullbound.model.family.Scale;
 
 /**
@@ -22,6 +23,11 @@ import org.hullbound.model.family.Scale;
  * its weights in entries {@code n + 1 ..} ({@link #direct}). Terms left unchanged by every point
  * of the line (the linear predictors a shift leaves alone) are not compiled at all. Immutable;
  * chains share it, each with its own frame.
+ *
+ * <p>Compiled on the first evaluation, from the moved terms made again then: a line through
+ * millions of rows compiles to hundreds of bytes a row, which {@code check} (which only states
+ * the move and its proof) should not hold. The terms made again are the same as those the move
+ * was proved on (made by the same deterministic substitution), so a fit draws the same.
  */
 public final class LineDensity {
   /** How the line moves its members. */
@@ -38,25 +44,54 @@ public final class LineDensity {
   private final int[] members;
   private final double[] weights;
   private final Geometry geometry;
-  private final CompiledConditional compiled;
   private final double jacobianPower;
+  private final boolean smooth;
+  private final int termCount;
+  /** Makes the moved terms again, for the compilation; dropped once compiled. */
+  private Supplier<List<Term>> movedTerms;
+  private volatile CompiledConditional compiled;
 
+  /**
+   * @param termCount how many terms {@code movedTerms} makes
+   * @param movedTerms makes the terms the line moves, the same list on every call; called when
+   *     the line is first evaluated
+   */
   LineDensity(int dimension, int[] members, double[] weights, Geometry geometry,
-      List<Term> movedTerms, boolean smooth) {
+      int termCount, Supplier<List<Term>> movedTerms, boolean smooth) {
     this.dimension = dimension;
     this.members = members.clone();
     this.weights = weights == null ? null : weights.clone();
     this.geometry = geometry;
-    boolean rescaling = geometry == Geometry.RESCALING;
-    Unknown position = new Unknown(dimension, "line position", "line position", Scale.NATURAL,
-        rescaling ? 0 : Double.NEGATIVE_INFINITY, Double.POSITIVE_INFINITY, false, false);
-    this.compiled = new CompiledConditional(
-        position, movedTerms,
-        Formula.constant(rescaling ? 0 : Double.NEGATIVE_INFINITY),
-        Formula.constant(Double.POSITIVE_INFINITY),
-        ArgumentBounds.of(dimension, movedTerms.get(0), List.of(), Double.NaN, Double.NaN),
-        smooth);
-    this.jacobianPower = rescaling ? members.length - 1 : 0;
+    this.jacobianPower = geometry == Geometry.RESCALING ? members.length - 1 : 0;
+    this.smooth = smooth;
+    this.termCount = termCount;
+    this.movedTerms = movedTerms;
+  }
+
+  /** The compiled density of the position, compiled by the first caller. */
+  private CompiledConditional compiled() {
+    CompiledConditional c = compiled;
+    if (c == null) {
+      synchronized (this) {
+        c = compiled;
+        if (c == null) {
+          List<Term> moved = movedTerms.get();
+          boolean rescaling = geometry == Geometry.RESCALING;
+          Unknown position = new Unknown(dimension, "line position", "line position",
+              Scale.NATURAL, rescaling ? 0 : Double.NEGATIVE_INFINITY, Double.POSITIVE_INFINITY,
+              false, false);
+          c = new CompiledConditional(
+              position, moved,
+              Formula.constant(rescaling ? 0 : Double.NEGATIVE_INFINITY),
+              Formula.constant(Double.POSITIVE_INFINITY),
+              ArgumentBounds.of(dimension, moved.get(0), List.of(), Double.NaN, Double.NaN),
+              smooth);
+          compiled = c;
+          movedTerms = null;
+        }
+      }
+    }
+    return c;
   }
 
   /** The state entries the line moves. */
@@ -114,7 +149,7 @@ public final class LineDensity {
    * slope} is not null.
    */
   public double logDensity(double t, double[] frame, double[] slope) {
-    double value = compiled.logDensity(t, frame, slope);
+    double value = compiled().logDensity(t, frame, slope);
     if (jacobianPower == 0 || value == Double.NEGATIVE_INFINITY) {
       return value;
     }
@@ -138,11 +173,11 @@ public final class LineDensity {
 
   /** False when a moved term is not differentiable along the line. */
   public boolean smooth() {
-    return compiled.smooth();
+    return smooth;
   }
 
   /** How many terms an evaluation sums (those the line changes). */
   public int termCount() {
-    return compiled.termCount();
+    return termCount;
   }
 }

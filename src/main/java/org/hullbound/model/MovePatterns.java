@@ -153,8 +153,8 @@ final class MovePatterns {
         + " (generalised Gibbs, Liu and Sabatti 2000, translation group, Jacobian 1); "
         + proof.reason();
     return new Update.GroupMove(Update.MoveKind.SHIFT, reason, proof.concave(),
-        new LineDensity(n, members, weights, LineDensity.Geometry.FIXED_TRANSLATION, moved,
-            smooth(f, members)));
+        new LineDensity(n, members, weights, LineDensity.Geometry.FIXED_TRANSLATION,
+            moved.size(), constant(moved), smooth(f, members)));
   }
 
   private static Update rescale(Facts f, int scale, List<Integer> group) {
@@ -194,8 +194,8 @@ final class MovePatterns {
         + group.size() + " p(c x), the Jacobian c^" + members.length + " times the Haar measure"
         + " dc / c); " + proof.reason();
     return new Update.GroupMove(Update.MoveKind.RESCALE, reason, proof.concave(),
-        new LineDensity(n, members, null, LineDensity.Geometry.RESCALING, moved,
-            smooth(f, members)));
+        new LineDensity(n, members, null, LineDensity.Geometry.RESCALING,
+            moved.size(), () -> movedTerms(f, members, replace), smooth(f, members)));
   }
 
   /**
@@ -263,13 +263,22 @@ final class MovePatterns {
           + " covariance, fixed after burn-in (hit-and-run with fixed directions, Belisle,"
           + " Romeijn and Smith 1993); " + proof.reason();
       found.add(new Update.DirectionBlock(reason, proof.concave(),
-          new LineDensity(n, members, null, LineDensity.Geometry.LEARNED_TRANSLATION, moved,
-              smooth(f, members))));
+          new LineDensity(n, members, null, LineDensity.Geometry.LEARNED_TRANSLATION,
+              moved.size(), () -> movedTerms(f, members, replace), smooth(f, members))));
     }
     return found;
   }
 
-  /** The own and dependent terms of {@code members}, each once, with the line substituted. */
+  /** The few moved terms of a shift (the members' priors), held as they are. */
+  private static java.util.function.Supplier<List<Term>> constant(List<Term> moved) {
+    List<Term> held = List.copyOf(moved);
+    return () -> held;
+  }
+
+  /**
+   * The own and dependent terms of {@code members}, each once, with the line substituted; the
+   * same list on every call, so a line may make it again when it compiles ({@link LineDensity}).
+   */
   private static List<Term> movedTerms(Facts f, int[] members, Map<Integer, Formula> replace) {
     Set<Integer> touched = new TreeSet<>();
     for (int j : members) {
