@@ -48,11 +48,11 @@ class DoseResponseMixingTest {
 
   private static List<Case> cases() {
     List<Case> cases = new ArrayList<>();
-    cases.add(binomial(3, 1.4, 101));
-    cases.add(binomial(5, 1.0, 102));
-    cases.add(binomial(-8, 0.8, 103));
-    cases.add(poisson(4, 0.45, 104));
-    cases.add(poisson(6, -0.3, 105));
+    cases.add(generated("binomial", 3, 1.4, 101));
+    cases.add(generated("binomial", 5, 1.0, 102));
+    cases.add(generated("binomial", -8, 0.8, 103));
+    cases.add(generated("poisson", 4, 0.45, 104));
+    cases.add(generated("poisson", 6, -0.3, 105));
     return cases;
   }
 
@@ -65,39 +65,29 @@ class DoseResponseMixingTest {
     return doses;
   }
 
-  /** Logit p = slope (dose - centre): about half the units respond at the centre. */
-  private static Case binomial(double centre, double slope, long seed) {
+  /**
+   * Binomial of 20 trials with logit p = slope (dose - centre), about half the units responding
+   * at the centre; or Poisson with log rate = 2 + slope (dose - centre), about 7 counts a unit.
+   */
+  private static Case generated(String family, double centre, double slope, long seed) {
     RandomGenerator rng = RandomGeneratorFactory.of("L64X128MixRandom").create(seed);
     double[] doses = doses(centre, rng);
     JDKRandomGenerator draws = new JDKRandomGenerator((int) seed);
-    double[] dead = new double[doses.length];
-    for (int i = 0; i < doses.length; i++) {
-      double p = 1 / (1 + Math.exp(-slope * (doses[i] - centre)));
-      dead[i] = new BinomialDistribution(draws, 20, p).sample();
-    }
-    return new Case("binomial, doses about " + centre, "index unit\n"
-        + "data dose[unit] = " + list(doses) + "\n"
-        + "data dead[unit] = " + list(dead)
-        + " ~ binomial(trials = 20, logit_p = intercept + slope * dose[unit])\n"
-        + "param intercept ~ normal(mean = 0, sd = 10)\n"
-        + "param slope ~ normal(mean = 0, sd = 5)\n");
-  }
-
-  /** Log rate = 2 + slope (dose - centre): about 7 counts a unit at the centre. */
-  private static Case poisson(double centre, double slope, long seed) {
-    RandomGenerator rng = RandomGeneratorFactory.of("L64X128MixRandom").create(seed);
-    double[] doses = doses(centre, rng);
-    JDKRandomGenerator draws = new JDKRandomGenerator((int) seed);
+    boolean binomial = family.equals("binomial");
     double[] counts = new double[doses.length];
     for (int i = 0; i < doses.length; i++) {
-      double rate = Math.exp(2 + slope * (doses[i] - centre));
-      counts[i] = new PoissonDistribution(draws, rate, PoissonDistribution.DEFAULT_EPSILON,
-          PoissonDistribution.DEFAULT_MAX_ITERATIONS).sample();
+      double linear = slope * (doses[i] - centre);
+      counts[i] = binomial
+          ? new BinomialDistribution(draws, 20, 1 / (1 + Math.exp(-linear))).sample()
+          : new PoissonDistribution(draws, Math.exp(2 + linear),
+              PoissonDistribution.DEFAULT_EPSILON, PoissonDistribution.DEFAULT_MAX_ITERATIONS)
+              .sample();
     }
-    return new Case("poisson, doses about " + centre, "index unit\n"
+    return new Case(family + ", doses about " + centre, "index unit\n"
         + "data dose[unit] = " + list(doses) + "\n"
-        + "data count[unit] = " + list(counts)
-        + " ~ poisson(log_rate = intercept + slope * dose[unit])\n"
+        + "data count[unit] = " + list(counts) + " ~ "
+        + (binomial ? "binomial(trials = 20, logit_p = " : "poisson(log_rate = ")
+        + "intercept + slope * dose[unit])\n"
         + "param intercept ~ normal(mean = 0, sd = 10)\n"
         + "param slope ~ normal(mean = 0, sd = 5)\n");
   }
