@@ -29,8 +29,9 @@ import org.junit.jupiter.api.Test;
  * test of every fifth kept draw of tau against the reference at level 1e-5, after checking that
  * the thinned draws are nearly independent (bulk-ESS at least 0.8 of their number), which KS
  * assumes: 2.5e-4 together. Power: 3200 thinned draws give a critical distance of about 2.47 /
- * sqrt(3200) = 0.044 at 1e-5; compared with tau's distribution at 1.1 tau it gave p = 7e-8. Broken on purpose with the Jacobian and Haar factor {@code c^(K +
- * 1)} of the plain rescale in place of {@code c^K} (December 2026), the mean of tau came out at
+ * sqrt(3200) = 0.044 at 1e-5; against tau's distribution at 1.1 tau it gave p = 7e-8. Broken on
+ * purpose with the Jacobian and Haar factor {@code c^(K + 1)} of the plain rescale in place of
+ * {@code c^K} (December 2026), the mean of tau came out at
  * 5.02 against 3.29 (77 MCSE) and that of mu at 4.21 against 4.44 (8.5 MCSE), and the test
  * failed; correct, 3.28 and 4.45 (both within 1 MCSE), with 0.82 and 1.0 effective draws per
  * sweep for tau and mu.
