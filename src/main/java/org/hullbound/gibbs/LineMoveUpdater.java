@@ -182,14 +182,15 @@ final class LineMoveUpdater implements Updater {
             line.identity(), 1.0);
   }
 
+  /** The rule's members: what a move changes and that it is extra are the rule's to say. */
   @Override
   public int[] indices() {
-    return line.members();
+    return rule.indices();
   }
 
   @Override
   public boolean extra() {
-    return true;
+    return rule.extra();
   }
 
   @Override

@@ -91,6 +91,7 @@ public final class ModelSampler {
       ruleFor(model, unknown, update, base).ifPresent(rules::add);
     }
     if (moves) {
+      rules = Interweaving.order(rules, model.moves());
       for (Update move : model.moves()) {
         rules.add(MoveRules.of(move));
       }

@@ -37,7 +37,13 @@ public final class LineDensity {
     /** {@code x_j + t w_j}, {@code w} read from the frame (learned during burn-in). */
     LEARNED_TRANSLATION,
     /** {@code c x_j} for {@code c = t > 0}. */
-    RESCALING
+    RESCALING,
+    /**
+     * For members {@code (a, s, e[1..K])}: {@code a + (1 - c) mean(e)}, {@code c s}, {@code c e},
+     * {@code c = t > 0}; the mean of the base point's {@code e} is held in frame entry {@code n +
+     * 1} ({@link #load}).
+     */
+    RESCALING_ABOUT_MEAN
   }
 
   private final int dimension;
@@ -62,7 +68,11 @@ public final class LineDensity {
     this.members = members.clone();
     this.weights = weights == null ? null : weights.clone();
     this.geometry = geometry;
-    this.jacobianPower = geometry == Geometry.RESCALING ? members.length - 1 : 0;
+    this.jacobianPower = switch (geometry) {
+      case RESCALING -> members.length - 1;
+      case RESCALING_ABOUT_MEAN -> members.length - 2;
+      default -> 0;
+    };
     this.smooth = smooth;
     this.termCount = termCount;
     this.movedTerms = movedTerms;
@@ -76,7 +86,8 @@ public final class LineDensity {
         c = compiled;
         if (c == null) {
           List<Term> moved = movedTerms.get();
-          boolean rescaling = geometry == Geometry.RESCALING;
+          boolean rescaling = geometry != Geometry.FIXED_TRANSLATION
+              && geometry != Geometry.LEARNED_TRANSLATION;
           Unknown position = new Unknown(dimension, "line position", "line position",
               Scale.NATURAL, rescaling ? 0 : Double.NEGATIVE_INFINITY, Double.POSITIVE_INFINITY,
               false, false);
@@ -99,9 +110,14 @@ public final class LineDensity {
     return members.clone();
   }
 
-  /** True for a rescaling ({@code c x}), false for a translation ({@code x + t w}). */
+  /** True for a rescaling (position {@code c > 0}), false for a translation ({@code x + t w}). */
   public boolean rescales() {
-    return geometry == Geometry.RESCALING;
+    return geometry == Geometry.RESCALING || geometry == Geometry.RESCALING_ABOUT_MEAN;
+  }
+
+  /** The power of {@code c} that the Jacobian and Haar measure add (0 for a translation). */
+  public double jacobianPower() {
+    return jacobianPower;
   }
 
   /** True when the direction is set at run time through {@link #direct}. */
@@ -116,12 +132,31 @@ public final class LineDensity {
 
   /** The length of the frame that {@link #logDensity} reads. */
   public int frameLength() {
-    return dimension + 1 + (learned() ? members.length : 0);
+    return dimension + 1 + switch (geometry) {
+      case LEARNED_TRANSLATION -> members.length;
+      case RESCALING_ABOUT_MEAN -> 1;
+      default -> 0;
+    };
   }
 
-  /** Copies the state (natural values) into {@code frame}: the base point {@code t} starts from. */
+  /**
+   * Copies the state (natural values) into {@code frame}: the base point {@code t} starts from;
+   * for a rescaling about the mean, also the mean of the rescaled effects.
+   */
   public void load(double[] state, double[] frame) {
     System.arraycopy(state, 0, frame, 0, dimension);
+    if (geometry == Geometry.RESCALING_ABOUT_MEAN) {
+      frame[dimension + 1] = effectMean(state);
+    }
+  }
+
+  /** The mean of the effects {@code members[2..]} of a rescaling about the mean. */
+  private double effectMean(double[] values) {
+    double sum = 0;
+    for (int k = 2; k < members.length; k++) {
+      sum += values[members[k]];
+    }
+    return sum / (members.length - 2);
   }
 
   /** Writes a learned direction's weights, one per member, into {@code frame}. */
@@ -165,6 +200,8 @@ public final class LineDensity {
       int j = members[k];
       switch (geometry) {
         case RESCALING -> state[j] = frame[j] * t;
+        case RESCALING_ABOUT_MEAN ->
+            state[j] = k == 0 ? frame[j] + (1 - t) * frame[dimension + 1] : frame[j] * t;
         case FIXED_TRANSLATION -> state[j] = frame[j] + t * weights[k];
         default -> state[j] = frame[j] + t * frame[dimension + 1 + k];
       }

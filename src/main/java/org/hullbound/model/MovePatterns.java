@@ -66,6 +66,8 @@ final class MovePatterns {
       if (group.size() < 2 || !group.stream().allMatch(j -> real(f, j))) {
         continue;
       }
+      int lead = -1;
+      int scale = -1;
       for (List<Integer> scalar : nodes.values()) {
         if (scalar.size() != 1) {
           continue;
@@ -75,7 +77,15 @@ final class MovePatterns {
             : null;
         if (move != null) {
           moves.add(move);
+          if (((Update.GroupMove) move).kind() == Update.MoveKind.SHIFT) {
+            lead = lead < 0 ? j : lead;
+          } else {
+            scale = scale < 0 ? j : scale;
+          }
         }
+      }
+      if (lead >= 0 && scale >= 0) {
+        moves.add(rescaleAboutMean(f, lead, scale, group));
       }
     }
     boolean[] grouped = new boolean[f.unknowns().size()];
@@ -195,6 +205,47 @@ final class MovePatterns {
         + " dc / c); " + proof.reason();
     return new Update.GroupMove(Update.MoveKind.RESCALE, reason, proof.concave(),
         new LineDensity(n, members, null, LineDensity.Geometry.RESCALING,
+            moved.size(), () -> movedTerms(f, members, replace), smooth(f, members)));
+  }
+
+  /**
+   * The rescaling of {@code scale} and its effects about the effects' mean, the shift's lead
+   * taking up what the mean would have lost: {@code (a, s, e) -> (a + (1 - c) mean(e), c s, c
+   * e)}. Where the effects offset {@code a}, every linear predictor {@code a + e[k]} becomes
+   * {@code a + mean(e) + c (e[k] - mean(e))}: the spread of the group's levels changes while
+   * their average stays, which the data would otherwise hold still. A one-parameter group (the
+   * mean of {@code c e} is {@code c mean(e)}, so two steps compose to {@code c1 c2}) whose linear
+   * map is triangular with determinant {@code c^(K + 1)}; with the Haar measure {@code dc / c},
+   * {@code c} has density {@code c^K p(g_c x)} (Liu and Sabatti 2000, generalised Gibbs). Along
+   * it every moved unknown is affine in {@code c}, and the {@code K} effect priors give the
+   * {@code -K log c} that cancels {@code c^K}.
+   */
+  private static Update rescaleAboutMean(Facts f, int lead, int scale, List<Integer> group) {
+    int n = f.unknowns().size();
+    List<Integer> scaled = new ArrayList<>(group);
+    scaled.add(0, scale);
+    int[] members = prepend(lead, scaled);
+    Map<Integer, Formula> replace = new LinkedHashMap<>();
+    for (int k = 0; k < members.length; k++) {
+      Formula slot = new Formula.Slot(members[k]);
+      Formula c = new Formula.Slot(n);
+      replace.put(members[k], k == 0
+          ? Formulas.apply(Op.ADD, List.of(slot, Formulas.apply(Op.MULTIPLY, List.of(
+              Formulas.apply(Op.SUBTRACT, List.of(Formula.constant(1), c)),
+              new Formula.Slot(n + 1)))))
+          : Formulas.apply(Op.MULTIPLY, List.of(slot, c)));
+    }
+    List<Term> moved = movedTerms(f, members, replace);
+    Verdict proof = prove(moved, n, members.length - 2);
+    String groupName = f.unknowns().get(group.get(0)).node();
+    String reason = "rescale " + label(f, scale) + " and every " + groupName + " by c > 0 about"
+        + " the mean of the " + groupName + ", " + label(f, lead) + " + (1 - c) times that mean:"
+        + " the levels " + label(f, lead) + " + " + groupName + "[..] spread out or draw in about"
+        + " their average, which stays (generalised Gibbs, Liu and Sabatti 2000, scale group: c"
+        + " drawn from c^" + group.size() + " p(g_c x), the Jacobian c^" + (group.size() + 1)
+        + " times the Haar measure dc / c); " + proof.reason();
+    return new Update.GroupMove(Update.MoveKind.RESCALE_ABOUT_MEAN, reason, proof.concave(),
+        new LineDensity(n, members, null, LineDensity.Geometry.RESCALING_ABOUT_MEAN,
             moved.size(), () -> movedTerms(f, members, replace), smooth(f, members)));
   }
 

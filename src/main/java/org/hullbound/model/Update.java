@@ -159,7 +159,12 @@ public sealed interface Update {
     /** An intercept-like unknown up by d, the group effects that offset it down by d. */
     SHIFT("shift"),
     /** A hierarchical scale and its zero-mean effects multiplied by c > 0. */
-    RESCALE("rescale");
+    RESCALE("rescale"),
+    /**
+     * A hierarchical scale and its effects multiplied by c > 0 about the effects' mean, which the
+     * intercept-like unknown they offset keeps.
+     */
+    RESCALE_ABOUT_MEAN("centred rescale");
 
     private final String word;
 

@@ -14,7 +14,7 @@ import org.hullbound.model.Update;
 import org.junit.jupiter.api.Test;
 
 /**
- * The shift and rescale moves leave a hierarchical normal model's posterior invariant: the
+ * The shift and the two rescale moves leave a hierarchical normal model's posterior invariant: the
  * educational testing example (Gelman et al., Bayesian Data Analysis, 3rd ed., section 5.5, Table
  * 5.2: eight schools' estimated effects and their standard errors, known), written with the
  * effects offsetting the mean, {@code y[j] ~ normal(mu + effect[j], sigma[j])}, {@code effect[j]
@@ -39,7 +39,7 @@ class GroupMoveFitTest {
   private static final double MU_SD = 5;
   private static final double TAU_SD = 5;
 
-  private static String model() {
+  static String model() {
     return "index school = 1 .. 8\n"
         + "data sigma[school] = " + list(SIGMA) + "\n"
         + "data y[school] = " + list(Y)
@@ -57,11 +57,27 @@ class GroupMoveFitTest {
     return s.append(']').toString();
   }
 
+  /** The eight schools model, bound. */
+  static BoundModel bound() {
+    return BoundModel.bind(Parser.parse(SourceText.of("schools.hbm", model())), List.of());
+  }
+
+  /** p(tau | y) up to a constant: the half-normal prior times y's normal density given tau. */
+  static double tauDensity(double tau) {
+    double[][] covariance = new double[Y.length][Y.length];
+    for (int i = 0; i < Y.length; i++) {
+      for (int j = 0; j < Y.length; j++) {
+        covariance[i][j] = MU_SD * MU_SD + (i == j ? SIGMA[i] * SIGMA[i] + tau * tau : 0);
+      }
+    }
+    return Math.exp(-tau * tau / (2 * TAU_SD * TAU_SD))
+        * new MultivariateNormalDistribution(new double[Y.length], covariance).density(Y);
+  }
+
   /** {mean mu, mean tau, sd mu, sd tau} by Simpson's rule over tau. */
-  private static double[] reference() {
+  static double[] reference() {
     int n = 8000;
     double hi = 80;
-    double[] zero = new double[Y.length];
     double z = 0;
     double muMean = 0;
     double muSquare = 0;
@@ -70,18 +86,13 @@ class GroupMoveFitTest {
     for (int k = 0; k <= n; k++) {
       double tau = hi * k / n;
       double w = k == 0 || k == n ? 1 : (k % 2 == 1 ? 4 : 2);
-      double[][] covariance = new double[Y.length][Y.length];
       double precision = 1 / (MU_SD * MU_SD);
       double weighted = 0;
       for (int i = 0; i < Y.length; i++) {
-        for (int j = 0; j < Y.length; j++) {
-          covariance[i][j] = MU_SD * MU_SD + (i == j ? SIGMA[i] * SIGMA[i] + tau * tau : 0);
-        }
         precision += 1 / (SIGMA[i] * SIGMA[i] + tau * tau);
         weighted += Y[i] / (SIGMA[i] * SIGMA[i] + tau * tau);
       }
-      double density = Math.exp(-tau * tau / (2 * TAU_SD * TAU_SD))
-          * new MultivariateNormalDistribution(zero, covariance).density(Y);
+      double density = tauDensity(tau);
       double m = weighted / precision;
       z += w * density;
       muMean += w * density * m;
@@ -98,11 +109,10 @@ class GroupMoveFitTest {
   }
 
   @Test
-  void theShiftAndRescaleMovesKeepTheEightSchoolsPosterior() {
-    BoundModel bound =
-        BoundModel.bind(Parser.parse(SourceText.of("schools.hbm", model())), List.of());
+  void theShiftAndBothRescaleMovesKeepTheEightSchoolsPosterior() {
+    BoundModel bound = bound();
     List<Update> moves = bound.moves();
-    assertEquals(2, moves.size(), "moves found: " + moves);
+    assertEquals(3, moves.size(), "moves found: " + moves);
     ModelSampler sampler = ModelSampler.withoutBlocks(bound, Map.of());
     Fits.Fit fit = Fits.run(sampler.sampler(), new RunSettings(4, 500, 4000, 1, 5L, 2));
     double[] truth = reference();
@@ -110,9 +120,9 @@ class GroupMoveFitTest {
     int tau = bound.unknown("tau").index();
     assertEquals(List.of(0, 1), List.of(mu, tau));
     fit.assertMomentsWithinFourMcse(truth);
-    assertTrue(fit.reports().get(mu).method().endsWith("+ shift move"),
+    assertTrue(fit.reports().get(mu).method().endsWith("+ shift move + centred rescale move"),
         fit.reports().get(mu).method());
-    assertTrue(fit.reports().get(tau).method().endsWith("+ rescale move"),
+    assertTrue(fit.reports().get(tau).method().endsWith("+ rescale move + centred rescale move"),
         fit.reports().get(tau).method());
   }
 }

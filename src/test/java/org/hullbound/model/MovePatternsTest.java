@@ -38,10 +38,10 @@ class MovePatternsTest {
   }
 
   @Test
-  void aGroupModelGetsAShiftARescaleAndADirectionBlock() {
+  void aGroupModelGetsAShiftTwoRescalesAndADirectionBlock() {
     BoundModel model = bind(CLINICS);
     List<Update> moves = model.moves();
-    assertEquals(3, moves.size(), moves.toString());
+    assertEquals(4, moves.size(), moves.toString());
     Update.GroupMove shift = assertInstanceOf(Update.GroupMove.class, moves.get(0));
     assertEquals(Update.MoveKind.SHIFT, shift.kind());
     assertTrue(shift.logConcave(), shift.reason());
@@ -55,7 +55,14 @@ class MovePatternsTest {
     assertTrue(rescale.reason().contains("the 3 normal priors with mean 0 and value and sd both"
         + " times c are -log c each, which cancels 3 of the 3 log c of the Jacobian"),
         rescale.reason());
-    Update.DirectionBlock block = assertInstanceOf(Update.DirectionBlock.class, moves.get(2));
+    Update.GroupMove centred = assertInstanceOf(Update.GroupMove.class, moves.get(2));
+    assertEquals(Update.MoveKind.RESCALE_ABOUT_MEAN, centred.kind());
+    assertTrue(centred.logConcave(), centred.reason());
+    assertTrue(centred.reason().contains("c drawn from c^3 p(g_c x), the Jacobian c^4 times the"
+        + " Haar measure dc / c"), centred.reason());
+    assertEquals(List.of(model.unknown("intercept").index(), model.unknown("spread").index(),
+        3, 4, 5), java.util.Arrays.stream(centred.members()).boxed().toList());
+    Update.DirectionBlock block = assertInstanceOf(Update.DirectionBlock.class, moves.get(3));
     assertTrue(block.logConcave(), block.reason());
     assertTrue(block.reason().contains("jointly affine in the moved unknowns"), block.reason());
     assertEquals(List.of(model.unknown("intercept").index(), model.unknown("slope").index()),
@@ -82,7 +89,10 @@ class MovePatternsTest {
       for (double t : new double[] {0.3, 0.8, 1.7}) {
         double[] moved = state.clone();
         line.apply(t, moved, frame);
-        double jacobian = line.rescales() ? (line.members().length - 1) * Math.log(t) : 0;
+        // Jacobian times Haar measure dc / c: c^(d - 1) for c x; for the rescale about the
+        // mean, whose linear map is triangular with one unit diagonal entry, c^(d - 2)
+        double jacobian = !line.rescales() ? 0
+            : (line.members().length - (centredRescale(move) ? 2 : 1)) * Math.log(t);
         assertEquals(model.logDensity(moved) - model.logDensity(state) + jacobian,
             line.logDensity(t, frame, null) - base, 1e-9, move.reason() + " at " + t);
         // the slope against a central difference
@@ -93,6 +103,29 @@ class MovePatternsTest {
             - line.logDensity(t - h, frame, null)) / (2 * h);
         assertEquals(difference, slope[0], 1e-5 * Math.max(1, Math.abs(difference)));
       }
+    }
+  }
+
+  private static boolean centredRescale(Update move) {
+    return move instanceof Update.GroupMove g && g.kind() == Update.MoveKind.RESCALE_ABOUT_MEAN;
+  }
+
+  @Test
+  void theRescaleAboutTheMeanKeepsEveryGroupLevelsAverage() {
+    BoundModel model = bind(CLINICS);
+    Update.GroupMove centred = groupMove(model, Update.MoveKind.RESCALE_ABOUT_MEAN);
+    LineDensity line = centred.line();
+    double[] state = {-0.4, 0.3, 0.8, 0.5, -0.2, 0.1};
+    double[] frame = new double[line.frameLength()];
+    line.load(state, frame);
+    for (double c : new double[] {0.3, 1.7}) {
+      double[] moved = state.clone();
+      line.apply(c, moved, frame);
+      // intercept + mean(effect) stays; each effect's deviation from the mean times c
+      assertEquals(-0.4 + 0.4 / 3, moved[0] + (moved[3] + moved[4] + moved[5]) / 3, 1e-12);
+      assertEquals(c * (0.5 - 0.4 / 3), moved[3] - (moved[3] + moved[4] + moved[5]) / 3, 1e-12);
+      assertEquals(c * 0.8, moved[2], 1e-12);
+      assertEquals(0.3, moved[1]);
     }
   }
 
