@@ -535,7 +535,7 @@ public final class BoundModel {
   }
 
   /** The support of the own term's value on the natural scale, intersected with truncation. */
-  private static Formula[] support(Term own) {
+  static Formula[] support(Term own) {
     Formula lo;
     Formula hi;
     switch (own.family().support()) {
