@@ -30,6 +30,16 @@ import org.hullbound.model.family.Scale;
  * (compared bit for bit) works them out again, so a stale part can never be used. Parts that are
  * not affine in the unknown are evaluated as compiled trees at every call. Nothing is allocated
  * per evaluation: the workspace's frame is reused.
+ *
+ * <p>Blankets that follow an allocation ({@link UnknownIndex}): a term that reads an unknown index
+ * ({@code y[i] ~ normal(mean = mu[g[i]], ...)}, lowered to {@code sum of mu[k] [g[i] = k]}) is a
+ * <em>candidate</em> of every {@code mu[k]} it may select. When all its parts are affine in the
+ * unknown, the slopes worked out for the draw say whether it moves: a slope of 0 in every part
+ * means the allocation points elsewhere, the term is a constant for the whole draw, and the draw
+ * leaves it out. Each draw thus evaluates the own term and the observations currently assigned to
+ * the unknown, found once per draw from the candidates (their indicators are inputs, so a changed
+ * allocation is a new draw); the model is never rebuilt. The value then omits those constants, as
+ * a conditional log-density may (the samplers compare values within one draw only).
  */
 final class CompiledConditional implements ConditionalDensity {
   private final Unknown unknown;
@@ -63,6 +73,12 @@ final class CompiledConditional implements ConditionalDensity {
   private final double[] formCoefficient;
   /** The terms with an affine part whose {@code a} or {@code b} is a tree, not a linear form. */
   private final int[] treePrepared;
+  /**
+   * The terms that read an unknown index with every part affine in the unknown: left out of a
+   * draw in which none of their parts moves (the allocation selects another element).
+   */
+  private final boolean[] gated;
+  private final boolean anyGated;
   private final ThreadLocal<Workspace> workspaces = ThreadLocal.withInitial(Workspace::new);
 
   CompiledConditional(
@@ -142,6 +158,40 @@ final class CompiledConditional implements ConditionalDensity {
     formStart[2 * parts] = next;
     this.treePrepared = java.util.stream.IntStream.range(0, terms.length)
         .filter(i -> terms[i].preparesTrees()).toArray();
+    this.gated = new boolean[terms.length];
+    boolean any = false;
+    for (int i = 0; i < terms.length; i++) {
+      gated[i] = terms[i].allAffine() && readsUnknownIndex(blanket.get(i));
+      any |= gated[i];
+    }
+    this.anyGated = any;
+  }
+
+  private static boolean readsUnknownIndex(Term t) {
+    if (UnknownIndex.readsIndicator(t.value())) {
+      return true;
+    }
+    for (Formula a : t.arguments()) {
+      if (UnknownIndex.readsIndicator(a)) {
+        return true;
+      }
+    }
+    return false;
+  }
+
+  /** Whether some term's blanket membership follows an allocation ({@link UnknownIndex}). */
+  boolean dynamicBlanket() {
+    return anyGated;
+  }
+
+  /**
+   * The number of terms a draw at {@code state} evaluates: all of them, but for the candidates
+   * whose allocation selects another element (see the class comment).
+   */
+  int activeTermCount(double[] state) {
+    Workspace workspace = workspaces.get();
+    workspace.prepare(state);
+    return workspace.activeCount;
   }
 
   /** {@code constant + sum of coefficient * state[slot]} of form {@code f}. */
@@ -162,6 +212,9 @@ final class CompiledConditional implements ConditionalDensity {
     final double[] inputValues = new double[inputs.length];
     final double[] intercepts = new double[partCount];
     final double[] slopes = new double[partCount];
+    /** The terms this draw evaluates, {@code active[0 .. activeCount)}, in blanket order. */
+    final int[] active = new int[terms.length];
+    int activeCount;
     boolean ready;
 
     /** Works the parts out again unless every input holds the bits it held last time. */
@@ -179,10 +232,26 @@ final class CompiledConditional implements ConditionalDensity {
           slopes[part] = linearValue(2 * part + 1, state);
         }
       }
+      activeCount = 0;
+      for (int i = 0; i < terms.length; i++) {
+        if (!gated[i] || moves(i)) {
+          active[activeCount++] = i;
+        }
+      }
       for (int j = 0; j < inputs.length; j++) {
         inputValues[j] = state[inputs[j]];
       }
       ready = true;
+    }
+
+    /** Whether a part of term {@code i} has a nonzero slope in this draw. */
+    private boolean moves(int i) {
+      for (int p = 0; p <= terms[i].arity; p++) {
+        if (slopes[firstPart[i] + p] != 0) {
+          return true;
+        }
+      }
+      return false;
     }
 
     private boolean sameInputs(double[] state) {
@@ -246,8 +315,13 @@ final class CompiledConditional implements ConditionalDensity {
     double total = 0;
     double dx = 0;
     double du = 0;
-    for (int i = 0; i < terms.length; i++) {
+    int count = workspace == null ? terms.length : workspace.activeCount;
+    for (int j = 0; j < count; j++) {
+      int i = workspace == null ? j : workspace.active[j];
       TermEvaluator term = terms[i];
+      if (workspace == null && gated[i] && !term.movesAt(frame)) {
+        continue;
+      }
       total += workspace == null ? term.eval(frame)
           : term.eval(frame, workspace.intercepts, workspace.slopes, firstPart[i]);
       if (term.slopeOnSamplingScale) {
@@ -358,6 +432,8 @@ final class CompiledConditional implements ConditionalDensity {
     private final Evaluator[] partSlopes;
     /** Per part: whether it is affine in the unknown (worked out once per draw). */
     private final boolean[] affine;
+    /** Per part: a slope kept as a linear form that is not the constant 0. */
+    private final boolean[] linearSlopeMoves;
     /** Whether a moving argument has a bounded range to check at every evaluation. */
     private final boolean checksRanges;
     /**
@@ -401,6 +477,7 @@ final class CompiledConditional implements ConditionalDensity {
       this.partIntercepts = new Evaluator[1 + arity];
       this.partSlopes = new Evaluator[1 + arity];
       this.affine = new boolean[1 + arity];
+      this.linearSlopeMoves = new boolean[1 + arity];
       boolean anyRange = false;
       for (ArgumentRange range : ranges) {
         anyRange |= range != null;
@@ -419,11 +496,36 @@ final class CompiledConditional implements ConditionalDensity {
         if (b != null) {
           linearForms[2 * p] = a;
           linearForms[2 * p + 1] = b;
+          linearSlopeMoves[p] = b.constant() != 0 || b.slots().length > 0;
         } else {
           partIntercepts[p] = Evaluator.compile(parts[0], -1);
           partSlopes[p] = Evaluator.compile(parts[1], -1);
         }
       }
+    }
+
+    /** True when every part (value and arguments) is affine in the unknown. */
+    boolean allAffine() {
+      for (boolean a : affine) {
+        if (!a) {
+          return false;
+        }
+      }
+      return true;
+    }
+
+    /**
+     * For the from-scratch path: whether a part's slope {@code b} is nonzero at the frame's state,
+     * as the workspace decides it (a slope kept as a linear form reads no indicator and counts as
+     * moving).
+     */
+    boolean movesAt(Frame frame) {
+      for (int p = 0; p <= arity; p++) {
+        if (partSlopes[p] != null ? partSlopes[p].eval(frame) != 0 : linearSlopeMoves[p]) {
+          return true;
+        }
+      }
+      return false;
     }
 
     /** True when an affine part's {@code a} and {@code b} are trees, not linear forms. */
