@@ -365,6 +365,21 @@ public final class BoundModel {
   }
 
   /**
+   * Whether unknown {@code index}'s blanket follows an allocation: some dependent term reaches it
+   * through an unknown index only ({@link UnknownIndex}), so that a draw evaluates the candidates
+   * whose allocation currently selects it and leaves the others out; {@code check} says so.
+   */
+  public boolean dynamicBlanket(int index) {
+    checkIndex(index);
+    for (int t : dependents[index]) {
+      if (UnknownIndex.selects(terms.get(t), index)) {
+        return true;
+      }
+    }
+    return false;
+  }
+
+  /**
    * How many terms depend on unknown {@code index} (its blanket without itself): {@code check}
    * shows the count, and {@link #dependentLabels} would make a label per row to count them.
    */

@@ -33,13 +33,14 @@ import org.hullbound.model.family.Scale;
  *
  * <p>Blankets that follow an allocation ({@link UnknownIndex}): a term that reads an unknown index
  * ({@code y[i] ~ normal(mean = mu[g[i]], ...)}, lowered to {@code sum of mu[k] [g[i] = k]}) is a
- * <em>candidate</em> of every {@code mu[k]} it may select. When all its parts are affine in the
- * unknown, the slopes worked out for the draw say whether it moves: a slope of 0 in every part
- * means the allocation points elsewhere, the term is a constant for the whole draw, and the draw
+ * <em>candidate</em> of every {@code mu[k]} it may select. When every place the term reads the
+ * unknown lies inside an option {@code [g[i] = k] * (...)} (its <em>guards</em>, {@link
+ * UnknownIndex#guards}), the guards worked out for the draw say whether it is in the blanket: all
+ * 0 means the allocation points elsewhere, the term is a constant for the whole draw, and the draw
  * leaves it out. Each draw thus evaluates the own term and the observations currently assigned to
- * the unknown, found once per draw from the candidates (their indicators are inputs, so a changed
- * allocation is a new draw); the model is never rebuilt. The value then omits those constants, as
- * a conditional log-density may (the samplers compare values within one draw only).
+ * the unknown, found once per draw from the candidates (their indicators read inputs, so a
+ * changed allocation is a new draw); the model is never rebuilt. The value then omits those
+ * constants, as a conditional log-density may (the samplers compare values within one draw only).
  */
 final class CompiledConditional implements ConditionalDensity {
   private final Unknown unknown;
@@ -74,10 +75,11 @@ final class CompiledConditional implements ConditionalDensity {
   /** The terms with an affine part whose {@code a} or {@code b} is a tree, not a linear form. */
   private final int[] treePrepared;
   /**
-   * The terms that read an unknown index with every part affine in the unknown: left out of a
-   * draw in which none of their parts moves (the allocation selects another element).
+   * Per term: the indicators that guard every place it reads the unknown ({@link
+   * UnknownIndex#guards}), or {@code null} for a term always in the blanket; a draw in which all
+   * are 0 leaves the term out (the allocation selects another element).
    */
-  private final boolean[] gated;
+  private final Evaluator[][] guards;
   private final boolean anyGated;
   private final ThreadLocal<Workspace> workspaces = ThreadLocal.withInitial(Workspace::new);
 
@@ -158,21 +160,22 @@ final class CompiledConditional implements ConditionalDensity {
     formStart[2 * parts] = next;
     this.treePrepared = java.util.stream.IntStream.range(0, terms.length)
         .filter(i -> terms[i].preparesTrees()).toArray();
-    this.gated = new boolean[terms.length];
+    this.guards = new Evaluator[terms.length][];
     boolean any = false;
     for (int i = 0; i < terms.length; i++) {
-      gated[i] = terms[i].allAffine() && readsUnknownIndex(blanket.get(i));
-      any |= gated[i];
+      List<Formula> found = UnknownIndex.guards(blanket.get(i), slot);
+      if (found != null) {
+        guards[i] = found.stream().map(f -> Evaluator.compile(f, -1)).toArray(Evaluator[]::new);
+        any = true;
+      }
     }
     this.anyGated = any;
   }
 
-  private static boolean readsUnknownIndex(Term t) {
-    if (UnknownIndex.readsIndicator(t.value())) {
-      return true;
-    }
-    for (Formula a : t.arguments()) {
-      if (UnknownIndex.readsIndicator(a)) {
+  /** Whether a guard of term {@code i} selects the unknown at the frame's state. */
+  private boolean selected(int i, Frame frame) {
+    for (Evaluator guard : guards[i]) {
+      if (guard.eval(frame) != 0) {
         return true;
       }
     }
@@ -234,7 +237,7 @@ final class CompiledConditional implements ConditionalDensity {
       }
       activeCount = 0;
       for (int i = 0; i < terms.length; i++) {
-        if (!gated[i] || moves(i)) {
+        if (guards[i] == null || selected(i, frame)) {
           active[activeCount++] = i;
         }
       }
@@ -242,16 +245,6 @@ final class CompiledConditional implements ConditionalDensity {
         inputValues[j] = state[inputs[j]];
       }
       ready = true;
-    }
-
-    /** Whether a part of term {@code i} has a nonzero slope in this draw. */
-    private boolean moves(int i) {
-      for (int p = 0; p <= terms[i].arity; p++) {
-        if (slopes[firstPart[i] + p] != 0) {
-          return true;
-        }
-      }
-      return false;
     }
 
     private boolean sameInputs(double[] state) {
@@ -319,7 +312,7 @@ final class CompiledConditional implements ConditionalDensity {
     for (int j = 0; j < count; j++) {
       int i = workspace == null ? j : workspace.active[j];
       TermEvaluator term = terms[i];
-      if (workspace == null && gated[i] && !term.movesAt(frame)) {
+      if (workspace == null && guards[i] != null && !selected(i, frame)) {
         continue;
       }
       total += workspace == null ? term.eval(frame)
@@ -432,8 +425,6 @@ final class CompiledConditional implements ConditionalDensity {
     private final Evaluator[] partSlopes;
     /** Per part: whether it is affine in the unknown (worked out once per draw). */
     private final boolean[] affine;
-    /** Per part: a slope kept as a linear form that is not the constant 0. */
-    private final boolean[] linearSlopeMoves;
     /** Whether a moving argument has a bounded range to check at every evaluation. */
     private final boolean checksRanges;
     /**
@@ -477,7 +468,6 @@ final class CompiledConditional implements ConditionalDensity {
       this.partIntercepts = new Evaluator[1 + arity];
       this.partSlopes = new Evaluator[1 + arity];
       this.affine = new boolean[1 + arity];
-      this.linearSlopeMoves = new boolean[1 + arity];
       boolean anyRange = false;
       for (ArgumentRange range : ranges) {
         anyRange |= range != null;
@@ -496,36 +486,11 @@ final class CompiledConditional implements ConditionalDensity {
         if (b != null) {
           linearForms[2 * p] = a;
           linearForms[2 * p + 1] = b;
-          linearSlopeMoves[p] = b.constant() != 0 || b.slots().length > 0;
         } else {
           partIntercepts[p] = Evaluator.compile(parts[0], -1);
           partSlopes[p] = Evaluator.compile(parts[1], -1);
         }
       }
-    }
-
-    /** True when every part (value and arguments) is affine in the unknown. */
-    boolean allAffine() {
-      for (boolean a : affine) {
-        if (!a) {
-          return false;
-        }
-      }
-      return true;
-    }
-
-    /**
-     * For the from-scratch path: whether a part's slope {@code b} is nonzero at the frame's state,
-     * as the workspace decides it (a slope kept as a linear form reads no indicator and counts as
-     * moving).
-     */
-    boolean movesAt(Frame frame) {
-      for (int p = 0; p <= arity; p++) {
-        if (partSlopes[p] != null ? partSlopes[p].eval(frame) != 0 : linearSlopeMoves[p]) {
-          return true;
-        }
-      }
-      return false;
     }
 
     /** True when an affine part's {@code a} and {@code b} are trees, not linear forms. */

@@ -151,6 +151,58 @@ final class UnknownIndex {
     return Formulas.apply(Op.ADD, options);
   }
 
+  /**
+   * The indicators that guard every place term {@code t} reads slot {@code s}: each such place lies
+   * in an option {@code [index = v] * (...)} whose indicator does not read {@code s}, so when all of
+   * them are 0 the term is free of {@code s}. {@code null} when the term reads no unknown index, or
+   * reads {@code s} somewhere unguarded (then it is always in the blanket).
+   */
+  static List<Formula> guards(Term t, int s) {
+    List<Formula> found = new ArrayList<>();
+    if (!collectGuards(t.value(), s, found)) {
+      return null;
+    }
+    for (Formula a : t.arguments()) {
+      if (!collectGuards(a, s, found)) {
+        return null;
+      }
+    }
+    return found.isEmpty() ? null : found;
+  }
+
+  private static boolean collectGuards(Formula f, int s, List<Formula> into) {
+    if (!f.reads(s)) {
+      return true;
+    }
+    if (!(f instanceof Formula.Operation operation)) {
+      return false;
+    }
+    List<Formula> parts = operation.parts();
+    if (operation.op() == Op.MULTIPLY) {
+      for (int side = 0; side < 2; side++) {
+        Formula factor = parts.get(side);
+        if (factor instanceof Formula.Operation o && o.op() == Op.EQUAL && !factor.reads(s)) {
+          into.add(factor);
+          return true;
+        }
+      }
+    }
+    for (Formula part : parts) {
+      if (!collectGuards(part, s, into)) {
+        return false;
+      }
+    }
+    return true;
+  }
+
+  /**
+   * Whether slot {@code s} reaches term {@code t} through an unknown index only, so that its
+   * blanket follows the allocation ({@link #guards}).
+   */
+  static boolean selects(Term t, int s) {
+    return guards(t, s) != null;
+  }
+
   /** True when {@code f} reads an unknown index (an indicator {@link Op#EQUAL}) anywhere. */
   static boolean readsIndicator(Formula f) {
     if (f instanceof Formula.Operation operation) {
