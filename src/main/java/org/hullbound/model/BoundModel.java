@@ -380,6 +380,20 @@ public final class BoundModel {
   }
 
   /**
+   * Whether unknown {@code index} is read by an unknown index ({@code group_of[i]} in {@code
+   * mu[group_of[i]]}): an allocation, whose conditional compares the elements it may select.
+   */
+  public boolean allocation(int index) {
+    checkIndex(index);
+    for (int t : dependents[index]) {
+      if (UnknownIndex.indexedBy(terms.get(t), index)) {
+        return true;
+      }
+    }
+    return false;
+  }
+
+  /**
    * How many terms depend on unknown {@code index} (its blanket without itself): {@code check}
    * shows the count, and {@link #dependentLabels} would make a label per row to count them.
    */

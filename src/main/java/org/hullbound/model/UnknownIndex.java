@@ -203,6 +203,33 @@ final class UnknownIndex {
     return guards(t, s) != null;
   }
 
+  /** Whether an unknown index of term {@code t} (an indicator's part) reads slot {@code s}. */
+  static boolean indexedBy(Term t, int s) {
+    if (indicatorReads(t.value(), s)) {
+      return true;
+    }
+    for (Formula a : t.arguments()) {
+      if (indicatorReads(a, s)) {
+        return true;
+      }
+    }
+    return false;
+  }
+
+  private static boolean indicatorReads(Formula f, int s) {
+    if (f instanceof Formula.Operation operation) {
+      if (operation.op() == Op.EQUAL) {
+        return f.reads(s);
+      }
+      for (Formula part : operation.parts()) {
+        if (indicatorReads(part, s)) {
+          return true;
+        }
+      }
+    }
+    return false;
+  }
+
   /** True when {@code f} reads an unknown index (an indicator {@link Op#EQUAL}) anywhere. */
   static boolean readsIndicator(Formula f) {
     if (f instanceof Formula.Operation operation) {
