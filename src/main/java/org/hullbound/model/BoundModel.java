@@ -380,6 +380,21 @@ public final class BoundModel {
   }
 
   /**
+   * The components of the model's mixtures: for each name whose elements are selected through an
+   * unknown index ({@link #dynamicBlanket}), the labels of those elements, in slot order. The
+   * report checks whether chains order them differently (label switching).
+   */
+  public List<List<String>> components() {
+    Map<String, List<String>> byNode = new java.util.LinkedHashMap<>();
+    for (Unknown u : unknowns) {
+      if (dynamicBlanket(u.index())) {
+        byNode.computeIfAbsent(u.node(), k -> new ArrayList<>()).add(u.label());
+      }
+    }
+    return byNode.values().stream().map(List::copyOf).toList();
+  }
+
+  /**
    * Whether unknown {@code index} is read by an unknown index ({@code group_of[i]} in {@code
    * mu[group_of[i]]}): an allocation, whose conditional compares the elements it may select.
    */
