@@ -370,9 +370,14 @@ public final class BoundModel {
    * whose allocation currently selects it and leaves the others out; {@code check} says so.
    */
   public boolean dynamicBlanket(int index) {
+    return anyDependent(index, UnknownIndex::selects);
+  }
+
+  /** Whether {@code test} holds for some term that depends on unknown {@code index}. */
+  private boolean anyDependent(int index, java.util.function.BiPredicate<Term, Integer> test) {
     checkIndex(index);
     for (int t : dependents[index]) {
-      if (UnknownIndex.selects(terms.get(t), index)) {
+      if (test.test(terms.get(t), index)) {
         return true;
       }
     }
@@ -399,13 +404,7 @@ public final class BoundModel {
    * mu[group_of[i]]}): an allocation, whose conditional compares the elements it may select.
    */
   public boolean allocation(int index) {
-    checkIndex(index);
-    for (int t : dependents[index]) {
-      if (UnknownIndex.indexedBy(terms.get(t), index)) {
-        return true;
-      }
-    }
-    return false;
+    return anyDependent(index, UnknownIndex::indexedBy);
   }
 
   /**

@@ -229,19 +229,4 @@ final class UnknownIndex {
     }
     return false;
   }
-
-  /** True when {@code f} reads an unknown index (an indicator {@link Op#EQUAL}) anywhere. */
-  static boolean readsIndicator(Formula f) {
-    if (f instanceof Formula.Operation operation) {
-      if (operation.op() == Op.EQUAL) {
-        return true;
-      }
-      for (Formula part : operation.parts()) {
-        if (readsIndicator(part)) {
-          return true;
-        }
-      }
-    }
-    return false;
-  }
 }

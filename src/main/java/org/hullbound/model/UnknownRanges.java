@@ -21,41 +21,39 @@ final class UnknownRanges {
    * observation, an unbounded count, bounds that read unknowns).
    */
   UnknownIndex.Range of(int slot) {
-    for (Node node : scope.nodes.values()) {
-      if (node.kind != Node.Kind.PARAM || node.slots == null) {
-        continue;
-      }
-      for (int e = 0; e < node.size; e++) {
-        if (node.slots[e] != slot) {
-          continue;
-        }
-        if (!node.parametrisation.support().discrete()) {
-          return null;
-        }
-        Formula[] support = BoundModel.support(terms.term(node, e));
-        if (support[0] instanceof Formula.Constant lo && support[1] instanceof Formula.Constant hi
-            && Double.isFinite(lo.value()) && Double.isFinite(hi.value())) {
-          return new UnknownIndex.Range(
-              (long) Math.ceil(lo.value()), (long) Math.floor(hi.value()));
-        }
-        return null;
-      }
+    Element element = find(slot);
+    if (element == null || element.node().kind != Node.Kind.PARAM
+        || !element.node().parametrisation.support().discrete()) {
+      return null;
+    }
+    Formula[] support = BoundModel.support(terms.term(element.node(), element.element()));
+    if (support[0] instanceof Formula.Constant lo && support[1] instanceof Formula.Constant hi
+        && Double.isFinite(lo.value()) && Double.isFinite(hi.value())) {
+      return new UnknownIndex.Range((long) Math.ceil(lo.value()), (long) Math.floor(hi.value()));
     }
     return null;
   }
 
   /** The label of the unknown in slot {@code slot}, for a message. */
   String label(int slot) {
+    Element element = find(slot);
+    return element == null ? "slot " + slot : element.node().label(element.element());
+  }
+
+  private record Element(Node node, int element) {}
+
+  /** The node and element of the unknown in slot {@code slot}, or {@code null}. */
+  private Element find(int slot) {
     for (Node node : scope.nodes.values()) {
       if (node.slots == null) {
         continue;
       }
       for (int e = 0; e < node.size; e++) {
         if (node.slots[e] == slot) {
-          return node.label(e);
+          return new Element(node, e);
         }
       }
     }
-    return "slot " + slot;
+    return null;
   }
 }
