@@ -3,7 +3,9 @@ package org.hullbound.gibbs;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
+import java.util.ArrayList;
 import java.util.List;
+import java.util.function.DoubleBinaryOperator;
 import java.util.Map;
 import org.apache.commons.math3.distribution.LogisticDistribution;
 import org.apache.commons.math3.distribution.NormalDistribution;
@@ -58,58 +60,29 @@ class MixturePosteriorTest {
 
   /** {mean c1, mean c2, sd c1, sd c2, P(cohort_of[s] = 2) for each checked shell}. */
   private static double[] quadrature(RealDistribution prior1, RealDistribution prior2) {
-    int n = 600;
-    double aLo = -3;
-    double aHi = 6;
-    double bLo = 1;
-    double bHi = 10;
-    double[] as = new double[n + 1];
-    double[] bs = new double[n + 1];
-    double[] weight = new double[n + 1];
-    for (int k = 0; k <= n; k++) {
-      as[k] = aLo + (aHi - aLo) * k / n;
-      bs[k] = bLo + (bHi - bLo) * k / n;
-      weight[k] = (k == 0 || k == n) ? 1 : (k % 2 == 1 ? 4 : 2);
+    List<DoubleBinaryOperator> functions = new ArrayList<>(List.of(
+        (a, b) -> a, (a, b) -> b, (a, b) -> a * a, (a, b) -> b * b));
+    for (int shell : CHECKED_SHELLS) {
+      double y = LENGTHS[shell - 1];
+      functions.add((a, b) -> {
+        double one = SHARE_ONE * normal(y - a);
+        double two = (1 - SHARE_ONE) * normal(y - b);
+        return two / (one + two);
+      });
     }
-    double[][] log = new double[n + 1][n + 1];
-    double max = Double.NEGATIVE_INFINITY;
-    for (int i = 0; i <= n; i++) {
-      for (int j = 0; j <= n; j++) {
-        double value = Math.log(prior1.density(as[i])) + Math.log(prior2.density(bs[j]));
-        for (double y : LENGTHS) {
-          value += Math.log(SHARE_ONE * normal(y - as[i]) + (1 - SHARE_ONE) * normal(y - bs[j]));
-        }
-        log[i][j] = value;
-        max = Math.max(max, value);
+    double[] e = SimpsonMoments.expectations((a, b) -> {
+      double value = Math.log(prior1.density(a)) + Math.log(prior2.density(b));
+      for (double y : LENGTHS) {
+        value += Math.log(SHARE_ONE * normal(y - a) + (1 - SHARE_ONE) * normal(y - b));
       }
-    }
-    double[] sums = new double[5 + CHECKED_SHELLS.length];
-    for (int i = 0; i <= n; i++) {
-      for (int j = 0; j <= n; j++) {
-        double w = weight[i] * weight[j] * Math.exp(log[i][j] - max);
-        sums[0] += w;
-        sums[1] += w * as[i];
-        sums[2] += w * bs[j];
-        sums[3] += w * as[i] * as[i];
-        sums[4] += w * bs[j] * bs[j];
-        for (int s = 0; s < CHECKED_SHELLS.length; s++) {
-          double y = LENGTHS[CHECKED_SHELLS[s] - 1];
-          double one = SHARE_ONE * normal(y - as[i]);
-          double two = (1 - SHARE_ONE) * normal(y - bs[j]);
-          sums[5 + s] += w * two / (one + two);
-        }
-      }
-    }
-    double m1 = sums[1] / sums[0];
-    double m2 = sums[2] / sums[0];
+      return value;
+    }, -3, 6, 1, 10, 600, functions);
     double[] result = new double[4 + CHECKED_SHELLS.length];
-    result[0] = m1;
-    result[1] = m2;
-    result[2] = Math.sqrt(sums[3] / sums[0] - m1 * m1);
-    result[3] = Math.sqrt(sums[4] / sums[0] - m2 * m2);
-    for (int s = 0; s < CHECKED_SHELLS.length; s++) {
-      result[4 + s] = sums[5 + s] / sums[0];
-    }
+    result[0] = e[0];
+    result[1] = e[1];
+    result[2] = Math.sqrt(e[2] - e[0] * e[0]);
+    result[3] = Math.sqrt(e[3] - e[1] * e[1]);
+    System.arraycopy(e, 4, result, 4, CHECKED_SHELLS.length);
     return result;
   }
 
