@@ -18,8 +18,8 @@ import org.junit.jupiter.api.io.TempDir;
 /**
  * A run whose chains settle on swapped labels: a two-component mixture with the same prior on
  * both centres and two clusters 20 apart (sd about 2), so that each chain keeps the labelling its
- * start gives it (a Gibbs chain does not cross between the two modes at this separation). Over 16
- * chains started from prior draws, all on one labelling has probability 2^-15, about 3e-5, per
+ * start gives it (a Gibbs chain does not cross between the two modes at this separation). Over 20
+ * chains started from prior draws, all on one labelling has probability 2^-19, about 1.9e-6, per
  * change of the random streams (each chain's start orders the centres either way with
  * probability 1/2, by symmetry); otherwise the summary must name label switching for both
  * centres and no bare disagreement, and the report must say it too.
@@ -46,7 +46,7 @@ class FitRunLabelSwitchingTest {
     }
     Path data = folder.resolve("shells.csv");
     Files.writeString(data, csv.toString());
-    FitRequest request = new FitRequest(new ModelInputs(model, List.of(data)), null, 16, 100, 200,
+    FitRequest request = new FitRequest(new ModelInputs(model, List.of(data)), null, 20, 100, 200,
         null, 5L, null, folder.resolve("out"), null, false, 0.95);
     FitResult result;
     try (FitRun run = FitRun.prepare(request)) {
