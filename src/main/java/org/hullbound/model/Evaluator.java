@@ -52,8 +52,6 @@ abstract class Evaluator {
     Evaluator left = compile(parts.get(0), own);
     Evaluator right = compile(parts.get(1), own);
     switch (op) {
-      case EQUAL:
-        return new Indicator(left, right);
       case SUBTRACT:
         return new Subtract(left, right);
       case MULTIPLY:
@@ -64,6 +62,7 @@ abstract class Evaluator {
         return new Power(left, right);
       case ABOVE:
       case BELOW:
+      case EQUAL:
         return new Indicator(op, left, right);
       default:
         return new Extremum(op == Op.MAX, left, right);
@@ -72,24 +71,6 @@ abstract class Evaluator {
 
   private static boolean isIndicator(Formula f) {
     return f instanceof Formula.Operation o && o.op() == Op.EQUAL;
-  }
-
-  /**
-   * {@code [a = b]}: 1 or 0, with slope 0 (it is only ever read at whole values of discrete
-   * unknowns, where it does not move with a continuous own unknown).
-   */
-  private static final class Indicator extends Pair {
-    Indicator(Evaluator left, Evaluator right) {
-      super(left, right);
-    }
-
-    @Override
-    double eval(Frame frame) {
-      double a = left.eval(frame);
-      double b = right.eval(frame);
-      frame.slope = 0;
-      return a == b ? 1 : 0;
-    }
   }
 
   /**

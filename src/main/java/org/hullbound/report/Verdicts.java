@@ -91,7 +91,7 @@ public final class Verdicts {
    */
   public Verdicts withLabelSwitching(List<List<String>> components, Map<String, Draws> draws) {
     return new Verdicts(LabelSwitching.apply(verdicts, components, draws), unknowns, derived,
-        maxRhat, minEss);
+        twoValued, maxRhat, minEss);
   }
 
   /** The findings, unknown by unknown in table order; empty when all is well. */
