@@ -587,7 +587,11 @@ public final class FitRun implements AutoCloseable {
         SummaryTable.of(summaries, facts).withIntervalLevel(request.level(), kepts);
     Path summaryFile = folder.resolve(SUMMARY_FILE);
     AtomicFiles.write(summaryFile, table.csv());
-    Verdicts verdicts = Verdicts.of(table);
+    Map<String, Draws> drawsByLabel = new LinkedHashMap<>();
+    for (int k = 0; k < summaries.size(); k++) {
+      drawsByLabel.put(summaries.get(k).name(), kepts.get(k));
+    }
+    Verdicts verdicts = Verdicts.of(table).withLabelSwitching(model.components(), drawsByLabel);
     PredictiveChecks checks = PredictiveChecks.none();
     if (replicates != null) {
       checks = predictiveChecks(replicates);

@@ -133,8 +133,23 @@ public final class CheckCommand implements Callable<Integer> {
           (fewest == most ? Integer.toString(most) : fewest + "-" + most)
               + (most == 1 ? " term" : " terms")
               + (group.size() > 1 ? " each, " + group.size() + " unknowns" : "")
-              + (first.imputed() ? ", missing data" : ""));
+              + (first.imputed() ? ", missing data" : "")
+              + (model.dynamicBlanket(first.index()) ? ", dynamic blanket" : ""));
       out.printf("  %-" + labelWidth + "s    %s%n", "", update.reason());
+      if (model.dynamicBlanket(first.index())) {
+        boolean exact = update instanceof Update.Conjugate
+            || update instanceof Update.LinearNormalBlock;
+        out.printf("  %-" + labelWidth + "s    %s%n", "", "dynamic blanket: the terms that reach"
+            + " it through an unknown index are candidates; "
+            + (exact ? "in the exact draw a candidate whose index selects another element adds"
+                + " nothing (its coefficient is 0)"
+                : "a draw evaluates its own term, the other dependents and the candidates whose"
+                + " index currently selects it"));
+      }
+      if (model.allocation(first.index())) {
+        out.printf("  %-" + labelWidth + "s    %s%n", "", "an unknown index (an allocation):"
+            + " each value of its support selects an element; enumerated with the term it selects");
+      }
     }
     printMoves(model, out);
     printDerived(model.derived(), out);

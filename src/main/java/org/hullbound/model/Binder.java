@@ -72,6 +72,7 @@ final class Binder {
     data.bindDataValues();
     TermBinding terms = new TermBinding(scope, data, lowering);
     Slots slots = allocateSlots(scope, terms);
+    lowering.readUnknownIndexes(new UnknownRanges(scope, terms));
     // Lets are checked even when nothing uses them, so a fault in one never hides.
     DerivedQuantities derived = new LetBinding(scope, lowering).bind();
     List<Term> bound = new ArrayList<>();

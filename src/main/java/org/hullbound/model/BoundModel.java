@@ -365,6 +365,49 @@ public final class BoundModel {
   }
 
   /**
+   * Whether unknown {@code index}'s blanket follows an allocation: some dependent term reaches it
+   * through an unknown index only ({@link UnknownIndex}), so that a draw evaluates the candidates
+   * whose allocation currently selects it and leaves the others out; {@code check} says so.
+   */
+  public boolean dynamicBlanket(int index) {
+    return anyDependent(index, UnknownIndex::selects);
+  }
+
+  /** Whether {@code test} holds for some term that depends on unknown {@code index}. */
+  private boolean anyDependent(int index, java.util.function.BiPredicate<Term, Integer> test) {
+    checkIndex(index);
+    for (int t : dependents[index]) {
+      if (test.test(terms.get(t), index)) {
+        return true;
+      }
+    }
+    return false;
+  }
+
+  /**
+   * The components of the model's mixtures: for each name whose elements are selected through an
+   * unknown index ({@link #dynamicBlanket}), the labels of those elements, in slot order. The
+   * report checks whether chains order them differently (label switching).
+   */
+  public List<List<String>> components() {
+    Map<String, List<String>> byNode = new java.util.LinkedHashMap<>();
+    for (Unknown u : unknowns) {
+      if (dynamicBlanket(u.index())) {
+        byNode.computeIfAbsent(u.node(), k -> new ArrayList<>()).add(u.label());
+      }
+    }
+    return byNode.values().stream().map(List::copyOf).toList();
+  }
+
+  /**
+   * Whether unknown {@code index} is read by an unknown index ({@code group_of[i]} in {@code
+   * mu[group_of[i]]}): an allocation, whose conditional compares the elements it may select.
+   */
+  public boolean allocation(int index) {
+    return anyDependent(index, UnknownIndex::indexedBy);
+  }
+
+  /**
    * How many terms depend on unknown {@code index} (its blanket without itself): {@code check}
    * shows the count, and {@link #dependentLabels} would make a label per row to count them.
    */
@@ -535,7 +578,7 @@ public final class BoundModel {
   }
 
   /** The support of the own term's value on the natural scale, intersected with truncation. */
-  private static Formula[] support(Term own) {
+  static Formula[] support(Term own) {
     Formula lo;
     Formula hi;
     switch (own.family().support()) {

@@ -30,6 +30,17 @@ import org.hullbound.model.family.Scale;
  * (compared bit for bit) works them out again, so a stale part can never be used. Parts that are
  * not affine in the unknown are evaluated as compiled trees at every call. Nothing is allocated
  * per evaluation: the workspace's frame is reused.
+ *
+ * <p>Blankets that follow an allocation ({@link UnknownIndex}): a term that reads an unknown index
+ * ({@code y[i] ~ normal(mean = mu[g[i]], ...)}, lowered to {@code sum of mu[k] [g[i] = k]}) is a
+ * <em>candidate</em> of every {@code mu[k]} it may select. When every place the term reads the
+ * unknown lies inside an option {@code [g[i] = k] * (...)} (its <em>guards</em>, {@link
+ * UnknownIndex#guards}), the guards worked out for the draw say whether it is in the blanket: all
+ * 0 means the allocation points elsewhere, the term is a constant for the whole draw, and the draw
+ * leaves it out. Each draw thus evaluates the own term and the observations currently assigned to
+ * the unknown, found once per draw from the candidates (their indicators read inputs, so a
+ * changed allocation is a new draw); the model is never rebuilt. The value then omits those
+ * constants, as a conditional log-density may (the samplers compare values within one draw only).
  */
 final class CompiledConditional implements ConditionalDensity {
   private final Unknown unknown;
@@ -63,6 +74,13 @@ final class CompiledConditional implements ConditionalDensity {
   private final double[] formCoefficient;
   /** The terms with an affine part whose {@code a} or {@code b} is a tree, not a linear form. */
   private final int[] treePrepared;
+  /**
+   * Per term: the indicators that guard every place it reads the unknown ({@link
+   * UnknownIndex#guards}), or {@code null} for a term always in the blanket; a draw in which all
+   * are 0 leaves the term out (the allocation selects another element).
+   */
+  private final Evaluator[][] guards;
+  private final boolean anyGated;
   private final ThreadLocal<Workspace> workspaces = ThreadLocal.withInitial(Workspace::new);
 
   CompiledConditional(
@@ -142,6 +160,41 @@ final class CompiledConditional implements ConditionalDensity {
     formStart[2 * parts] = next;
     this.treePrepared = java.util.stream.IntStream.range(0, terms.length)
         .filter(i -> terms[i].preparesTrees()).toArray();
+    this.guards = new Evaluator[terms.length][];
+    boolean any = false;
+    for (int i = 0; i < terms.length; i++) {
+      List<Formula> found = UnknownIndex.guards(blanket.get(i), slot);
+      if (found != null) {
+        guards[i] = found.stream().map(f -> Evaluator.compile(f, -1)).toArray(Evaluator[]::new);
+        any = true;
+      }
+    }
+    this.anyGated = any;
+  }
+
+  /** Whether a guard of term {@code i} selects the unknown at the frame's state. */
+  private boolean selected(int i, Frame frame) {
+    for (Evaluator guard : guards[i]) {
+      if (guard.eval(frame) != 0) {
+        return true;
+      }
+    }
+    return false;
+  }
+
+  /** Whether some term's blanket membership follows an allocation ({@link UnknownIndex}). */
+  boolean dynamicBlanket() {
+    return anyGated;
+  }
+
+  /**
+   * The number of terms a draw at {@code state} evaluates: all of them, but for the candidates
+   * whose allocation selects another element (see the class comment).
+   */
+  int activeTermCount(double[] state) {
+    Workspace workspace = workspaces.get();
+    workspace.prepare(state);
+    return workspace.activeCount;
   }
 
   /** {@code constant + sum of coefficient * state[slot]} of form {@code f}. */
@@ -162,6 +215,9 @@ final class CompiledConditional implements ConditionalDensity {
     final double[] inputValues = new double[inputs.length];
     final double[] intercepts = new double[partCount];
     final double[] slopes = new double[partCount];
+    /** The terms this draw evaluates, {@code active[0 .. activeCount)}, in blanket order. */
+    final int[] active = new int[terms.length];
+    int activeCount;
     boolean ready;
 
     /** Works the parts out again unless every input holds the bits it held last time. */
@@ -177,6 +233,12 @@ final class CompiledConditional implements ConditionalDensity {
         if (linearPart[part]) {
           intercepts[part] = linearValue(2 * part, state);
           slopes[part] = linearValue(2 * part + 1, state);
+        }
+      }
+      activeCount = 0;
+      for (int i = 0; i < terms.length; i++) {
+        if (guards[i] == null || selected(i, frame)) {
+          active[activeCount++] = i;
         }
       }
       for (int j = 0; j < inputs.length; j++) {
@@ -246,8 +308,13 @@ final class CompiledConditional implements ConditionalDensity {
     double total = 0;
     double dx = 0;
     double du = 0;
-    for (int i = 0; i < terms.length; i++) {
+    int count = workspace == null ? terms.length : workspace.activeCount;
+    for (int j = 0; j < count; j++) {
+      int i = workspace == null ? j : workspace.active[j];
       TermEvaluator term = terms[i];
+      if (workspace == null && guards[i] != null && !selected(i, frame)) {
+        continue;
+      }
       total += workspace == null ? term.eval(frame)
           : term.eval(frame, workspace.intercepts, workspace.slopes, firstPart[i]);
       if (term.slopeOnSamplingScale) {

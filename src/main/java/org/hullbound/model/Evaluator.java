@@ -44,6 +44,11 @@ abstract class Evaluator {
     if (op.arity() == 1) {
       return new Unary(op, compile(parts.get(0), own));
     }
+    if (op == Op.MULTIPLY && (isIndicator(parts.get(0)) || isIndicator(parts.get(1)))) {
+      boolean leftIndicator = isIndicator(parts.get(0));
+      return new Selected(compile(parts.get(leftIndicator ? 0 : 1), own),
+          compile(parts.get(leftIndicator ? 1 : 0), own));
+    }
     Evaluator left = compile(parts.get(0), own);
     Evaluator right = compile(parts.get(1), own);
     switch (op) {
@@ -57,9 +62,35 @@ abstract class Evaluator {
         return new Power(left, right);
       case ABOVE:
       case BELOW:
+      case EQUAL:
         return new Indicator(op, left, right);
       default:
         return new Extremum(op == Op.MAX, left, right);
+    }
+  }
+
+  private static boolean isIndicator(Formula f) {
+    return f instanceof Formula.Operation o && o.op() == Op.EQUAL;
+  }
+
+  /**
+   * {@code [g = k] * option}, one option of an unknown index: the option is evaluated only when
+   * the indicator is 1, so an option that is infinite or NaN where it is not selected (a rate
+   * {@code exp(eta[k])} that overflowed) gives 0, not {@code 0 * inf = NaN}, and an unselected
+   * option costs nothing.
+   */
+  private static final class Selected extends Pair {
+    Selected(Evaluator indicator, Evaluator option) {
+      super(indicator, option);
+    }
+
+    @Override
+    double eval(Frame frame) {
+      if (left.eval(frame) == 0) {
+        frame.slope = 0;
+        return 0;
+      }
+      return right.eval(frame);
     }
   }
 

@@ -31,11 +31,21 @@ final class ModelLowering implements ExpressionLowering.Leaves {
   /** While a check is resolved: its data name, whose elements are slots from replicatedBase. */
   private Node replicated;
   private int replicatedBase;
+  /** The ranges of whole-valued unknowns, once slots are numbered: indexes may then read them. */
+  private UnknownRanges unknownRanges;
 
   ModelLowering(BindingScope scope, DataBinding data) {
     this.scope = scope;
     this.data = data;
     this.lowering = new ExpressionLowering(this, scope::error);
+  }
+
+  /**
+   * From now on an index may read whole-valued unknowns with a finite support ({@link
+   * UnknownIndex}), their ranges taken from {@code ranges}.
+   */
+  void readUnknownIndexes(UnknownRanges ranges) {
+    this.unknownRanges = ranges;
   }
 
   /** Resolves {@code e} with the index sets in {@code env} bound to the given elements. */
@@ -161,6 +171,9 @@ final class ModelLowering implements ExpressionLowering.Leaves {
               : "write " + name + setList(node.target.indexSets()));
     }
     int[] index = new int[nodeSets.size()];
+    int unknownAt = -1;
+    Formula unknownIndex = null;
+    UnknownIndex.Range unknownRange = null;
     for (int i = 0; i < index.length; i++) {
       Expression indexExpression = reference.indexes().get(i);
       IndexSet expected = nodeSets.get(i);
@@ -177,10 +190,24 @@ final class ModelLowering implements ExpressionLowering.Leaves {
       }
       Formula resolved = resolve(indexExpression, env);
       if (!(resolved instanceof Formula.Constant c)) {
-        throw scope.error(
-            indexExpression.position(),
-            "the index of '" + name + "' depends on an unknown; indexes must be known data",
-            null);
+        if (unknownRanges == null) {
+          throw scope.error(
+              indexExpression.position(),
+              "the index of '" + name + "' depends on an unknown; indexes must be known data",
+              null);
+        }
+        if (unknownAt >= 0) {
+          throw scope.error(
+              indexExpression.position(),
+              "'" + name + "' has two indexes that read unknowns; at most one index of a name"
+                  + " may read unknowns",
+              "work the element out in one index, or write a let for one of them");
+        }
+        unknownAt = i;
+        unknownIndex = resolved;
+        unknownRange = unknownIndexRange(resolved, indexExpression, expected, name);
+        index[i] = expected.lower();
+        continue;
       }
       double v = c.value();
       if (v != Math.rint(v)) {
@@ -198,6 +225,49 @@ final class ModelLowering implements ExpressionLowering.Leaves {
       }
       index[i] = (int) v;
     }
+    if (unknownAt >= 0) {
+      int at = unknownAt;
+      return UnknownIndex.lower(unknownIndex, unknownRange, v -> {
+        int[] element = index.clone();
+        element[at] = (int) v;
+        return element(node, element, reference);
+      });
+    }
+    return element(node, index, reference);
+  }
+
+  /**
+   * The range an index that reads unknowns can take ({@link UnknownIndex}), proved inside the
+   * indexed set, or a positioned error at the index.
+   */
+  private UnknownIndex.Range unknownIndexRange(
+      Formula index, Expression indexExpression, IndexSet expected, String name) {
+    UnknownIndex.Proof proof =
+        UnknownIndex.range(index, unknownRanges::of, unknownRanges::label);
+    if (proof.problem() != null) {
+      throw scope.error(
+          indexExpression.position(),
+          "the index of '" + name + "' reads an unknown, but " + proof.problem(),
+          "an unknown index must be a whole-valued param with a finite support, as in "
+              + name + "[group_of[i]] with param group_of[i] ~ categorical(p = w)");
+    }
+    UnknownIndex.Range range = proof.range();
+    if (range.lower() < expected.lower() || range.upper() > expected.upper()) {
+      throw scope.error(
+          indexExpression.position(),
+          "the index of '" + name + "' reads an unknown and can take " + range.lower() + " .. "
+              + range.upper() + ", outside index set '" + expected.name() + "' ("
+              + expected.range() + ")",
+          "give the unknown a support inside " + expected.range()
+              + ", as in categorical(p = w) with one weight per element");
+    }
+    return range;
+  }
+
+  /** The formula of element {@code index} of {@code node}, as {@code reference} reads it. */
+  private Formula element(Node node, int[] index, Expression.Name reference) {
+    String name = node.name();
+    List<IndexSet> nodeSets = node.indexSets;
     int offset = node.offset(index);
     switch (node.kind) {
       case DATA:

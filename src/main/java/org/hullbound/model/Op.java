@@ -32,7 +32,13 @@ enum Op {
   /** 1 when a &gt; b, else 0: an indicator, for checks only (the parser keeps it out of densities). */
   ABOVE("above", 2, false),
   /** 1 when a &lt; b, else 0. */
-  BELOW("below", 2, false);
+  BELOW("below", 2, false),
+  /**
+   * 1 when both parts are equal, else 0: not a function of the language but the indicator that an
+   * unknown index is lowered to ({@code mu[g]} is the sum over k of {@code mu[k] * [g = k]}, see
+   * {@code UnknownIndex}). Its symbol is no identifier, so {@link #function} never finds it.
+   */
+  EQUAL("=", 2, false);
 
   private final String symbol;
   private final int arity;
@@ -147,6 +153,8 @@ enum Op {
         return a > b ? 1 : 0;
       case BELOW:
         return a < b ? 1 : 0;
+      case EQUAL:
+        return a == b ? 1 : 0;
       default:
         throw new IllegalStateException(this + " is not a two-argument operation");
     }

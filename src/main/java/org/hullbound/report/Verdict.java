@@ -28,6 +28,11 @@ public record Verdict(String unknown, Kind kind, String text) {
     /** A fallback update was chosen before the run. */
     FALLBACK_USED,
     /** The run switched to a fallback part way. */
-    SWITCHED_TO_FALLBACK
+    SWITCHED_TO_FALLBACK,
+    /**
+     * Chains order a mixture's components differently: R-hat's disagreement comes from the
+     * labels ({@link LabelSwitching}).
+     */
+    LABEL_SWITCHING
   }
 }

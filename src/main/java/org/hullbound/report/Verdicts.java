@@ -4,6 +4,7 @@ import java.util.ArrayList;
 import java.util.List;
 import java.util.Locale;
 import java.util.Map;
+import org.hullbound.diagnostics.Draws;
 import org.hullbound.diagnostics.VariableSummary;
 
 /**
@@ -80,6 +81,17 @@ public final class Verdicts {
     return new Verdicts(
         List.copyOf(found), table.summaries().size(), derived, List.copyOf(twoValued), maxRhat,
         minEss);
+  }
+
+  /**
+   * These verdicts with label switching named where chains order a mixture's components
+   * differently ({@link LabelSwitching}); {@code components} lists each group of components'
+   * labels (the elements of a name selected through an unknown index), {@code draws} the kept
+   * draws by label.
+   */
+  public Verdicts withLabelSwitching(List<List<String>> components, Map<String, Draws> draws) {
+    return new Verdicts(LabelSwitching.apply(verdicts, components, draws), unknowns, derived,
+        twoValued, maxRhat, minEss);
   }
 
   /** The findings, unknown by unknown in table order; empty when all is well. */

@@ -111,6 +111,41 @@ class CheckCommandTest {
   }
 
   @Test
+  void theMixtureDemoMarksItsDynamicBlanketsAndItsUnknownIndices() {
+    Run run = run("check", "models/mussels.hbm", "--data", "models/mussels.csv");
+    assertEquals(0, run.status(), run.err());
+    String out = run.out();
+    assertTrue(out.matches("(?s).*centre\\[1\\], centre\\[2\\] +natural +exact block normal"
+        + " \\(2 jointly\\) +121 terms each, 2 unknowns, dynamic blanket\n.*"), out);
+    assertTrue(out.contains("dynamic blanket: the terms that reach it through an unknown index are"
+        + " candidates; in the exact draw a candidate whose index selects another element adds"
+        + " nothing"), out);
+    assertTrue(out.matches("(?s).*older\\[1\\] \\.\\. older\\[120\\] +natural +exact"
+        + " enumeration +2 terms each, 120 unknowns\n.*"), out);
+    assertTrue(out.contains("an unknown index (an allocation)"), out);
+    String spread = out.lines().filter(l -> l.startsWith("  spread ")).findFirst().orElseThrow();
+    assertFalse(spread.contains("dynamic blanket"), spread);
+  }
+
+  @Test
+  void anIndexThatCanLeaveItsSetIsAModelErrorWithStatusTwo(@TempDir Path dir)
+      throws IOException {
+    Path model = dir.resolve("bad.hbm");
+    Files.writeString(model, String.join("\n",
+        "index row = 1 .. 3",
+        "index level = 1 .. 2",
+        "param mu[level] ~ normal(mean = 0, sd = 1)",
+        "param g ~ whole-uniform(lower = 0, upper = 2)",
+        "data  y[row] = [1, 2, 3] ~ normal(mean = mu[g], sd = 1)",
+        ""));
+    Run run = run("check", model.toString());
+    assertEquals(2, run.status());
+    assertTrue(run.err().startsWith(model + ":5:45: the index of 'mu' reads an unknown and can"
+        + " take 0 .. 2, outside index set 'level' (1 .. 2)"), run.err());
+    assertFalse(run.err().contains("at org."), run.err());
+  }
+
+  @Test
   void aModelErrorIsRenderedOnStderrWithStatusTwoAndNoStackTrace(@TempDir Path dir)
       throws IOException {
     Path model = dir.resolve("bad.hbm");

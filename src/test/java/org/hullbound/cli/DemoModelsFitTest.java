@@ -29,6 +29,7 @@ class DemoModelsFitTest {
           Map.entry("fill_weights", List.of("bottles.csv", "shifts.csv")),
           Map.entry("fleet_faults", List.of()),
           Map.entry("moth_traps", List.of()),
+          Map.entry("mussels", List.of("mussels.csv")),
           Map.entry("nests", List.of()),
           Map.entry("orchard", List.of("orchard.csv")),
           Map.entry("seedlings", List.of("seedlings.csv")),

@@ -1,5 +1,6 @@
 package org.hullbound.gibbs;
 
+import java.util.List;
 import java.util.function.DoubleBinaryOperator;
 
 /**
@@ -16,6 +17,18 @@ final class SimpsonMoments {
    */
   static double[] of(DoubleBinaryOperator logDensity, double aLo, double aHi, double bLo,
       double bHi, int n) {
+    double[] e = expectations(logDensity, aLo, aHi, bLo, bHi, n, List.of(
+        (a, b) -> a, (a, b) -> b, (a, b) -> a * a, (a, b) -> b * b));
+    return new double[] {e[0], e[1], Math.sqrt(e[2] - e[0] * e[0]),
+        Math.sqrt(e[3] - e[1] * e[1])};
+  }
+
+  /**
+   * The expectations of {@code functions} under the density {@code exp(logDensity(a, b))} on
+   * [aLo, aHi] x [bLo, bHi], by the same rule.
+   */
+  static double[] expectations(DoubleBinaryOperator logDensity, double aLo, double aHi,
+      double bLo, double bHi, int n, List<DoubleBinaryOperator> functions) {
     double[] as = new double[n + 1];
     double[] bs = new double[n + 1];
     double[] weight = new double[n + 1];
@@ -33,22 +46,19 @@ final class SimpsonMoments {
       }
     }
     double z = 0;
-    double ma = 0;
-    double mb = 0;
-    double saa = 0;
-    double sbb = 0;
+    double[] sums = new double[functions.size()];
     for (int i = 0; i <= n; i++) {
       for (int j = 0; j <= n; j++) {
         double w = weight[i] * weight[j] * Math.exp(log[i][j] - max);
         z += w;
-        ma += w * as[i];
-        mb += w * bs[j];
-        saa += w * as[i] * as[i];
-        sbb += w * bs[j] * bs[j];
+        for (int f = 0; f < sums.length; f++) {
+          sums[f] += w * functions.get(f).applyAsDouble(as[i], bs[j]);
+        }
       }
     }
-    ma /= z;
-    mb /= z;
-    return new double[] {ma, mb, Math.sqrt(saa / z - ma * ma), Math.sqrt(sbb / z - mb * mb)};
+    for (int f = 0; f < sums.length; f++) {
+      sums[f] /= z;
+    }
+    return sums;
   }
 }

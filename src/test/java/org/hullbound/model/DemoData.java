@@ -31,6 +31,7 @@ public final class DemoData {
     files.put("sensors.csv", sensors());
     files.put("orchard.csv", orchard());
     files.put("extract.csv", extract());
+    files.put("mussels.csv", mussels());
     return files;
   }
 
@@ -101,6 +102,21 @@ public final class DemoData {
       double concentration = Math.round(40 + 2 * plate) / 10.0;
       int dead = binomial(random, 30, inverseLogit(-11 + 2.2 * concentration));
       csv.append(concentration).append(",30,").append(dead).append('\n');
+    }
+    return csv.toString();
+  }
+
+  /**
+   * 120 shell lengths (mm) from two year classes: a share 0.35 young with lengths normal(31, 3.5),
+   * the others normal(48, 3.5); one decimal.
+   */
+  static String mussels() {
+    RandomGenerator random = random(20261203L);
+    StringBuilder csv = new StringBuilder("length\n");
+    for (int shell = 0; shell < 120; shell++) {
+      double centre = random.nextDouble() < 0.35 ? 31 : 48;
+      double length = centre + 3.5 * random.nextGaussian();
+      csv.append(String.format(Locale.ROOT, "%.1f", length)).append('\n');
     }
     return csv.toString();
   }
