@@ -186,7 +186,11 @@ final class ModelStartingValues implements StartingValues {
     if (!(u >= density.lowerBound(state) && u <= density.upperBound(state))) {
       return false;
     }
-    double logDensity = density.logDensity(u, state, null);
+    return positive(density.logDensity(u, state, null));
+  }
+
+  /** Whether a log-density is that of a positive, finite density (not -inf, +inf or NaN). */
+  private static boolean positive(double logDensity) {
     return logDensity > Double.NEGATIVE_INFINITY && logDensity < Double.POSITIVE_INFINITY;
   }
 
@@ -195,8 +199,7 @@ final class ModelStartingValues implements StartingValues {
     for (Unknown unknown : model.unknowns()) {
       ConditionalDensity density = model.conditional(unknown.index());
       double u = density.toSamplingScale(state[unknown.index()]);
-      double logDensity = density.logDensity(u, state, null);
-      if (!(logDensity > Double.NEGATIVE_INFINITY) || logDensity == Double.POSITIVE_INFINITY) {
+      if (!positive(density.logDensity(u, state, null))) {
         return unknown;
       }
     }

@@ -9,6 +9,8 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
 import java.io.IOException;
 import java.nio.file.Files;
 import java.nio.file.Path;
+import java.util.ArrayList;
+import java.util.Comparator;
 import java.util.List;
 import org.hullbound.gibbs.ProgressListener;
 import org.hullbound.gibbs.StopSignal;
@@ -135,8 +137,8 @@ class BatchRunTest {
   /** The header, then every row sorted by its chain and draw (the file's first two columns). */
   private static List<String> rowsInChainOrder(Path draws) throws IOException {
     List<String> lines = Files.readAllLines(draws);
-    List<String> rows = new java.util.ArrayList<>(lines.subList(1, lines.size()));
-    rows.sort(java.util.Comparator
+    List<String> rows = new ArrayList<>(lines.subList(1, lines.size()));
+    rows.sort(Comparator
         .comparingLong((String row) -> Long.parseLong(row.split(",", 3)[0]))
         .thenComparingLong(row -> Long.parseLong(row.split(",", 3)[1])));
     rows.add(0, lines.get(0));
