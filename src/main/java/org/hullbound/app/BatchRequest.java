@@ -17,18 +17,37 @@ import org.hullbound.model.EmptyCells;
  * @param seed the run's seed, or null for a drawn one
  * @param out the output folder, or null for {@code fit-units-out/<model name>}
  * @param overwrite whether an earlier batch's files in the folder may be replaced
- * @param level the probability inside the central intervals
+ * @param level the probability inside the central intervals, or null for the default
  * @param emptyCells whether an empty cell of a modelled column is imputed or refused
  * @param keepDraws whether each unit's folder (draws, summary, report, inputs) is kept
+ * @param resume the folder of a stopped batch to continue, or null: its settings are kept, an
+ *     option given must agree with them, and {@code emptyCells} {@code IMPUTED} and {@code
+ *     keepDraws} false then mean "as the batch was started"
  */
 public record BatchRequest(
     Path modelFile, List<UnitData> units, Integer chains, Integer burnIn, Integer draws,
-    Integer thin, Long seed, Path out, boolean overwrite, double level, EmptyCells emptyCells,
-    boolean keepDraws) {
+    Integer thin, Long seed, Path out, boolean overwrite, Double level, EmptyCells emptyCells,
+    boolean keepDraws, Path resume) {
   public BatchRequest {
     if (modelFile == null || units == null || emptyCells == null) {
       throw new IllegalArgumentException("modelFile, units and emptyCells must not be null");
     }
     units = List.copyOf(units);
+  }
+
+  /** A new batch (not a resumed one). */
+  public BatchRequest(
+      Path modelFile, List<UnitData> units, Integer chains, Integer burnIn, Integer draws,
+      Integer thin, Long seed, Path out, boolean overwrite, Double level, EmptyCells emptyCells,
+      boolean keepDraws) {
+    this(modelFile, units, chains, burnIn, draws, thin, seed, out, overwrite, level, emptyCells,
+        keepDraws, null);
+  }
+
+  /** This request continuing the stopped batch in {@code folder}. */
+  public BatchRequest resuming(Path folder) {
+    return new BatchRequest(
+        modelFile, units, chains, burnIn, draws, thin, seed, out, overwrite, level, emptyCells,
+        keepDraws, folder);
   }
 }

@@ -1,17 +1,17 @@
 package org.hullbound.app;
 
 import java.io.Serializable;
-import java.util.ArrayList;
 import java.util.List;
 import java.util.concurrent.ExecutionException;
 import java.util.concurrent.ExecutorCompletionService;
 import java.util.concurrent.ExecutorService;
 import java.util.concurrent.Executors;
-import java.util.concurrent.Future;
+import org.hullbound.gibbs.StopSignal;
 
 /**
- * {@link TaskEngine} on a fixed pool of threads of this machine: each task runs once, results are
- * put back in input order, and the progress is told after each task from the caller's thread.
+ * {@link TaskEngine} on a fixed pool of threads of this machine: each task runs once, with the
+ * run's stop signal, and its result and the progress are handed on from the caller's thread as
+ * the task ends.
  */
 final class LocalTasks implements TaskEngine {
   private final int workers;
@@ -37,46 +37,73 @@ final class LocalTasks implements TaskEngine {
   }
 
   @Override
-  public <I extends Serializable, R extends Outcome> List<R> run(
-      List<I> inputs, Task<I, R> task, Progress progress) {
-    ExecutorCompletionService<Integer> done = new ExecutorCompletionService<>(pool);
-    List<R> results = new ArrayList<>(inputs.size());
-    List<Future<Integer>> futures = new ArrayList<>();
-    for (int k = 0; k < inputs.size(); k++) {
-      results.add(null);
-    }
+  public <I extends Serializable, R extends Outcome> void each(
+      List<I> inputs, Task<I, R> task, Finished<R> finished, Progress progress, StopSignal stop) {
+    ExecutorCompletionService<Done<R>> done = new ExecutorCompletionService<>(pool);
     for (int k = 0; k < inputs.size(); k++) {
       int index = k;
-      futures.add(done.submit(() -> {
-        results.set(index, task.run(inputs.get(index)));
-        return index;
-      }));
+      // A task not begun when the stop comes ends at once without a result: queued tasks drain
+      // in microseconds, and running ones end within a sweep (the stop reaches their chains).
+      done.submit(() -> new Done<>(index, stop.isRequested() ? null : task.run(inputs.get(index), stop)));
     }
-    int finished = 0;
+    int ended = 0;
+    int handed = 0;
     int failed = 0;
-    try {
-      for (int k = 0; k < inputs.size(); k++) {
-        int index = done.take().get();
-        finished++;
-        failed += results.get(index).failed() ? 1 : 0;
-        progress.update(finished, failed, inputs.size());
+    RuntimeException firstFailure = null;
+    Error firstError = null;
+    boolean interrupted = false;
+    while (ended < inputs.size()) {
+      Done<R> result;
+      try {
+        result = done.take().get();
+      } catch (InterruptedException e) {
+        // the caller's thread was interrupted: stop the tasks, wait for them, then say so
+        interrupted = true;
+        stop.request();
+        continue;
+      } catch (ExecutionException e) {
+        ended++;
+        stop.request();
+        if (firstFailure == null && firstError == null) {
+          if (e.getCause() instanceof RuntimeException unchecked) {
+            firstFailure = unchecked;
+          } else if (e.getCause() instanceof Error error) {
+            firstError = error;
+          } else {
+            firstFailure = new IllegalStateException(e.getCause());
+          }
+        }
+        continue;
       }
-    } catch (InterruptedException e) {
-      futures.forEach(future -> future.cancel(true));
-      Thread.currentThread().interrupt();
-      throw new IllegalStateException("interrupted while tasks ran", e);
-    } catch (ExecutionException e) {
-      futures.forEach(future -> future.cancel(true));
-      if (e.getCause() instanceof RuntimeException unchecked) {
-        throw unchecked;
+      ended++;
+      if (result.value() == null || firstFailure != null || firstError != null) {
+        continue; // not run (stopped), or after a failure: nothing more is handed on
       }
-      if (e.getCause() instanceof Error error) {
-        throw error;
+      try {
+        finished.accept(result.index(), result.value());
+      } catch (RuntimeException refused) {
+        stop.request();
+        firstFailure = refused;
+        continue;
       }
-      throw new IllegalStateException(e.getCause());
+      handed++;
+      failed += result.value().failed() ? 1 : 0;
+      progress.update(handed, failed, inputs.size());
     }
-    return results;
+    if (interrupted) {
+      Thread.currentThread().interrupt();
+      throw new IllegalStateException("interrupted while tasks ran");
+    }
+    if (firstError != null) {
+      throw firstError;
+    }
+    if (firstFailure != null) {
+      throw firstFailure;
+    }
   }
+
+  /** A task's index and result; a null result for a task that a stop kept from running. */
+  private record Done<R>(int index, R value) {}
 
   @Override
   public String description() {

@@ -1,7 +1,10 @@
 package org.hullbound.app;
 
 import java.io.Serializable;
+import java.util.ArrayList;
+import java.util.Collections;
 import java.util.List;
+import org.hullbound.gibbs.StopSignal;
 
 /**
  * Runs many independent tasks (calibration replicates, the units of a batch) and hands back their
@@ -21,6 +24,21 @@ public interface TaskEngine extends AutoCloseable {
   @FunctionalInterface
   interface Task<I extends Serializable, R extends Outcome> extends Serializable {
     R run(I input);
+
+    /**
+     * Runs on {@code input}, giving up early once {@code stop} is requested (the engine's run is
+     * being stopped), and then returning null: no result. A task that cannot stop early ignores
+     * it. An engine that runs tasks in this process calls this form.
+     */
+    default R run(I input, StopSignal stop) {
+      return run(input);
+    }
+  }
+
+  /** Told on the caller's side of each task's result as soon as it is in, with its input's index. */
+  @FunctionalInterface
+  interface Finished<R> {
+    void accept(int index, R result);
   }
 
   /** A task's result: serializable, and saying whether the task's own work failed. */
@@ -45,8 +63,25 @@ public interface TaskEngine extends AutoCloseable {
    * An exception a task throws (rather than returning a failed outcome) ends the whole run and is
    * rethrown here.
    */
-  <I extends Serializable, R extends Outcome> List<R> run(
-      List<I> inputs, Task<I, R> task, Progress progress);
+  default <I extends Serializable, R extends Outcome> List<R> run(
+      List<I> inputs, Task<I, R> task, Progress progress) {
+    List<R> results = new ArrayList<>(Collections.nCopies(inputs.size(), null));
+    each(inputs, task, results::set, progress, StopSignal.create());
+    return results;
+  }
+
+  /**
+   * Runs {@code task} on every input and hands each result to {@code finished} as it comes in
+   * (on the caller's thread, one at a time, in the order the tasks end), then tells {@code
+   * progress}. Returns when every task has ended, or, once {@code stop} is requested, when no task
+   * runs any more: tasks not begun are not begun, running ones are asked to stop ({@link
+   * Task#run(Serializable, StopSignal)}) or cancelled, and the results that still come in are
+   * handed on. A task that throws (rather than returning a failed outcome), or a {@code finished}
+   * that throws, requests {@code stop}; the first such exception is rethrown here after the other
+   * tasks ended, so that every result finished before it has been handed on.
+   */
+  <I extends Serializable, R extends Outcome> void each(
+      List<I> inputs, Task<I, R> task, Finished<R> finished, Progress progress, StopSignal stop);
 
   /** The engine's name as shown to the user, e.g. {@code 2 local workers}. */
   String description();

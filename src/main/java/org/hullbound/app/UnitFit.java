@@ -69,6 +69,15 @@ public final class UnitFit implements TaskEngine.Task<UnitData, UnitOutcome> {
 
   @Override
   public UnitOutcome run(UnitData unit) {
+    return run(unit, StopSignal.create());
+  }
+
+  /**
+   * Fits {@code unit}, its chains stopping early once {@code stop} is requested: a unit stopped so
+   * has no outcome (null), and its folder is removed, since a resumed batch fits it again whole.
+   */
+  @Override
+  public UnitOutcome run(UnitData unit, StopSignal stop) {
     long seed = UnitSeeds.of(settings.seed(), unit.name());
     if (unit.problem() != null) {
       return UnitOutcome.failed(unit.name(), seed, unit.problem());
@@ -95,12 +104,16 @@ public final class UnitFit implements TaskEngine.Task<UnitData, UnitOutcome> {
               settings.chains(), settings.burnIn(), settings.draws(), settings.thin(), seed, 1,
               folder, null, true, settings.level());
       try (FitRun run = FitRun.prepare(request)) {
-        result = run.run(ProgressListener.none(), StopSignal.create());
+        result = run.run(ProgressListener.none(), stop);
       }
     } catch (IOException io) {
       return UnitOutcome.failed(unit.name(), seed, "cannot write " + folder + ": " + io.getMessage());
     } catch (RuntimeException failed) {
       return UnitOutcome.failed(unit.name(), seed, message(failed));
+    }
+    if (result.stoppedEarly()) {
+      deleteTree(folder);
+      return null;
     }
     FitResult.Summary summary = result.summary().orElseThrow();
     UnitOutcome outcome =

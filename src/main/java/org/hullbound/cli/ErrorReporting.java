@@ -5,6 +5,7 @@ import java.io.PrintWriter;
 import java.io.UncheckedIOException;
 import java.nio.file.NoSuchFileException;
 import java.util.List;
+import org.hullbound.app.BatchStoppedException;
 import org.hullbound.app.RunRefusedException;
 import org.hullbound.app.SamplingFailedException;
 import org.hullbound.app.StartupStoppedException;
@@ -57,6 +58,9 @@ public final class ErrorReporting implements CommandLine.IExecutionExceptionHand
     } else if (isUserError(exception)) {
       err.println(command + exception.getMessage());
       status = USER_ERROR;
+    } else if (exception instanceof BatchStoppedException stopped) {
+      err.println(command + stopped.getMessage());
+      status = FAILURE;
     } else if (exception instanceof SamplingFailedException failed) {
       err.println(command + failed.getMessage());
       err.println("  the draws made before the failure are in " + failed.drawsFile());

@@ -12,6 +12,7 @@ import org.hullbound.app.ModelInputs;
 import org.hullbound.app.TaskEngine;
 import org.hullbound.app.UnitData;
 import org.hullbound.app.UnitOutcome;
+import org.hullbound.gibbs.StopSignal;
 import picocli.CommandLine;
 import picocli.CommandLine.ArgGroup;
 import picocli.CommandLine.Command;
@@ -87,10 +88,26 @@ public final class FitUnitsCommand implements Callable<Integer> {
   @Option(names = "--quiet", description = "No progress display.")
   boolean quiet;
 
+  @Option(
+      names = "--resume",
+      paramLabel = "DIR",
+      description = "Continue the stopped batch whose files are in DIR: the units without their"
+          + " row in DIR/units.csv are fitted, with the batch's seed and settings; give the model"
+          + " and units as before.")
+  Path resumeFolder;
+
   @CommandLine.Spec CommandLine.Model.CommandSpec spec;
 
   @Override
   public Integer call() {
+    // first, so that a signal while the units are read finds the hook (see SignalStop)
+    try (SignalStop signals = SignalStop.install(spec.commandLine().getErr(),
+        "hullbound fit-units: stopped by a signal before any unit began; no file was written")) {
+      return fitUnits(signals);
+    }
+  }
+
+  private Integer fitUnits(SignalStop signals) {
     PrintWriter stdout = spec.commandLine().getOut();
     PrintWriter stderr = spec.commandLine().getErr();
     String problem = level.problem() != null ? level.problem() : engine.problem();
@@ -102,23 +119,79 @@ public final class FitUnitsCommand implements Callable<Integer> {
         form.folder != null
             ? BatchUnits.fromFolder(form.folder, inputs.dataFiles())
             : BatchUnits.byColumn(inputs.dataFiles(), form.column);
-    BatchRequest request =
-        new BatchRequest(
-            inputs.modelFile(), units, sweeps.chains, sweeps.burnIn, sweeps.draws, sweeps.thin, seed.given(), out.given(),
-            overwrite, level.value(), inputs.emptyCells(), keepDraws);
     BatchResult result;
-    try (BatchRun run = BatchRun.prepare(request); TaskEngine tasks = engine.open()) {
-      stderr.printf(
-          "hullbound fit-units: %d units of %s, seed %d, on %s%n",
-          run.unitCount(), run.modelName(), run.seed(), tasks.description());
-      stderr.flush();
-      TaskProgressLine progress =
-          TaskProgressLine.of(stderr, System.console() != null, "fit-units", "units");
-      result = run.run(tasks, quiet ? TaskEngine.Progress.none() : progress);
-      progress.finish();
+    try (BatchRun run = BatchRun.prepare(request(inputs, units), signals.startup());
+        TaskEngine tasks = engine.open()) {
+      StopSignal stop = StopSignal.create();
+      if (!signals.beginSampling(stop)) {
+        return ErrorReporting.FAILURE; // the JVM is ending with the signal's status
+      }
+      try {
+        stderr.printf(
+            "hullbound fit-units: %d units of %s, seed %d, on %s%n",
+            run.unitCount(), run.modelName(), run.seed(), tasks.description());
+        if (run.resuming()) {
+          stderr.printf("resuming %s: %d units finished before, %d to fit%n", run.folder(),
+              run.finishedBefore(), run.unitCount() - run.finishedBefore());
+        }
+        stderr.flush();
+        TaskProgressLine progress =
+            TaskProgressLine.of(stderr, System.console() != null, "fit-units", "units");
+        try {
+          result = run.run(tasks, quiet ? TaskEngine.Progress.none() : progress, stop);
+        } finally {
+          progress.finish();
+        }
+        if (!result.complete()) {
+          stderr.printf(
+              "hullbound fit-units: stopped by a signal; %d of %d units finished and are kept in"
+                  + " %s; to fit the other %d: %s%n",
+              result.outcomes().size(), result.unitCount(), result.folder(),
+              result.unitCount() - result.outcomes().size(), resumeCommand(result.folder()));
+          stderr.flush();
+          return ErrorReporting.FAILURE; // the JVM is ending with the signal's status
+        }
+      } finally {
+        // Only now may an interrupted JVM exit: the tables hold every finished unit.
+        signals.filesWritten();
+      }
     }
     print(stdout, result);
     return result.failedCount() == 0 ? 0 : ErrorReporting.FAILURE;
+  }
+
+  /** The options as the application layer takes them: on resume, an option not given is null. */
+  private BatchRequest request(ModelInputs inputs, List<UnitData> units) {
+    CommandLine.ParseResult given = spec.commandLine().getParseResult();
+    boolean all = resumeFolder == null;
+    BatchRequest request =
+        new BatchRequest(
+            inputs.modelFile(), units,
+            all || given.hasMatchedOption("--chains") ? sweeps.chains : null,
+            all || given.hasMatchedOption("--burn-in") ? sweeps.burnIn : null,
+            all || given.hasMatchedOption("--draws") ? sweeps.draws : null,
+            all || given.hasMatchedOption("--thin") ? sweeps.thin : null,
+            seed.given(), out.given(), overwrite,
+            all || given.hasMatchedOption("--level") ? level.value() : null,
+            inputs.emptyCells(), keepDraws);
+    return all ? request : request.resuming(resumeFolder);
+  }
+
+  /** The command that continues the batch in {@code folder}: the model and units as given. */
+  private String resumeCommand(Path folder) {
+    StringBuilder command = new StringBuilder("hullbound fit-units ").append(model.modelFile);
+    if (form.folder != null) {
+      command.append(" --units ").append(form.folder);
+    } else {
+      command.append(" --unit-column ").append(form.column);
+    }
+    for (Path file : model.dataFiles) {
+      command.append(" --data ").append(file);
+    }
+    if (engine.spark) {
+      command.append(" --spark");
+    }
+    return command.append(" --resume ").append(folder).toString();
   }
 
   private static void print(PrintWriter stdout, BatchResult result) {

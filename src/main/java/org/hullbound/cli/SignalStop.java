@@ -7,10 +7,11 @@ import org.hullbound.app.StartupGuard;
 import org.hullbound.gibbs.StopSignal;
 
 /**
- * What {@code fit} does on Ctrl-C (SIGINT) or SIGTERM, whenever it comes: before sampling, one
- * line saying nothing was written and an immediate end; while sampling, a stop request to the
- * chains and a bounded wait until the run has written its files. The JVM then ends with the
- * signal's own status (130 for SIGINT, 143 for SIGTERM).
+ * What {@code fit} and {@code fit-units} do on Ctrl-C (SIGINT) or SIGTERM, whenever it comes:
+ * before sampling, one line saying nothing was written and an immediate end; while sampling, a
+ * stop request to the chains (of every running unit, for a batch) and a bounded wait until the run
+ * has written its files. The JVM then ends with the signal's own status (130 for SIGINT, 143 for
+ * SIGTERM).
  *
  * <p>A signal before sampling also releases the output folder if the run being prepared has locked
  * it ({@link StartupGuard}): the preparing thread does not get to release it itself.
@@ -24,6 +25,8 @@ final class SignalStop implements AutoCloseable {
   private static final long WRITE_WAIT_MINUTES = 2;
 
   private final PrintWriter stderr;
+  /** The line printed when a signal comes before the work begins. */
+  private final String beforeWork;
   private final CountDownLatch finished = new CountDownLatch(1);
   private final Thread hook;
   /** The start-up's folder lock, released by a signal before sampling. */
@@ -33,14 +36,24 @@ final class SignalStop implements AutoCloseable {
   /** Set when a signal came before sampling; guarded by this. */
   private boolean signalled;
 
-  private SignalStop(PrintWriter stderr) {
+  private SignalStop(PrintWriter stderr, String beforeWork) {
     this.stderr = stderr;
+    this.beforeWork = beforeWork;
     this.hook = new Thread(this::onSignal, "hullbound-interrupt");
   }
 
-  /** Registers the hook now; when the JVM is already shutting down, one that reports so. */
+  /** Registers {@code fit}'s hook now; when the JVM is already shutting down, one that reports so. */
   static SignalStop install(PrintWriter stderr) {
-    SignalStop stop = new SignalStop(stderr);
+    return install(
+        stderr, "hullbound fit: stopped by a signal before sampling began; no file was written");
+  }
+
+  /**
+   * Registers a hook for a command whose work is stopped the same way ({@code fit-units}: every
+   * running unit's chains), which prints {@code beforeWork} when the signal comes first.
+   */
+  static SignalStop install(PrintWriter stderr, String beforeWork) {
+    SignalStop stop = new SignalStop(stderr, beforeWork);
     try {
       Runtime.getRuntime().addShutdownHook(stop.hook);
     } catch (IllegalStateException shuttingDown) {
@@ -68,8 +81,7 @@ final class SignalStop implements AutoCloseable {
       if (stop == null) {
         if (!signalled) {
           signalled = true;
-          stderr.println("hullbound fit: stopped by a signal before sampling began; no file was"
-              + " written");
+          stderr.println(beforeWork);
           stderr.flush();
         }
       }

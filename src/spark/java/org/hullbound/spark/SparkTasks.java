@@ -1,25 +1,35 @@
 package org.hullbound.spark;
 
 import java.io.Serializable;
+import java.util.ArrayList;
 import java.util.List;
-import java.util.concurrent.ExecutionException;
+import java.util.Map;
+import java.util.concurrent.BlockingQueue;
+import java.util.concurrent.LinkedBlockingQueue;
 import java.util.concurrent.TimeUnit;
-import java.util.concurrent.TimeoutException;
+import org.apache.spark.FutureAction;
 import org.apache.spark.SparkConf;
-import org.apache.spark.api.java.JavaFutureAction;
+import org.apache.spark.api.java.JavaRDD;
 import org.apache.spark.api.java.JavaSparkContext;
-import org.apache.spark.util.LongAccumulator;
 import org.hullbound.app.TaskEngine;
+import org.hullbound.gibbs.StopSignal;
+import scala.Function0;
+import scala.Function1;
+import scala.Function2;
+import scala.jdk.javaapi.CollectionConverters;
+import scala.runtime.BoxedUnit;
 
 /**
  * {@link TaskEngine} on Apache Spark: each input becomes one partition, so one Spark task, running
- * the same hullbound code as a local worker; the results are collected to the driver in input
- * order.
+ * the same hullbound code as a local worker; each result is handed to the driver as its task
+ * succeeds (Spark's job result handler, {@code SparkContext.submitJob}), so that a batch writes a
+ * finished unit's rows while the others still run.
  *
  * <p>Why one task per input: a lost or failed attempt is retried by Spark alone and costs one
- * replicate or unit; its result is the same because every seed comes from the input. Progress is
- * read on the driver from two accumulators (tasks done, tasks whose work failed), which Spark
- * merges once per successful task, so a retried attempt is not counted twice.
+ * replicate or unit; its result is the same because every seed comes from the input. Spark calls
+ * the result handler once per partition that succeeded, so a retried attempt is not counted or
+ * handed on twice. A stop cancels the job: running tasks are killed and their units left for a
+ * later run.
  */
 public final class SparkTasks implements TaskEngine {
   private static final long POLL_MILLIS = 500;
@@ -61,44 +71,75 @@ public final class SparkTasks implements TaskEngine {
   }
 
   @Override
-  public <I extends Serializable, R extends Outcome> List<R> run(
-      List<I> inputs, Task<I, R> task, Progress progress) {
+  public <I extends Serializable, R extends Outcome> void each(
+      List<I> inputs, Task<I, R> task, Finished<R> finished, Progress progress, StopSignal stop) {
     int total = inputs.size();
     if (total == 0) {
-      return List.of();
+      return;
     }
-    LongAccumulator done = context.sc().longAccumulator("hullbound tasks done");
-    LongAccumulator failed = context.sc().longAccumulator("hullbound tasks failed");
-    JavaFutureAction<List<R>> results =
-        context
-            .parallelize(inputs, total)
-            .map(
-                input -> {
-                  R result = task.run(input);
-                  done.add(1);
-                  if (result.failed()) {
-                    failed.add(1);
-                  }
-                  return result;
-                })
-            .collectAsync();
-    long shown = -1;
+    // Spark calls the handler on the driver, on its scheduler's thread, once per partition that
+    // succeeded (a retried attempt is handed on once); the caller's thread takes them from here.
+    BlockingQueue<Map.Entry<Integer, R>> arrived = new LinkedBlockingQueue<>();
+    Function1<scala.collection.Iterator<I>, R> perPartition =
+        (Function1<scala.collection.Iterator<I>, R> & Serializable) partition -> task.run(partition.next());
+    Function2<Object, R, BoxedUnit> handler =
+        (index, result) -> {
+          arrived.add(Map.entry((Integer) index, result));
+          return BoxedUnit.UNIT;
+        };
+    Function0<BoxedUnit> nothing = () -> BoxedUnit.UNIT;
+    List<Object> partitions = new ArrayList<>();
+    for (int k = 0; k < total; k++) {
+      partitions.add(k);
+    }
+    JavaRDD<I> rdd = context.parallelize(inputs, total);
+    FutureAction<BoxedUnit> job =
+        context.sc().submitJob(
+            rdd.rdd(), perPartition, CollectionConverters.asScala(partitions).toSeq(), handler,
+            nothing);
+    int handed = 0;
+    int failed = 0;
+    RuntimeException refused = null;
+    boolean cancelled = false;
     while (true) {
+      Map.Entry<Integer, R> next;
       try {
-        List<R> collected = results.get(POLL_MILLIS, TimeUnit.MILLISECONDS);
-        progress.update(total, (int) (long) failed.value(), total);
-        return collected;
-      } catch (TimeoutException stillRunning) {
-        long now = done.value();
-        if (now != shown) {
-          shown = now;
-          progress.update((int) now, (int) (long) failed.value(), total);
-        }
+        next = arrived.poll(POLL_MILLIS, TimeUnit.MILLISECONDS);
       } catch (InterruptedException e) {
-        results.cancel(true);
+        job.cancel();
         Thread.currentThread().interrupt();
         throw new IllegalStateException("interrupted while Spark tasks ran", e);
-      } catch (ExecutionException e) {
+      }
+      if (next != null) {
+        if (refused == null) {
+          try {
+            finished.accept(next.getKey(), next.getValue());
+            handed++;
+            failed += next.getValue().failed() ? 1 : 0;
+            progress.update(handed, failed, total);
+          } catch (RuntimeException e) {
+            refused = e;
+            stop.request();
+          }
+        }
+        continue;
+      }
+      if (stop.isRequested() && !cancelled) {
+        // the running tasks are killed; a unit's result that is still to come is not awaited
+        cancelled = true;
+        job.cancel();
+      }
+      if (job.isCompleted() && arrived.isEmpty()) {
+        break;
+      }
+    }
+    if (refused != null) {
+      throw refused;
+    }
+    if (!cancelled) {
+      try {
+        job.get();
+      } catch (Exception e) {
         Throwable cause = e.getCause() == null ? e : e.getCause();
         String message = String.valueOf(cause.getMessage()).lines().findFirst().orElse("");
         throw new IllegalStateException("a Spark task failed for good: " + message, cause);
