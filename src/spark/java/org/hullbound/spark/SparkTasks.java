@@ -102,6 +102,11 @@ public final class SparkTasks implements TaskEngine {
     RuntimeException refused = null;
     boolean cancelled = false;
     while (true) {
+      if (stop.isRequested() && !cancelled) {
+        // the running tasks are killed; results already in are still handed on
+        cancelled = true;
+        job.cancel();
+      }
       Map.Entry<Integer, R> next;
       try {
         next = arrived.poll(POLL_MILLIS, TimeUnit.MILLISECONDS);
@@ -123,11 +128,6 @@ public final class SparkTasks implements TaskEngine {
           }
         }
         continue;
-      }
-      if (stop.isRequested() && !cancelled) {
-        // the running tasks are killed; a unit's result that is still to come is not awaited
-        cancelled = true;
-        job.cancel();
       }
       if (job.isCompleted() && arrived.isEmpty()) {
         break;

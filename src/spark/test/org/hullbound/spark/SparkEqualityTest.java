@@ -9,9 +9,11 @@ import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
 import org.hullbound.app.BatchResult;
+import org.hullbound.app.BatchRun;
 import org.hullbound.app.FolderLock;
 import org.hullbound.app.ModelInputs;
 import org.hullbound.app.TaskEngine;
+import org.hullbound.gibbs.StopSignal;
 import org.hullbound.validation.CalibrationFiles;
 import org.hullbound.validation.CalibrationResult;
 import org.hullbound.validation.CalibrationSettings;
@@ -87,8 +89,50 @@ class SparkEqualityTest {
     assertTrue(onSpark.outcomes().get(2).verdict().endsWith("y.csv:3:1: 'seven' in column 'y' is not a number"),
         onSpark.outcomes().get(2).verdict());
     assertArrayEquals(new int[] {3, 1, 3}, told.get(told.size() - 1), "the last progress: all done, one failed");
-    assertEquals(List.of(Path.of(FolderLock.FILE_NAME), Path.of("summary.csv"), Path.of("units.csv"),
+    assertEquals(List.of(Path.of("batch.txt"), Path.of(FolderLock.FILE_NAME), Path.of("summary.csv"), Path.of("units.csv"),
             Path.of("units/c/station.hbm"), Path.of("units/c/y.csv")),
         SparkFixture.files(folder.resolve("spark")), "only the failed unit's folder is kept");
+    assertArrayEquals(Files.readAllBytes(folder.resolve("local/batch.txt")),
+        Files.readAllBytes(folder.resolve("spark/batch.txt")), "the batch's facts name no engine");
+  }
+
+  /**
+   * A batch stopped on Spark after its first unit keeps the units Spark handed back before the
+   * stop, whole rows only (the running tasks are killed); a local resume fits the others, and the
+   * tables equal those of the batch never stopped.
+   */
+  @Test
+  void aBatchStoppedOnSparkKeepsItsFinishedUnitsAndResumesLocallyToTheSameTables() throws Exception {
+    for (int k = 0; k < 8; k++) {
+      Path unit = Files.createDirectories(folder.resolve("units/u" + k));
+      Files.writeString(unit.resolve("y.csv"), "y\n" + (0.3 * k) + "\n" + (1 - 0.2 * k) + "\n0.5\n");
+    }
+    Path model = SparkFixture.batch(folder);
+    BatchResult whole;
+    try (TaskEngine engine = TaskEngine.local(2)) {
+      whole = SparkFixture.run(SparkFixture.request(folder, model, folder.resolve("whole")), engine,
+          TaskEngine.Progress.none());
+    }
+    StopSignal stop = StopSignal.create();
+    Path out = folder.resolve("stopped");
+    BatchResult stopped;
+    try (BatchRun run = BatchRun.prepare(SparkFixture.request(folder, model, out))) {
+      stopped = run.run(spark, (done, failed, total) -> stop.request(), stop);
+    }
+    assertTrue(stopped.outcomes().size() >= 1 && stopped.outcomes().size() <= 4,
+        "the first unit, and at most the few that ended while it was written (it was 11 when the stop waited for a quiet half second): " + stopped.outcomes().size());
+    List<String> kept = Files.readAllLines(out.resolve("units.csv"));
+    assertEquals(stopped.outcomes().size() + 1, kept.size(), kept.toString());
+    assertTrue(Files.readString(out.resolve("units.csv")).endsWith("\r\n"));
+    BatchResult resumed;
+    try (BatchRun run = BatchRun.prepare(SparkFixture.request(folder, model, null).resuming(out));
+        TaskEngine engine = TaskEngine.local(2)) {
+      resumed = run.run(engine, TaskEngine.Progress.none());
+    }
+    assertEquals(11, resumed.outcomes().size());
+    assertArrayEquals(Files.readAllBytes(whole.summaryFile()), Files.readAllBytes(resumed.summaryFile()));
+    assertEquals(
+        Files.readString(whole.unitsFile()).replace(whole.folder().toString(), "OUT"),
+        Files.readString(resumed.unitsFile()).replace(out.toString(), "OUT"));
   }
 }
