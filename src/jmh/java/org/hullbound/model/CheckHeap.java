@@ -1,17 +1,9 @@
 package org.hullbound.model;
 
-import java.lang.management.ManagementFactory;
-import java.lang.management.MemoryMXBean;
 import java.lang.management.MemoryPoolMXBean;
-import java.lang.management.MemoryType;
-import java.nio.file.Files;
-import java.nio.file.Path;
 import java.util.List;
 import org.hullbound.io.CsvData;
-import org.hullbound.io.DataLoadingHeap;
-import org.hullbound.lang.ModelFile;
-import org.hullbound.lang.Parser;
-import org.hullbound.lang.SourceText;
+import org.hullbound.io.HeapMeasurement;
 
 /**
  * Heap that {@code check}'s work holds, in bytes per data row per used column: reads {@code FILE}
@@ -29,40 +21,26 @@ public final class CheckHeap {
   private CheckHeap() {}
 
   public static void main(String[] args) throws Exception {
-    Path modelFile = Path.of(args[0]);
-    Path dataFile = Path.of(args[1]);
-    ModelFile model =
-        Parser.parse(SourceText.of(modelFile.toString(), Files.readString(modelFile)));
-    MemoryMXBean memory = ManagementFactory.getMemoryMXBean();
-    long before = DataLoadingHeap.settledHeap(memory);
-    for (MemoryPoolMXBean pool : ManagementFactory.getMemoryPoolMXBeans()) {
-      pool.resetPeakUsage();
-    }
-    long start = System.nanoTime();
-    DataTable table = CsvData.read(dataFile, BoundModel.readsColumn(model));
+    HeapMeasurement run = HeapMeasurement.begin(args, CheckHeap.class.getName());
+    DataTable table = CsvData.read(run.dataFile(), BoundModel.readsColumn(run.model()));
     int rows = table.rowCount();
     int columns = table.heldColumnCount();
-    BoundModel bound = BoundModel.bind(model, List.of(table));
+    BoundModel bound = BoundModel.bind(run.model(), List.of(table));
     table = null;
     for (Unknown unknown : bound.unknowns()) {
       bound.update(unknown.index());
       bound.dependentCount(unknown.index());
     }
     int moves = bound.moves().size();
-    double seconds = (System.nanoTime() - start) / 1e9;
-    long peak = 0;
-    for (MemoryPoolMXBean pool : ManagementFactory.getMemoryPoolMXBeans()) {
-      if (pool.getType() == MemoryType.HEAP) {
-        peak += pool.getPeakUsage().getUsed();
-      }
-    }
-    long held = DataLoadingHeap.settledHeap(memory) - before;
+    double seconds = run.seconds();
+    long peak = HeapMeasurement.peak();
+    long held = run.held();
     System.out.printf(
         "%s: %d rows, %d used columns, %d unknowns, %d terms, %d moves; %.1f MB held by the"
             + " bound model, %.1f bytes per row per used column; pools' peaks summed %.1f MB;"
             + " read, bound and analysed in %.1f s (wall clock, machine load not controlled)%n",
-        dataFile, rows, columns, bound.unknowns().size(), bound.termCount(), moves, held / 1e6,
-        (double) held / rows / columns, peak / 1e6, seconds);
+        run.dataFile(), rows, columns, bound.unknowns().size(), bound.termCount(), moves,
+        held / 1e6, (double) held / rows / columns, peak / 1e6, seconds);
     // Keeps the model reachable until after the measurement.
     if (bound.termCount() < 0) {
       System.out.println(bound);
