@@ -25,7 +25,8 @@ import picocli.CommandLine.Option;
  * name, on the local cores or on Spark; writes one summary over all units and one row per unit.
  *
  * <p>Thin: {@link BatchUnits} reads the units, {@link BatchRun} checks, runs and writes; this class
- * turns options into a request, shows progress and prints the outcome. Exit 0 when every unit was
+ * turns options into a request, shows progress and prints the outcome, and hands the batch's stop
+ * to {@link SignalStop}, so that Ctrl-C or SIGTERM ends it with the finished units kept. Exit 0 when every unit was
  * fitted, 1 when one or more failed (each has its row and error), 2 for a usage or model error.
  */
 @Command(
@@ -38,7 +39,9 @@ import picocli.CommandLine.Option;
       "(--units), or from data files with a column naming each row's unit",
       "(--unit-column). Each unit's seed comes from --seed and its name, so",
       "'fit' on that unit alone with that seed repeats it. DIR/summary.csv holds",
-      "every unit's summary, DIR/units.csv each unit's seed, status and verdict."
+      "every unit's summary, DIR/units.csv each unit's seed, status and verdict;",
+      "a unit's rows are written as it finishes, so a stopped batch keeps them",
+      "and --resume DIR fits the rest."
     })
 public final class FitUnitsCommand implements Callable<Integer> {
 
