@@ -26,8 +26,9 @@ import picocli.CommandLine.Option;
  *
  * <p>Thin: {@link BatchUnits} reads the units, {@link BatchRun} checks, runs and writes; this class
  * turns options into a request, shows progress and prints the outcome, and hands the batch's stop
- * to {@link SignalStop}, so that Ctrl-C or SIGTERM ends it with the finished units kept. Exit 0 when every unit was
- * fitted, 1 when one or more failed (each has its row and error), 2 for a usage or model error.
+ * to {@link SignalStop}, so that Ctrl-C or SIGTERM ends it with the finished units kept. Exit 0
+ * when every unit was fitted, 1 when one or more failed (each has its row and error) or the batch
+ * could not go on, 2 for a usage or model error, the signal's status after a signal.
  */
 @Command(
     name = "fit-units",
