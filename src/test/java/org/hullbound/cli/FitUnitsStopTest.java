@@ -108,6 +108,39 @@ class FitUnitsStopTest {
   }
 
   @Test
+  void sigtermWhileTheUnitsAreReadEndsWithStatus143AndOneLine() throws Exception {
+    // a named pipe as the data file: the child blocks reading it until this test writes, so the
+    // signal is known to come before any unit begins
+    Path data = folder.resolve("all.csv");
+    assertEquals(0, new ProcessBuilder("mkfifo", data.toString()).start().waitFor());
+    Path out = folder.resolve("never");
+    List<String> command = new ArrayList<>(List.of(
+        Path.of(System.getProperty("java.home"), "bin", "java").toString(),
+        "-cp", System.getProperty("java.class.path"), "org.hullbound.cli.Main"));
+    command.addAll(arguments(model(), data, "--out", out.toString()));
+    Process child = new ProcessBuilder(command)
+        .redirectOutput(folder.resolve("out.txt").toFile())
+        .redirectError(folder.resolve("err.txt").toFile())
+        .start();
+    // opening the pipe for writing returns once the child has opened it for reading
+    try (var writer = java.util.concurrent.CompletableFuture.supplyAsync(() -> {
+          try {
+            return new java.io.FileOutputStream(data.toFile());
+          } catch (java.io.IOException e) {
+            throw new java.io.UncheckedIOException(e);
+          }
+        }).get(60, TimeUnit.SECONDS)) {
+      child.destroy(); // SIGTERM
+      assertTrue(child.waitFor(30, TimeUnit.SECONDS), "the child ended");
+    }
+    String err = Files.readString(folder.resolve("err.txt"));
+    assertEquals(143, child.exitValue(), err);
+    assertEquals("hullbound fit-units: stopped by a signal before any unit began; no file was"
+        + " written\n", err);
+    assertFalse(Files.exists(out), "nothing written");
+  }
+
+  @Test
   void aResumeWithOtherSettingsOrOfAFinishedBatchIsRefusedWithExitTwo() throws Exception {
     Path model = model();
     Path data = Files.writeString(folder.resolve("two.csv"), "site,y\na,1.2\nb,-0.5\na,0.3\n");
