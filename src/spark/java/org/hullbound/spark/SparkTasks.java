@@ -32,7 +32,8 @@ import scala.runtime.BoxedUnit;
  * later run.
  */
 public final class SparkTasks implements TaskEngine {
-  private static final long POLL_MILLIS = 500;
+  /** How often the driver looks at the stop while no result comes in. */
+  private static final long POLL_MILLIS = 50;
 
   private final JavaSparkContext context;
   private final boolean owned;

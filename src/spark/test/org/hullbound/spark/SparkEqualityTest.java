@@ -119,8 +119,10 @@ class SparkEqualityTest {
     try (BatchRun run = BatchRun.prepare(SparkFixture.request(folder, model, out))) {
       stopped = run.run(spark, (done, failed, total) -> stop.request(), stop);
     }
-    assertTrue(stopped.outcomes().size() >= 1 && stopped.outcomes().size() <= 4,
-        "the first unit, and at most the few that ended while it was written (it was 11 when the stop waited for a quiet half second): " + stopped.outcomes().size());
+    // how many units end between the first and the job's cancel depends on the threads' timing;
+    // before the stop was looked at between results, all 11 did
+    assertTrue(!stopped.complete() && !stopped.outcomes().isEmpty(),
+        "the first unit kept, not every unit run: " + stopped.outcomes().size());
     List<String> kept = Files.readAllLines(out.resolve("units.csv"));
     assertEquals(stopped.outcomes().size() + 1, kept.size(), kept.toString());
     assertTrue(Files.readString(out.resolve("units.csv")).endsWith("\r\n"));

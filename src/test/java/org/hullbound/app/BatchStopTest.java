@@ -65,13 +65,11 @@ class BatchStopTest {
     Path out = folder.resolve("stopped");
     StopSignal stop = StopSignal.create();
     BatchResult stopped;
-    // one worker: unit 3 is running when unit 2's result comes in and the stop is requested
-    try (BatchRun run = BatchRun.prepare(request(out)); TaskEngine engine = TaskEngine.local(1)) {
-      stopped = run.run(engine, (done, failed, total) -> {
-        if (done == 2) {
-          stop.request();
-        }
-      }, stop);
+    // one worker, so units run in order: the stop comes as u3 begins (what a signal then does),
+    // when u1 and u2 have finished; u3's chains see it at their first sweep and u3 is given up
+    try (BatchRun run = BatchRun.prepare(request(out));
+        TaskEngine engine = new OnUnit("u3", TaskEngine.local(1), StopSignal::request)) {
+      stopped = run.run(engine, TaskEngine.Progress.none(), stop);
     }
     assertFalse(stopped.complete());
     assertEquals(2, stopped.outcomes().size(), stopped.outcomes().toString());
@@ -136,7 +134,9 @@ class BatchStopTest {
     Path out = folder.resolve("crashed");
     BatchStoppedException crashed;
     try (BatchRun run = BatchRun.prepare(request(out));
-        TaskEngine engine = new CrashingOn("u4", TaskEngine.local(1))) {
+        TaskEngine engine = new OnUnit("u4", TaskEngine.local(1), stopping -> {
+          throw new OutOfMemoryError("the worker of u4 ran out of memory");
+        })) {
       crashed = assertThrows(BatchStoppedException.class,
           () -> run.run(engine, TaskEngine.Progress.none()));
     }
@@ -223,22 +223,25 @@ class BatchStopTest {
   }
 
   /**
-   * A local engine whose worker dies on one unit (an {@link OutOfMemoryError} thrown from the
-   * task, not a failed outcome), as a worker that runs out of heap does.
+   * A local engine that does {@code action} (with the run's stop) in the worker as {@code unit}
+   * begins: requests the stop, as a signal then would, or throws an {@link OutOfMemoryError} from
+   * the task (not a failed outcome), as a worker that runs out of heap does.
    */
-  private static final class CrashingOn implements TaskEngine {
+  private static final class OnUnit implements TaskEngine {
     private final String unit;
     private final TaskEngine inner;
+    private final java.util.function.Consumer<StopSignal> action;
 
-    CrashingOn(String unit, TaskEngine inner) {
+    OnUnit(String unit, TaskEngine inner, java.util.function.Consumer<StopSignal> action) {
       this.unit = unit;
       this.inner = inner;
+      this.action = action;
     }
 
     @Override
     public <I extends Serializable, R extends Outcome> void each(
         List<I> inputs, Task<I, R> task, Finished<R> finished, Progress progress, StopSignal stop) {
-      Task<I, R> crashing = new Task<>() {
+      Task<I, R> acting = new Task<>() {
         @Override
         public R run(I input) {
           return run(input, StopSignal.create());
@@ -247,17 +250,17 @@ class BatchStopTest {
         @Override
         public R run(I input, StopSignal stopping) {
           if (((UnitData) input).name().equals(unit)) {
-            throw new OutOfMemoryError("the worker of " + unit + " ran out of memory");
+            action.accept(stopping);
           }
           return task.run(input, stopping);
         }
       };
-      inner.each(inputs, crashing, finished, progress, stop);
+      inner.each(inputs, acting, finished, progress, stop);
     }
 
     @Override
     public String description() {
-      return "a local engine whose worker dies on " + unit;
+      return "a local engine that acts as " + unit + " begins";
     }
 
     @Override
