@@ -52,6 +52,7 @@ final class LocalTasks implements TaskEngine {
     RuntimeException firstFailure = null;
     Error firstError = null;
     boolean interrupted = false;
+    boolean refusing = false;
     while (ended < inputs.size()) {
       Done<R> result;
       try {
@@ -76,14 +77,19 @@ final class LocalTasks implements TaskEngine {
         continue;
       }
       ended++;
-      if (result.value() == null || firstFailure != null || firstError != null) {
-        continue; // not run (stopped), or after a failure: nothing more is handed on
+      if (result.value() == null || refusing) {
+        // not run (stopped), or after finished refused a result: nothing more is handed on; a
+        // task that ends after another task's failure is still handed on, its work being whole
+        continue;
       }
       try {
         finished.accept(result.index(), result.value());
       } catch (RuntimeException refused) {
         stop.request();
-        firstFailure = refused;
+        refusing = true;
+        if (firstFailure == null && firstError == null) {
+          firstFailure = refused;
+        }
         continue;
       }
       handed++;
