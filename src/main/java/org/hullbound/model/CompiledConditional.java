@@ -81,6 +81,8 @@ final class CompiledConditional implements ConditionalDensity {
    */
   private final Evaluator[][] guards;
   private final boolean anyGated;
+  /** The member lists of a blanket that follows an allocation, or {@code null}. */
+  private final AllocationMembers members;
   private final ThreadLocal<Workspace> workspaces = ThreadLocal.withInitial(Workspace::new);
 
   CompiledConditional(
@@ -161,25 +163,18 @@ final class CompiledConditional implements ConditionalDensity {
     this.treePrepared = java.util.stream.IntStream.range(0, terms.length)
         .filter(i -> terms[i].preparesTrees()).toArray();
     this.guards = new Evaluator[terms.length][];
+    List<List<Formula>> guardFormulas = new java.util.ArrayList<>();
     boolean any = false;
     for (int i = 0; i < terms.length; i++) {
       List<Formula> found = UnknownIndex.guards(blanket.get(i), slot);
+      guardFormulas.add(found);
       if (found != null) {
         guards[i] = found.stream().map(f -> Evaluator.compile(f, -1)).toArray(Evaluator[]::new);
         any = true;
       }
     }
     this.anyGated = any;
-  }
-
-  /** Whether a guard of term {@code i} selects the unknown at the frame's state. */
-  private boolean selected(int i, Frame frame) {
-    for (Evaluator guard : guards[i]) {
-      if (guard.eval(frame) != 0) {
-        return true;
-      }
-    }
-    return false;
+    this.members = AllocationMembers.of(blanket, slot, inputs, guardFormulas, guards);
   }
 
   /** Whether some term's blanket membership follows an allocation ({@link UnknownIndex}). */
@@ -210,18 +205,26 @@ final class CompiledConditional implements ConditionalDensity {
    * One thread's scratch space: a reused frame, the inputs the parts were worked out at, and each
    * part's {@code a} and {@code b} ({@code part = a + b x}) for the current draw.
    */
-  private final class Workspace {
+  private final class Workspace implements AllocationMembers.Preparation {
     final Frame frame = new Frame(Double.NaN, null, aritiesUsed);
     final double[] inputValues = new double[inputs.length];
     final double[] intercepts = new double[partCount];
     final double[] slopes = new double[partCount];
     /** The terms this draw evaluates, {@code active[0 .. activeCount)}, in blanket order. */
-    final int[] active = new int[terms.length];
-    int activeCount;
+    final int[] active = java.util.stream.IntStream.range(0, terms.length).toArray();
+    int activeCount = terms.length;
     boolean ready;
+    /** The members of a blanket that follows an allocation, kept up to date, or null. */
+    final AllocationMembers.Tracker tracker = members == null ? null : members.tracker();
 
     /** Works the parts out again unless every input holds the bits it held last time. */
     void prepare(double[] state) {
+      if (tracker != null) {
+        if (tracker.sync(frame.at(Double.NaN, state), this)) {
+          activeCount = tracker.list(active);
+        }
+        return;
+      }
       if (ready && sameInputs(state)) {
         return;
       }
@@ -235,16 +238,22 @@ final class CompiledConditional implements ConditionalDensity {
           slopes[part] = linearValue(2 * part + 1, state);
         }
       }
-      activeCount = 0;
-      for (int i = 0; i < terms.length; i++) {
-        if (guards[i] == null || selected(i, frame)) {
-          active[activeCount++] = i;
-        }
-      }
       for (int j = 0; j < inputs.length; j++) {
         inputValues[j] = state[inputs[j]];
       }
       ready = true;
+    }
+
+    /** Term {@code i}'s prepared parts at the frame's state ({@link AllocationMembers}). */
+    @Override
+    public void prepare(int i) {
+      terms[i].prepare(frame, intercepts, slopes, firstPart[i]);
+      for (int part = firstPart[i]; part <= firstPart[i] + terms[i].arity; part++) {
+        if (linearPart[part]) {
+          intercepts[part] = linearValue(2 * part, frame.state);
+          slopes[part] = linearValue(2 * part + 1, frame.state);
+        }
+      }
     }
 
     private boolean sameInputs(double[] state) {
@@ -312,7 +321,7 @@ final class CompiledConditional implements ConditionalDensity {
     for (int j = 0; j < count; j++) {
       int i = workspace == null ? j : workspace.active[j];
       TermEvaluator term = terms[i];
-      if (workspace == null && guards[i] != null && !selected(i, frame)) {
+      if (workspace == null && guards[i] != null && !AllocationMembers.selects(guards[i], frame)) {
         continue;
       }
       total += workspace == null ? term.eval(frame)

@@ -1,0 +1,200 @@
+package org.hullbound.model;
+
+import static org.hullbound.model.TestModels.bind;
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+import java.util.random.RandomGenerator;
+import java.util.random.RandomGeneratorFactory;
+import java.util.stream.Stream;
+import org.junit.jupiter.params.ParameterizedTest;
+import org.junit.jupiter.params.provider.Arguments;
+import org.junit.jupiter.params.provider.MethodSource;
+
+/**
+ * The member lists of a blanket that follows an allocation ({@link AllocationMembers}) are kept
+ * up to date as the allocation changes. Specification: over many sweeps in which the allocations
+ * move (each drawn by a Metropolis step over its whole support, the other unknowns by random-walk
+ * steps), every evaluation of every conditional equals the same conditional evaluated from
+ * scratch, which finds its blanket from every candidate's guards at that call; and the number of
+ * terms a draw evaluates is the own term and the rows the allocation currently selects, counted
+ * here from the state.
+ *
+ * <p>Tolerance as in {@link CheapEvaluationTest} (same sums, parts grouped differently; Higham,
+ * Accuracy and Stability of Numerical Algorithms, 2nd ed., section 4.2). A row left in the wrong
+ * list is off by that row's whole log-density term, of order 1 here, far beyond it.
+ */
+class AllocationMembersTest {
+
+  private static final int SWEEPS = 150;
+
+  /** 48 rows in three invented clusters, about 2, 6 and 11, with a covariate. */
+  private static String rows() {
+    RandomGenerator data = RandomGeneratorFactory.of("L64X128MixRandom").create(20261203L);
+    StringBuilder y = new StringBuilder();
+    StringBuilder x = new StringBuilder();
+    double[] centres = {2, 6, 11};
+    for (int i = 0; i < 48; i++) {
+      double covariate = Math.round(10 * data.nextDouble()) / 10.0;
+      double value = centres[i % 3] + 0.3 * covariate + 1.5 * data.nextGaussian();
+      y.append(i == 0 ? "" : ", ").append(String.format(java.util.Locale.ROOT, "%.3f", value));
+      x.append(i == 0 ? "" : ", ").append(covariate);
+    }
+    return "data x[i] = [" + x + "]\ndata y[i] = [" + y + "]";
+  }
+
+  static Stream<Arguments> models() {
+    return Stream.of(
+        Arguments.of("three components, a covariate beside the unknown index",
+            (Rows) (m, state, k) -> count(48, k, r -> state[m.unknown("g[" + r + "]").index()]),
+            bind(String.join("\n",
+                "index i = 1 .. 48",
+                "index k = 1 .. 3",
+                "data  w[k] = [0.3, 0.3, 0.4]",
+                "param mu[k] ~ normal(mean = 6, sd = 5)",
+                "param beta ~ normal(mean = 0, sd = 1)",
+                "param s ~ gamma(shape = 2, rate = 1)",
+                "param g[i] ~ categorical(p = w)",
+                rows() + " ~ normal(mean = mu[g[i]] + beta * x[i], sd = s)"))),
+        Arguments.of("an index worked out from two allocations (1 + a[i] + b[i])",
+            (Rows) (m, state, k) -> count(48, k, r -> 1 + state[m.unknown("a[" + r + "]").index()]
+                + state[m.unknown("b[" + r + "]").index()]),
+            bind(String.join("\n",
+                "index i = 1 .. 48",
+                "index k = 1 .. 3",
+                "param mu[k] ~ normal(mean = 6, sd = 5)",
+                "param share ~ beta(a = 2, b = 2)",
+                "param a[i] ~ bernoulli(p = share)",
+                "param b[i] ~ bernoulli(p = 0.5)",
+                rows() + " ~ normal(mean = mu[1 + a[i] + b[i]], sd = 2)"))),
+        Arguments.of("a change point: every row's phase read from one change year",
+            (Rows) (m, state, k) -> count(16, k, year -> year < state[m.unknown("change").index()]
+                ? 1 : 2),
+            bind(String.join("\n",
+                "index year = 1 .. 16",
+                "index phase = 1 .. 2",
+                "param change ~ whole-uniform(lower = 2, upper = 16)",
+                "param level[phase] ~ gamma(shape = 2, rate = 0.2)",
+                "let   phase_of[year] = 2 - min(1, max(0, change - year))",
+                "data  faults[year] = [9, 12, 8, 11, 10, 13, 9, 11, 4, 6, 3, 5, 4, 2, 6, 3]"
+                    + " ~ poisson(rate = level[phase_of[year]])"))));
+  }
+
+  @ParameterizedTest(name = "{0}")
+  @MethodSource("models")
+  void everyEvaluationWhileAllocationsMoveEqualsOneFromScratch(
+      String name, Rows rows, BoundModel model) {
+    RandomGenerator random = RandomGeneratorFactory.of("L64X128MixRandom").create(20261206L);
+    double[] state = model.initialState();
+    int n = state.length;
+    CompiledConditional[] conditionals = new CompiledConditional[n];
+    boolean anyDynamic = false;
+    for (int i = 0; i < n; i++) {
+      conditionals[i] = (CompiledConditional) model.conditional(i);
+      anyDynamic |= conditionals[i].dynamicBlanket();
+    }
+    assertTrue(anyDynamic, name + ": some blanket follows an allocation");
+    double[] slope = new double[1];
+    double[] reference = new double[1];
+    long compared = 0;
+    long moves = 0;
+    long countsChecked = 0;
+    for (int sweep = 0; sweep < SWEEPS; sweep++) {
+      for (int i = 0; i < n; i++) {
+        CompiledConditional c = conditionals[i];
+        boolean allocation = model.allocation(i);
+        double u = c.toSamplingScale(state[i]);
+        double proposal;
+        if (allocation) {
+          double lo = c.lowerBound(state);
+          double hi = c.upperBound(state);
+          proposal = lo + Math.floor((hi - lo + 1) * random.nextDouble());
+        } else {
+          proposal = u + 0.3 * random.nextGaussian();
+        }
+        double current = c.logDensity(u, state, slope);
+        compared += agrees(name, c, u, state, current, slope[0], reference);
+        if (c.dynamicBlanket()) {
+          String label = c.unknown().label();
+          int k = Integer.parseInt(label.substring(label.indexOf('[') + 1, label.length() - 1));
+          assertEquals(1 + rows.selecting(model, state, k), c.activeTermCount(state),
+              name + ": terms a draw of " + c.unknown().label() + " evaluates");
+          countsChecked++;
+        }
+        double next = c.logDensity(proposal, state, slope);
+        compared += agrees(name, c, proposal, state, next, slope[0], reference);
+        if (Math.log(random.nextDouble()) < next - current) {
+          moves += allocation && proposal != u ? 1 : 0;
+          state[i] = c.toNatural(proposal);
+        }
+      }
+    }
+    assertEquals(2L * SWEEPS * n, compared, "every evaluation was compared");
+    // Power: the allocations must actually move for the lists to be exercised (the change year,
+    // one allocation for all rows, moved 37 times with this seed; the mixtures hundreds).
+    assertTrue(moves >= 20, name + ": allocations moved " + moves + " times");
+    assertTrue(countsChecked > 0, name);
+  }
+
+  @ParameterizedTest(name = "{0}")
+  @MethodSource("models")
+  void aMoveOfOneAllocationAloneIsSeenAtTheNextEvaluation(
+      String name, Rows rows, BoundModel model) {
+    // Only the allocations move here, one at a time through every value, so that a conditional
+    // must follow each move by itself (no other unknown changes and works every member out anew).
+    double[] state = model.initialState();
+    int moves = 0;
+    for (int i = 0; i < state.length; i++) {
+      CompiledConditional c = (CompiledConditional) model.conditional(i);
+      if (!c.dynamicBlanket()) {
+        continue;
+      }
+      double u = c.toSamplingScale(state[i]);
+      double[] slope = new double[1];
+      double[] reference = new double[1];
+      for (int j = 0; j < state.length; j++) {
+        if (!model.allocation(j)) {
+          continue;
+        }
+        CompiledConditional a = (CompiledConditional) model.conditional(j);
+        double kept = state[j];
+        for (double v = a.lowerBound(state); v <= a.upperBound(state); v++) {
+          state[j] = v;
+          agrees(name, c, u, state, c.logDensity(u, state, slope), slope[0], reference);
+          moves++;
+        }
+        state[j] = kept;
+      }
+    }
+    assertTrue(moves > 0, name);
+  }
+
+  /** The rows whose allocation selects component {@code k} at a state, worked out by hand. */
+  @FunctionalInterface
+  interface Rows {
+    int selecting(BoundModel model, double[] state, int k);
+  }
+
+  /** How many of rows 1 .. n have component {@code k} by {@code component}. */
+  private static int count(int n, int k, java.util.function.IntToDoubleFunction component) {
+    int count = 0;
+    for (int r = 1; r <= n; r++) {
+      count += component.applyAsDouble(r) == k ? 1 : 0;
+    }
+    return count;
+  }
+
+  private static int agrees(String name, CompiledConditional c, double u, double[] state,
+      double value, double slope, double[] reference) {
+    double scratch = c.logDensityFromScratch(u, state, reference);
+    double scale = 1 + Math.abs(scratch) + c.termCount();
+    String where = name + ", " + c.unknown().label() + " at u = " + u;
+    if (scratch == Double.NEGATIVE_INFINITY) {
+      assertEquals(scratch, value, where);
+      return 1;
+    }
+    assertEquals(scratch, value, 1e-9 * scale, "value of " + where);
+    assertEquals(reference[0], slope, 1e-9 * (scale + Math.abs(reference[0])), "slope of " + where);
+    return 1;
+  }
+}
