@@ -23,7 +23,8 @@ import org.openjdk.jmh.annotations.TearDown;
 /**
  * The cost of blankets that follow an allocation: Gibbs sweeps per second of a two-component
  * normal mixture whose allocations are unknowns ({@code centre[cohort_of[shell]]}, each centre's
- * blanket the shells currently assigned to it, found once per draw from all candidates) against
+ * blanket the shells currently assigned to it, its member list kept up to date as shells move,
+ * {@code model.AllocationMembers}) against
  * the same model with the allocation given as data (a fixed-allocation model of the same size,
  * each centre's blanket fixed at binding). The centres have logistic priors, so both models draw
  * them by adaptive rejection from compiled conditionals; the mixture also enumerates each shell's
@@ -43,7 +44,7 @@ public class MixtureSweepBenchmark {
   @Param({"unknown", "fixed"})
   public String allocation;
 
-  @Param({"1000", "10000"})
+  @Param({"1000", "3000", "10000"})
   public int shells;
 
   private ChainKernel kernel;

@@ -89,7 +89,8 @@ final class AllocationMembers {
   /**
    * The member lists of a blanket, or {@code null} when no term is gated (the blanket is fixed).
    *
-   * @param blanket the conditional's terms, in its order
+   * @param blanket the conditional's terms, in its order, each in the form it is evaluated in
+   *     ({@link #memberForm})
    * @param slot the conditional's own unknown
    * @param inputs the other unknowns' slots the terms read, ascending
    * @param guardFormulas per term, its guards ({@link UnknownIndex#guards}) or {@code null}
@@ -135,6 +136,66 @@ final class AllocationMembers {
     }
     return new AllocationMembers(guards, inputs,
         guardReaders.stream().map(AllocationMembers::toArray).toList(), parts, wide);
+  }
+
+  /**
+   * Term {@code t} as it reads while its guard selects the unknown, when it has one guard {@code
+   * [index = k]}: every indicator {@code [index = v]} of that index is then 1 for {@code v = k} and
+   * 0 for every other {@code v}, so {@code mu[1] [g = 1] + mu[2] [g = 2]} becomes {@code mu[k]},
+   * whose parts are affine in the unknown with {@code a} and {@code b} free of the allocation and
+   * of the other components (often linear forms, worked out without a tree). A member is evaluated
+   * only while selected, where both forms agree. A term with guards of several indexes, or none,
+   * is kept as it is.
+   */
+  static Term memberForm(Term t, List<Formula> guards) {
+    if (guards == null || guards.stream().distinct().count() != 1
+        || !(guards.get(0) instanceof Formula.Operation guard)
+        || !(guard.parts().get(1) instanceof Formula.Constant selected)) {
+      return t;
+    }
+    Formula index = guard.parts().get(0);
+    double k = selected.value();
+    List<Formula> arguments = new ArrayList<>();
+    for (Formula a : t.arguments()) {
+      arguments.add(select(a, index, k));
+    }
+    return new Term(t.names(), t.element(), t.cells(), t.family(), select(t.value(), index, k),
+        arguments, t.within(), t.owner(), t.position());
+  }
+
+  private static boolean indicatorOf(Formula f, Formula index) {
+    return f instanceof Formula.Operation o && o.op() == Op.EQUAL
+        && o.parts().get(0).equals(index) && o.parts().get(1) instanceof Formula.Constant;
+  }
+
+  /** {@code f} with the indicators of {@code index} at {@code index = k}. */
+  private static Formula select(Formula f, Formula index, double k) {
+    if (!(f instanceof Formula.Operation o)) {
+      return f;
+    }
+    if (indicatorOf(f, index)) {
+      return Formula.constant(((Formula.Constant) o.parts().get(1)).value() == k ? 1 : 0);
+    }
+    List<Formula> parts = new ArrayList<>();
+    boolean changed = false;
+    for (Formula part : o.parts()) {
+      Formula selected = select(part, index, k);
+      parts.add(selected);
+      changed |= selected != part;
+    }
+    if (!changed) {
+      return f;
+    }
+    if (o.op() == Op.MULTIPLY) {
+      for (int side = 0; side < 2; side++) {
+        if (indicatorOf(o.parts().get(side), index)) {
+          // An option not selected is 0 whatever its value, as the compiled option is (Evaluator).
+          return ((Formula.Constant) parts.get(side)).value() == 0
+              ? Formula.constant(0) : parts.get(1 - side);
+        }
+      }
+    }
+    return Formulas.apply(o.op(), parts);
   }
 
   private static void addReader(
@@ -201,9 +262,12 @@ final class AllocationMembers {
             if (now != member(t)) {
               members[t >>> 6] ^= 1L << t;
               moved = true;
+              // A member's form may not read the allocation that let it join: prepare it now.
+              if (now && !everyMember) {
+                preparation.prepare(t);
+              }
             }
           }
-          // A guard reads only what its term reads, so a term that joined is prepared here.
           if (wide[j]) {
             everyMember = true;
           } else if (!everyMember) {

@@ -97,8 +97,18 @@ final class CompiledConditional implements ConditionalDensity {
       maxArity = Math.max(maxArity, t.arguments().size());
     }
     this.aritiesUsed = new boolean[maxArity + 1];
+    this.guards = new Evaluator[terms.length][];
+    List<List<Formula>> guardFormulas = new java.util.ArrayList<>();
+    List<Term> evaluated = new java.util.ArrayList<>();
     for (int i = 0; i < terms.length; i++) {
-      terms[i] = new TermEvaluator(blanket.get(i), slot, scale);
+      List<Formula> found = UnknownIndex.guards(blanket.get(i), slot);
+      guardFormulas.add(found);
+      if (found != null) {
+        guards[i] = found.stream().map(f -> Evaluator.compile(f, -1)).toArray(Evaluator[]::new);
+      }
+      // A gated term is evaluated only while selected, so in the form it takes then.
+      evaluated.add(AllocationMembers.memberForm(blanket.get(i), found));
+      terms[i] = new TermEvaluator(evaluated.get(i), slot, scale);
       aritiesUsed[blanket.get(i).arguments().size()] = true;
     }
     this.lower = Evaluator.compile(lower, -1);
@@ -162,19 +172,8 @@ final class CompiledConditional implements ConditionalDensity {
     formStart[2 * parts] = next;
     this.treePrepared = java.util.stream.IntStream.range(0, terms.length)
         .filter(i -> terms[i].preparesTrees()).toArray();
-    this.guards = new Evaluator[terms.length][];
-    List<List<Formula>> guardFormulas = new java.util.ArrayList<>();
-    boolean any = false;
-    for (int i = 0; i < terms.length; i++) {
-      List<Formula> found = UnknownIndex.guards(blanket.get(i), slot);
-      guardFormulas.add(found);
-      if (found != null) {
-        guards[i] = found.stream().map(f -> Evaluator.compile(f, -1)).toArray(Evaluator[]::new);
-        any = true;
-      }
-    }
-    this.anyGated = any;
-    this.members = AllocationMembers.of(blanket, slot, inputs, guardFormulas, guards);
+    this.members = AllocationMembers.of(evaluated, slot, inputs, guardFormulas, guards);
+    this.anyGated = members != null;
   }
 
   /** Whether some term's blanket membership follows an allocation ({@link UnknownIndex}). */
