@@ -135,9 +135,11 @@ public final class ReportCommand implements Callable<Integer> {
     stderr.flush();
     List<VariableSummary> summaries = new ArrayList<>();
     List<Draws> draws = new ArrayList<>();
+    Map<String, Draws> drawsByName = new HashMap<>();
     for (String name : table.variables()) {
       Draws d = Draws.of(table.draws(name));
       draws.add(d);
+      drawsByName.put(name, d);
       summaries.add(PosteriorSummary.of(name, d));
     }
     SummaryTable summary = SummaryTable.of(summaries, updates);
@@ -170,7 +172,9 @@ public final class ReportCommand implements Callable<Integer> {
             .withPlotCap(plotCap)
             .withIntervalLevel(level.value())
             .withSortByMean(sortByMean);
-    ReportInput built = ReportInput.of(header, summary, Verdicts.of(summary), draws, options);
+    ReportInput built = ReportInput.of(header, summary,
+        Verdicts.of(summary).withLabelSwitchingFoundInDraws(table.variables(), drawsByName),
+        draws, options);
     List<String> warnings = new ArrayList<>(built.warnings());
     if (facts.isEmpty()) {
       warnings.add(0, rerenderNote(checkpoint.isPresent(), !sources.modelText().isEmpty()));

@@ -3,8 +3,10 @@ package org.hullbound.cli;
 import java.io.PrintWriter;
 import java.nio.file.Path;
 import java.util.ArrayList;
+import java.util.HashMap;
 import java.util.LinkedHashSet;
 import java.util.List;
+import java.util.Map;
 import java.util.Set;
 import java.util.concurrent.Callable;
 import org.hullbound.diagnostics.Draws;
@@ -118,9 +120,11 @@ public final class SummarizeCommand implements Callable<Integer> {
     stderr.flush();
     List<VariableSummary> summaries = new ArrayList<>();
     List<Draws> kept = new ArrayList<>();
+    Map<String, Draws> keptByName = new HashMap<>();
     for (String name : chosen) {
       Draws d = Draws.of(draws.draws(name));
       kept.add(d);
+      keptByName.put(name, d);
       summaries.add(PosteriorSummary.of(name, d));
     }
     SummaryTable table = SummaryTable.of(summaries).withIntervalLevel(level.value(), kept);
@@ -129,7 +133,8 @@ public final class SummarizeCommand implements Callable<Integer> {
     }
     stdout.print(table.text(maxRhat, minEss));
     stdout.println();
-    for (String line : Verdicts.of(table, maxRhat, minEss).lines()) {
+    for (String line : Verdicts.of(table, maxRhat, minEss)
+        .withLabelSwitchingFoundInDraws(chosen, keptByName).lines()) {
       stdout.println(line);
     }
     if (!statements.isEmpty()) {

@@ -60,6 +60,71 @@ public final class LabelSwitching {
    */
   static List<Verdict> apply(
       List<Verdict> verdicts, List<List<String>> components, Map<String, Draws> draws) {
+    return apply(verdicts, components, draws, Double.NaN);
+  }
+
+  /**
+   * {@code verdicts} with label switching named where the draws alone show it, for a draws file
+   * read without its model ({@code summarize}, {@code report DIR}): every name with two or more
+   * elements of one index whose draws are not all whole numbers (allocations and counts are not
+   * components) is a candidate group, and the rule of the class comment applies with one more
+   * condition, since a group read this way need not be a mixture's: relabelled in each chain by
+   * the order of its members' means (an ordering constraint imposed after the run; Stephens 2000
+   * discusses such relabelling), every rank's draws must agree across chains (R-hat at most
+   * {@code maxRhat}). Chains that disagree for another reason keep their verdicts.
+   */
+  static List<Verdict> applyFromDraws(
+      List<Verdict> verdicts, List<String> labels, Map<String, Draws> draws, double maxRhat) {
+    Map<String, List<String>> groups = new java.util.LinkedHashMap<>();
+    for (String label : labels) {
+      int open = label.indexOf('[');
+      if (open > 0 && label.endsWith("]")
+          && label.substring(open + 1, label.length() - 1).matches("[0-9]+")
+          && draws.get(label) != null && !wholeNumbers(draws.get(label))) {
+        groups.computeIfAbsent(label.substring(0, open), k -> new ArrayList<>()).add(label);
+      }
+    }
+    return apply(verdicts, List.copyOf(groups.values()), draws, maxRhat);
+  }
+
+  private static boolean wholeNumbers(Draws d) {
+    for (int c = 0; c < d.chainCount(); c++) {
+      for (double x : d.chain(c)) {
+        if (x != Math.rint(x)) {
+          return false;
+        }
+      }
+    }
+    return true;
+  }
+
+  /**
+   * Whether the group's draws agree across chains once each chain's members are relabelled by
+   * the order of their means: R-hat (rank-normalised, split) of each rank at most {@code
+   * maxRhat}.
+   */
+  private static boolean relabelledAgree(
+      List<String> group, int[][] orders, Map<String, Draws> draws, double maxRhat) {
+    for (int rank = 0; rank < group.size(); rank++) {
+      double[][] chains = new double[orders.length][];
+      for (int c = 0; c < orders.length; c++) {
+        chains[c] = draws.get(group.get(orders[c][rank])).chain(c);
+      }
+      Draws relabelled = Draws.of(chains);
+      if (!relabelled.isFinite() || relabelled.length() < 4) {
+        return false;
+      }
+      double rhat = org.hullbound.diagnostics.Rhat.rankNormalized(relabelled).max();
+      if (!(rhat <= maxRhat)) {
+        return false;
+      }
+    }
+    return true;
+  }
+
+  /** As above; a finite {@code maxRhat} asks that relabelled chains agree. */
+  private static List<Verdict> apply(List<Verdict> verdicts, List<List<String>> components,
+      Map<String, Draws> draws, double maxRhat) {
     List<Verdict> result = new ArrayList<>(verdicts);
     for (List<String> group : components) {
       if (group.size() < 2) {
@@ -67,8 +132,9 @@ public final class LabelSwitching {
       }
       boolean disagree = result.stream().anyMatch(
           v -> v.kind() == Verdict.Kind.CHAINS_DISAGREE && group.contains(v.unknown()));
-      int[][] orders = orderings(group, draws);
-      if (!disagree || orders == null) {
+      int[][] orders = disagree ? orderings(group, draws) : null;
+      if (orders == null
+          || (!Double.isNaN(maxRhat) && !relabelledAgree(group, orders, draws, maxRhat))) {
         continue;
       }
       int other = -1;

@@ -94,6 +94,17 @@ public final class Verdicts {
         twoValued, maxRhat, minEss);
   }
 
+  /**
+   * These verdicts with label switching named where the draws alone show it, for draws read
+   * without their model ({@code summarize}, {@code report DIR}; {@link
+   * LabelSwitching#applyFromDraws}): {@code labels} are the draws' columns in order, {@code draws}
+   * the draws by label.
+   */
+  public Verdicts withLabelSwitchingFoundInDraws(List<String> labels, Map<String, Draws> draws) {
+    return new Verdicts(LabelSwitching.applyFromDraws(verdicts, labels, draws, maxRhat), unknowns,
+        derived, twoValued, maxRhat, minEss);
+  }
+
   /** The findings, unknown by unknown in table order; empty when all is well. */
   public List<Verdict> verdicts() {
     return verdicts;

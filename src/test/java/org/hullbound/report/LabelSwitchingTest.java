@@ -91,6 +91,57 @@ class LabelSwitchingTest {
         kinds(verdicts));
   }
 
+  /** Verdicts of a draws file read without its model: groups found from the draws alone. */
+  private static Verdicts verdictsFoundInDraws(Map<String, Draws> draws) {
+    List<VariableSummary> summaries = new ArrayList<>();
+    for (Map.Entry<String, Draws> entry : draws.entrySet()) {
+      summaries.add(PosteriorSummary.of(entry.getKey(), entry.getValue()));
+    }
+    return Verdicts.of(SummaryTable.of(summaries))
+        .withLabelSwitchingFoundInDraws(List.copyOf(draws.keySet()), draws);
+  }
+
+  @Test
+  void withoutTheModelSwappedChainsThatAgreeOnceRelabelledAreCalledLabelSwitching() {
+    Verdicts verdicts =
+        verdictsFoundInDraws(draws(new double[][] {{1, 5}, {1, 5}, {5, 1}, {1, 5}}));
+    assertEquals(List.of(Verdict.Kind.LABEL_SWITCHING, Verdict.Kind.LABEL_SWITCHING),
+        kinds(verdicts), verdicts.lines().toString());
+  }
+
+  @Test
+  void withoutTheModelSwappedChainsThatStillDisagreeOnceRelabelledKeepTheirVerdict() {
+    // Chain 3 orders them the other way, but its values are not the others' swapped: relabelled,
+    // its first component is about 2 where the others' is 1 (R-hat far above 1.01).
+    Verdicts verdicts =
+        verdictsFoundInDraws(draws(new double[][] {{1, 5}, {1, 5}, {9, 2}, {1, 5}}));
+    assertEquals(List.of(Verdict.Kind.CHAINS_DISAGREE, Verdict.Kind.CHAINS_DISAGREE),
+        kinds(verdicts), verdicts.lines().toString());
+  }
+
+  @Test
+  void withoutTheModelWholeNumberedColumnsAreNoComponents() {
+    // Two allocations that swap between chains (1 and 2 exchanged): whole numbers, so they are
+    // not taken for components however they agree once relabelled.
+    Map<String, Draws> draws = new LinkedHashMap<>();
+    RandomGenerator random = RandomGeneratorFactory.of("L64X128MixRandom").create(12L);
+    for (int m = 0; m < 2; m++) {
+      double[][] chains = new double[4][1000];
+      for (int c = 0; c < 4; c++) {
+        for (int i = 0; i < 1000; i++) {
+          boolean first = (m == 0) == (c != 2);
+          chains[c][i] = first ? (random.nextDouble() < 0.9 ? 1 : 2)
+              : (random.nextDouble() < 0.9 ? 2 : 1);
+        }
+      }
+      draws.put("cohort_of[" + (m + 1) + "]", Draws.of(chains));
+    }
+    Verdicts verdicts = verdictsFoundInDraws(draws);
+    assertTrue(kinds(verdicts).contains(Verdict.Kind.CHAINS_DISAGREE), verdicts.lines().toString());
+    assertTrue(!kinds(verdicts).contains(Verdict.Kind.LABEL_SWITCHING),
+        verdicts.lines().toString());
+  }
+
   @Test
   void chainsThatAgreeAreLeftAlone() {
     Verdicts verdicts = verdicts(draws(new double[][] {{1, 5}, {1, 5}, {1, 5}, {1, 5}}));
