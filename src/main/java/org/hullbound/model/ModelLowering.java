@@ -171,9 +171,9 @@ final class ModelLowering implements ExpressionLowering.Leaves {
               : "write " + name + setList(node.target.indexSets()));
     }
     int[] index = new int[nodeSets.size()];
-    int unknownAt = -1;
-    Formula unknownIndex = null;
-    UnknownIndex.Range unknownRange = null;
+    List<Integer> unknownAt = new ArrayList<>();
+    List<Formula> unknownIndex = new ArrayList<>();
+    List<UnknownIndex.Range> unknownRange = new ArrayList<>();
     for (int i = 0; i < index.length; i++) {
       Expression indexExpression = reference.indexes().get(i);
       IndexSet expected = nodeSets.get(i);
@@ -196,16 +196,9 @@ final class ModelLowering implements ExpressionLowering.Leaves {
               "the index of '" + name + "' depends on an unknown; indexes must be known data",
               null);
         }
-        if (unknownAt >= 0) {
-          throw scope.error(
-              indexExpression.position(),
-              "'" + name + "' has two indexes that read unknowns; at most one index of a name"
-                  + " may read unknowns",
-              "work the element out in one index, or write a let for one of them");
-        }
-        unknownAt = i;
-        unknownIndex = resolved;
-        unknownRange = unknownIndexRange(resolved, indexExpression, expected, name);
+        unknownAt.add(i);
+        unknownIndex.add(resolved);
+        unknownRange.add(unknownIndexRange(resolved, indexExpression, expected, name));
         index[i] = expected.lower();
         continue;
       }
@@ -225,11 +218,21 @@ final class ModelLowering implements ExpressionLowering.Leaves {
       }
       index[i] = (int) v;
     }
-    if (unknownAt >= 0) {
-      int at = unknownAt;
-      return UnknownIndex.lower(unknownIndex, unknownRange, v -> {
+    if (!unknownAt.isEmpty()) {
+      UnknownIndex.Combined combined = UnknownIndex.combine(unknownIndex, unknownRange);
+      if (combined == null) {
+        throw scope.error(
+            reference.indexes().get(unknownAt.get(0)).position(),
+            "the indexes of '" + name + "' that read unknowns can take too many combinations"
+                + " together",
+            "work the element out in fewer indexes that read unknowns");
+      }
+      return UnknownIndex.lower(combined.index(), combined.range(), code -> {
         int[] element = index.clone();
-        element[at] = (int) v;
+        long[] values = combined.decode(code);
+        for (int j = 0; j < values.length; j++) {
+          element[unknownAt.get(j)] = (int) values[j];
+        }
         return element(node, element, reference);
       });
     }

@@ -136,6 +136,57 @@ final class UnknownIndex {
   }
 
   /**
+   * Several indexes of one name that read unknowns ({@code cell[r[i], c[i]]}), as one: {@code
+   * index} is the code {@code sum of (index_j - lower_j) * stride_j} (row-major), over {@code
+   * range} {@code 0 .. product of counts - 1}, and {@link #decode} gives back each index's value
+   * (one index is itself, over its own range).
+   * Lowered like one index, every option then has one indicator, so a term reading the name has
+   * one guard per place, and the member form ({@link AllocationMembers#memberForm}) applies.
+   */
+  record Combined(Formula index, Range range, List<Range> parts) {
+    long[] decode(long code) {
+      if (parts.size() == 1) {
+        return new long[] {code};
+      }
+      long[] values = new long[parts.size()];
+      long rest = code;
+      for (int j = parts.size() - 1; j >= 0; j--) {
+        Range part = parts.get(j);
+        values[j] = part.lower() + rest % part.count();
+        rest /= part.count();
+      }
+      return values;
+    }
+  }
+
+  /**
+   * The indexes {@code indexes} (each proved to lie in {@code ranges}) as one {@link Combined}
+   * index; {@code null} when their combinations together pass the limit of an index's range.
+   */
+  static Combined combine(List<Formula> indexes, List<Range> ranges) {
+    if (indexes.size() == 1) {
+      return new Combined(indexes.get(0), ranges.get(0), ranges);
+    }
+    long total = 1;
+    for (Range r : ranges) {
+      total *= r.count();
+      if (total > LIMIT) {
+        return null;
+      }
+    }
+    List<Formula> terms = new ArrayList<>();
+    long stride = total;
+    for (int j = 0; j < indexes.size(); j++) {
+      stride /= ranges.get(j).count();
+      Formula offset = Formulas.apply(Op.SUBTRACT,
+          List.of(indexes.get(j), Formula.constant(ranges.get(j).lower())));
+      terms.add(stride == 1 ? offset
+          : Formulas.apply(Op.MULTIPLY, List.of(offset, Formula.constant(stride))));
+    }
+    return new Combined(Formulas.apply(Op.ADD, terms), new Range(0, total - 1), ranges);
+  }
+
+  /**
    * {@code sum over v in range of option(v) * [index = v]}: the element the index picks, as a
    * formula that every analysis and the compiler read as they are; a single value is its option.
    */

@@ -67,6 +67,19 @@ class AllocationMembersTest {
                 "param a[i] ~ bernoulli(p = share)",
                 "param b[i] ~ bernoulli(p = 0.5)",
                 rows() + " ~ normal(mean = mu[1 + a[i] + b[i]], sd = 2)"))),
+        Arguments.of("two indexes of one name read allocations: cell[r[i], c[i]]",
+            (Rows) (m, state, k) -> count(48, k, r -> 10 * state[m.unknown("r[" + r + "]").index()]
+                + state[m.unknown("c[" + r + "]").index()]),
+            bind(String.join("\n",
+                "index i = 1 .. 48",
+                "index row = 1 .. 2",
+                "index col = 1 .. 3",
+                "data  wr[row] = [0.5, 0.5]",
+                "data  wc[col] = [0.2, 0.3, 0.5]",
+                "param cell[row, col] ~ normal(mean = 6, sd = 5)",
+                "param r[i] ~ categorical(p = wr)",
+                "param c[i] ~ categorical(p = wc)",
+                rows() + " ~ normal(mean = cell[r[i], c[i]], sd = 2)"))),
         Arguments.of("a change point: every row's phase read from one change year",
             (Rows) (m, state, k) -> count(16, k, year -> year < state[m.unknown("change").index()]
                 ? 1 : 2),
@@ -116,8 +129,13 @@ class AllocationMembersTest {
         double current = c.logDensity(u, state, slope);
         compared += agrees(name, c, u, state, current, slope[0], reference);
         if (c.dynamicBlanket()) {
+          // The component's element: k, or 10 row + col for cell[row, col].
           String label = c.unknown().label();
-          int k = Integer.parseInt(label.substring(label.indexOf('[') + 1, label.length() - 1));
+          int k = 0;
+          for (String part : label.substring(label.indexOf('[') + 1, label.length() - 1)
+              .split(",")) {
+            k = 10 * k + Integer.parseInt(part.strip());
+          }
           assertEquals(1 + rows.selecting(model, state, k), c.activeTermCount(state),
               name + ": terms a draw of " + c.unknown().label() + " evaluates");
           countsChecked++;
