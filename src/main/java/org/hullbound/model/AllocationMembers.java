@@ -19,18 +19,20 @@ import java.util.TreeSet;
  * compares the inputs with the state, run by run of consecutive slots ({@link Arrays#mismatch},
  * which the JDK compares many at a time), and acts on the inputs that changed only: a changed
  * allocation {@code g[i]} evaluates again the guards that read it (row {@code i} leaves one list
- * and joins another) and prepares the parts of the members that read it; a changed input that
- * many terms read ({@code mu[2]} in every row's option) prepares every member. A draw of {@code
- * mu[k]} thus costs the comparison of its inputs, the rows that moved since its last draw, and its
- * current members, never the other components' rows; an allocation's own draw is unchanged (its
- * blanket is its row). Nothing is trusted that was not compared against the state, so a list can
- * never be stale, whoever changed the allocation (a draw, a restart, a resumed chain).
+ * and joins another; a row that joins is prepared) and prepares the parts of the members that read
+ * it; a changed input that many terms read ({@code beta} in {@code mu[g[i]] + beta * x[i]})
+ * prepares every member. Members are compiled in the form they take while selected ({@link
+ * #memberForm}), so their parts do not read the allocation or the other components. A draw of
+ * {@code mu[k]} thus costs the comparison of its inputs, the rows that moved since its last draw,
+ * and its current members, never the other components' rows; an allocation's own draw is unchanged
+ * (its blanket is its row). Nothing is trusted that was not compared against the state, so a list
+ * can never be stale, whoever changed the allocation (a draw, a restart, a resumed chain).
  *
  * <p>Members are visited in blanket order (the bit set's order), so a value is summed in the same
  * order whatever the history of moves, and a resumed chain gives the same bits.
  */
 final class AllocationMembers {
-  /** An input read by the prepared parts of more terms than this share prepares every member. */
+  /** An input read by the prepared parts of more than 1 / WIDE_SHARE of the terms prepares all. */
   private static final int WIDE_SHARE = 8;
 
   /** Works out the prepared parts of one term at the frame's state. */
