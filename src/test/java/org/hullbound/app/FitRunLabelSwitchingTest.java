@@ -7,7 +7,6 @@ import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.List;
-import java.util.Locale;
 import org.hullbound.gibbs.ProgressListener;
 import org.hullbound.gibbs.StopSignal;
 import org.hullbound.report.Verdict;
@@ -29,23 +28,8 @@ class FitRunLabelSwitchingTest {
 
   @Test
   void chainsOnSwappedLabelsGetTheLabelSwitchingVerdict() throws Exception {
-    Path model = folder.resolve("shells.hbm");
-    Files.writeString(model, String.join("\n",
-        "model shells",
-        "index shell",
-        "index cohort = 1 .. 2",
-        "data  share[cohort] = [0.5, 0.5]",
-        "param centre[cohort] ~ normal(mean = 40, sd = 15)",
-        "param cohort_of[shell] ~ categorical(p = share)",
-        "data  length[shell] ~ normal(mean = centre[cohort_of[shell]], sd = 2)",
-        ""));
-    StringBuilder csv = new StringBuilder("length\n");
-    for (int i = 1; i <= 20; i++) {
-      double offset = ((i * 7) % 11 - 5) * 0.6;
-      csv.append(String.format(Locale.ROOT, "%.1f%n%.1f%n", 30 + offset, 50 - offset));
-    }
-    Path data = folder.resolve("shells.csv");
-    Files.writeString(data, csv.toString());
+    Path model = ExchangeableShells.model(folder);
+    Path data = ExchangeableShells.data(folder);
     FitRequest request = new FitRequest(new ModelInputs(model, List.of(data)), null, 20, 100, 200,
         null, 5L, null, folder.resolve("out"), null, false, 0.95);
     FitResult result;

@@ -7,7 +7,7 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.List;
-import java.util.Locale;
+import org.hullbound.app.ExchangeableShells;
 import org.junit.jupiter.api.BeforeAll;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
@@ -17,8 +17,8 @@ import org.junit.jupiter.api.io.TempDir;
  * summarize} of the run's draws file and {@code report DIR} of its folder, which read the draws
  * without the model, name it for the centres too.
  *
- * <p>The run is that of {@code app.FitRunLabelSwitchingTest}: a two-component mixture with the
- * same prior on both centres, two clusters 20 apart (sd 2), 20 chains started from prior draws,
+ * <p>The model and data are {@link ExchangeableShells}, as in {@code app.FitRunLabelSwitchingTest}:
+ * the same prior on both centres, two clusters 20 apart (sd 2), 20 chains started from prior draws,
  * each of which keeps the labelling its start gives it. All 20 on one labelling has probability
  * 2^-19, about 1.9e-6, per change of the random streams (by symmetry each start orders the
  * centres either way with probability 1/2); otherwise both commands must name label switching for
@@ -32,23 +32,8 @@ class LabelSwitchingCommandsTest {
 
   @BeforeAll
   static void fitOnce() throws Exception {
-    Path model = folder.resolve("shells.hbm");
-    Files.writeString(model, String.join("\n",
-        "model shells",
-        "index shell",
-        "index cohort = 1 .. 2",
-        "data  share[cohort] = [0.5, 0.5]",
-        "param centre[cohort] ~ normal(mean = 40, sd = 15)",
-        "param cohort_of[shell] ~ categorical(p = share)",
-        "data  length[shell] ~ normal(mean = centre[cohort_of[shell]], sd = 2)",
-        ""));
-    StringBuilder csv = new StringBuilder("length\n");
-    for (int i = 1; i <= 20; i++) {
-      double offset = ((i * 7) % 11 - 5) * 0.6;
-      csv.append(String.format(Locale.ROOT, "%.1f%n%.1f%n", 30 + offset, 50 - offset));
-    }
-    Path data = folder.resolve("shells.csv");
-    Files.writeString(data, csv.toString());
+    Path model = ExchangeableShells.model(folder);
+    Path data = ExchangeableShells.data(folder);
     run = folder.resolve("out");
     CliRun fit = CliRun.of("fit", model.toString(), "--data", data.toString(), "--chains", "20",
         "--burn-in", "100", "--draws", "400", "--seed", "5", "--out", run.toString(), "--quiet");

@@ -127,7 +127,7 @@ class AllocationMembersTest {
           proposal = u + 0.3 * random.nextGaussian();
         }
         double current = c.logDensity(u, state, slope);
-        compared += agrees(name, c, u, state, current, slope[0], reference);
+        compared += CheapEvaluationTest.agrees(name, c, u, state, current, slope[0], reference);
         if (c.dynamicBlanket()) {
           // The component's element: k, or 10 row + col for cell[row, col].
           String label = c.unknown().label();
@@ -141,7 +141,7 @@ class AllocationMembersTest {
           countsChecked++;
         }
         double next = c.logDensity(proposal, state, slope);
-        compared += agrees(name, c, proposal, state, next, slope[0], reference);
+        compared += CheapEvaluationTest.agrees(name, c, proposal, state, next, slope[0], reference);
         jointDifferences += matchesTheJoint(name, model, c, state, u, proposal, next - current);
         if (Math.log(random.nextDouble()) < next - current) {
           moves += allocation && proposal != u ? 1 : 0;
@@ -217,7 +217,7 @@ class AllocationMembersTest {
         double kept = state[j];
         for (double v = a.lowerBound(state); v <= a.upperBound(state); v++) {
           state[j] = v;
-          agrees(name, c, u, state, c.logDensity(u, state, slope), slope[0], reference);
+          CheapEvaluationTest.agrees(name, c, u, state, c.logDensity(u, state, slope), slope[0], reference);
           moves++;
         }
         state[j] = kept;
@@ -239,19 +239,5 @@ class AllocationMembersTest {
       count += component.applyAsDouble(r) == k ? 1 : 0;
     }
     return count;
-  }
-
-  private static int agrees(String name, CompiledConditional c, double u, double[] state,
-      double value, double slope, double[] reference) {
-    double scratch = c.logDensityFromScratch(u, state, reference);
-    double scale = 1 + Math.abs(scratch) + c.termCount();
-    String where = name + ", " + c.unknown().label() + " at u = " + u;
-    if (scratch == Double.NEGATIVE_INFINITY) {
-      assertEquals(scratch, value, where);
-      return 1;
-    }
-    assertEquals(scratch, value, 1e-9 * scale, "value of " + where);
-    assertEquals(reference[0], slope, 1e-9 * (scale + Math.abs(reference[0])), "slope of " + where);
-    return 1;
   }
 }

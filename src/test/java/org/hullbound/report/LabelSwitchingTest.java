@@ -40,12 +40,17 @@ class LabelSwitchingTest {
     return draws;
   }
 
-  private static Verdicts verdicts(Map<String, Draws> draws) {
+  /** The summary table of the draws, in their order. */
+  private static SummaryTable table(Map<String, Draws> draws) {
     List<VariableSummary> summaries = new ArrayList<>();
     for (Map.Entry<String, Draws> entry : draws.entrySet()) {
       summaries.add(PosteriorSummary.of(entry.getKey(), entry.getValue()));
     }
-    return Verdicts.of(SummaryTable.of(summaries)).withLabelSwitching(COMPONENTS, draws);
+    return SummaryTable.of(summaries);
+  }
+
+  private static Verdicts verdicts(Map<String, Draws> draws) {
+    return Verdicts.of(table(draws)).withLabelSwitching(COMPONENTS, draws);
   }
 
   /**
@@ -82,22 +87,14 @@ class LabelSwitchingTest {
   @Test
   void swappedChainsOfNamesThatAreNoComponentsKeepTheDisagreementVerdict() {
     Map<String, Draws> draws = draws(new double[][] {{1, 5}, {5, 1}, {1, 5}, {5, 1}});
-    List<VariableSummary> summaries = new ArrayList<>();
-    for (Map.Entry<String, Draws> entry : draws.entrySet()) {
-      summaries.add(PosteriorSummary.of(entry.getKey(), entry.getValue()));
-    }
-    Verdicts verdicts = Verdicts.of(SummaryTable.of(summaries)).withLabelSwitching(List.of(), draws);
+    Verdicts verdicts = Verdicts.of(table(draws)).withLabelSwitching(List.of(), draws);
     assertEquals(List.of(Verdict.Kind.CHAINS_DISAGREE, Verdict.Kind.CHAINS_DISAGREE),
         kinds(verdicts));
   }
 
   /** Verdicts of a draws file read without its model: groups found from the draws alone. */
   private static Verdicts verdictsFoundInDraws(Map<String, Draws> draws) {
-    List<VariableSummary> summaries = new ArrayList<>();
-    for (Map.Entry<String, Draws> entry : draws.entrySet()) {
-      summaries.add(PosteriorSummary.of(entry.getKey(), entry.getValue()));
-    }
-    return Verdicts.of(SummaryTable.of(summaries))
+    return Verdicts.of(table(draws))
         .withLabelSwitchingFoundInDraws(List.copyOf(draws.keySet()), draws);
   }
 
