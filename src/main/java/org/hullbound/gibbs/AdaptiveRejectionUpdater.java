@@ -12,6 +12,7 @@ import org.hullbound.hull.LogDensity;
 import org.hullbound.hull.NotLogConcaveException;
 import org.hullbound.hull.ProposalLimitException;
 import org.hullbound.hull.Support;
+import org.hullbound.sampling.TangentEnvelopeDraw;
 
 /**
  * An exact draw by adaptive rejection sampling (Gilks and Wild 1992; derivative-free secants,
@@ -55,6 +56,14 @@ final class AdaptiveRejectionUpdater implements Updater {
   private final boolean smooth;
   private final String reason;
   private final Recorder recorder = new Recorder();
+  /** The cheap path of a smooth draw: the envelope of this draw's few tangents. */
+  private final TangentEnvelopeDraw envelope = TangentEnvelopeDraw.create();
+  /**
+   * A proposal the cheap path evaluated and handed over undecided, and whether its rejection test
+   * passed: accepted once the general sampler has checked it (see {@link TangentEnvelopeDraw}).
+   */
+  private double pendingPoint = Double.NaN;
+  private boolean pendingAccepted;
   /**
    * The hull of the last draw, started over for the next while the support stays the same; null
    * before the first draw and after a failure.
@@ -109,10 +118,13 @@ final class AdaptiveRejectionUpdater implements Updater {
       if (start == null) {
         start = startingAbscissae(guess, lower, upper);
       }
+      pendingAccepted = false;
       if (smooth) {
         start = steepen(start, lower, upper);
+        u = cheapDraw(start, guess, lower, upper, current, rng);
+      } else {
+        u = drawWithOneRestart(start, guess, lower, upper, current, rng);
       }
-      u = drawWithOneRestart(start, guess, lower, upper, current, rng);
     } catch (NotLogConcaveException | ImpreciseDensityException refused) {
       sampler = null;
       evaluations += recorder.count;
@@ -149,6 +161,32 @@ final class AdaptiveRejectionUpdater implements Updater {
     if (Double.isFinite(centre) && Double.isFinite(current)) {
       track(current, centre);
     }
+  }
+
+  /**
+   * The draw from the envelope of the tangents evaluated so far (the starting points, the probe
+   * and any the start moved outward: every one an evaluation of this conditional), which decides
+   * about three draws in four with no hull built; where it hands over, the general sampler starts
+   * from its abscissae, so that the draw is adaptive rejection all the same (Gilks and Wild 1992).
+   * A recorded value that is not finite leaves the start to the general sampler as before, which
+   * judges it.
+   */
+  private double cheapDraw(double[] start, double guess, double lower, double upper,
+      double current, RandomGenerator rng) {
+    envelope.clear();
+    for (int i = 0; i < recorder.count; i++) {
+      if (!Double.isFinite(recorder.h[i]) || !Double.isFinite(recorder.s[i])) {
+        return drawWithOneRestart(start, guess, lower, upper, current, rng);
+      }
+      envelope.add(recorder.x[i], recorder.h[i], recorder.s[i]);
+    }
+    double drawn = envelope.draw(recorder, lower, upper, rng);
+    if (!Double.isNaN(drawn)) {
+      return drawn;
+    }
+    pendingPoint = envelope.pendingPoint();
+    pendingAccepted = envelope.pendingAccepted();
+    return drawWithOneRestart(envelope.abscissae(), guess, lower, upper, current, rng);
   }
 
   /**
@@ -218,6 +256,11 @@ final class AdaptiveRejectionUpdater implements Updater {
                   (LogDensity) recorder::value, support, options);
       samplerLower = lower;
       samplerUpper = upper;
+    }
+    if (pendingAccepted) {
+      // the cheap path's proposal passed its rejection test and, now, the hull's checks
+      pendingAccepted = false;
+      return pendingPoint;
     }
     return sampler.sample(rng);
   }
