@@ -166,7 +166,7 @@ final class AdaptiveRejectionUpdater implements Updater {
   /**
    * The draw from the envelope of the tangents evaluated so far (the starting points, the probe
    * and any the start moved outward: every one an evaluation of this conditional), which decides
-   * about three draws in four with no hull built; where it hands over, the general sampler starts
+   * nearly every draw with no hull built; where it hands over, the general sampler starts
    * from its abscissae, so that the draw is adaptive rejection all the same (Gilks and Wild 1992).
    * A recorded value that is not finite leaves the start to the general sampler as before, which
    * judges it.
@@ -174,6 +174,9 @@ final class AdaptiveRejectionUpdater implements Updater {
   private double cheapDraw(double[] start, double guess, double lower, double upper,
       double current, RandomGenerator rng) {
     envelope.clear();
+    for (double x : start) {
+      recorder.evaluate(x); // the general sampler would evaluate them too; cached
+    }
     for (int i = 0; i < recorder.count; i++) {
       if (!Double.isFinite(recorder.h[i]) || !Double.isFinite(recorder.s[i])) {
         return drawWithOneRestart(start, guess, lower, upper, current, rng);
