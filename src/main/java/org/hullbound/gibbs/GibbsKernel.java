@@ -7,16 +7,47 @@ import java.util.random.RandomGenerator;
 /**
  * One chain of a Gibbs sampler: the state and one updater per unknown (or block), applied in
  * order once per sweep (systematic scan, Geman and Geman 1984).
+ *
+ * <p>An unknown's own draw is left out of the sweep while a direction block that holds it draws
+ * the whole block along the eigenvectors of its conditional covariance ({@link
+ * LineMoveUpdater#replacesMembers()}: only after burn-in, so the kept sweeps are one fixed
+ * composition of kernels that each leave the posterior invariant, and the block's directions span
+ * its members, so every unknown still moves).
  */
 public final class GibbsKernel implements ResumableKernel {
   private final double[] state;
   private final Updater[] updaters;
   private final List<String> labels;
 
+  /** For each updater, the direction block whose draws may replace it, else null. */
+  private final LineMoveUpdater[] coveredBy;
+
   GibbsKernel(double[] state, Updater[] updaters, List<String> labels) {
     this.state = state;
     this.updaters = updaters;
     this.labels = labels;
+    this.coveredBy = new LineMoveUpdater[updaters.length];
+    for (int k = 0; k < updaters.length; k++) {
+      int[] own = updaters[k].indices();
+      if (updaters[k].extra() || own.length != 1) {
+        continue;
+      }
+      for (Updater other : updaters) {
+        if (other instanceof LineMoveUpdater block && block.learnsDirections()
+            && contains(block.indices(), own[0])) {
+          coveredBy[k] = block;
+        }
+      }
+    }
+  }
+
+  private static boolean contains(int[] indices, int index) {
+    for (int i : indices) {
+      if (i == index) {
+        return true;
+      }
+    }
+    return false;
   }
 
   @Override
@@ -32,9 +63,13 @@ public final class GibbsKernel implements ResumableKernel {
   /** Asks {@code giveUp} before each update, so that a stop need not wait for a slow sweep. */
   @Override
   public boolean sweep(RandomGenerator rng, BooleanSupplier giveUp) {
-    for (Updater updater : updaters) {
+    for (int k = 0; k < updaters.length; k++) {
+      Updater updater = updaters[k];
       if (giveUp.getAsBoolean()) {
         return false;
+      }
+      if (coveredBy[k] != null && coveredBy[k].replacesMembers()) {
+        continue;
       }
       try {
         updater.update(state, rng);

@@ -18,7 +18,17 @@ import org.ejml.interfaces.decomposition.EigenDecomposition_F64;
  * collected after each sweep in windows ending at a quarter, a half and all of it; at each
  * window's end the directions become the eigenvectors of that window's covariance (ejml's
  * symmetric eigen-decomposition), scaled by the square root of their eigenvalues, so that each
- * position has a spread near 1. Each sweep then draws once along every direction: a hit-and-run
+ * position has a spread near 1. At the end of burn-in the directions become instead, where it can
+ * be measured, the eigenvectors of the block's <em>conditional</em> covariance given the rest of
+ * the state: the inverse of the block's Hessian (central differences of the line's slopes along
+ * the members and their pairs), averaged over the last {@value #HESSIAN_SWEEPS} sweeps of burn-in.
+ * Drawing along those is (for a normal conditional, exactly) a joint draw of the block given the
+ * rest, which the members' one-at-a-time draws then no longer improve: {@link #replacesMembers()}
+ * says the sweep may leave them out (a fixed kernel after burn-in all the same; the directions
+ * span the block). The burn-in covariance mixes in how the block moves with the rest (the
+ * clinics intercept with the mean of the effects) and gave the clinics slope 0.52 effective draws
+ * per sweep without the one-at-a-time draws against 0.94 with the Hessian's directions (one chain
+ * of 8,000 sweeps, busy machine). Each sweep then draws once along every direction: a hit-and-run
  * kernel over a fixed set of directions (Belisle, Romeijn and Smith 1993), each draw an exact
  * Gibbs step on its line. As nothing changes after burn-in, the kept draws come from one fixed
  * kernel that leaves the posterior invariant. No burn-in: no directions, and the move does
@@ -32,6 +42,12 @@ import org.ejml.interfaces.decomposition.EigenDecomposition_F64;
 final class LineMoveUpdater implements Updater {
   /** A window gives directions only from at least this many sweeps (and twice the block's size). */
   static final int FEWEST_SWEEPS = 20;
+
+  /** The Hessian that sets the last directions is averaged over this many last burn-in sweeps. */
+  static final int HESSIAN_SWEEPS = 10;
+
+  /** Central differences of the slopes step this many burn-in sds of each member. */
+  private static final double HESSIAN_STEP = 1e-3;
 
   private final UpdateRule.Move rule;
   private final LineTarget line;
@@ -48,6 +64,12 @@ final class LineMoveUpdater implements Updater {
   private long seen;
   private double[] mean;
   private double[][] comoment;
+  /** The sum of the Hessians measured in the last burn-in sweeps, in units of the sds. */
+  private double[][] hessianSum;
+  private double[] hessianScale;
+  private int hessians;
+  /** Set at the end of burn-in when the directions came from the Hessian and span the block. */
+  private boolean replacesMembers;
 
   LineMoveUpdater(UpdateRule.Move rule, long adaptationSweeps) {
     this.rule = rule;
@@ -83,10 +105,128 @@ final class LineMoveUpdater implements Updater {
     }
     if (line.learned() && sweeps <= adaptationSweeps) {
       collect(state);
+      if (sweeps > adaptationSweeps - HESSIAN_SWEEPS) {
+        measureHessian(state);
+      }
       if (Arrays.binarySearch(windowEnds, sweeps) >= 0) {
         learnDirections();
       }
+      if (sweeps == adaptationSweeps) {
+        adoptConditionalDirections();
+      }
     }
+  }
+
+  /**
+   * True after burn-in when the directions are the eigenvectors of the block's conditional
+   * covariance and span it: the sweep may then leave out the members' own draws.
+   */
+  boolean replacesMembers() {
+    return replacesMembers;
+  }
+
+  /** True for a direction block (a line learned during burn-in). */
+  boolean learnsDirections() {
+    return line.learned();
+  }
+
+  /**
+   * Adds the block's Hessian at {@code state} to the running sum: -d/dt of the line's slope along
+   * {@code v = sd_i e_i} and {@code sd_i e_i + sd_j e_j}, by central differences at {@code t = +-}
+   * {@value #HESSIAN_STEP} (the Hessian's quadratic form {@code v^T H v}); the step's scale is the
+   * sd of each member in the burn-in window so far. Burn-in only: what this measures changes
+   * nothing but the directions fixed at its end.
+   */
+  private void measureHessian(double[] state) {
+    if (hessianScale == null) {
+      if (seen < 2) {
+        return;
+      }
+      hessianScale = new double[size];
+      for (int i = 0; i < size; i++) {
+        hessianScale[i] = Math.sqrt(comoment[i][i] / (seen - 1));
+        if (!(hessianScale[i] > 0) || !Double.isFinite(hessianScale[i])) {
+          hessianScale = null;
+          return;
+        }
+      }
+      hessianSum = new double[size][size];
+    }
+    double[][] h = new double[size][size];
+    double[] v = new double[size];
+    for (int i = 0; i < size; i++) {
+      for (int j = 0; j <= i; j++) {
+        Arrays.fill(v, 0);
+        v[i] = hessianScale[i];
+        if (j != i) {
+          v[j] = hessianScale[j];
+        }
+        h[i][j] = curvatureAlong(v, state);
+        if (!Double.isFinite(h[i][j])) {
+          return;
+        }
+      }
+    }
+    for (int i = 0; i < size; i++) {
+      for (int j = 0; j < i; j++) {
+        double mixed = (h[i][j] - h[i][i] - h[j][j]) / 2;
+        hessianSum[i][j] += mixed;
+        hessianSum[j][i] += mixed;
+      }
+      hessianSum[i][i] += h[i][i];
+    }
+    hessians++;
+  }
+
+  /** {@code v^T H v} of the block's log-density at {@code state}, from two slopes along v. */
+  private double curvatureAlong(double[] v, double[] state) {
+    line.load(state, frame);
+    line.direct(v, frame);
+    double[] slope = new double[1];
+    line.logDensity(HESSIAN_STEP, frame, slope);
+    double above = slope[0];
+    line.logDensity(-HESSIAN_STEP, frame, slope);
+    retiredEvaluations += 2;
+    return -(above - slope[0]) / (2 * HESSIAN_STEP);
+  }
+
+  /**
+   * At the end of burn-in: the eigenvectors of the inverse of the averaged Hessian (the
+   * conditional covariance, in units of the sds), scaled by the square roots of their eigenvalues
+   * and back to the members' units, replace the last window's directions where the Hessian is
+   * positive definite; then the block's draws replace its members' own.
+   */
+  private void adoptConditionalDirections() {
+    if (hessians == 0) {
+      return;
+    }
+    DMatrixRMaj hessian = new DMatrixRMaj(size, size);
+    for (int i = 0; i < size; i++) {
+      for (int j = 0; j < size; j++) {
+        hessian.set(i, j, hessianSum[i][j] / hessians);
+      }
+    }
+    double[][] found = eigenDirections(hessian, true);
+    if (found == null || found.length != size) {
+      return;
+    }
+    for (double[] direction : found) {
+      for (int i = 0; i < size; i++) {
+        direction[i] *= hessianScale[i];
+      }
+    }
+    if (draws != null) {
+      for (Updater retired : draws) {
+        retiredEvaluations += retired.evaluations();
+      }
+    }
+    directions = found;
+    createdAt = sweeps;
+    draws = new Updater[found.length];
+    for (int k = 0; k < found.length; k++) {
+      draws[k] = lineDraw(createdAt);
+    }
+    replacesMembers = true;
   }
 
   /** Welford's running mean and co-moments of the block's values (Welford 1962). */
@@ -134,13 +274,23 @@ final class LineMoveUpdater implements Updater {
         covariance.set(i, j, comoment[i][j] / (seen - 1));
       }
     }
+    return eigenDirections(covariance, false);
+  }
+
+  /**
+   * The eigenvectors of a symmetric matrix scaled by the square roots of their eigenvalues (of
+   * its inverse's, the reciprocals, when {@code inverse}: the same eigenvectors), those with a
+   * positive finite eigenvalue only; null when there is none.
+   */
+  private double[][] eigenDirections(DMatrixRMaj matrix, boolean inverse) {
     EigenDecomposition_F64<DMatrixRMaj> eigen = DecompositionFactory_DDRM.eig(size, true, true);
-    if (!eigen.decompose(covariance)) {
+    if (!eigen.decompose(matrix)) {
       return null;
     }
     List<double[]> found = new ArrayList<>();
     for (int k = 0; k < eigen.getNumberOfEigenvalues(); k++) {
       double value = eigen.getEigenvalue(k).real;
+      value = inverse ? 1 / value : value;
       DMatrixRMaj vector = eigen.getEigenVector(k);
       if (!(value > 0) || !Double.isFinite(value) || vector == null) {
         continue;
@@ -234,6 +384,15 @@ final class LineMoveUpdater implements Updater {
         out.put(comoment[i][j]);
       }
     }
+    out.put(replacesMembers ? 1L : 0L).put((long) hessians).put(hessianScale == null ? 0L : 1L);
+    if (hessianScale != null) {
+      for (int i = 0; i < size; i++) {
+        out.put(hessianScale[i]);
+        for (int j = 0; j < size; j++) {
+          out.put(hessianSum[i][j]);
+        }
+      }
+    }
     out.put(directions == null ? 0L : (long) directions.length);
     StringBuilder notes = new StringBuilder();
     if (directions != null) {
@@ -279,6 +438,20 @@ final class LineMoveUpdater implements Updater {
         restoredComoment[i][j] = in.nextDouble();
       }
     }
+    boolean restoredReplaces = in.nextFlag();
+    int restoredHessians = (int) in.nextLong();
+    double[] restoredScale = null;
+    double[][] restoredHessianSum = null;
+    if (in.nextFlag()) {
+      restoredScale = new double[size];
+      restoredHessianSum = new double[size][size];
+      for (int i = 0; i < size; i++) {
+        restoredScale[i] = in.nextDouble();
+        for (int j = 0; j < size; j++) {
+          restoredHessianSum[i][j] = in.nextDouble();
+        }
+      }
+    }
     int count = (int) in.nextLong();
     String[] notes = saved.note() == null ? new String[0] : saved.note().split(NOTE_SEPARATOR, -1);
     double[][] restoredDirections = count == 0 ? null : new double[count][];
@@ -308,5 +481,9 @@ final class LineMoveUpdater implements Updater {
     comoment = restoredComoment;
     directions = restoredDirections;
     draws = restoredDraws;
+    replacesMembers = restoredReplaces;
+    hessians = restoredHessians;
+    hessianScale = restoredScale;
+    hessianSum = restoredHessianSum;
   }
 }
