@@ -9,7 +9,7 @@ import java.util.random.RandomGenerator;
  * order once per sweep (systematic scan, Geman and Geman 1984).
  *
  * <p>An unknown's own draw is left out of the sweep while a direction block that holds it draws
- * the whole block along the eigenvectors of its conditional covariance ({@link
+ * the whole block along directions fitted to its conditional covariance ({@link
  * LineMoveUpdater#replacesMembers()}: only after burn-in, so the kept sweeps are one fixed
  * composition of kernels that each leave the posterior invariant, and the block's directions span
  * its members, so every unknown still moves).

@@ -19,9 +19,11 @@ import org.ejml.interfaces.decomposition.EigenDecomposition_F64;
  * window's end the directions become the eigenvectors of that window's covariance (ejml's
  * symmetric eigen-decomposition), scaled by the square root of their eigenvalues, so that each
  * position has a spread near 1. At the end of burn-in the directions become instead, where it can
- * be measured, the eigenvectors of the block's <em>conditional</em> covariance given the rest of
- * the state: the inverse of the block's Hessian (central differences of the line's slopes along
- * the members and their pairs), averaged over the last {@value #HESSIAN_SWEEPS} sweeps of burn-in.
+ * be measured, fitted to the block's <em>conditional</em> covariance given the rest of the state,
+ * the inverse of the block's Hessian H (central differences of the line's slopes along the
+ * members and their pairs, averaged over the last {@value #HESSIAN_SWEEPS} sweeps of burn-in):
+ * the eigenvectors of that covariance in units of the members' burn-in sds, scaled back, which are
+ * conjugate under H with unit length ({@code d_k^T H d_l} is 1 or 0, so {@code D D^T = H^-1}).
  * Drawing along those is (for a normal conditional, exactly) a joint draw of the block given the
  * rest, which the members' one-at-a-time draws then no longer improve: {@link #replacesMembers()}
  * says the sweep may leave them out (a fixed kernel after burn-in all the same; the directions
@@ -118,11 +120,23 @@ final class LineMoveUpdater implements Updater {
   }
 
   /**
-   * True after burn-in when the directions are the eigenvectors of the block's conditional
-   * covariance and span it: the sweep may then leave out the members' own draws.
+   * True after burn-in when the directions are fitted to the block's conditional covariance and
+   * span it: the sweep may then leave out the members' own draws.
    */
   boolean replacesMembers() {
     return replacesMembers;
+  }
+
+  /** A copy of the directions drawn along now, or null before there are any. */
+  double[][] directions() {
+    if (directions == null) {
+      return null;
+    }
+    double[][] copy = new double[directions.length][];
+    for (int k = 0; k < directions.length; k++) {
+      copy[k] = directions[k] == null ? null : directions[k].clone();
+    }
+    return copy;
   }
 
   /** True for a direction block (a line learned during burn-in). */
@@ -194,7 +208,8 @@ final class LineMoveUpdater implements Updater {
    * At the end of burn-in: the eigenvectors of the inverse of the averaged Hessian (the
    * conditional covariance, in units of the sds), scaled by the square roots of their eigenvalues
    * and back to the members' units, replace the last window's directions where the Hessian is
-   * positive definite; then the block's draws replace its members' own.
+   * positive definite; then the block's draws replace its members' own. With G = S H S (S the
+   * sds) = V L V^T, the directions D = S V L^(-1/2) give D^T H D = I.
    */
   private void adoptConditionalDirections() {
     if (hessians == 0) {

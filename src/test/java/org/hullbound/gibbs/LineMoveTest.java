@@ -156,6 +156,41 @@ class LineMoveTest {
     assertEquals("adaptive rejection + direction block", fit.reports().get(0).method());
   }
 
+  /**
+   * After burn-in the block draws along directions fitted to its conditional covariance and its
+   * draws replace the members' own: the one-at-a-time draws stop at the end of burn-in, so the
+   * invariance checked above is that of the block's draws alone. The conditional here is the
+   * whole target, whose precision is H = [[1, -r], [-r, 1]] / (1 - r^2) (closed form); the
+   * directions must be conjugate under it with unit length, d_k^T H d_l = 1 if k = l else 0, so
+   * that for a normal the two line draws make one exact joint draw.
+   */
+  @Test
+  void afterBurnInTheBlockDrawsAlongConjugateDirectionsInsteadOfTheMembers() {
+    int burnIn = 400;
+    GibbsKernel chain = sampler(true).withAdaptation(burnIn)
+        .newChain(0, ChainSeeds.split(20261203L, 1)[0]);
+    java.util.random.RandomGenerator rng = ChainSeeds.split(20261204L, 1)[0];
+    for (int sweep = 0; sweep < burnIn + 100; sweep++) {
+      chain.sweep(rng);
+    }
+    List<Updater> updaters = chain.updaters();
+    assertEquals(burnIn, updaters.get(0).draws(), "x's own draws stop after burn-in");
+    assertEquals(burnIn, updaters.get(1).draws(), "y's own draws stop after burn-in");
+    LineMoveUpdater block = (LineMoveUpdater) updaters.get(2);
+    assertTrue(block.replacesMembers());
+    double[][] d = block.directions();
+    assertEquals(2, d.length);
+    double scale = 1 / (1 - R * R);
+    for (int k = 0; k < 2; k++) {
+      for (int l = 0; l < 2; l++) {
+        double form = scale * (d[k][0] * d[l][0] + d[k][1] * d[l][1]
+            - R * (d[k][0] * d[l][1] + d[k][1] * d[l][0]));
+        assertEquals(k == l ? 1 : 0, form, 1e-6,
+            "d" + k + "^T H d" + l + " for " + Arrays.deepToString(d));
+      }
+    }
+  }
+
   @Test
   void withoutTheMoveTheRidgeMixesSlowly() {
     Fits.Fit fit = Fits.run(sampler(false), SETTINGS);
