@@ -139,6 +139,14 @@ final class LineMoveUpdater implements Updater {
     return copy;
   }
 
+  /**
+   * The sweeps in which this block's draws replaced its members' own: in each, every member was
+   * drawn anew (jointly), so the summary counts them as draws of the members.
+   */
+  long memberDraws() {
+    return replacesMembers ? sweeps - createdAt : 0;
+  }
+
   /** True for a direction block (a line learned during burn-in). */
   boolean learnsDirections() {
     return line.learned();

@@ -48,6 +48,10 @@ public record UpdateReport(
           for (int index : indices) {
             moves.get(index).add(updater.method());
             evaluations[index] += updater.evaluations() / indices.length;
+            if (updater instanceof LineMoveUpdater block) {
+              // after burn-in a direction block may draw its members in place of their own draws
+              draws[index] += block.memberDraws();
+            }
           }
           continue;
         }

@@ -178,6 +178,9 @@ class LineMoveTest {
     assertEquals(burnIn, updaters.get(1).draws(), "y's own draws stop after burn-in");
     LineMoveUpdater block = (LineMoveUpdater) updaters.get(2);
     assertTrue(block.replacesMembers());
+    // the summary counts each sweep of the block after burn-in as one draw of each member
+    double perDraw = (updaters.get(0).evaluations() + block.evaluations() / 2) / 500.0;
+    assertEquals(perDraw, UpdateReport.of(2, List.of(chain)).get(0).evaluationsPerDraw(), 1e-12);
     double[][] d = block.directions();
     assertEquals(2, d.length);
     double scale = 1 / (1 - R * R);
