@@ -238,6 +238,12 @@ final class LineMoveUpdater implements Updater {
         direction[i] *= hessianScale[i];
       }
     }
+    adopt(found);
+    replacesMembers = true;
+  }
+
+  /** Draws along {@code found} from now on, each line with a new draw; the old ones retire. */
+  private void adopt(double[][] found) {
     if (draws != null) {
       for (Updater retired : draws) {
         retiredEvaluations += retired.evaluations();
@@ -249,7 +255,6 @@ final class LineMoveUpdater implements Updater {
     for (int k = 0; k < found.length; k++) {
       draws[k] = lineDraw(createdAt);
     }
-    replacesMembers = true;
   }
 
   /** Welford's running mean and co-moments of the block's values (Welford 1962). */
@@ -274,19 +279,8 @@ final class LineMoveUpdater implements Updater {
     seen = 0;
     mean = new double[size];
     comoment = new double[size][size];
-    if (learned == null) {
-      return;
-    }
-    if (draws != null) {
-      for (Updater retired : draws) {
-        retiredEvaluations += retired.evaluations();
-      }
-    }
-    directions = learned;
-    createdAt = sweeps;
-    draws = new Updater[learned.length];
-    for (int k = 0; k < learned.length; k++) {
-      draws[k] = lineDraw(createdAt);
+    if (learned != null) {
+      adopt(learned);
     }
   }
 
