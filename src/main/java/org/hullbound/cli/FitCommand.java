@@ -107,6 +107,16 @@ public final class FitCommand implements Callable<Integer> {
   }
 
   private Integer fit(SignalStop signals) {
+    try {
+      return fitInFolder(signals);
+    } finally {
+      // Only now may an interrupted JVM exit: the files are written and the run's
+      // folder lock is released (closing the run releases it).
+      signals.filesWritten();
+    }
+  }
+
+  private Integer fitInFolder(SignalStop signals) {
     PrintWriter stdout = spec.commandLine().getOut();
     PrintWriter stderr = spec.commandLine().getErr();
     try (FitRun run =
@@ -120,56 +130,51 @@ public final class FitCommand implements Callable<Integer> {
       if (!signals.beginSampling(stop)) {
         return ErrorReporting.FAILURE; // the JVM is ending with the signal's status
       }
-      try {
-        RunSettings settings = run.settings();
-        ProgressDisplay display =
-            ProgressDisplay.of(stderr, System.console() != null, settings.chains());
-        ProgressListener listener = quiet ? ProgressListener.none() : display;
-        if (!quiet) {
-          stderr.printf(
-              "fit %s: %d unknowns, %d chains of %d burn-in + %d draws%s, seed %d%n",
-              run.modelName(), run.unknownCount(), settings.chains(), settings.burnIn(),
-              settings.draws(), settings.thin() > 1 ? " thinned by " + settings.thin() : "",
-              settings.seed());
-          if (run.resuming()) {
-            stderr.printf("resuming from %s%n", CheckpointFile.in(run.folder()));
-          }
-          stderr.flush();
+      RunSettings settings = run.settings();
+      ProgressDisplay display =
+          ProgressDisplay.of(stderr, System.console() != null, settings.chains());
+      ProgressListener listener = quiet ? ProgressListener.none() : display;
+      if (!quiet) {
+        stderr.printf(
+            "fit %s: %d unknowns, %d chains of %d burn-in + %d draws%s, seed %d%n",
+            run.modelName(), run.unknownCount(), settings.chains(), settings.burnIn(),
+            settings.draws(), settings.thin() > 1 ? " thinned by " + settings.thin() : "",
+            settings.seed());
+        if (run.resuming()) {
+          stderr.printf("resuming from %s%n", CheckpointFile.in(run.folder()));
         }
-        // Expanded once, before sampling: a statement that is malformed or names no column costs
-        // no draw; estimated once from the kept draws, before the page is rendered once.
-        List<ProbabilityOption.Statement> statements =
-            probability.given() ? probability.expand(run.columns()) : List.of();
-        List<List<ProbabilityOption.Estimate>> estimated = new ArrayList<>();
-        ProbabilitySection section = statements.isEmpty()
-            ? ProbabilitySection.none()
-            : draws -> {
-                List<ProbabilityOption.Estimate> estimates =
-                    ProbabilityOption.estimate(statements, draws);
-                estimated.add(estimates);
-                return ProbabilityOption.table(estimates);
-              };
-        FitResult result;
-        try {
-          result = run.run(listener, stop, section);
-        } finally {
-          display.finish();
-        }
-        print(result, stdout, stderr);
-        if (!estimated.isEmpty()) {
-          List<ProbabilityOption.Estimate> estimates = estimated.get(0);
-          stdout.print(ProbabilityOption.text(estimates));
-          stdout.println("probabilities: " + ProbabilityOption.write(result.folder(), estimates));
-          stdout.flush();
-        }
-        if (result.stoppedEarly()) {
-          printHowToResume(result.folder(), stdout);
-        }
-        return 0;
-      } finally {
-        // Only now may an interrupted JVM exit: the files are written.
-        signals.filesWritten();
+        stderr.flush();
       }
+      // Expanded once, before sampling: a statement that is malformed or names no column costs
+      // no draw; estimated once from the kept draws, before the page is rendered once.
+      List<ProbabilityOption.Statement> statements =
+          probability.given() ? probability.expand(run.columns()) : List.of();
+      List<List<ProbabilityOption.Estimate>> estimated = new ArrayList<>();
+      ProbabilitySection section = statements.isEmpty()
+          ? ProbabilitySection.none()
+          : draws -> {
+              List<ProbabilityOption.Estimate> estimates =
+                  ProbabilityOption.estimate(statements, draws);
+              estimated.add(estimates);
+              return ProbabilityOption.table(estimates);
+            };
+      FitResult result;
+      try {
+        result = run.run(listener, stop, section);
+      } finally {
+        display.finish();
+      }
+      print(result, stdout, stderr);
+      if (!estimated.isEmpty()) {
+        List<ProbabilityOption.Estimate> estimates = estimated.get(0);
+        stdout.print(ProbabilityOption.text(estimates));
+        stdout.println("probabilities: " + ProbabilityOption.write(result.folder(), estimates));
+        stdout.flush();
+      }
+      if (result.stoppedEarly()) {
+        printHowToResume(result.folder(), stdout);
+      }
+      return 0;
     }
   }
 

@@ -112,6 +112,16 @@ public final class FitUnitsCommand implements Callable<Integer> {
   }
 
   private Integer fitUnits(SignalStop signals) {
+    try {
+      return fitUnitsInFolder(signals);
+    } finally {
+      // Only now may an interrupted JVM exit: the files are written and the run's
+      // folder lock is released (closing the run releases it).
+      signals.filesWritten();
+    }
+  }
+
+  private Integer fitUnitsInFolder(SignalStop signals) {
     PrintWriter stdout = spec.commandLine().getOut();
     PrintWriter stderr = spec.commandLine().getErr();
     String problem = level.problem() != null ? level.problem() : engine.problem();
@@ -130,34 +140,29 @@ public final class FitUnitsCommand implements Callable<Integer> {
       if (!signals.beginSampling(stop)) {
         return ErrorReporting.FAILURE; // the JVM is ending with the signal's status
       }
+      stderr.printf(
+          "hullbound fit-units: %d units of %s, seed %d, on %s%n",
+          run.unitCount(), run.modelName(), run.seed(), tasks.description());
+      if (run.resuming()) {
+        stderr.printf("resuming %s: %d units finished before, %d to fit%n", run.folder(),
+            run.finishedBefore(), run.unitCount() - run.finishedBefore());
+      }
+      stderr.flush();
+      TaskProgressLine progress =
+          TaskProgressLine.of(stderr, System.console() != null, "fit-units", "units");
       try {
-        stderr.printf(
-            "hullbound fit-units: %d units of %s, seed %d, on %s%n",
-            run.unitCount(), run.modelName(), run.seed(), tasks.description());
-        if (run.resuming()) {
-          stderr.printf("resuming %s: %d units finished before, %d to fit%n", run.folder(),
-              run.finishedBefore(), run.unitCount() - run.finishedBefore());
-        }
-        stderr.flush();
-        TaskProgressLine progress =
-            TaskProgressLine.of(stderr, System.console() != null, "fit-units", "units");
-        try {
-          result = run.run(tasks, quiet ? TaskEngine.Progress.none() : progress, stop);
-        } finally {
-          progress.finish();
-        }
-        if (!result.complete()) {
-          stderr.printf(
-              "hullbound fit-units: stopped by a signal; %d of %d units finished and are kept in"
-                  + " %s; to fit the other %d: %s%n",
-              result.outcomes().size(), result.unitCount(), result.folder(),
-              result.unitCount() - result.outcomes().size(), resumeCommand(result.folder()));
-          stderr.flush();
-          return ErrorReporting.FAILURE; // the JVM is ending with the signal's status
-        }
+        result = run.run(tasks, quiet ? TaskEngine.Progress.none() : progress, stop);
       } finally {
-        // Only now may an interrupted JVM exit: the tables hold every finished unit.
-        signals.filesWritten();
+        progress.finish();
+      }
+      if (!result.complete()) {
+        stderr.printf(
+            "hullbound fit-units: stopped by a signal; %d of %d units finished and are kept in"
+                + " %s; to fit the other %d: %s%n",
+            result.outcomes().size(), result.unitCount(), result.folder(),
+            result.unitCount() - result.outcomes().size(), resumeCommand(result.folder()));
+        stderr.flush();
+        return ErrorReporting.FAILURE; // the JVM is ending with the signal's status
       }
     }
     print(stdout, result);
