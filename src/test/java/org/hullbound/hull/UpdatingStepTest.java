@@ -2,6 +2,7 @@ package org.hullbound.hull;
 
 import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertThrows;
 
 import java.util.Arrays;
 import java.util.stream.DoubleStream;
@@ -156,6 +157,49 @@ class UpdatingStepTest {
     SecantSampler sampler = secant(64);
     update(sampler, 11);
     assertArrayEquals(START, sampler.abscissae());
+  }
+
+  /**
+   * Each point evaluated is checked for concavity against its neighbours (Gilks 1992; the class
+   * comments), whatever hull the caller passed: a value that breaks concavity with only the two
+   * abscissae on its left, only its two neighbours, or only the two on its right is refused.
+   */
+  @ParameterizedTest(name = "h({0}) = {1}")
+  @CsvSource({
+    // above chord (1, 2) extended, whose value at 3 is 0.21875
+    "3, 0.3",
+    // far below chord (1, 2), whose value at 1.5 is -0.53125
+    "1.5, -2",
+    // above chord (4, 8) extended back, whose value at 3.9 is 0.03125
+    "3.9, 0.1",
+  })
+  void aPointThatBreaksConcavityWithAnyTwoNeighboursIsRefused(double x, double hx) {
+    SecantSampler sampler =
+        (SecantSampler)
+            AdaptiveRejectionSampler.derivativeFree(
+                t -> t == x ? hx : h(t), Support.real(), options(64));
+    assertThrows(
+        NotLogConcaveException.class,
+        () ->
+            sampler.evaluateAndRefine(
+                sampler.pieces.pieceOf(x), x, 1000, Double.NEGATIVE_INFINITY, 0));
+  }
+
+  /** The same for tangents: a slope at 3 that rises from 2's, or falls below 4's. */
+  @ParameterizedTest(name = "h'(3) = {0}")
+  @CsvSource({"1", "-2"})
+  void aTangentThatBreaksConcavityWithEitherNeighbourIsRefused(double slope) {
+    TangentSampler sampler =
+        (TangentSampler)
+            AdaptiveRejectionSampler.withDerivatives(
+                t -> new Evaluation(h(t), t == 3 ? slope : -(t - 3.5) / 4),
+                Support.real(),
+                options(64));
+    assertThrows(
+        NotLogConcaveException.class,
+        () ->
+            sampler.evaluateAndRefine(
+                sampler.pieces.pieceOf(3), 3, 1000, Double.NEGATIVE_INFINITY, 0));
   }
 
   // ---- the tangent form
