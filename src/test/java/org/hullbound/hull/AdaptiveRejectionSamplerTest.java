@@ -112,6 +112,31 @@ class AdaptiveRejectionSamplerTest {
     }
   }
 
+  /**
+   * The outward search's steps (the class comments: doubling steps outward, the first one the range
+   * of the starting abscissae, {@code AdaptiveSampler.initialStep}): from 1 and 3 toward a mode at
+   * 20, points 5, 9, 17, 33, where the slope (or the last chord) falls at last; the same mirrored.
+   * The secant form first completes its start with the middle point 2.
+   */
+  @ParameterizedTest(name = "derivative-free {0}")
+  @ValueSource(booleans = {false, true})
+  void theOutwardSearchDoublesItsStepFromTheRangeOfTheStart(boolean derivativeFree) {
+    for (double side : new double[] {1, -1}) {
+      AdaptiveRejectionSampler sampler =
+          farNormal(
+              20 * side,
+              derivativeFree,
+              HullOptions.defaults().withStartingAbscissae(side, 3 * side));
+      double[] expected =
+          derivativeFree ? new double[] {1, 2, 3, 5, 9, 17, 33} : new double[] {1, 3, 5, 9, 17, 33};
+      for (int i = 0; i < expected.length; i++) {
+        expected[i] *= side;
+      }
+      Arrays.sort(expected);
+      assertArrayEquals(expected, sampler.abscissae(), "side " + side);
+    }
+  }
+
   private static AdaptiveRejectionSampler farNormal(
       double mode, boolean derivativeFree, HullOptions options) {
     return derivativeFree

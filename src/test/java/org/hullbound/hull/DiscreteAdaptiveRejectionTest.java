@@ -1,10 +1,12 @@
 package org.hullbound.hull;
 
+import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.util.ArrayList;
+import java.util.Arrays;
 import java.util.List;
 import java.util.function.LongToDoubleFunction;
 import java.util.random.RandomGenerator;
@@ -286,12 +288,77 @@ class DiscreteAdaptiveRejectionTest {
     DiscreteAdaptiveRejection sampler = DiscreteAdaptiveRejection.of(
         GeneratedLogConcaveMass.poisson(1e6), 0, Double.POSITIVE_INFINITY,
         HullOptions.defaults().withMaximumHullSize(3).withMaximumProposals(1));
-    assertThrows(ProposalLimitException.class, () -> {
+    ProposalLimitException e = assertThrows(ProposalLimitException.class, () -> {
       RandomGenerator rng = rng(3);
       for (int i = 0; i < 100; i++) {
         sampler.next(rng);
       }
     });
+    // the error lists the chords' anchors
+    assertArrayEquals(Arrays.stream(sampler.anchors()).asDoubleStream().toArray(), e.abscissae());
+  }
+
+  /**
+   * The counters account for every evaluation of h, every proposal and its outcome (squeeze,
+   * density, rejection), and the envelope's chords; Poisson(4) on the whole half-line (a
+   * bookkeeping identity, deterministic for the seed).
+   */
+  @Test
+  void statisticsCountEveryEvaluationProposalAndOutcome() {
+    long[] calls = {0};
+    LogMass poisson = GeneratedLogConcaveMass.poisson(4);
+    DiscreteAdaptiveRejection sampler = DiscreteAdaptiveRejection.of(
+        k -> {
+          calls[0]++;
+          return poisson.value(k);
+        },
+        0, Double.POSITIVE_INFINITY, HullOptions.defaults());
+    RandomGenerator rng = rng(4);
+    for (int i = 0; i < 1000; i++) {
+      sampler.next(rng);
+    }
+    SamplerStatistics s = sampler.statistics();
+    assertEquals(calls[0], s.evaluations());
+    assertEquals(1000, s.draws());
+    assertEquals(s.proposals(), s.squeezeAcceptances() + s.densityAcceptances() + s.rejections());
+    assertTrue(s.squeezeAcceptances() > 0 && s.densityAcceptances() > 0 && s.rejections() > 0, s.toString());
+    assertEquals(sampler.anchors().length, s.hullSize());
+    assertArrayEquals(sampler.hull().anchors(), sampler.anchors());
+    DiscreteAdaptiveRejection onePoint = DiscreteAdaptiveRejection.of(k -> 0, 7, 7, HullOptions.defaults());
+    onePoint.next(rng);
+    onePoint.next(rng);
+    assertEquals(2, onePoint.statistics().squeezeAcceptances());
+    assertEquals(0, onePoint.anchors().length);
+  }
+
+  /** Range ends are whole numbers within 2^53 (the largest whole number a double holds), or infinite. */
+  @Test
+  void rangeEndsAreWholeNumbersWithinTwoToTheFiftyThird() {
+    DiscreteAdaptiveRejection widest =
+        DiscreteAdaptiveRejection.of(k -> -k, 0, 0x1p53, HullOptions.defaults());
+    assertTrue(widest.next(rng(5)) >= 0);
+    IllegalArgumentException upper = assertThrows(IllegalArgumentException.class,
+        () -> DiscreteAdaptiveRejection.of(k -> -k, 0, 3.5, HullOptions.defaults()));
+    assertTrue(upper.getMessage().startsWith("upper must be a whole number"), upper.getMessage());
+    assertThrows(IllegalArgumentException.class,
+        () -> DiscreteAdaptiveRejection.of(k -> -k, 0, 0x1p53 + 2, HullOptions.defaults()));
+  }
+
+  /**
+   * The starting chords are checked against both neighbours as they are added: chords at -1, 0, 1
+   * whose slopes rise from the first to the second; and, for a mode at -5, a chord that the search
+   * adds on the left (at -2) rising less than the one at its right.
+   */
+  @Test
+  void startingChordsOutOfOrderAreRefusedOnEitherSide() {
+    LogMass risingAtZero = k -> k == -1 ? 0 : k == 0 ? -1 : k == 1 ? -1.5 : -1.5 - (k - 1);
+    assertThrows(NotLogConcaveException.class,
+        () -> DiscreteAdaptiveRejection.of(risingAtZero, -10, 10, HullOptions.defaults()));
+    LogMass bumpAtMinusTwo = k -> k == -2 ? 0 : -0.5 * (k + 5) * (k + 5);
+    NotLogConcaveException e = assertThrows(NotLogConcaveException.class,
+        () -> DiscreteAdaptiveRejection.of(bumpAtMinusTwo, Double.NEGATIVE_INFINITY,
+            Double.POSITIVE_INFINITY, HullOptions.defaults()));
+    assertTrue(e.getMessage().contains("the chord at -1 rises by"), e.getMessage());
   }
 
   @Test
