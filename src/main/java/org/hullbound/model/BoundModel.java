@@ -315,7 +315,8 @@ public final class BoundModel {
       int[] indexes = new int[dependents[index].length + 1];
       indexes[0] = ownTerm[index];
       System.arraycopy(dependents[index], 0, indexes, 1, dependents[index].length);
-      List<Term> blanket = TermTable.at(terms, indexes);
+      // Made once each for the compiler's passes, which hold an evaluator per term anyway.
+      List<Term> blanket = new ArrayList<>(TermTable.at(terms, indexes));
       c = new CompiledConditional(
           unknowns.get(index), blanket, lowerBounds[index], upperBounds[index], cuts[index],
           smooth[index]);

@@ -206,7 +206,7 @@ final class MovePatterns {
         + " dc / c); " + proof.reason();
     return new Update.GroupMove(Update.MoveKind.RESCALE, reason, proof.concave(),
         new LineDensity(n, members, null, LineDensity.Geometry.RESCALING,
-            moved.size(), () -> movedTerms(f, members, replace), smooth(f, members)));
+            moved.size(), toCompile(f, members, replace), smooth(f, members)));
   }
 
   /**
@@ -247,7 +247,7 @@ final class MovePatterns {
         + " times the Haar measure dc / c); " + proof.reason();
     return new Update.GroupMove(Update.MoveKind.RESCALE_ABOUT_MEAN, reason, proof.concave(),
         new LineDensity(n, members, null, LineDensity.Geometry.RESCALING_ABOUT_MEAN,
-            moved.size(), () -> movedTerms(f, members, replace), smooth(f, members)));
+            moved.size(), toCompile(f, members, replace), smooth(f, members)));
   }
 
   /**
@@ -316,7 +316,7 @@ final class MovePatterns {
           + " Romeijn and Smith 1993); " + proof.reason();
       found.add(new Update.DirectionBlock(reason, proof.concave(),
           new LineDensity(n, members, null, LineDensity.Geometry.LEARNED_TRANSLATION,
-              moved.size(), () -> movedTerms(f, members, replace), smooth(f, members))));
+              moved.size(), toCompile(f, members, replace), smooth(f, members))));
     }
     return found;
   }
@@ -325,6 +325,15 @@ final class MovePatterns {
   private static java.util.function.Supplier<List<Term>> constant(List<Term> moved) {
     List<Term> held = List.copyOf(moved);
     return () -> held;
+  }
+
+  /**
+   * The moved terms made again when the line compiles, each once for the compiler's passes
+   * (which hold an evaluator per term anyway).
+   */
+  private static java.util.function.Supplier<List<Term>> toCompile(
+      Facts f, int[] members, Map<Integer, Formula> replace) {
+    return () -> new ArrayList<>(movedTerms(f, members, replace));
   }
 
   /**
