@@ -105,6 +105,7 @@ final class Binder {
     // Checks are bound while lets per row are still cached: a check may read every row's let.
     List<CheckFormula> checks = new CheckBinding(scope, lowering).bind(slots.labels().size());
     lowering.bound();
+    data.bound();
     return new Result(
         scope.modelName,
         scope.source.fileName(),
