@@ -300,10 +300,7 @@ final class ModelLowering implements ExpressionLowering.Leaves {
       case PARAM:
         return slot(node.slots[offset]);
       default:
-        Map<String, Integer> letEnv = new HashMap<>();
-        for (int i = 0; i < index.length; i++) {
-          letEnv.put(nodeSets.get(i).name(), index[i]);
-        }
+        Map<String, Integer> letEnv = ElementNames.environment(nodeSets, index);
         if (replicated != null || node.size > largestCachedLet) {
           // Not cached: inside a check the checked name's elements are slots, not its data; a
           // let per data row once binding is over.

@@ -45,11 +45,8 @@ final class TermBinding {
   }
 
   private Term term(Node node, int e, boolean check) {
-    Map<String, Integer> env = new HashMap<>();
     int[] index = node.index(e);
-    for (int i = 0; i < index.length; i++) {
-      env.put(node.indexSets.get(i).name(), index[i]);
-    }
+    Map<String, Integer> env = ElementNames.environment(node.indexSets, index);
     Parametrisation p = node.parametrisation;
     List<Formula> args = new ArrayList<>();
     boolean allKnown = true;
@@ -145,11 +142,8 @@ final class TermBinding {
     if (rows == null) {
       return false;
     }
-    Map<String, Integer> env = new HashMap<>();
     int[] index = node.index(e);
-    for (int i = 0; i < index.length; i++) {
-      env.put(node.indexSets.get(i).name(), index[i]);
-    }
+    Map<String, Integer> env = ElementNames.environment(node.indexSets, index);
     return rows.censored(env, node.label(e));
   }
 
