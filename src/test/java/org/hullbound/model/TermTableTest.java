@@ -17,8 +17,8 @@ import org.junit.jupiter.api.Test;
  * What a bound model holds per data row (issue 14: at most 100 bytes of heap per row per used
  * column while {@code check} runs, so that a file of 23 million rows fits the default heap).
  *
- * <p>Counted, not timed or weighed: the {@link Term} objects reachable from the model after
- * every analysis {@code check} prints, found by walking its fields. A term per row would make
+ * <p>Counted, not timed or weighed: the {@link Term} objects reachable from the model and its
+ * test quantities after every analysis {@code check} prints, found by walking its fields. A term per row would make
  * the count grow with the rows; the data rows' terms are made when asked ({@link TermTable}), so
  * only the priors are held.
  */
@@ -47,9 +47,10 @@ class TermTableTest {
         model.dependentCount(u.index());
       }
       model.moves();
+      TestQuantities tests = TestQuantities.of(model);
       // 3 scalar priors and 4 effects' priors, and the 5 priors that the shift of intercept
       // against the effects moves (held by its line), whatever the rows
-      assertEquals(12, reachable(model, Term.class), rows + " rows");
+      assertEquals(12, reachable(new Object[] {model, tests}, Term.class), rows + " rows");
       assertEquals(rows + 7, model.termCount(), rows + " rows");
     }
   }
