@@ -10,9 +10,8 @@ import org.hullbound.io.HeapMeasurement;
  * for {@code MODEL} as {@code check} does, binds it, asks every unknown's update, the moves and
  * the test quantities (what {@code check} prints), lets the data table go, and reports the used
  * heap after full collections with the bound model alive, less the same before reading. Also the
- * largest
- * heap any pool reached ({@link MemoryPoolMXBean#getPeakUsage}: garbage included, an upper
- * bound of what the run needed).
+ * largest heap any pool reached ({@link MemoryPoolMXBean#getPeakUsage}: garbage included, an
+ * upper bound of what the run needed).
  *
  * <p>Issue 14's goal is at most 100 bytes per row per used numeric column held.
  *
