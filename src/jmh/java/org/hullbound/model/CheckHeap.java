@@ -7,11 +7,11 @@ import org.hullbound.io.HeapMeasurement;
 
 /**
  * Heap that {@code check}'s work holds, in bytes per data row per used column: reads {@code FILE}
- * for {@code MODEL} as {@code check} does, binds it, asks every unknown's update and the moves
- * (the analyses {@code check} prints), lets the data table go, and reports the used heap after
- * full collections with the bound model alive, less the same before reading. Also the largest
- * heap any pool reached ({@link MemoryPoolMXBean#getPeakUsage}: garbage included, an upper
- * bound of what the run needed).
+ * for {@code MODEL} as {@code check} does, binds it, asks every unknown's update, the moves and
+ * the test quantities (what {@code check} prints), lets the data table go, and reports the used
+ * heap after full collections with the bound model alive, less the same before reading. Also the
+ * largest heap any pool reached ({@link MemoryPoolMXBean#getPeakUsage}: garbage included, an
+ * upper bound of what the run needed).
  *
  * <p>Issue 14's goal is at most 100 bytes per row per used numeric column held.
  *
@@ -32,6 +32,7 @@ public final class CheckHeap {
       bound.dependentCount(unknown.index());
     }
     int moves = bound.moves().size();
+    TestQuantities tests = TestQuantities.of(bound);
     double seconds = run.seconds();
     long peak = HeapMeasurement.peak();
     long held = run.held();
@@ -41,9 +42,9 @@ public final class CheckHeap {
             + " read, bound and analysed in %.1f s (wall clock, machine load not controlled)%n",
         run.dataFile(), rows, columns, bound.unknowns().size(), bound.termCount(), moves,
         held / 1e6, (double) held / rows / columns, peak / 1e6, seconds);
-    // Keeps the model reachable until after the measurement.
-    if (bound.termCount() < 0) {
-      System.out.println(bound);
+    // Keeps the model and its test quantities reachable until after the measurement.
+    if (bound.termCount() < tests.quantities().size()) {
+      System.out.println(bound + " " + tests);
     }
   }
 }

@@ -40,6 +40,7 @@ final class Binder {
       String fileName,
       List<IndexSet> indexSets,
       List<Term> terms,
+      int[][] dependents,
       List<String> labels,
       List<String> nodeOfSlot,
       List<Boolean> imputed,
@@ -75,7 +76,9 @@ final class Binder {
     lowering.readUnknownIndexes(new UnknownRanges(scope, terms));
     // Lets are checked even when nothing uses them, so a fault in one never hides.
     DerivedQuantities derived = new LetBinding(scope, lowering).bind();
-    List<Term> bound = new ArrayList<>();
+    List<Node> withTerms = new ArrayList<>();
+    Dependents dependents = new Dependents(slots.labels().size());
+    int termCount = 0;
     int[] ownTerm = new int[slots.labels().size()];
     Arrays.fill(ownTerm, -1);
     Map<String, Integer> counts = new LinkedHashMap<>();
@@ -87,26 +90,35 @@ final class Binder {
       if (node.distribution == null) {
         continue;
       }
+      withTerms.add(node);
+      // Every term is made and checked here once, and then dropped: the model makes a data
+      // row's term again when asked (TermTable), as holding one per row would not scale.
       for (int e = 0; e < node.size; e++) {
         Term term = terms.term(node, e);
         if (term.owner() >= 0) {
-          ownTerm[term.owner()] = bound.size();
+          ownTerm[term.owner()] = termCount;
         }
-        bound.add(term);
+        dependents.add(termCount, term);
+        termCount++;
       }
     }
+    // Checks are bound while lets per row are still cached: a check may read every row's let.
+    List<CheckFormula> checks = new CheckBinding(scope, lowering).bind(slots.labels().size());
+    lowering.bound();
+    data.bound();
     return new Result(
         scope.modelName,
         scope.source.fileName(),
         sizing.ordered(),
-        bound,
+        TermTable.of(withTerms, terms),
+        dependents.lists(),
         slots.labels(),
         slots.nodeOfSlot(),
         slots.imputed(),
         ownTerm,
         data.summaries(),
         counts,
-        new CheckBinding(scope, lowering).bind(slots.labels().size()),
+        checks,
         derived);
   }
 

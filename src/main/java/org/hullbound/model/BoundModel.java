@@ -2,7 +2,6 @@ package org.hullbound.model;
 
 import java.util.ArrayList;
 import java.util.Arrays;
-import java.util.LinkedHashSet;
 import java.util.List;
 import java.util.Map;
 import java.util.Set;
@@ -66,37 +65,15 @@ public final class BoundModel {
     this.name = result.name();
     this.fileName = result.fileName();
     this.indexSets = List.copyOf(result.indexSets());
-    this.terms = List.copyOf(result.terms());
+    // Not copied: the terms of data rows are made when asked (TermTable), not held.
+    this.terms = result.terms();
     this.ownTerm = result.ownTerm();
     this.data = List.copyOf(result.data());
     this.nodeCounts = Map.copyOf(result.nodeCounts());
     this.checks = List.copyOf(result.checks());
     this.derived = result.derived();
     int n = result.labels().size();
-    // Terms are visited in order and each adds itself once per slot it reads, so each slot's
-    // list is increasing without repeats; plain int arrays, as a set of boxed indexes per slot
-    // cost about 60 bytes per term and slot on a model of millions of rows.
-    int[][] blanket = new int[n][];
-    int[] blanketSize = new int[n];
-    Arrays.fill(blanket, new int[0]);
-    Set<Integer> read = new LinkedHashSet<>();
-    for (int t = 0; t < terms.size(); t++) {
-      Term term = terms.get(t);
-      read.clear();
-      term.value().collectSlots(read);
-      for (Formula a : term.arguments()) {
-        a.collectSlots(read);
-      }
-      for (int s : read) {
-        if (s != term.owner()) {
-          if (blanketSize[s] == blanket[s].length) {
-            blanket[s] = Arrays.copyOf(blanket[s], Math.max(4, 2 * blanket[s].length));
-          }
-          blanket[s][blanketSize[s]++] = t;
-        }
-      }
-    }
-    this.dependents = new int[n][];
+    this.dependents = result.dependents();
     this.updates = new Update[n];
     this.singleUpdates = new Update[n];
     this.lowerBounds = new Formula[n];
@@ -105,8 +82,6 @@ public final class BoundModel {
     this.smooth = new boolean[n];
     List<Unknown> list = new ArrayList<>();
     for (int s = 0; s < n; s++) {
-      dependents[s] = Arrays.copyOf(blanket[s], blanketSize[s]);
-      blanket[s] = null;
       Term own = terms.get(ownTerm[s]);
       List<Term> children = dependentTerms(s);
       boolean discrete = own.family().discrete();
@@ -337,9 +312,11 @@ public final class BoundModel {
     checkIndex(index);
     ConditionalDensity c = conditionals.get(index);
     if (c == null) {
-      List<Term> blanket = new ArrayList<>();
-      blanket.add(terms.get(ownTerm[index]));
-      blanket.addAll(dependentTerms(index));
+      int[] indexes = new int[dependents[index].length + 1];
+      indexes[0] = ownTerm[index];
+      System.arraycopy(dependents[index], 0, indexes, 1, dependents[index].length);
+      // Made once each for the compiler's passes, which hold an evaluator per term anyway.
+      List<Term> blanket = new ArrayList<>(TermTable.at(terms, indexes));
       c = new CompiledConditional(
           unknowns.get(index), blanket, lowerBounds[index], upperBounds[index], cuts[index],
           smooth[index]);
@@ -562,12 +539,12 @@ public final class BoundModel {
     return terms.get(ownTerm[index]);
   }
 
+  /**
+   * The terms that depend on unknown {@code index}, each made when read: a pass over them holds
+   * one at a time, not one per row ({@link TermTable}).
+   */
   private List<Term> dependentTerms(int index) {
-    List<Term> list = new ArrayList<>();
-    for (int t : dependents[index]) {
-      list.add(terms.get(t));
-    }
-    return list;
+    return TermTable.at(terms, dependents[index]);
   }
 
   private void checkIndex(int index) {

@@ -35,6 +35,26 @@ record ElementNames(String name, List<IndexSet> indexSets) {
     return index;
   }
 
+  /**
+   * Each of {@code indexSets} bound by name to its value in {@code index}, as lowering reads an
+   * element's environment. One set, the common case of a term per data row, makes a one-entry map
+   * and no hash table (lowering makes an environment per row, again whenever a row's term is made
+   * again); more keep a {@link java.util.HashMap}, whose order messages list.
+   */
+  static java.util.Map<String, Integer> environment(List<IndexSet> indexSets, int[] index) {
+    if (index.length == 0) {
+      return java.util.Map.of();
+    }
+    if (index.length == 1) {
+      return java.util.Map.of(indexSets.get(0).name(), index[0]);
+    }
+    java.util.Map<String, Integer> env = new java.util.HashMap<>();
+    for (int i = 0; i < index.length; i++) {
+      env.put(indexSets.get(i).name(), index[i]);
+    }
+    return env;
+  }
+
   /** {@code name[i, j]} for element {@code offset}, or the bare name for a scalar. */
   static String label(String name, List<IndexSet> indexSets, int offset) {
     if (indexSets.isEmpty()) {

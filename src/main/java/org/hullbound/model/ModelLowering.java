@@ -33,6 +33,11 @@ final class ModelLowering implements ExpressionLowering.Leaves {
   private int replicatedBase;
   /** The ranges of whole-valued unknowns, once slots are numbered: indexes may then read them. */
   private UnknownRanges unknownRanges;
+  /** Lets with more elements than this are not cached once binding is over ({@link #bound}). */
+  private int largestCachedLet = Integer.MAX_VALUE;
+
+  /** A let of more elements than this is one per data row, whose formulas are not held. */
+  static final int LARGEST_HELD_LET = 4096;
 
   ModelLowering(BindingScope scope, DataBinding data) {
     this.scope = scope;
@@ -46,6 +51,16 @@ final class ModelLowering implements ExpressionLowering.Leaves {
    */
   void readUnknownIndexes(UnknownRanges ranges) {
     this.unknownRanges = ranges;
+  }
+
+  /**
+   * Binding is over: terms are made again from here on ({@link TermTable}), so the formulas of
+   * lets with more than {@link #LARGEST_HELD_LET} elements (a let per data row) are dropped and
+   * no longer cached, as holding them would hold a formula tree per row.
+   */
+  void bound() {
+    largestCachedLet = LARGEST_HELD_LET;
+    letCache.keySet().removeIf(node -> node.size > largestCachedLet);
   }
 
   /** Resolves {@code e} with the index sets in {@code env} bound to the given elements. */
@@ -288,12 +303,10 @@ final class ModelLowering implements ExpressionLowering.Leaves {
       case PARAM:
         return slot(node.slots[offset]);
       default:
-        Map<String, Integer> letEnv = new HashMap<>();
-        for (int i = 0; i < index.length; i++) {
-          letEnv.put(nodeSets.get(i).name(), index[i]);
-        }
-        if (replicated != null) {
-          // Not cached: inside a check the checked name's elements are slots, not its data.
+        Map<String, Integer> letEnv = ElementNames.environment(nodeSets, index);
+        if (replicated != null || node.size > largestCachedLet) {
+          // Not cached: inside a check the checked name's elements are slots, not its data; a
+          // let per data row once binding is over.
           return resolve(node.letValue, letEnv);
         }
         Formula[] cache = letCache.computeIfAbsent(node, k -> new Formula[k.size]);

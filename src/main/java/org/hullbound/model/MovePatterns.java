@@ -115,20 +115,21 @@ final class MovePatterns {
 
   private static Update shift(Facts f, int lead, List<Integer> group) {
     Set<Integer> ownOfGroup = ownTerms(f, group);
-    Set<Integer> readingLead = new TreeSet<>();
+    // Bit sets, not sets of boxed indexes: the terms that read the lead may be every data row.
+    java.util.BitSet readingLead = new java.util.BitSet();
     for (int t : f.dependents()[lead]) {
       if (!ownOfGroup.contains(t)) {
-        readingLead.add(t);
+        readingLead.set(t);
       }
     }
     if (readingLead.isEmpty()) {
       return null;
     }
-    Set<Integer> readingGroup = new TreeSet<>();
+    java.util.BitSet readingGroup = new java.util.BitSet();
     for (int e : group) {
       for (int t : f.dependents()[e]) {
         if (!ownOfGroup.contains(t) && t != f.ownTerm()[lead]) {
-          readingGroup.add(t);
+          readingGroup.set(t);
         }
       }
     }
@@ -145,7 +146,7 @@ final class MovePatterns {
           Formulas.apply(Op.MULTIPLY, List.of(Formula.constant(weights[k]),
               new Formula.Slot(n))))));
     }
-    for (int t : readingLead) {
+    for (int t = readingLead.nextSetBit(0); t >= 0; t = readingLead.nextSetBit(t + 1)) {
       if (!unchanged(substitute(f.terms().get(t), replace), n)) {
         return null;
       }
@@ -158,7 +159,7 @@ final class MovePatterns {
     String lead0 = label(f, lead);
     String groupName = f.unknowns().get(group.get(0)).node();
     String reason = "shift " + lead0 + " + d, every " + groupName + " - d: each of the "
-        + readingLead.size() + " terms that read them reads " + lead0 + " + " + groupName
+        + readingLead.cardinality() + " terms that read them reads " + lead0 + " + " + groupName
         + "[..] and stays unchanged, so only the " + members.length + " priors move"
         + " (generalised Gibbs, Liu and Sabatti 2000, translation group, Jacobian 1); "
         + proof.reason();
@@ -205,7 +206,7 @@ final class MovePatterns {
         + " dc / c); " + proof.reason();
     return new Update.GroupMove(Update.MoveKind.RESCALE, reason, proof.concave(),
         new LineDensity(n, members, null, LineDensity.Geometry.RESCALING,
-            moved.size(), () -> movedTerms(f, members, replace), smooth(f, members)));
+            moved.size(), toCompile(f, members, replace), smooth(f, members)));
   }
 
   /**
@@ -246,7 +247,7 @@ final class MovePatterns {
         + " times the Haar measure dc / c); " + proof.reason();
     return new Update.GroupMove(Update.MoveKind.RESCALE_ABOUT_MEAN, reason, proof.concave(),
         new LineDensity(n, members, null, LineDensity.Geometry.RESCALING_ABOUT_MEAN,
-            moved.size(), () -> movedTerms(f, members, replace), smooth(f, members)));
+            moved.size(), toCompile(f, members, replace), smooth(f, members)));
   }
 
   /**
@@ -315,7 +316,7 @@ final class MovePatterns {
           + " Romeijn and Smith 1993); " + proof.reason();
       found.add(new Update.DirectionBlock(reason, proof.concave(),
           new LineDensity(n, members, null, LineDensity.Geometry.LEARNED_TRANSLATION,
-              moved.size(), () -> movedTerms(f, members, replace), smooth(f, members))));
+              moved.size(), toCompile(f, members, replace), smooth(f, members))));
     }
     return found;
   }
@@ -327,22 +328,40 @@ final class MovePatterns {
   }
 
   /**
+   * The moved terms made again when the line compiles, each once for the compiler's passes
+   * (which hold an evaluator per term anyway).
+   */
+  private static java.util.function.Supplier<List<Term>> toCompile(
+      Facts f, int[] members, Map<Integer, Formula> replace) {
+    return () -> new ArrayList<>(movedTerms(f, members, replace));
+  }
+
+  /**
    * The own and dependent terms of {@code members}, each once, with the line substituted; the
    * same list on every call, so a line may make it again when it compiles ({@link LineDensity}).
    */
   private static List<Term> movedTerms(Facts f, int[] members, Map<Integer, Formula> replace) {
-    Set<Integer> touched = new TreeSet<>();
+    java.util.BitSet touched = new java.util.BitSet(f.terms().size());
     for (int j : members) {
-      touched.add(f.ownTerm()[j]);
+      touched.set(f.ownTerm()[j]);
       for (int t : f.dependents()[j]) {
-        touched.add(t);
+        touched.set(t);
       }
     }
-    List<Term> moved = new ArrayList<>();
-    for (int t : touched) {
-      moved.add(substitute(f.terms().get(t), replace));
-    }
-    return moved;
+    // Made when read, one at a time: a line through every row's term would otherwise hold a
+    // moved term per row (TermTable).
+    List<Term> terms = TermTable.at(f.terms(), touched.stream().toArray());
+    return new java.util.AbstractList<>() {
+      @Override
+      public Term get(int k) {
+        return substitute(terms.get(k), replace);
+      }
+
+      @Override
+      public int size() {
+        return terms.size();
+      }
+    };
   }
 
   private static int find(int[] root, int j) {

@@ -33,11 +33,20 @@ final class TermBinding {
 
   /** The term of element {@code e} of {@code node}, its arguments checked where known. */
   Term term(Node node, int e) {
-    Map<String, Integer> env = new HashMap<>();
+    return term(node, e, true);
+  }
+
+  /**
+   * The term of element {@code e} of {@code node} made again, without the checks that {@link
+   * #term} made of it when binding ({@link TermTable}).
+   */
+  Term madeAgain(Node node, int e) {
+    return term(node, e, false);
+  }
+
+  private Term term(Node node, int e, boolean check) {
     int[] index = node.index(e);
-    for (int i = 0; i < index.length; i++) {
-      env.put(node.indexSets.get(i).name(), index[i]);
-    }
+    Map<String, Integer> env = ElementNames.environment(node.indexSets, index);
     Parametrisation p = node.parametrisation;
     List<Formula> args = new ArrayList<>();
     boolean allKnown = true;
@@ -56,7 +65,7 @@ final class TermBinding {
     for (int k = 0; k < known.length; k++) {
       known[k] = args.get(k) instanceof Formula.Constant c ? c.value() : Double.NaN;
     }
-    for (int k = 0; k < known.length; k++) {
+    for (int k = 0; check && k < known.length; k++) {
       String problem = args.get(k) instanceof Formula.Constant c ? p.checkArgument(k, c.value())
           : null;
       if (problem != null) {
@@ -67,7 +76,7 @@ final class TermBinding {
             null);
       }
     }
-    if (allKnown) {
+    if (check && allKnown) {
       String problem = p.checkArguments(known);
       if (problem != null) {
         throw scope.error(
@@ -82,7 +91,7 @@ final class TermBinding {
     if (truncated) {
       lower = knownBound(node.distribution.truncation().lower(), env, "lower");
       upper = knownBound(node.distribution.truncation().upper(), env, "upper");
-      if (!(lower < upper)) {
+      if (check && !(lower < upper)) {
         throw scope.error(
             node.distribution.truncation().position(),
             "within " + number(lower) + " .. " + number(upper) + " is empty; the lower bound must be below the"
@@ -102,8 +111,8 @@ final class TermBinding {
     } else {
       double y = node.values[e];
       value = Formula.constant(y);
-      String problem = outsideSupport(y, p, known, allKnown);
-      if (problem == null && truncated && !(y >= lower && y <= upper)) {
+      String problem = !check ? null : outsideSupport(y, p, known, allKnown);
+      if (check && problem == null && truncated && !(y >= lower && y <= upper)) {
         problem = "it lies outside within " + number(lower) + " .. " + number(upper);
       }
       if (problem != null) {
@@ -133,11 +142,8 @@ final class TermBinding {
     if (rows == null) {
       return false;
     }
-    Map<String, Integer> env = new HashMap<>();
     int[] index = node.index(e);
-    for (int i = 0; i < index.length; i++) {
-      env.put(node.indexSets.get(i).name(), index[i]);
-    }
+    Map<String, Integer> env = ElementNames.environment(node.indexSets, index);
     return rows.censored(env, node.label(e));
   }
 

@@ -1,6 +1,7 @@
 package org.hullbound.model;
 
 import java.util.ArrayList;
+import java.util.HashMap;
 import java.util.HashSet;
 import java.util.LinkedHashMap;
 import java.util.List;
@@ -52,9 +53,11 @@ public final class TestQuantities {
   private final int unknowns;
   private final List<CheckedNode> checkedNodes = new ArrayList<>();
   private final List<Quantity> quantities = new ArrayList<>();
-  /** Per node: its element terms in element order. */
-  private final List<Term[]> terms = new ArrayList<>();
-  private final List<Evaluator[][]> arguments = new ArrayList<>();
+  private final BoundModel model;
+  /** Per node: the indexes of its element terms in the model, in element order. */
+  private final List<int[]> termIndexes = new ArrayList<>();
+  /** Per node: its element terms and their compiled arguments, made when first replicated. */
+  private volatile Elements elements;
   /** Per node: which default statistics it has (sd needs two observed elements). */
   private final List<List<String>> statistics = new ArrayList<>();
   /** Per check: its node's index and its compiled value. */
@@ -62,37 +65,38 @@ public final class TestQuantities {
   private final List<Evaluator> checkValue = new ArrayList<>();
 
   private TestQuantities(BoundModel model) {
+    this.model = model;
     this.unknowns = model.unknowns().size();
     // A censored row has no observed value to set a replicate against, and leaving only its
     // exact rows in would compare a selected sample; so a censored line is not checked at all.
+    // One pass over the terms, holding indexes, not terms: check lists these quantities for a
+    // model of millions of rows, whose terms are made when read (TermTable).
     Set<String> censoredLine = new HashSet<>();
-    for (Term term : model.terms()) {
+    Map<String, IndexList> byNode = new LinkedHashMap<>();
+    Map<String, String> familyOf = new HashMap<>();
+    Map<String, Integer> missingOf = new HashMap<>();
+    List<Term> all = model.terms();
+    for (int t = 0; t < all.size(); t++) {
+      Term term = all.get(t);
+      String name = term.names().name();
       if (Censored.isCensored(term.family())) {
-        censoredLine.add(term.names().name());
+        censoredLine.add(name);
       }
-    }
-    Map<String, List<Term>> byNode = new LinkedHashMap<>();
-    for (Term term : model.terms()) {
       boolean observed = term.owner() < 0;
-      if (censoredLine.contains(term.names().name())) {
-        continue;
-      }
       if (observed || model.unknowns().get(term.owner()).imputed()) {
-        byNode.computeIfAbsent(term.names().name(), k -> new ArrayList<>()).add(term);
+        byNode.computeIfAbsent(name, k -> new IndexList()).add(t);
+        familyOf.putIfAbsent(name, term.familyName());
+        missingOf.merge(name, observed ? 0 : 1, Integer::sum);
       }
     }
+    byNode.keySet().removeAll(censoredLine);
     Map<String, Integer> nodeIndex = new LinkedHashMap<>();
-    for (Map.Entry<String, List<Term>> entry : byNode.entrySet()) {
-      Term[] elements = entry.getValue().toArray(new Term[0]);
-      int missing = 0;
-      Evaluator[][] args = new Evaluator[elements.length][];
-      for (int e = 0; e < elements.length; e++) {
-        missing += elements[e].owner() >= 0 ? 1 : 0;
-        args[e] = PriorSimulation.compile(elements[e].arguments());
-      }
-      String family = elements[0].familyName();
+    for (Map.Entry<String, IndexList> entry : byNode.entrySet()) {
+      int[] indexes = entry.getValue().toArray();
+      int missing = missingOf.get(entry.getKey());
+      String family = familyOf.get(entry.getKey());
       CheckedNode node =
-          new CheckedNode(entry.getKey(), family, elements.length - missing, missing);
+          new CheckedNode(entry.getKey(), family, indexes.length - missing, missing);
       List<String> own = new ArrayList<>();
       for (String statistic : DEFAULT_STATISTICS) {
         if (node.observed() >= (statistic.equals("sd") ? 2 : 1)) {
@@ -104,8 +108,7 @@ public final class TestQuantities {
       }
       nodeIndex.put(node.name(), checkedNodes.size());
       checkedNodes.add(node);
-      terms.add(elements);
-      arguments.add(args);
+      termIndexes.add(indexes);
       statistics.add(own);
       for (String statistic : own) {
         quantities.add(new Quantity(node.name(), statistic, false));
@@ -115,6 +118,53 @@ public final class TestQuantities {
       checkNode.add(nodeIndex.get(check.node()));
       checkValue.add(Evaluator.compile(check.value(), -1));
       quantities.add(new Quantity(check.node(), check.name(), true));
+    }
+  }
+
+  /** Each checked node's element terms and their compiled arguments. */
+  private record Elements(List<Term[]> terms, List<Evaluator[][]> arguments) {}
+
+  /** The checked nodes' terms with their arguments compiled, made on the first replication. */
+  private Elements elements() {
+    Elements made = elements;
+    if (made == null) {
+      synchronized (this) {
+        made = elements;
+        if (made == null) {
+          List<Term[]> terms = new ArrayList<>();
+          List<Evaluator[][]> arguments = new ArrayList<>();
+          for (int[] indexes : termIndexes) {
+            Term[] node = new Term[indexes.length];
+            Evaluator[][] args = new Evaluator[indexes.length][];
+            for (int e = 0; e < indexes.length; e++) {
+              node[e] = model.terms().get(indexes[e]);
+              args[e] = PriorSimulation.compile(node[e].arguments());
+            }
+            terms.add(node);
+            arguments.add(args);
+          }
+          made = new Elements(List.copyOf(terms), List.copyOf(arguments));
+          elements = made;
+        }
+      }
+    }
+    return made;
+  }
+
+  /** A growing list of term indexes. */
+  private static final class IndexList {
+    private int[] values = new int[8];
+    private int size;
+
+    void add(int value) {
+      if (size == values.length) {
+        values = java.util.Arrays.copyOf(values, 2 * size);
+      }
+      values[size++] = value;
+    }
+
+    int[] toArray() {
+      return java.util.Arrays.copyOf(values, size);
     }
   }
 
@@ -143,7 +193,7 @@ public final class TestQuantities {
   /** Labels of node {@code node}'s elements ({@code y[1]}, ...), in element order. */
   public List<String> elementLabels(int node) {
     List<String> labels = new ArrayList<>();
-    for (Term term : terms.get(node)) {
+    for (Term term : elements().terms().get(node)) {
       labels.add(term.label());
     }
     return labels;
@@ -159,6 +209,8 @@ public final class TestQuantities {
    * buffers (not thread-safe).
    */
   public final class Replicator {
+    private final List<Term[]> terms = elements().terms();
+    private final List<Evaluator[][]> arguments = elements().arguments();
     private final double[][] replicated = new double[terms.size()][];
     private final double[][] completed = new double[terms.size()][];
     private final double[] row;

@@ -118,25 +118,31 @@ final class UpdateAnalysis {
 
   /** True unless a term is not differentiable in the unknown. */
   static boolean smooth(int slot, Term own, List<Term> dependents) {
-    List<Term> all = new ArrayList<>(dependents);
-    all.add(own);
-    for (Term t : all) {
-      for (Formula a : t.arguments()) {
-        if (a.kinkedIn(slot)) {
-          return false;
-        }
-      }
-      if (t.familyName().equals("laplace")) {
-        Formula location = t.argument("location");
-        if (t.value().reads(slot) || (location != null && location.reads(slot))) {
-          return false;
-        }
-      }
-      if (t.family().support() == org.hullbound.model.family.SupportKind
-              .BETWEEN_FIRST_TWO_ARGUMENTS
-          && (t.arguments().get(0).reads(slot) || t.arguments().get(1).reads(slot))) {
+    for (Term t : dependents) {
+      if (!smooth(slot, t)) {
         return false;
       }
+    }
+    return smooth(slot, own);
+  }
+
+  /** True unless {@code t} is not differentiable in the unknown in slot {@code slot}. */
+  private static boolean smooth(int slot, Term t) {
+    for (Formula a : t.arguments()) {
+      if (a.kinkedIn(slot)) {
+        return false;
+      }
+    }
+    if (t.familyName().equals("laplace")) {
+      Formula location = t.argument("location");
+      if (t.value().reads(slot) || (location != null && location.reads(slot))) {
+        return false;
+      }
+    }
+    if (t.family().support() == org.hullbound.model.family.SupportKind
+            .BETWEEN_FIRST_TWO_ARGUMENTS
+        && (t.arguments().get(0).reads(slot) || t.arguments().get(1).reads(slot))) {
+      return false;
     }
     return true;
   }

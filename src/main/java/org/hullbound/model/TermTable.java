@@ -1,0 +1,121 @@
+package org.hullbound.model;
+
+import java.util.AbstractList;
+import java.util.Arrays;
+import java.util.List;
+import java.util.RandomAccess;
+
+/**
+ * The model's element-level terms in binding order, of which only the params' priors are held:
+ * the term of a data row is made again from its statement and row whenever it is asked for.
+ *
+ * <p>Why: a term per data row, with its formula tree, costs about 230 bytes a row (issue 14), so a
+ * file of 23 million rows could not be checked in the default heap; the data values those terms
+ * read are held once anyway, in their columns. A term made again is equal to the one binding
+ * checked (the same lowering of the same statement over the same data), so every analysis and
+ * compilation that reads it sees what it saw when every term was held. Making one costs a
+ * lowering of its statement for that row; reading terms is therefore for passes over a blanket,
+ * not for a draw's inner loop (compiled conditionals hold their own evaluators).
+ *
+ * <p>Thread-safe: terms are made under a lock, as lowering shares its slot formulas.
+ */
+final class TermTable extends AbstractList<Term> implements RandomAccess {
+  /** The nodes with a distribution, in binding order; term {@code starts[k] + e} is row e of k. */
+  private final Node[] nodes;
+  private final int[] starts;
+  /** The held terms of each node (its priors), or {@code null} where they are made again. */
+  private final Term[][] held;
+  private final TermBinding binding;
+  private final int size;
+
+  private TermTable(Node[] nodes, int[] starts, Term[][] held, TermBinding binding) {
+    this.nodes = nodes;
+    this.starts = starts;
+    this.held = held;
+    this.binding = binding;
+    this.size = starts[nodes.length];
+  }
+
+  /**
+   * The terms of {@code nodes} (each a node with a distribution, in binding order), holding
+   * those of params and making those of data again through {@code binding}, which must have
+   * checked every one of them already.
+   */
+  static TermTable of(List<Node> nodes, TermBinding binding) {
+    Node[] array = nodes.toArray(new Node[0]);
+    int[] starts = new int[array.length + 1];
+    Term[][] held = new Term[array.length][];
+    for (int k = 0; k < array.length; k++) {
+      starts[k + 1] = Math.addExact(starts[k], array[k].size);
+      if (array[k].kind == Node.Kind.PARAM) {
+        held[k] = new Term[array[k].size];
+        for (int e = 0; e < array[k].size; e++) {
+          held[k][e] = binding.madeAgain(array[k], e);
+        }
+      }
+    }
+    return new TermTable(array, starts, held, binding);
+  }
+
+  @Override
+  public Term get(int index) {
+    if (index < 0 || index >= size) {
+      throw new IndexOutOfBoundsException("index must be in 0 .. " + (size - 1) + ", got " + index);
+    }
+    int k = Arrays.binarySearch(starts, index);
+    // the node whose first term is at or before index; empty nodes share a start with the next
+    k = k >= 0 ? k : -k - 2;
+    while (starts[k + 1] == index) {
+      k++;
+    }
+    int e = index - starts[k];
+    if (held[k] != null) {
+      return held[k][e];
+    }
+    synchronized (binding) {
+      return binding.madeAgain(nodes[k], e);
+    }
+  }
+
+  @Override
+  public int size() {
+    return size;
+  }
+
+  /**
+   * The terms at {@code indexes} of {@code terms}, each read when asked: a pass over an
+   * unknown's blanket then holds one data row's term at a time.
+   */
+  static List<Term> at(List<Term> terms, int[] indexes) {
+    return new Selected(terms, indexes);
+  }
+
+  private static final class Selected extends AbstractList<Term> implements RandomAccess {
+    private final List<Term> terms;
+    private final int[] indexes;
+
+    Selected(List<Term> terms, int[] indexes) {
+      this.terms = terms;
+      this.indexes = indexes;
+    }
+
+    @Override
+    public Term get(int k) {
+      return terms.get(indexes[k]);
+    }
+
+    @Override
+    public int size() {
+      return indexes.length;
+    }
+  }
+
+  /** How many terms are held as objects (the params' priors); the others are made when asked. */
+  int heldCount() {
+    int count = 0;
+    for (Term[] terms : held) {
+      count += terms == null ? 0 : terms.length;
+    }
+    return count;
+  }
+}

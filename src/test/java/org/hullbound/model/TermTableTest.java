@@ -1,0 +1,149 @@
+package org.hullbound.model;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+
+import java.lang.reflect.Array;
+import java.lang.reflect.Field;
+import java.lang.reflect.Modifier;
+import java.util.ArrayList;
+import java.util.Collection;
+import java.util.IdentityHashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.Set;
+import org.junit.jupiter.api.Test;
+
+/**
+ * What a bound model holds per data row (issue 14: at most 100 bytes of heap per row per used
+ * column while {@code check} runs, so that a file of 23 million rows fits the default heap).
+ *
+ * <p>Counted, not timed or weighed: the {@link Term} objects reachable from the model and its
+ * test quantities after every analysis {@code check} prints, found by walking its fields. A term per row would make
+ * the count grow with the rows; the data rows' terms are made when asked ({@link TermTable}), so
+ * only the priors are held.
+ */
+class TermTableTest {
+
+  /** The clinics demo's model (models/clinics.hbm), with its analyses and moves. */
+  private static final String CLINICS = """
+      model clinics
+      index clinic = 1 .. 4
+      index patient
+      data  clinic_of[patient], dose[patient]
+      let   eta[patient] = intercept + slope * dose[patient] + effect[clinic_of[patient]]
+      data  recovered[patient] ~ bernoulli(logit_p = eta[patient])
+      param intercept ~ normal(mean = 0, sd = 2)
+      param slope ~ normal(mean = 0, sd = 1)
+      param spread ~ half-normal(sd = 1)
+      param effect[clinic] ~ normal(mean = 0, sd = spread)
+      """;
+
+  @Test
+  void aModelHoldsItsPriorsButNoTermPerDataRow() {
+    for (int rows : new int[] {500, 5_000}) {
+      BoundModel model = TestModels.bind(CLINICS, rows(rows));
+      for (Unknown u : model.unknowns()) {
+        model.update(u.index());
+        model.dependentCount(u.index());
+      }
+      model.moves();
+      TestQuantities tests = TestQuantities.of(model);
+      // 3 scalar priors and 4 effects' priors, and the 5 priors that the shift of intercept
+      // against the effects moves (held by its line), whatever the rows
+      assertEquals(12, reachable(new Object[] {model, tests}, Term.class), rows + " rows");
+      assertEquals(rows + 7, model.termCount(), rows + " rows");
+    }
+  }
+
+  @Test
+  void aTermMadeAgainEqualsTheOneBindingChecked() {
+    BoundModel model = TestModels.bind(CLINICS, rows(50));
+    List<Term> terms = model.terms();
+    Term first = terms.get(0);
+    // made anew on every call, from the same statement and row
+    assertEquals(first, terms.get(0));
+    assertEquals("recovered[1]", first.label());
+    assertEquals("bernoulli", first.familyName());
+    assertEquals(-1, first.owner());
+    Term prior = terms.get(50);
+    assertEquals(prior, terms.get(50));
+    assertEquals("intercept", prior.label());
+  }
+
+  @Test
+  void aTermOfARowReadsThatRowsData() {
+    BoundModel model = TestModels.bind(CLINICS, rows(50));
+    // row 8: dose 8 / 10, clinic 8 % 4 + 1 = 1; the logit is intercept + slope * dose + effect[1]
+    Term row = model.terms().get(7);
+    double[] state = model.initialState();
+    int intercept = model.unknown("intercept").index();
+    int slope = model.unknown("slope").index();
+    int effect = model.unknown("effect[1]").index();
+    state[intercept] = 0.25;
+    state[slope] = -1.5;
+    state[effect] = 0.75;
+    double logit = Evaluator.compile(row.argument("logit_p"), -1).eval(new Frame(Double.NaN, state));
+    assertEquals(0.25 - 1.5 * 0.8 + 0.75, logit, 1e-12);
+  }
+
+  /** Rows of clinics data: clinic k % 4 + 1, dose k / 10, recovered k % 2. */
+  private static DataTable rows(int count) {
+    String[] lines = new String[count + 1];
+    lines[0] = "clinic_of,dose,recovered";
+    for (int k = 1; k <= count; k++) {
+      lines[k] = (k % 4 + 1) + "," + (k / 10.0) + "," + (k % 2);
+    }
+    return TestModels.table("rows.csv", lines);
+  }
+
+  /**
+   * How many instances of {@code type} are reachable from {@code root}: through the fields of the
+   * project's own classes, arrays, and the elements of the JDK's collections and maps (read
+   * through their interfaces; a collection of the project's own, such as a list that makes its
+   * elements when asked, is walked by its fields instead).
+   */
+  private static int reachable(Object root, Class<?> type) {
+    Set<Object> seen = java.util.Collections.newSetFromMap(new IdentityHashMap<>());
+    List<Object> pending = new ArrayList<>();
+    pending.add(root);
+    int count = 0;
+    while (!pending.isEmpty()) {
+      Object o = pending.remove(pending.size() - 1);
+      if (o == null || !seen.add(o)) {
+        continue;
+      }
+      Class<?> c = o.getClass();
+      if (type.isInstance(o)) {
+        count++;
+      }
+      if (c.isArray()) {
+        if (!c.getComponentType().isPrimitive()) {
+          for (int i = 0; i < Array.getLength(o); i++) {
+            pending.add(Array.get(o, i));
+          }
+        }
+      } else if (c.getName().startsWith("org.hullbound.")) {
+        for (Class<?> k = c; k != null && k.getName().startsWith("org.hullbound."); k =
+            k.getSuperclass()) {
+          for (Field f : k.getDeclaredFields()) {
+            if (Modifier.isStatic(f.getModifiers()) || f.getType().isPrimitive()) {
+              continue;
+            }
+            f.setAccessible(true);
+            try {
+              pending.add(f.get(o));
+            } catch (IllegalAccessException e) {
+              throw new AssertionError(e);
+            }
+          }
+        }
+      } else if (o instanceof Collection<?> collection) {
+        pending.addAll(collection);
+      } else if (o instanceof Map<?, ?> map) {
+        pending.addAll(map.keySet());
+        pending.addAll(map.values());
+      }
+    }
+    return count;
+  }
+}
