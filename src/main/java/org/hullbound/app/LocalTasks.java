@@ -44,7 +44,8 @@ final class LocalTasks implements TaskEngine {
       int index = k;
       // A task not begun when the stop comes ends at once without a result: queued tasks drain
       // in microseconds, and running ones end within a sweep (the stop reaches their chains).
-      done.submit(() -> new Done<>(index, stop.isRequested() ? null : task.run(inputs.get(index), stop)));
+      done.submit(() -> new Done<>(index, stop.isRequested() ? null : runStoppingOnFailure(
+          task, inputs.get(index), stop)));
     }
     int ended = 0;
     int handed = 0;
@@ -105,6 +106,21 @@ final class LocalTasks implements TaskEngine {
     }
     if (firstFailure != null) {
       throw firstFailure;
+    }
+  }
+
+  /**
+   * Runs one task; one that throws requests the stop on its own thread before it ends, so that no
+   * task begins after it (the caller's thread sees the failure only later, and a worker would
+   * otherwise take the next task first).
+   */
+  private static <I extends Serializable, R extends Outcome> R runStoppingOnFailure(
+      Task<I, R> task, I input, StopSignal stop) {
+    try {
+      return task.run(input, stop);
+    } catch (Throwable failure) {
+      stop.request();
+      throw failure;
     }
   }
 
