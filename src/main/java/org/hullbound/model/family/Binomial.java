@@ -57,7 +57,7 @@ final class Binomial {
     abstract double slope(double x, double trials, double[] args);
 
     @Override
-    final double evaluate(double x, double[] args, double[] gradient) {
+    double evaluate(double x, double[] args, double[] gradient) {
       double trials = trials(args);
       if (gradient != null) {
         gradient[0] = 0.0;
@@ -88,7 +88,7 @@ final class Binomial {
       if (SaddlePoint.applies(trials, p, q)) {
         return SaddlePoint.binomial(x, trials, p, q, Math.fma(-trials, p, x));
       }
-      double logChoose = -Math.log1p(trials) - Beta.logBeta(x + 1.0, trials - x + 1.0);
+      double logChoose = -LogSpace.log1p(trials) - Beta.logBeta(x + 1.0, trials - x + 1.0);
       return logChoose + x * logProbability(args) + (trials - x) * logComplement(args);
     }
 
@@ -164,7 +164,7 @@ final class Binomial {
 
     @Override
     double logComplement(double[] args) {
-      return Math.log1p(-args[probabilityIndex()]);
+      return LogSpace.log1p(-args[probabilityIndex()]);
     }
 
     @Override
@@ -236,6 +236,33 @@ final class Binomial {
     @Override
     double slope(double x, double trials, double[] args) {
       return Math.fma(-trials, probability(args), x);
+    }
+
+    /**
+     * At the ends of the support (every Bernoulli term) the log mass is {@code trials log expit(+-
+     * eta)} and the slope {@code x - trials expit(eta)}: both from one {@code exp(-|eta|)}, bit for
+     * bit what the general path gives with two.
+     */
+    @Override
+    double evaluate(double x, double[] args, double[] gradient) {
+      double trials = trials(args);
+      if (x != 0 && x != trials) {
+        return super.evaluate(x, args, gradient);
+      }
+      double eta = args[probabilityIndex()];
+      double e = Math.exp(-Math.abs(eta));
+      if (gradient != null) {
+        gradient[0] = 0.0;
+        if (probabilityIndex() == 1) {
+          gradient[1] = 0.0;
+        }
+        gradient[1 + probabilityIndex()] = Math.fma(-trials, LogSpace.invLogit(eta, e), x);
+      }
+      if (x == 0) {
+        // + 0.0: a certain outcome has log mass 0.0, not -0.0 (as logMass)
+        return trials == 0 ? 0.0 : trials * -LogSpace.log1pExp(eta, e) + 0.0;
+      }
+      return trials * -LogSpace.log1pExp(-eta, e);
     }
 
     @Override
