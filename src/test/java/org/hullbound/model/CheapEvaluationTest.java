@@ -27,6 +27,11 @@ import org.junit.jupiter.params.provider.MethodSource;
  * 1 + |value| + terms} (rounding error of a sum grows at most linearly with its length: Higham,
  * Accuracy and Stability of Numerical Algorithms, 2nd ed., section 4.2). A stale part (a cache
  * that missed a change of another unknown) is off by the change itself, far beyond it.
+ *
+ * <p>Runs of like observation terms summed by one loop of their family ({@link
+ * org.hullbound.model.family.AffineRows}: every Bernoulli and binomial term of {@code clinics} and
+ * {@code seedlings}) equal, bit for bit, the same kept parts evaluated a term at a time ({@link
+ * CompiledConditional#logDensityTermByTerm}): the loop changes no seeded draw.
  */
 class CheapEvaluationTest {
 
@@ -92,6 +97,11 @@ class CheapEvaluationTest {
       }
     }
     assertEquals(2L * SWEEPS * n, compared, "every evaluation was compared");
+    long inRuns = java.util.Arrays.stream(conditionals)
+        .filter(CompiledConditional::summedInRuns).count();
+    if (name.startsWith("clinics") || name.startsWith("seedlings")) {
+      assertTrue(inRuns > 0, name + ": no conditional sums its terms in runs");
+    }
   }
 
   /**
@@ -100,6 +110,12 @@ class CheapEvaluationTest {
    */
   static int agrees(String name, CompiledConditional c, double u, double[] state,
       double value, double slope, double[] reference) {
+    double alone = c.logDensityTermByTerm(u, state, reference);
+    String at = name + ", " + c.unknown().label() + " at u = " + u;
+    assertEquals(Double.doubleToRawLongBits(alone), Double.doubleToRawLongBits(value),
+        () -> "value in runs against term by term: " + at);
+    assertEquals(Double.doubleToRawLongBits(reference[0]), Double.doubleToRawLongBits(slope),
+        () -> "slope in runs against term by term: " + at);
     double scratch = c.logDensityFromScratch(u, state, reference);
     double scale = 1 + Math.abs(scratch) + c.termCount();
     String where = name + ", " + c.unknown().label() + " at u = " + u;

@@ -40,6 +40,10 @@ final class Binomial {
       return withTrials ? args[0] : 1.0;
     }
 
+    final boolean withTrials() {
+      return withTrials;
+    }
+
     /** Index of the probability argument. */
     final int probabilityIndex() {
       return withTrials ? 1 : 0;
@@ -236,6 +240,49 @@ final class Binomial {
     @Override
     double slope(double x, double trials, double[] args) {
       return Math.fma(-trials, probability(args), x);
+    }
+
+    @Override
+    public AffineRows affineRows(int k) {
+      return k == probabilityIndex() ? this::accumulate : null;
+    }
+
+    /**
+     * The rows' sums, each as {@link #evaluate} after the support test of {@code logDensity}:
+     * the ends of the support from one {@code exp(-|eta|)}, any other count by the general path.
+     */
+    private void accumulate(double x, double[] intercepts, double[] slopes, int first, int count,
+        double[] sums, double[] args, double[] gradient) {
+      int stride = withTrials() ? 3 : 2;
+      int moving = 1 + probabilityIndex();
+      double total = sums[0];
+      double dx = sums[1];
+      for (int j = 0, p = first; j < count; j++, p += stride) {
+        double y = intercepts[p];
+        double trials = withTrials() ? intercepts[p + 1] : 1.0;
+        double b = slopes[p + moving];
+        double eta = b == 0 ? intercepts[p + moving] : intercepts[p + moving] + b * x;
+        double value;
+        double g;
+        if ((y == 0 || y == trials) && (!withTrials() || ArgumentDomain.WHOLE.accepts(trials))) {
+          double e = Math.exp(-Math.abs(eta));
+          g = Math.fma(-trials, LogSpace.invLogit(eta, e), y);
+          value = y == 0
+              ? (trials == 0 ? 0.0 : trials * -LogSpace.log1pExp(eta, e) + 0.0)
+              : trials * -LogSpace.log1pExp(-eta, e);
+        } else {
+          if (withTrials()) {
+            args[0] = trials;
+          }
+          args[moving - 1] = eta;
+          value = logDensity(y, args, gradient);
+          g = gradient[moving];
+        }
+        total += value;
+        dx += 0.0 + g * b;
+      }
+      sums[0] = total;
+      sums[1] = dx;
     }
 
     /**
