@@ -73,6 +73,11 @@ final class CompiledConditional implements ConditionalDensity {
   private final double[] formConstant;
   private final int[] formSlot;
   private final double[] formCoefficient;
+  /**
+   * The parts whose linear forms read another unknown, worked out at every draw; the others'
+   * forms are constants (an observed value, a known argument), worked out once per workspace.
+   */
+  private final int[] varyingLinearParts;
   /** The terms with an affine part whose {@code a} or {@code b} is a tree, not a linear form. */
   private final int[] treePrepared;
   /**
@@ -180,6 +185,9 @@ final class CompiledConditional implements ConditionalDensity {
       terms[i].linearForms = null;
     }
     formStart[2 * parts] = next;
+    this.varyingLinearParts = java.util.stream.IntStream.range(0, parts)
+        .filter(part -> linearPart[part] && formStart[2 * part + 2] > formStart[2 * part])
+        .toArray();
     this.treePrepared = java.util.stream.IntStream.range(0, terms.length)
         .filter(i -> terms[i].preparesTrees()).toArray();
     this.members = AllocationMembers.of(evaluated, slot, inputs, guardFormulas, guards);
@@ -246,6 +254,15 @@ final class CompiledConditional implements ConditionalDensity {
     /** The members of a blanket that follows an allocation, kept up to date, or null. */
     final AllocationMembers.Tracker tracker = members == null ? null : members.tracker();
 
+    Workspace() {
+      for (int part = 0; part < partCount; part++) {
+        if (linearPart[part]) {
+          intercepts[part] = formConstant[2 * part];
+          slopes[part] = formConstant[2 * part + 1];
+        }
+      }
+    }
+
     /** Works the parts out again unless every input holds the bits it held last time. */
     void prepare(double[] state) {
       if (tracker != null) {
@@ -261,11 +278,9 @@ final class CompiledConditional implements ConditionalDensity {
       for (int i : treePrepared) {
         terms[i].prepare(frame, intercepts, slopes, firstPart[i]);
       }
-      for (int part = 0; part < partCount; part++) {
-        if (linearPart[part]) {
-          intercepts[part] = linearValue(2 * part, state);
-          slopes[part] = linearValue(2 * part + 1, state);
-        }
+      for (int part : varyingLinearParts) {
+        intercepts[part] = linearValue(2 * part, state);
+        slopes[part] = linearValue(2 * part + 1, state);
       }
       for (int j = 0; j < inputs.length; j++) {
         inputValues[j] = state[inputs[j]];
