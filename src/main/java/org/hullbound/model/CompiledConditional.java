@@ -98,6 +98,14 @@ final class CompiledConditional implements ConditionalDensity {
   private final int[] runStart;
   private final int[] runLength;
   private final AffineRows[] runRows;
+  /**
+   * Per run: where its rows' kept numbers ({@link AffineRows#keep}) start in a workspace, and
+   * whether they must be worked out again at each draw (some part that does not move reads
+   * another unknown) rather than once.
+   */
+  private final int[] runKeptFirst;
+  private final boolean[] runKeptPerDraw;
+  private final int keptCount;
   private final ThreadLocal<Workspace> workspaces = ThreadLocal.withInitial(Workspace::new);
 
   CompiledConditional(
@@ -196,6 +204,9 @@ final class CompiledConditional implements ConditionalDensity {
       this.runStart = null;
       this.runLength = null;
       this.runRows = null;
+      this.runKeptFirst = null;
+      this.runKeptPerDraw = null;
+      this.keptCount = 0;
     } else {
       List<int[]> runs = new java.util.ArrayList<>();
       for (int i = 0; i < terms.length; i++) {
@@ -209,6 +220,24 @@ final class CompiledConditional implements ConditionalDensity {
       this.runStart = runs.stream().mapToInt(r -> r[0]).toArray();
       this.runLength = runs.stream().mapToInt(r -> r[1]).toArray();
       this.runRows = runs.stream().map(r -> terms[r[0]].rows).toArray(AffineRows[]::new);
+      this.runKeptFirst = new int[runRows.length];
+      this.runKeptPerDraw = new boolean[runRows.length];
+      int kept = 0;
+      for (int r = 0; r < runRows.length; r++) {
+        runKeptFirst[r] = kept;
+        if (runRows[r] == null || runRows[r].keptPerRow() == 0) {
+          continue;
+        }
+        kept += runRows[r].keptPerRow() * runLength[r];
+        for (int i = runStart[r]; i < runStart[r] + runLength[r]; i++) {
+          for (int p = 0; p <= terms[i].arity; p++) {
+            int part = firstPart[i] + p;
+            boolean constant = linearPart[part] && formStart[2 * part + 2] == formStart[2 * part];
+            runKeptPerDraw[r] |= p != 1 + terms[i].moving[0] && !constant;
+          }
+        }
+      }
+      this.keptCount = kept;
     }
   }
 
@@ -250,6 +279,8 @@ final class CompiledConditional implements ConditionalDensity {
     int activeCount = terms.length;
     /** The running value and slope handed to an {@link AffineRows} loop and back. */
     final double[] sums = new double[2];
+    /** The runs' kept numbers ({@link AffineRows#keep}). */
+    final double[] kept = new double[keptCount];
     boolean ready;
     /** The members of a blanket that follows an allocation, kept up to date, or null. */
     final AllocationMembers.Tracker tracker = members == null ? null : members.tracker();
@@ -259,6 +290,17 @@ final class CompiledConditional implements ConditionalDensity {
         if (linearPart[part]) {
           intercepts[part] = formConstant[2 * part];
           slopes[part] = formConstant[2 * part + 1];
+        }
+      }
+      keep(false);
+    }
+
+    /** Works out the kept numbers of the runs that keep them once, or of those kept per draw. */
+    void keep(boolean perDraw) {
+      for (int r = 0; runRows != null && r < runRows.length; r++) {
+        if (runRows[r] != null && runRows[r].keptPerRow() > 0 && runKeptPerDraw[r] == perDraw) {
+          runRows[r].keep(intercepts, firstPart[runStart[r]], runLength[r], kept,
+              runKeptFirst[r]);
         }
       }
     }
@@ -282,6 +324,7 @@ final class CompiledConditional implements ConditionalDensity {
         intercepts[part] = linearValue(2 * part, state);
         slopes[part] = linearValue(2 * part + 1, state);
       }
+      keep(true);
       for (int j = 0; j < inputs.length; j++) {
         inputValues[j] = state[inputs[j]];
       }
@@ -396,7 +439,8 @@ final class CompiledConditional implements ConditionalDensity {
           sums[0] = total;
           sums[1] = dx;
           runRows[r].accumulate(x, workspace.intercepts, workspace.slopes, firstPart[i],
-              runLength[r], sums, frame.args[term.arity], frame.gradient[term.arity]);
+              runLength[r], workspace.kept, runKeptFirst[r], sums, frame.args[term.arity],
+              frame.gradient[term.arity]);
           total = sums[0];
           dx = sums[1];
           continue;

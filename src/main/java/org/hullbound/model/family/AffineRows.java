@@ -19,12 +19,29 @@ package org.hullbound.model.family;
  */
 public interface AffineRows {
   /**
+   * How many numbers a row keeps that depend on its parts that do not move alone (a binomial's
+   * log binomial coefficient), worked out by {@link #keep} when those parts change, not at every
+   * evaluation; 0 when none.
+   */
+  default int keptPerRow() {
+    return 0;
+  }
+
+  /**
+   * Works out the kept numbers of {@code count} rows (parts as in {@link #accumulate}) into {@code
+   * kept[keptFirst ..]}, {@link #keptPerRow} a row.
+   */
+  default void keep(double[] intercepts, int first, int count, double[] kept, int keptFirst) {}
+
+  /**
    * Adds the run's log-densities to {@code sums[0]} and their slopes in {@code x} to {@code
    * sums[1]}, in term order.
    *
+   * @param kept what {@link #keep} wrote for these rows at their present parts (unused when
+   *     {@link #keptPerRow} is 0)
    * @param args scratch of the parametrisation's arity, for rows off the fast path
    * @param gradient scratch of length {@code 1 + arity}
    */
   void accumulate(double x, double[] intercepts, double[] slopes, int first, int count,
-      double[] sums, double[] args, double[] gradient);
+      double[] kept, int keptFirst, double[] sums, double[] args, double[] gradient);
 }
