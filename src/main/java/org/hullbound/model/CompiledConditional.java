@@ -32,6 +32,11 @@ import org.hullbound.model.family.Scale;
  * not affine in the unknown are evaluated as compiled trees at every call. Nothing is allocated
  * per evaluation: the workspace's frame is reused.
  *
+ * <p>Runs of consecutive terms of one parametrisation whose only moving part is one affine
+ * argument (the observations of a generalised linear model) are summed by that family's {@link
+ * AffineRows} loop over the workspace's arrays rather than a term at a time through the family's
+ * interface: the same additions in the same order, so the same bits, without a call a term.
+ *
  * <p>Blankets that follow an allocation ({@link UnknownIndex}): a term that reads an unknown index
  * ({@code y[i] ~ normal(mean = mu[g[i]], ...)}, lowered to {@code sum of mu[k] [g[i] = k]}) is a
  * <em>candidate</em> of every {@code mu[k]} it may select. When every place the term reads the
