@@ -30,7 +30,7 @@ import org.junit.jupiter.params.provider.MethodSource;
  *
  * <p>Runs of like observation terms summed by one loop of their family ({@link
  * org.hullbound.model.family.AffineRows}: every Bernoulli and binomial term of {@code clinics} and
- * {@code seedlings}) equal, bit for bit, the same kept parts evaluated a term at a time ({@link
+ * {@code seedlings}, the Poisson terms of a log-linear regression) equal, bit for bit, the same kept parts evaluated a term at a time ({@link
  * CompiledConditional#logDensityTermByTerm}): the loop changes no seeded draw.
  */
 class CheapEvaluationTest {
@@ -45,6 +45,13 @@ class CheapEvaluationTest {
             bind(demoModel("seedlings"), table("seedlings.csv", DemoData.seedlings().split("\n")))),
         Arguments.of("sensors (student-t, location affine in two unknowns)",
             bind(demoModel("sensors"), table("sensors.csv", DemoData.sensors().split("\n")))),
+        Arguments.of("poisson regression on the log scale, counts from 0 to 40",
+            bind(String.join("\n",
+                "index i = 1 .. 8",
+                "data x[i] = [-2, -1, -0.5, 0, 0.5, 1, 1.5, 2]",
+                "data y[i] = [0, 1, 0, 3, 2, 7, 12, 40] ~ poisson(log_rate = a + b * x[i])",
+                "param a ~ normal(mean = 0, sd = 2)",
+                "param b ~ normal(mean = 0, sd = 2)"))),
         Arguments.of("parts that are not affine, a moving truncation normaliser, a monomial",
             bind(String.join("\n",
                 "index i = 1 .. 5",
@@ -99,7 +106,7 @@ class CheapEvaluationTest {
     assertEquals(2L * SWEEPS * n, compared, "every evaluation was compared");
     long inRuns = java.util.Arrays.stream(conditionals)
         .filter(CompiledConditional::summedInRuns).count();
-    if (name.startsWith("clinics") || name.startsWith("seedlings")) {
+    if (name.startsWith("clinics") || name.startsWith("seedlings") || name.startsWith("poisson")) {
       assertTrue(inRuns > 0, name + ": no conditional sums its terms in runs");
     }
   }
