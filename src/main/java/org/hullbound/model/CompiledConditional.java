@@ -1,6 +1,7 @@
 package org.hullbound.model;
 
 import java.util.List;
+import org.hullbound.model.family.AffineRows;
 import org.hullbound.model.family.ArgumentRange;
 import org.hullbound.model.family.Parametrisation;
 import org.hullbound.model.family.Scale;
@@ -30,6 +31,11 @@ import org.hullbound.model.family.Scale;
  * (compared bit for bit) works them out again, so a stale part can never be used. Parts that are
  * not affine in the unknown are evaluated as compiled trees at every call. Nothing is allocated
  * per evaluation: the workspace's frame is reused.
+ *
+ * <p>Runs of consecutive terms of one parametrisation whose only moving part is one affine
+ * argument (the observations of a generalised linear model) are summed by that family's {@link
+ * AffineRows} loop over the workspace's arrays rather than a term at a time through the family's
+ * interface: the same additions in the same order, so the same bits, without a call a term.
  *
  * <p>Blankets that follow an allocation ({@link UnknownIndex}): a term that reads an unknown index
  * ({@code y[i] ~ normal(mean = mu[g[i]], ...)}, lowered to {@code sum of mu[k] [g[i] = k]}) is a
@@ -72,6 +78,11 @@ final class CompiledConditional implements ConditionalDensity {
   private final double[] formConstant;
   private final int[] formSlot;
   private final double[] formCoefficient;
+  /**
+   * The parts whose linear forms read another unknown, worked out at every draw; the others'
+   * forms are constants (an observed value, a known argument), worked out once per workspace.
+   */
+  private final int[] varyingLinearParts;
   /** The terms with an affine part whose {@code a} or {@code b} is a tree, not a linear form. */
   private final int[] treePrepared;
   /**
@@ -83,6 +94,23 @@ final class CompiledConditional implements ConditionalDensity {
   private final boolean anyGated;
   /** The member lists of a blanket that follows an allocation, or {@code null}. */
   private final AllocationMembers members;
+  /**
+   * The terms in blanket order as runs: a run of consecutive terms that one {@link AffineRows}
+   * loop sums ({@code runRows[r]} not null, {@code runLength[r]} terms from {@code runStart[r]}),
+   * or a single term evaluated alone. Null when a blanket follows an allocation (the active list
+   * decides then).
+   */
+  private final int[] runStart;
+  private final int[] runLength;
+  private final AffineRows[] runRows;
+  /**
+   * Per run: where its rows' kept numbers ({@link AffineRows#keep}) start in a workspace, and
+   * whether they must be worked out again at each draw (some part that does not move reads
+   * another unknown) rather than once.
+   */
+  private final int[] runKeptFirst;
+  private final boolean[] runKeptPerDraw;
+  private final int keptCount;
   private final ThreadLocal<Workspace> workspaces = ThreadLocal.withInitial(Workspace::new);
 
   CompiledConditional(
@@ -170,10 +198,52 @@ final class CompiledConditional implements ConditionalDensity {
       terms[i].linearForms = null;
     }
     formStart[2 * parts] = next;
+    this.varyingLinearParts = java.util.stream.IntStream.range(0, parts)
+        .filter(part -> linearPart[part] && formStart[2 * part + 2] > formStart[2 * part])
+        .toArray();
     this.treePrepared = java.util.stream.IntStream.range(0, terms.length)
         .filter(i -> terms[i].preparesTrees()).toArray();
     this.members = AllocationMembers.of(evaluated, slot, inputs, guardFormulas, guards);
     this.anyGated = members != null;
+    if (anyGated) {
+      this.runStart = null;
+      this.runLength = null;
+      this.runRows = null;
+      this.runKeptFirst = null;
+      this.runKeptPerDraw = null;
+      this.keptCount = 0;
+    } else {
+      List<int[]> runs = new java.util.ArrayList<>();
+      for (int i = 0; i < terms.length; i++) {
+        int[] last = runs.isEmpty() ? null : runs.get(runs.size() - 1);
+        if (last != null && terms[i].rows != null && terms[last[0]].joins(terms[i])) {
+          last[1]++;
+        } else {
+          runs.add(new int[] {i, 1});
+        }
+      }
+      this.runStart = runs.stream().mapToInt(r -> r[0]).toArray();
+      this.runLength = runs.stream().mapToInt(r -> r[1]).toArray();
+      this.runRows = runs.stream().map(r -> terms[r[0]].rows).toArray(AffineRows[]::new);
+      this.runKeptFirst = new int[runRows.length];
+      this.runKeptPerDraw = new boolean[runRows.length];
+      int kept = 0;
+      for (int r = 0; r < runRows.length; r++) {
+        runKeptFirst[r] = kept;
+        if (runRows[r] == null || runRows[r].keptPerRow() == 0) {
+          continue;
+        }
+        kept += runRows[r].keptPerRow() * runLength[r];
+        for (int i = runStart[r]; i < runStart[r] + runLength[r]; i++) {
+          for (int p = 0; p <= terms[i].arity; p++) {
+            int part = firstPart[i] + p;
+            boolean constant = linearPart[part] && formStart[2 * part + 2] == formStart[2 * part];
+            runKeptPerDraw[r] |= p != 1 + terms[i].moving[0] && !constant;
+          }
+        }
+      }
+      this.keptCount = kept;
+    }
   }
 
   /** Whether some term's blanket membership follows an allocation ({@link UnknownIndex}). */
@@ -212,9 +282,33 @@ final class CompiledConditional implements ConditionalDensity {
     /** The terms this draw evaluates, {@code active[0 .. activeCount)}, in blanket order. */
     final int[] active = java.util.stream.IntStream.range(0, terms.length).toArray();
     int activeCount = terms.length;
+    /** The running value and slope handed to an {@link AffineRows} loop and back. */
+    final double[] sums = new double[2];
+    /** The runs' kept numbers ({@link AffineRows#keep}). */
+    final double[] kept = new double[keptCount];
     boolean ready;
     /** The members of a blanket that follows an allocation, kept up to date, or null. */
     final AllocationMembers.Tracker tracker = members == null ? null : members.tracker();
+
+    Workspace() {
+      for (int part = 0; part < partCount; part++) {
+        if (linearPart[part]) {
+          intercepts[part] = formConstant[2 * part];
+          slopes[part] = formConstant[2 * part + 1];
+        }
+      }
+      keep(false);
+    }
+
+    /** Works out the kept numbers of the runs that keep them once, or of those kept per draw. */
+    void keep(boolean perDraw) {
+      for (int r = 0; runRows != null && r < runRows.length; r++) {
+        if (runRows[r] != null && runRows[r].keptPerRow() > 0 && runKeptPerDraw[r] == perDraw) {
+          runRows[r].keep(intercepts, firstPart[runStart[r]], runLength[r], kept,
+              runKeptFirst[r]);
+        }
+      }
+    }
 
     /** Works the parts out again unless every input holds the bits it held last time. */
     void prepare(double[] state) {
@@ -231,12 +325,11 @@ final class CompiledConditional implements ConditionalDensity {
       for (int i : treePrepared) {
         terms[i].prepare(frame, intercepts, slopes, firstPart[i]);
       }
-      for (int part = 0; part < partCount; part++) {
-        if (linearPart[part]) {
-          intercepts[part] = linearValue(2 * part, state);
-          slopes[part] = linearValue(2 * part + 1, state);
-        }
+      for (int part : varyingLinearParts) {
+        intercepts[part] = linearValue(2 * part, state);
+        slopes[part] = linearValue(2 * part + 1, state);
       }
+      keep(true);
       for (int j = 0; j < inputs.length; j++) {
         inputValues[j] = state[inputs[j]];
       }
@@ -290,7 +383,30 @@ final class CompiledConditional implements ConditionalDensity {
   public double logDensity(double u, double[] state, double[] slope) {
     Workspace workspace = workspaces.get();
     workspace.prepare(state);
-    return logDensity(u, state, slope, workspace);
+    return logDensity(u, state, slope, workspace, true);
+  }
+
+  /**
+   * The same value and slope from the kept parts, every term evaluated alone (no {@link
+   * AffineRows} loop): what the runs must equal bit for bit.
+   */
+  double logDensityTermByTerm(double u, double[] state, double[] slope) {
+    Workspace workspace = workspaces.get();
+    workspace.prepare(state);
+    return logDensity(u, state, slope, workspace, false);
+  }
+
+  /** Whether some run of terms is summed by an {@link AffineRows} loop. */
+  boolean summedInRuns() {
+    if (runRows == null) {
+      return false;
+    }
+    for (AffineRows rows : runRows) {
+      if (rows != null) {
+        return true;
+      }
+    }
+    return false;
   }
 
   /**
@@ -298,10 +414,11 @@ final class CompiledConditional implements ConditionalDensity {
    * kept from earlier calls: the reference that {@link #logDensity} must equal (to rounding).
    */
   double logDensityFromScratch(double u, double[] state, double[] slope) {
-    return logDensity(u, state, slope, null);
+    return logDensity(u, state, slope, null, false);
   }
 
-  private double logDensity(double u, double[] state, double[] slope, Workspace workspace) {
+  private double logDensity(
+      double u, double[] state, double[] slope, Workspace workspace, boolean inRuns) {
     double x = toNatural(u);
     Frame frame = workspace == null
         ? new Frame(x, state, aritiesUsed) : workspace.frame.at(x, state);
@@ -316,7 +433,32 @@ final class CompiledConditional implements ConditionalDensity {
     double total = 0;
     double dx = 0;
     double du = 0;
-    int count = workspace == null ? terms.length : workspace.activeCount;
+    boolean runs = inRuns && workspace != null && runRows != null;
+    if (runs) {
+      // The same sums in the same order as the loop below, runs of like terms in one loop each.
+      double[] sums = workspace.sums;
+      for (int r = 0; r < runRows.length; r++) {
+        int i = runStart[r];
+        TermEvaluator term = terms[i];
+        if (runRows[r] != null) {
+          sums[0] = total;
+          sums[1] = dx;
+          runRows[r].accumulate(x, workspace.intercepts, workspace.slopes, firstPart[i],
+              runLength[r], workspace.kept, runKeptFirst[r], sums, frame.args[term.arity],
+              frame.gradient[term.arity]);
+          total = sums[0];
+          dx = sums[1];
+          continue;
+        }
+        total += term.eval(frame, workspace.intercepts, workspace.slopes, firstPart[i]);
+        if (term.slopeOnSamplingScale) {
+          du += frame.slope;
+        } else {
+          dx += frame.slope;
+        }
+      }
+    }
+    int count = workspace == null ? terms.length : runs ? 0 : workspace.activeCount;
     for (int j = 0; j < count; j++) {
       int i = workspace == null ? j : workspace.active[j];
       TermEvaluator term = terms[i];
@@ -436,6 +578,12 @@ final class CompiledConditional implements ConditionalDensity {
     /** Whether a moving argument has a bounded range to check at every evaluation. */
     private final boolean checksRanges;
     /**
+     * The family's loop over runs of such terms, where every part is affine in the unknown and
+     * only one argument moves (no range to check, no normaliser, no slope on the log scale);
+     * else null.
+     */
+    final AffineRows rows;
+    /**
      * {@code a} and {@code b} of each part as linear forms ({@code 2 p}, {@code 2 p + 1}), both
      * or neither; taken by the conditional into its flat arrays, then dropped.
      */
@@ -499,6 +647,17 @@ final class CompiledConditional implements ConditionalDensity {
           partSlopes[p] = Evaluator.compile(parts[1], -1);
         }
       }
+      boolean allAffine = true;
+      for (boolean a : affine) {
+        allAffine &= a;
+      }
+      this.rows = allAffine && !valueMoves && movingCount == 1 && !normalise && !anyRange
+          && !slopeOnSamplingScale ? family.affineRows(moving[0]) : null;
+    }
+
+    /** Whether {@code next} continues a run of this term's {@link AffineRows} loop. */
+    boolean joins(TermEvaluator next) {
+      return rows != null && next.family == family && next.moving[0] == moving[0];
     }
 
     /** True when an affine part's {@code a} and {@code b} are trees, not linear forms. */

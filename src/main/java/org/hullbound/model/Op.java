@@ -1,6 +1,7 @@
 package org.hullbound.model;
 
 import org.apache.commons.math3.special.Gamma;
+import org.hullbound.model.family.LogSpace;
 
 /**
  * The operators and functions of the model language with their values and first derivatives,
@@ -84,7 +85,7 @@ enum Op {
       case LOG:
         return Math.log(a);
       case LOG1P:
-        return Math.log1p(a);
+        return LogSpace.log1p(a);
       case EXPM1:
         return Math.expm1(a);
       case SQRT:
@@ -92,7 +93,7 @@ enum Op {
       case ABS:
         return Math.abs(a);
       case LOGIT:
-        return Math.log(a) - Math.log1p(-a);
+        return Math.log(a) - LogSpace.log1p(-a);
       case EXPIT:
         return inverseLogit(a);
       case LOG_EXPIT:
@@ -171,6 +172,6 @@ enum Op {
 
   /** {@code log(expit(a)) = -log1p(exp(-a))}, accurate in both tails. */
   static double logInverseLogit(double a) {
-    return a >= 0 ? -Math.log1p(Math.exp(-a)) : a - Math.log1p(Math.exp(a));
+    return a >= 0 ? -LogSpace.log1p(Math.exp(-a)) : a - LogSpace.log1p(Math.exp(a));
   }
 }

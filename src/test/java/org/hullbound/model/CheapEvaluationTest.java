@@ -27,6 +27,11 @@ import org.junit.jupiter.params.provider.MethodSource;
  * 1 + |value| + terms} (rounding error of a sum grows at most linearly with its length: Higham,
  * Accuracy and Stability of Numerical Algorithms, 2nd ed., section 4.2). A stale part (a cache
  * that missed a change of another unknown) is off by the change itself, far beyond it.
+ *
+ * <p>Runs of like observation terms summed by one loop of their family ({@link
+ * org.hullbound.model.family.AffineRows}: every Bernoulli and binomial term of {@code clinics} and
+ * {@code seedlings}, the Poisson terms of a log-linear regression) equal, bit for bit, the same kept parts evaluated a term at a time ({@link
+ * CompiledConditional#logDensityTermByTerm}): the loop changes no seeded draw.
  */
 class CheapEvaluationTest {
 
@@ -40,6 +45,13 @@ class CheapEvaluationTest {
             bind(demoModel("seedlings"), table("seedlings.csv", DemoData.seedlings().split("\n")))),
         Arguments.of("sensors (student-t, location affine in two unknowns)",
             bind(demoModel("sensors"), table("sensors.csv", DemoData.sensors().split("\n")))),
+        Arguments.of("poisson regression on the log scale, counts from 0 to 40",
+            bind(String.join("\n",
+                "index i = 1 .. 8",
+                "data x[i] = [-2, -1, -0.5, 0, 0.5, 1, 1.5, 2]",
+                "data y[i] = [0, 1, 0, 3, 2, 7, 12, 40] ~ poisson(log_rate = a + b * x[i])",
+                "param a ~ normal(mean = 0, sd = 2)",
+                "param b ~ normal(mean = 0, sd = 2)"))),
         Arguments.of("parts that are not affine, a moving truncation normaliser, a monomial",
             bind(String.join("\n",
                 "index i = 1 .. 5",
@@ -92,6 +104,11 @@ class CheapEvaluationTest {
       }
     }
     assertEquals(2L * SWEEPS * n, compared, "every evaluation was compared");
+    long inRuns = java.util.Arrays.stream(conditionals)
+        .filter(CompiledConditional::summedInRuns).count();
+    if (name.startsWith("clinics") || name.startsWith("seedlings") || name.startsWith("poisson")) {
+      assertTrue(inRuns > 0, name + ": no conditional sums its terms in runs");
+    }
   }
 
   /**
@@ -100,6 +117,12 @@ class CheapEvaluationTest {
    */
   static int agrees(String name, CompiledConditional c, double u, double[] state,
       double value, double slope, double[] reference) {
+    double alone = c.logDensityTermByTerm(u, state, reference);
+    String at = name + ", " + c.unknown().label() + " at u = " + u;
+    assertEquals(Double.doubleToRawLongBits(alone), Double.doubleToRawLongBits(value),
+        () -> "value in runs against term by term: " + at);
+    assertEquals(Double.doubleToRawLongBits(reference[0]), Double.doubleToRawLongBits(slope),
+        () -> "slope in runs against term by term: " + at);
     double scratch = c.logDensityFromScratch(u, state, reference);
     double scale = 1 + Math.abs(scratch) + c.termCount();
     String where = name + ", " + c.unknown().label() + " at u = " + u;
@@ -110,6 +133,45 @@ class CheapEvaluationTest {
     assertEquals(scratch, value, 1e-9 * scale, "value of " + where);
     assertEquals(reference[0], slope, 1e-9 * (scale + Math.abs(reference[0])), "slope of " + where);
     return 1;
+  }
+
+  /**
+   * A binomial whose trials are another unknown keeps its per-row numbers (Stirling errors) for
+   * one draw only: as the trials move from draw to draw, the runs still equal the terms evaluated
+   * a term at a time, bit for bit, and the conditional from scratch to rounding.
+   */
+  @org.junit.jupiter.api.Test
+  void rowsKeptPerDrawFollowTheUnknownTheyRead() {
+    BoundModel model = bind(String.join("\n",
+        "index nest = 1 .. 6",
+        "data dose[nest] = [0.0, 0.5, 1.0, 1.5, 2.0, 2.5]",
+        "param laid[nest] ~ poisson(rate = 9)",
+        "param a ~ normal(mean = 0, sd = 2)",
+        "param b ~ normal(mean = 0, sd = 2)",
+        "data hatched[nest] = [2, 3, 1, 5, 0, 7] ~ binomial(trials = laid[nest],"
+            + " logit_p = a + b * dose[nest])"));
+    CompiledConditional a = (CompiledConditional) model.conditional(model.unknown("a").index());
+    assertTrue(a.summedInRuns(), "the binomial rows of a are summed in a run");
+    double[] state = model.initialState();
+    double[] slope = new double[1];
+    double[] other = new double[1];
+    RandomGenerator random = RandomGeneratorFactory.of("L64X128MixRandom").create(11L);
+    for (int draw = 0; draw < 200; draw++) {
+      for (int nest = 1; nest <= 6; nest++) {
+        state[model.unknown("laid[" + nest + "]").index()] = 7 + random.nextInt(20);
+      }
+      state[model.unknown("b").index()] = random.nextGaussian();
+      for (double u : new double[] {-1.5, -0.2, 0.4, 2.0}) {
+        double value = a.logDensity(u, state, slope);
+        double alone = a.logDensityTermByTerm(u, state, other);
+        assertEquals(Double.doubleToRawLongBits(alone), Double.doubleToRawLongBits(value),
+            "value at draw " + draw + ", u " + u);
+        assertEquals(Double.doubleToRawLongBits(other[0]), Double.doubleToRawLongBits(slope[0]),
+            "slope at draw " + draw + ", u " + u);
+        double scratch = a.logDensityFromScratch(u, state, other);
+        assertEquals(scratch, value, 1e-9 * (1 + Math.abs(scratch)), "from scratch");
+      }
+    }
   }
 
   @ParameterizedTest(name = "{0}")

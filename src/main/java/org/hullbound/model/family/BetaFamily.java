@@ -29,7 +29,7 @@ final class BetaFamily {
       double a = args[0];
       double b = args[1];
       double logX = Math.log(x);
-      double log1mX = Math.log1p(-x);
+      double log1mX = LogSpace.log1p(-x);
       if (gradient != null) {
         double digammaSum = Gamma.digamma(a + b);
         gradient[0] = (a - 1.0) / x - (b - 1.0) / (1.0 - x);

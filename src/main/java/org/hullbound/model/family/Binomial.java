@@ -40,6 +40,10 @@ final class Binomial {
       return withTrials ? args[0] : 1.0;
     }
 
+    final boolean withTrials() {
+      return withTrials;
+    }
+
     /** Index of the probability argument. */
     final int probabilityIndex() {
       return withTrials ? 1 : 0;
@@ -57,7 +61,7 @@ final class Binomial {
     abstract double slope(double x, double trials, double[] args);
 
     @Override
-    final double evaluate(double x, double[] args, double[] gradient) {
+    double evaluate(double x, double[] args, double[] gradient) {
       double trials = trials(args);
       if (gradient != null) {
         gradient[0] = 0.0;
@@ -88,7 +92,7 @@ final class Binomial {
       if (SaddlePoint.applies(trials, p, q)) {
         return SaddlePoint.binomial(x, trials, p, q, Math.fma(-trials, p, x));
       }
-      double logChoose = -Math.log1p(trials) - Beta.logBeta(x + 1.0, trials - x + 1.0);
+      double logChoose = -LogSpace.log1p(trials) - Beta.logBeta(x + 1.0, trials - x + 1.0);
       return logChoose + x * logProbability(args) + (trials - x) * logComplement(args);
     }
 
@@ -164,7 +168,7 @@ final class Binomial {
 
     @Override
     double logComplement(double[] args) {
-      return Math.log1p(-args[probabilityIndex()]);
+      return LogSpace.log1p(-args[probabilityIndex()]);
     }
 
     @Override
@@ -236,6 +240,115 @@ final class Binomial {
     @Override
     double slope(double x, double trials, double[] args) {
       return Math.fma(-trials, probability(args), x);
+    }
+
+    @Override
+    public AffineRows affineRows(int k) {
+      return k == probabilityIndex() ? rows : null;
+    }
+
+    private final AffineRows rows = new LogitRows();
+
+    /**
+     * The rows' sums, each as {@link #evaluate} after the support test of {@code logDensity}:
+     * the ends of the support from one {@code exp(-|eta|)}; a count inside it (binomial) also,
+     * with its Stirling errors and {@code log(x (n - x)/n)} kept per row ({@link
+     * SaddlePoint#binomial(double, double, double, double, double, double, double)}); anything
+     * else by the general path.
+     */
+    private final class LogitRows implements AffineRows {
+      @Override
+      public int keptPerRow() {
+        return withTrials() ? 2 : 0;
+      }
+
+      @Override
+      public void keep(double[] intercepts, int first, int count, double[] kept, int keptFirst) {
+        if (!withTrials()) {
+          return;
+        }
+        for (int j = 0, p = first, q = keptFirst; j < count; j++, p += 3, q += 2) {
+          double y = intercepts[p];
+          double trials = intercepts[p + 1];
+          boolean inside = y > 0 && y < trials;
+          kept[q] = inside ? SaddlePoint.binomialStirling(y, trials) : Double.NaN;
+          kept[q + 1] = inside ? SaddlePoint.binomialSpread(y, trials) : Double.NaN;
+        }
+      }
+
+      @Override
+      public void accumulate(double x, double[] intercepts, double[] slopes, int first,
+          int count, double[] kept, int keptFirst, double[] sums, double[] args,
+          double[] gradient) {
+        boolean withTrials = withTrials();
+        int stride = withTrials ? 3 : 2;
+        int moving = 1 + probabilityIndex();
+        double total = sums[0];
+        double dx = sums[1];
+        for (int j = 0, p = first, q = keptFirst; j < count; j++, p += stride, q += 2) {
+          double y = intercepts[p];
+          double trials = withTrials ? intercepts[p + 1] : 1.0;
+          double b = slopes[p + moving];
+          double eta = b == 0 ? intercepts[p + moving] : intercepts[p + moving] + b * x;
+          double value = Double.NaN;
+          double g = Double.NaN;
+          if ((y == 0 || y == trials) && (!withTrials || ArgumentDomain.WHOLE.accepts(trials))) {
+            double e = Math.exp(-Math.abs(eta));
+            g = Math.fma(-trials, LogSpace.invLogit(eta, e), y);
+            value = y == 0
+                ? (trials == 0 ? 0.0 : trials * -LogSpace.log1pExp(eta, e) + 0.0)
+                : trials * -LogSpace.log1pExp(-eta, e);
+          } else if (withTrials && y > 0 && y < trials && ArgumentDomain.WHOLE.accepts(y)) {
+            double e = Math.exp(-Math.abs(eta));
+            double probability = LogSpace.invLogit(eta, e);
+            double complement = LogSpace.invLogit(-eta, e);
+            if (SaddlePoint.applies(trials, probability, complement)) {
+              g = Math.fma(-trials, probability, y);
+              value = SaddlePoint.binomial(y, trials, probability, complement, g, kept[q],
+                  kept[q + 1]);
+            }
+          }
+          if (Double.isNaN(g)) {
+            if (withTrials) {
+              args[0] = trials;
+            }
+            args[moving - 1] = eta;
+            value = logDensity(y, args, gradient);
+            g = gradient[moving];
+          }
+          total += value;
+          dx += 0.0 + g * b;
+        }
+        sums[0] = total;
+        sums[1] = dx;
+      }
+    }
+
+    /**
+     * At the ends of the support (every Bernoulli term) the log mass is {@code trials log expit(+-
+     * eta)} and the slope {@code x - trials expit(eta)}: both from one {@code exp(-|eta|)}, bit for
+     * bit what the general path gives with two.
+     */
+    @Override
+    double evaluate(double x, double[] args, double[] gradient) {
+      double trials = trials(args);
+      if (x != 0 && x != trials) {
+        return super.evaluate(x, args, gradient);
+      }
+      double eta = args[probabilityIndex()];
+      double e = Math.exp(-Math.abs(eta));
+      if (gradient != null) {
+        gradient[0] = 0.0;
+        if (probabilityIndex() == 1) {
+          gradient[1] = 0.0;
+        }
+        gradient[1 + probabilityIndex()] = Math.fma(-trials, LogSpace.invLogit(eta, e), x);
+      }
+      if (x == 0) {
+        // + 0.0: a certain outcome has log mass 0.0, not -0.0 (as logMass)
+        return trials == 0 ? 0.0 : trials * -LogSpace.log1pExp(eta, e) + 0.0;
+      }
+      return trials * -LogSpace.log1pExp(-eta, e);
     }
 
     @Override

@@ -37,7 +37,7 @@ final class Cauchy {
         gradient[1] = -gradient[0];
         gradient[2] = (-1.0 + 2.0 * z * z / onePlusZ2) / scale;
       }
-      return -LOG_PI - Math.log(scale) - Math.log1p(z * z);
+      return -LOG_PI - Math.log(scale) - LogSpace.log1p(z * z);
     }
 
     @Override

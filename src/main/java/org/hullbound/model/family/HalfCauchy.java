@@ -32,7 +32,7 @@ final class HalfCauchy {
         gradient[0] = -2.0 * z / (scale * onePlusZ2);
         gradient[1] = (-1.0 + 2.0 * z * z / onePlusZ2) / scale;
       }
-      return LOG_TWO_OVER_PI - Math.log(scale) - Math.log1p(z * z);
+      return LOG_TWO_OVER_PI - Math.log(scale) - LogSpace.log1p(z * z);
     }
 
     @Override

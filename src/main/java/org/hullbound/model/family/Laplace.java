@@ -40,13 +40,13 @@ final class Laplace {
     @Override
     double logLowerTail(double x, double[] args) {
       double z = (x - args[0]) / args[1];
-      return z < 0 ? LOG_HALF + z : Math.log1p(-0.5 * Math.exp(-z));
+      return z < 0 ? LOG_HALF + z : LogSpace.log1p(-0.5 * Math.exp(-z));
     }
 
     @Override
     double logUpperTail(double x, double[] args) {
       double z = (x - args[0]) / args[1];
-      return z > 0 ? LOG_HALF - z : Math.log1p(-0.5 * Math.exp(z));
+      return z > 0 ? LOG_HALF - z : LogSpace.log1p(-0.5 * Math.exp(z));
     }
 
     @Override

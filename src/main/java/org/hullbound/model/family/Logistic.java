@@ -33,7 +33,7 @@ final class Logistic {
         gradient[1] = -slope / scale;
         gradient[2] = (-1.0 - z * slope) / scale;
       }
-      return -absZ - 2.0 * Math.log1p(Math.exp(-absZ)) - Math.log(scale);
+      return -absZ - 2.0 * LogSpace.log1p(Math.exp(-absZ)) - Math.log(scale);
     }
 
     @Override

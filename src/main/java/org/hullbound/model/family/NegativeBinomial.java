@@ -37,11 +37,11 @@ final class NegativeBinomial {
       if (gradient != null) {
         gradient[0] = 0.0;
         gradient[1] = x / mean - (size + x) / (size + mean);
-        gradient[2] = Gamma.digamma(x + size) - Gamma.digamma(size) - Math.log1p(mean / size)
+        gradient[2] = Gamma.digamma(x + size) - Gamma.digamma(size) - LogSpace.log1p(mean / size)
             + (mean - x) / (size + mean);
       }
       if (x == 0) {
-        return -size * Math.log1p(mean / size);
+        return -size * LogSpace.log1p(mean / size);
       }
       double trials = size + x;
       double p = size / trials;
@@ -55,7 +55,7 @@ final class NegativeBinomial {
         return Math.log(p) + SaddlePoint.binomial(size, trials, stop, go, excess);
       }
       double logGammaRatio = -Math.log(x) - Beta.logBeta(x, size);
-      return logGammaRatio - size * Math.log1p(mean / size) - x * Math.log1p(size / mean);
+      return logGammaRatio - size * LogSpace.log1p(mean / size) - x * LogSpace.log1p(size / mean);
     }
 
     @Override
@@ -63,7 +63,7 @@ final class NegativeBinomial {
       double mean = args[0];
       double size = args[1];
       return IncompleteBeta.logRegularized(size / (size + mean), mean / (size + mean),
-          -Math.log1p(mean / size), -Math.log1p(size / mean), size, n + 1.0);
+          -LogSpace.log1p(mean / size), -LogSpace.log1p(size / mean), size, n + 1.0);
     }
 
     @Override
@@ -71,7 +71,7 @@ final class NegativeBinomial {
       double mean = args[0];
       double size = args[1];
       return IncompleteBeta.logRegularized(mean / (size + mean), size / (size + mean),
-          -Math.log1p(size / mean), -Math.log1p(mean / size), n + 1.0, size);
+          -LogSpace.log1p(size / mean), -LogSpace.log1p(mean / size), n + 1.0, size);
     }
 
     @Override
@@ -83,8 +83,8 @@ final class NegativeBinomial {
       // (A&S 6.6.1 with 26.5.1), dq/dmean = -size/(size + mean)^2.
       double mean = args[0];
       double size = args[1];
-      double logQ = -Math.log1p(mean / size);
-      double log1mQ = -Math.log1p(size / mean);
+      double logQ = -LogSpace.log1p(mean / size);
+      double log1mQ = -LogSpace.log1p(size / mean);
       double logDerivative = (size - 1.0) * logQ + (n == 0 ? 0.0 : n * log1mQ) - Beta.logBeta(size, n + 1.0)
           + Math.log(size) - 2.0 * Math.log(size + mean);
       return -Math.exp(logDerivative - logScale);

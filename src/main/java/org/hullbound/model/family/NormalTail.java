@@ -28,7 +28,7 @@ final class NormalTail {
       return -0.5 * z * z - HALF_LOG_TWO_PI + Math.log(millsRatio(z));
     }
     if (z < -TAIL_SWITCH) {
-      return Math.log1p(-Math.exp(logUpper(-z)));
+      return LogSpace.log1p(-Math.exp(logUpper(-z)));
     }
     return Math.log(0.5 * Erf.erfc(z * SQRT_HALF));
   }

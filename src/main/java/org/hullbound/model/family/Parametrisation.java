@@ -61,6 +61,15 @@ public interface Parametrisation {
   }
 
   /**
+   * A loop over runs of terms whose only moving part is argument {@code k}, affine in the unknown
+   * ({@link AffineRows}), or {@code null} when this parametrisation has none (the conditional then
+   * evaluates such terms one at a time, to the same bits).
+   */
+  default AffineRows affineRows(int k) {
+    return null;
+  }
+
+  /**
    * The interval argument {@code k} must lie in: where an argument moves with an unknown (a
    * binomial {@code p = alpha + beta * dose}), the unknown's support is cut to where it stays
    * inside.

@@ -117,6 +117,73 @@ final class Poisson {
       return Math.exp(args[0]);
     }
 
+    private final AffineRows rows = new LogRateRows();
+
+    @Override
+    public AffineRows affineRows(int k) {
+      return rows;
+    }
+
+    /**
+     * The rows' sums, each as {@link #evaluate} after the support test of {@code logDensity},
+     * with the parts of the log mass free of the rate kept per row: {@code lgamma(x + 1)}, the
+     * Stirling error of {@code x} and {@code log(x)/2} (the same operations, so the same bits).
+     */
+    private final class LogRateRows implements AffineRows {
+      @Override
+      public int keptPerRow() {
+        return 3;
+      }
+
+      @Override
+      public void keep(double[] intercepts, int first, int count, double[] kept, int keptFirst) {
+        for (int j = 0, p = first, q = keptFirst; j < count; j++, p += 2, q += 3) {
+          double y = intercepts[p];
+          boolean counted = ArgumentDomain.WHOLE.accepts(y) && y > 0;
+          kept[q] = ArgumentDomain.WHOLE.accepts(y) ? Gamma.logGamma(y + 1.0) : Double.NaN;
+          kept[q + 1] = counted ? SaddlePoint.stirlingError(y) : Double.NaN;
+          kept[q + 2] = counted ? 0.5 * Math.log(y) : Double.NaN;
+        }
+      }
+
+      @Override
+      public void accumulate(double x, double[] intercepts, double[] slopes, int first,
+          int count, double[] kept, int keptFirst, double[] sums, double[] args,
+          double[] gradient) {
+        double total = sums[0];
+        double dx = sums[1];
+        for (int j = 0, p = first, q = keptFirst; j < count; j++, p += 2, q += 3) {
+          double y = intercepts[p];
+          double b = slopes[p + 1];
+          double logRate = b == 0 ? intercepts[p + 1] : intercepts[p + 1] + b * x;
+          double value;
+          double g;
+          if (ArgumentDomain.WHOLE.accepts(y)) {
+            double rate = Math.exp(logRate);
+            g = y - rate;
+            if (logRate < 0) {
+              value = (y == 0 ? 0.0 : y * logRate) - rate - kept[q];
+            } else if (rate == Double.POSITIVE_INFINITY) {
+              value = Double.NEGATIVE_INFINITY;
+            } else if (y == 0) {
+              value = -rate;
+            } else {
+              value = -kept[q + 1] - SaddlePoint.deviance(y, rate, y - rate) - HALF_LOG_TWO_PI
+                  - kept[q + 2];
+            }
+          } else {
+            args[0] = logRate;
+            value = logDensity(y, args, gradient);
+            g = gradient[1];
+          }
+          total += value;
+          dx += 0.0 + g * b;
+        }
+        sums[0] = total;
+        sums[1] = dx;
+      }
+    }
+
     @Override
     double evaluate(double x, double[] args, double[] gradient) {
       double logRate = args[0];

@@ -30,7 +30,7 @@ final class StudentT {
     // r = df/t^2 without overflowing t^2; x = df/(df + t^2), y = t^2/(df + t^2), logs by log1p.
     double r = (df / t) / t;
     return LOG_HALF + IncompleteBeta.logRegularized(
-        r / (1.0 + r), 1.0 / (1.0 + r), -Math.log1p(1.0 / r), -Math.log1p(r), 0.5 * df, 0.5);
+        r / (1.0 + r), 1.0 / (1.0 + r), -LogSpace.log1p(1.0 / r), -LogSpace.log1p(r), 0.5 * df, 0.5);
   }
 
   private static final class ByDfLocationScale extends ContinuousParametrisation {
@@ -45,7 +45,7 @@ final class StudentT {
       double scale = args[2];
       double z = (x - args[1]) / scale;
       double z2 = z * z;
-      double log1pQ = Math.log1p(z2 / df);
+      double log1pQ = LogSpace.log1p(z2 / df);
       if (gradient != null) {
         double dz = -(df + 1.0) * z / (df + z2);
         gradient[0] = dz / scale;
