@@ -256,6 +256,27 @@ public final class TangentEnvelopeDraw {
     return hs[i] + (hs[i + 1] - hs[i]) * ((x - xs[i]) / run);
   }
 
+  /**
+   * The envelope at {@code x} over the support {@code (lower, upper)}: the tangent of the piece
+   * that holds x, or NaN where the abscissae make no valid envelope. For the property that it
+   * bounds h from above everywhere (TangentEnvelopeProperties).
+   */
+  double envelopeAt(double lower, double upper, double x) {
+    if (Double.isNaN(build(lower, upper))) {
+      return Double.NaN;
+    }
+    int j = 0;
+    while (j < k - 1 && x > ends[j + 1]) {
+      j++;
+    }
+    return tangent(j, x);
+  }
+
+  /** The squeeze at {@code x}: for the property that it lies below h everywhere. */
+  double squeezeAt(double x) {
+    return squeeze(x);
+  }
+
   /** The abscissae now held, ascending: where the general sampler starts after a hand-over. */
   public double[] abscissae() {
     return java.util.Arrays.copyOf(xs, k);
