@@ -107,16 +107,6 @@ public final class FitCommand implements Callable<Integer> {
   }
 
   private Integer fit(SignalStop signals) {
-    try {
-      return fitInFolder(signals);
-    } finally {
-      // Only now may an interrupted JVM exit: the files are written and the run's
-      // folder lock is released (closing the run releases it).
-      signals.filesWritten();
-    }
-  }
-
-  private Integer fitInFolder(SignalStop signals) {
     PrintWriter stdout = spec.commandLine().getOut();
     PrintWriter stderr = spec.commandLine().getErr();
     try (FitRun run =

@@ -112,16 +112,6 @@ public final class FitUnitsCommand implements Callable<Integer> {
   }
 
   private Integer fitUnits(SignalStop signals) {
-    try {
-      return fitUnitsInFolder(signals);
-    } finally {
-      // Only now may an interrupted JVM exit: the files are written and the run's
-      // folder lock is released (closing the run releases it).
-      signals.filesWritten();
-    }
-  }
-
-  private Integer fitUnitsInFolder(SignalStop signals) {
     PrintWriter stdout = spec.commandLine().getOut();
     PrintWriter stderr = spec.commandLine().getErr();
     String problem = level.problem() != null ? level.problem() : engine.problem();

@@ -10,7 +10,7 @@ import org.hullbound.gibbs.StopSignal;
  * What {@code fit} and {@code fit-units} do on Ctrl-C (SIGINT) or SIGTERM, whenever it comes:
  * before sampling, one line saying nothing was written and an immediate end; while sampling, a
  * stop request to the chains (of every running unit, for a batch) and a bounded wait until the run
- * has written its files. The JVM then ends with the signal's own status (130 for SIGINT, 143 for
+ * has written its files and released its folder. The JVM then ends with the signal's own status (130 for SIGINT, 143 for
  * SIGTERM).
  *
  * <p>A signal before sampling also releases the output folder if the run being prepared has locked
@@ -105,12 +105,11 @@ final class SignalStop implements AutoCloseable {
     return startup;
   }
 
-  /** The run's files are written: a JVM ending on a signal may end now. */
-  void filesWritten() {
-    finished.countDown();
-  }
-
-  /** Releases a waiting hook and removes it unless it already runs. */
+  /**
+   * Releases a waiting hook and removes it unless it already runs. Closed after the run (its
+   * files written, its folder lock released by closing it), so a JVM ending on a signal ends
+   * only then.
+   */
   @Override
   public void close() {
     finished.countDown();
