@@ -244,7 +244,7 @@ public final class TangentEnvelopeDraw {
   }
 
   /** The chord between the abscissae around x, or -inf outside them. */
-  private double squeeze(double x) {
+  double squeeze(double x) {
     if (!(x >= xs[0] && x <= xs[k - 1])) {
       return Double.NEGATIVE_INFINITY;
     }
@@ -270,11 +270,6 @@ public final class TangentEnvelopeDraw {
       j++;
     }
     return tangent(j, x);
-  }
-
-  /** The squeeze at {@code x}: for the property that it lies below h everywhere. */
-  double squeezeAt(double x) {
-    return squeeze(x);
   }
 
   /** The abscissae now held, ascending: where the general sampler starts after a hand-over. */

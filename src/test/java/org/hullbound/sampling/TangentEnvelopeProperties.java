@@ -80,7 +80,7 @@ class TangentEnvelopeProperties {
       }
       double h = target.h().applyAsDouble(x);
       double u = envelope.envelopeAt(target.lower(), target.upper(), x);
-      double l = envelope.squeezeAt(x);
+      double l = envelope.squeeze(x);
       assertFalse(Double.isNaN(u), target + ": no envelope from " + offsets);
       double allowance = ROUNDING * (1 + Math.abs(h) + Math.abs(u));
       assertTrue(u >= h - allowance, target + " at " + x + ": envelope " + u + " below h " + h);
