@@ -13,6 +13,7 @@ import java.util.Map;
 import java.util.Set;
 import org.hullbound.gibbs.RunSettings;
 import org.hullbound.gibbs.StopSignal;
+import org.hullbound.io.RowWrites;
 import org.hullbound.lang.ModelFile;
 import org.hullbound.lang.Statement;
 import org.hullbound.model.EmptyCells;
@@ -277,7 +278,7 @@ public final class BatchRun implements AutoCloseable {
 
   /** {@link #run(TaskEngine, TaskEngine.Progress, StopSignal)} writing its tables through {@code writes}: tests inject a full disk. */
   BatchResult run(
-      TaskEngine engine, TaskEngine.Progress progress, StopSignal stop, BatchTables.Writes writes) {
+      TaskEngine engine, TaskEngine.Progress progress, StopSignal stop, RowWrites writes) {
     Path folder = folder();
     Path units = folder.resolve(UnitFit.UNITS_FOLDER);
     List<UnitData> left = new ArrayList<>();

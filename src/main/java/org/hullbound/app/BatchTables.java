@@ -19,6 +19,7 @@ import org.apache.commons.csv.CSVFormat;
 import org.apache.commons.csv.CSVPrinter;
 import org.apache.commons.csv.CSVRecord;
 import org.hullbound.io.AtomicFiles;
+import org.hullbound.io.RowWrites;
 import org.hullbound.io.Closing;
 import org.hullbound.report.SummaryTable;
 
@@ -58,12 +59,6 @@ final class BatchTables implements AutoCloseable {
     this.written = written;
   }
 
-  /** How bytes reach a table: {@link FileChannel#write}, or a failing one in tests. */
-  @FunctionalInterface
-  interface Writes {
-    int write(FileChannel channel, ByteBuffer bytes) throws IOException;
-  }
-
   /** The rows of one unit: its summary records and its units record, as written. */
   record Written(List<List<String>> summaryRows, List<String> unitRow) {}
 
@@ -71,7 +66,7 @@ final class BatchTables implements AutoCloseable {
    * Starts both tables in {@code folder} with their headers, replacing older ones, writing
    * through {@code writes} ({@link FileChannel#write}, or a failing disk in tests).
    */
-  static BatchTables start(Path folder, Writes writes) {
+  static BatchTables start(Path folder, RowWrites writes) {
     AtomicFiles.write(folder.resolve(BatchRun.SUMMARY_FILE), line(SUMMARY_HEADER));
     AtomicFiles.write(folder.resolve(BatchRun.UNITS_FILE), line(BatchRun.UNITS_HEADER));
     return open(folder, new LinkedHashMap<>(), writes);
@@ -104,13 +99,13 @@ final class BatchTables implements AutoCloseable {
    * Continues the tables in {@code folder} with the finished units {@code finished} ({@link
    * #read}): both files are rewritten atomically with their rows only, then appended to.
    */
-  static BatchTables resume(Path folder, Map<String, Written> finished, Writes writes) {
+  static BatchTables resume(Path folder, Map<String, Written> finished, RowWrites writes) {
     Map<String, Written> written = new LinkedHashMap<>(finished);
     rewrite(folder, written.values());
     return open(folder, written, writes);
   }
 
-  private static BatchTables open(Path folder, Map<String, Written> written, Writes writes) {
+  private static BatchTables open(Path folder, Map<String, Written> written, RowWrites writes) {
     Table summary = Table.append(folder.resolve(BatchRun.SUMMARY_FILE), writes);
     try {
       return new BatchTables(
@@ -253,16 +248,16 @@ final class BatchTables implements AutoCloseable {
   private static final class Table implements java.io.Closeable {
     private final Path file;
     private final FileChannel channel;
-    private final Writes writes;
+    private final RowWrites writes;
     private boolean closed;
 
-    private Table(Path file, FileChannel channel, Writes writes) {
+    private Table(Path file, FileChannel channel, RowWrites writes) {
       this.file = file;
       this.channel = channel;
       this.writes = writes;
     }
 
-    static Table append(Path file, Writes writes) {
+    static Table append(Path file, RowWrites writes) {
       try {
         return new Table(file, FileChannel.open(file, StandardOpenOption.WRITE), writes);
       } catch (IOException e) {
@@ -283,16 +278,8 @@ final class BatchTables implements AutoCloseable {
       }
       try {
         channel.position(whole);
-        while (bytes.hasRemaining()) {
-          writes.write(channel, bytes);
-        }
-        channel.force(false);
+        writes.appendWhole(channel, bytes, whole, true);
       } catch (IOException e) {
-        try {
-          channel.truncate(whole);
-        } catch (IOException cannotCut) {
-          e.addSuppressed(cannotCut);
-        }
         throw new UncheckedIOException("cannot write " + file + ": " + e.getMessage(), e);
       }
     }

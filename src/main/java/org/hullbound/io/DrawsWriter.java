@@ -40,7 +40,7 @@ public final class DrawsWriter implements DrawSink, AutoCloseable {
 
   private final Path file;
   private final FileChannel out;
-  private final Writes writes;
+  private final RowWrites writes;
   private final int width;
   private final ScheduledExecutorService flusher;
   private final StringBuilder row = new StringBuilder(256);
@@ -50,13 +50,7 @@ public final class DrawsWriter implements DrawSink, AutoCloseable {
   private IOException failure;
   private boolean closed;
 
-  /** How bytes reach the file: {@link FileChannel#write}, or a failing one in tests. */
-  @FunctionalInterface
-  interface Writes {
-    int write(FileChannel channel, ByteBuffer bytes) throws IOException;
-  }
-
-  private DrawsWriter(Path file, FileChannel out, Writes writes, int width) throws IOException {
+  private DrawsWriter(Path file, FileChannel out, RowWrites writes, int width) throws IOException {
     this.file = file;
     this.out = out;
     this.writes = writes;
@@ -95,12 +89,12 @@ public final class DrawsWriter implements DrawSink, AutoCloseable {
   }
 
   /** {@link #open(Path, List)} writing through {@code writes}: tests inject a failing disk. */
-  static DrawsWriter open(Path directory, List<String> columns, Writes writes) {
+  static DrawsWriter open(Path directory, List<String> columns, RowWrites writes) {
     return open(directory, FILE_NAME, columns, writes);
   }
 
   private static DrawsWriter open(
-      Path directory, String fileName, List<String> columns, Writes writes) {
+      Path directory, String fileName, List<String> columns, RowWrites writes) {
     if (directory == null || columns == null) {
       throw new IllegalArgumentException("directory and columns must not be null");
     }
@@ -336,17 +330,10 @@ public final class DrawsWriter implements DrawSink, AutoCloseable {
     ByteBuffer bytes = ByteBuffer.wrap(pending.toString().getBytes(StandardCharsets.UTF_8));
     pending.setLength(0);
     try {
-      while (bytes.hasRemaining()) {
-        writes.write(out, bytes);
-      }
+      writes.appendWhole(out, bytes, whole, false);
       whole += bytes.limit();
     } catch (IOException e) {
       failure = e;
-      try {
-        out.truncate(whole);
-      } catch (IOException cannotCut) {
-        e.addSuppressed(cannotCut);
-      }
     }
   }
 

@@ -15,6 +15,7 @@ import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
 import org.hullbound.gibbs.StopSignal;
+import org.hullbound.io.RowWrites;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
@@ -99,7 +100,7 @@ class BatchStopTest {
     // the disk fills in the middle of the third unit's summary rows: part of them reaches the
     // file, then the write fails
     int[] appends = {0};
-    BatchTables.Writes fillsUp = (channel, bytes) -> {
+    RowWrites fillsUp = (channel, bytes) -> {
       if (channel.size() > 0 && ++appends[0] == 5) {
         ByteBuffer part = bytes.duplicate();
         part.limit(part.position() + part.remaining() / 2);

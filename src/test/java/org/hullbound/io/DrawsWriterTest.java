@@ -131,7 +131,7 @@ class DrawsWriterTest {
    * A disk that fills after {@code room} bytes: the write that crosses it puts down what fits (as
    * a real full disk does) and fails with ENOSPC's message.
    */
-  private static DrawsWriter.Writes diskWithRoomFor(long room) {
+  private static RowWrites diskWithRoomFor(long room) {
     long[] used = {0};
     return (channel, bytes) -> {
       long left = room - used[0];
