@@ -52,7 +52,13 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
   /** The table's storage, kept across rebuilds. */
   private SettledPieces spare;
   private int quietProposals;
-  /** Why the last restart failed, or null: draws are refused until a restart succeeds. */
+  /**
+   * Why the sampler may not draw, or null: a restart under way or failed; draws are refused until
+   * a restart succeeds. A message, not an exception made at every restart: making one walks the
+   * stack, which was about 5% of a sweep of many small draws.
+   */
+  private String unusable;
+  /** The failure of the last restart, or null. */
   private RuntimeException restartFailure;
 
   long evaluations;
@@ -243,7 +249,8 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
     // unusable until the new start has passed every check: the old hull (and its settled table)
     // belongs to the old density and must never serve a draw of the new one
     markStale();
-    restartFailure = new IllegalStateException("a restart is under way");
+    unusable = "a restart is under way";
+    restartFailure = null;
     try {
       checkedStart(HullOptions.nonEmpty(abscissae));
       k = 0;
@@ -255,18 +262,20 @@ abstract class AdaptiveSampler implements AdaptiveRejectionSampler {
       }
       initialise();
     } catch (RuntimeException failure) {
+      // never null, or the half-built hull would serve draws
+      unusable = failure.getMessage() != null ? failure.getMessage() : failure.toString();
       restartFailure = failure;
       throw failure;
     }
-    restartFailure = null;
+    unusable = null;
   }
 
   /** Throws while the last restart has failed: the hull is left half built. */
   private void requireUsable() {
-    if (restartFailure != null) {
+    if (unusable != null) {
       throw new IllegalStateException(
           "the last restart failed ("
-              + restartFailure.getMessage()
+              + unusable
               + "); restart the sampler with a valid start before drawing from it",
           restartFailure);
     }
