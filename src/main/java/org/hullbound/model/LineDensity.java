@@ -16,7 +16,8 @@ import org.hullbound.model.family.Scale;
  * {@code w} the Jacobian is 1 and {@code H(dt) = dt}, so {@code t} has density {@code p(x + t w)}.
  * For the multiplicative group acting on {@code d} coordinates the Jacobian is {@code c^d} and
  * {@code H(dc) = dc / c}, so {@code c} has density {@code c^(d - 1) p(c x)} on {@code c > 0}
- * (their scale example): {@link #logDensity} adds {@code (d - 1) log c}.
+ * (their scale example): {@link #logDensity} adds {@code (d - 1) log c}, less one {@code log c}
+ * for each prior left out because it is {@code -log c} plus a constant along the line.
  *
  * <p>The frame an evaluation reads is the state (natural values) in entries {@code 0 .. n - 1},
  * entry {@code n} unused (the position is the argument), and for a direction learned at run time
@@ -43,7 +44,12 @@ public final class LineDensity {
      * {@code c = t > 0}; the mean of the base point's {@code e} is held in frame entry {@code n +
      * 1} ({@link #load}).
      */
-    RESCALING_ABOUT_MEAN
+    RESCALING_ABOUT_MEAN,
+    /**
+     * For members {@code (s, e[1..K])} and a location {@code m} that stays: {@code c s}, {@code m
+     * + c (e - m)}, {@code c = t > 0}; {@code m} read from the state ({@link #aboutLocation}).
+     */
+    RESCALING_ABOUT_LOCATION
   }
 
   private final int dimension;
@@ -53,6 +59,8 @@ public final class LineDensity {
   private final double jacobianPower;
   private final boolean smooth;
   private final int termCount;
+  /** The state entry of the location a rescaling turns about, or -1. */
+  private final int pivot;
   /** Makes the moved terms again, for the compilation; dropped once compiled. */
   private Supplier<List<Term>> movedTerms;
   private volatile CompiledConditional compiled;
@@ -64,15 +72,51 @@ public final class LineDensity {
    */
   LineDensity(int dimension, int[] members, double[] weights, Geometry geometry,
       int termCount, Supplier<List<Term>> movedTerms, boolean smooth) {
+    this(dimension, members, weights, geometry, -1, termCount, movedTerms, smooth,
+        fullPower(geometry, members.length));
+  }
+
+  /**
+   * A rescaling ({@link Geometry#RESCALING}, {@link Geometry#RESCALING_ABOUT_MEAN} or {@link
+   * Geometry#RESCALING_ABOUT_LOCATION}, about the location in state entry {@code pivot}, which
+   * the line leaves where it is: {@code (c s, m + c (e - m))}; for a fixed {@code m} a
+   * one-parameter group, two steps composing to {@code c1 c2}, whose Jacobian is {@code c^(K +
+   * 1)}, as for a rescaling about 0), whose {@code movedTerms} leave out {@code cancelled}
+   * priors that are {@code -log c} plus a constant along the line: as many powers of {@code c}
+   * of the Jacobian and Haar factor go with them (Liu and Sabatti 2000).
+   */
+  static LineDensity rescaling(int dimension, int[] members, Geometry geometry, int pivot,
+      int cancelled, int termCount, Supplier<List<Term>> movedTerms, boolean smooth) {
+    double power = fullPower(geometry, members.length);
+    if (geometry == Geometry.FIXED_TRANSLATION || geometry == Geometry.LEARNED_TRANSLATION
+        || cancelled < 0 || cancelled > power
+        || (geometry == Geometry.RESCALING_ABOUT_LOCATION) != (pivot >= 0)) {
+      throw new IllegalArgumentException("a rescaling cancels at most its Jacobian's " + power
+          + " powers of c, and turns about a location exactly when its geometry says so; got "
+          + geometry + ", " + cancelled + ", " + pivot);
+    }
+    return new LineDensity(dimension, members, null, geometry, pivot, termCount, movedTerms,
+        smooth, power - cancelled);
+  }
+
+  /** The power of {@code c} of the Jacobian and Haar factor of {@code size} moved unknowns. */
+  private static double fullPower(Geometry geometry, int size) {
+    return switch (geometry) {
+      case RESCALING, RESCALING_ABOUT_LOCATION -> size - 1;
+      case RESCALING_ABOUT_MEAN -> size - 2;
+      default -> 0;
+    };
+  }
+
+  private LineDensity(int dimension, int[] members, double[] weights, Geometry geometry,
+      int pivot, int termCount, Supplier<List<Term>> movedTerms, boolean smooth,
+      double jacobianPower) {
+    this.pivot = pivot;
     this.dimension = dimension;
     this.members = members.clone();
     this.weights = weights == null ? null : weights.clone();
     this.geometry = geometry;
-    this.jacobianPower = switch (geometry) {
-      case RESCALING -> members.length - 1;
-      case RESCALING_ABOUT_MEAN -> members.length - 2;
-      default -> 0;
-    };
+    this.jacobianPower = jacobianPower;
     this.smooth = smooth;
     this.termCount = termCount;
     this.movedTerms = movedTerms;
@@ -112,10 +156,14 @@ public final class LineDensity {
 
   /** True for a rescaling (position {@code c > 0}), false for a translation ({@code x + t w}). */
   public boolean rescales() {
-    return geometry == Geometry.RESCALING || geometry == Geometry.RESCALING_ABOUT_MEAN;
+    return geometry == Geometry.RESCALING || geometry == Geometry.RESCALING_ABOUT_MEAN
+        || geometry == Geometry.RESCALING_ABOUT_LOCATION;
   }
 
-  /** The power of {@code c} that the Jacobian and Haar measure add (0 for a translation). */
+  /**
+   * The power of {@code c} that the Jacobian and Haar measure add (0 for a translation), less the
+   * {@code -log c} of the priors a rescaling leaves out of its terms ({@link #rescaling}).
+   */
   public double jacobianPower() {
     return jacobianPower;
   }
@@ -202,6 +250,8 @@ public final class LineDensity {
         case RESCALING -> state[j] = frame[j] * t;
         case RESCALING_ABOUT_MEAN ->
             state[j] = k == 0 ? frame[j] + (1 - t) * frame[dimension + 1] : frame[j] * t;
+        case RESCALING_ABOUT_LOCATION ->
+            state[j] = k == 0 ? frame[j] * t : frame[pivot] + t * (frame[j] - frame[pivot]);
         case FIXED_TRANSLATION -> state[j] = frame[j] + t * weights[k];
         default -> state[j] = frame[j] + t * frame[dimension + 1 + k];
       }

@@ -177,36 +177,69 @@ final class MovePatterns {
     if (!readingScale.equals(ownOfGroup)) {
       return null;
     }
+    // the effects' common prior mean: 0 (-1 here), or a real scalar unknown that nothing moves
+    int location = -2;
     for (int e : group) {
       Term own = f.terms().get(f.ownTerm()[e]);
       Formulas.Monomial sd = own.argument("sd") == null ? null
           : Formulas.monomial(own.argument("sd"), scale);
+      int at = location(f, own.argument("mean"), scale, group);
       if (!own.familyName().equals("normal") || own.truncated()
           || !(own.value() instanceof Formula.Slot)
-          || !(own.argument("mean") instanceof Formula.Constant mean && mean.value() == 0)
+          || at == -2 || (location != -2 && at != location)
           || sd == null || sd.power() != 1
           || !(sd.coefficient() instanceof Formula.Constant b && b.value() > 0)) {
         return null;
       }
+      location = at;
     }
     int n = f.unknowns().size();
     int[] members = prepend(scale, group);
     Map<Integer, Formula> replace = new LinkedHashMap<>();
-    for (int j : members) {
-      replace.put(j, Formulas.apply(Op.MULTIPLY,
-          List.of(new Formula.Slot(j), new Formula.Slot(n))));
+    for (int k = 0; k < members.length; k++) {
+      Formula slot = new Formula.Slot(members[k]);
+      Formula c = new Formula.Slot(n);
+      // about a location m: m + c (e - m), so that e - m, what the prior reads, is times c
+      replace.put(members[k], k == 0 || location < 0
+          ? Formulas.apply(Op.MULTIPLY, List.of(slot, c))
+          : Formulas.apply(Op.ADD, List.of(new Formula.Slot(location), Formulas.apply(
+              Op.MULTIPLY, List.of(c, Formulas.apply(Op.SUBTRACT,
+                  List.of(slot, new Formula.Slot(location))))))));
     }
     List<Term> moved = movedTerms(f, members, replace);
     Verdict proof = prove(moved, n, members.length - 1);
     String groupName = f.unknowns().get(group.get(0)).node();
-    String reason = "rescale " + label(f, scale) + " and every " + groupName + " by c > 0: the "
-        + group.size() + " effects have normal(mean = 0, sd = " + label(f, scale)
+    String mean = location < 0 ? "0" : label(f, location);
+    String reason = "rescale " + label(f, scale) + " and every " + groupName + " by c > 0"
+        + (location < 0 ? "" : " about " + mean + " (" + mean + " + c (" + groupName
+            + "[..] - " + mean + "))") + ": the " + group.size() + " effects have normal(mean = "
+        + mean + ", sd = " + label(f, scale)
         + ") priors (generalised Gibbs, Liu and Sabatti 2000, scale group: c drawn from c^"
-        + group.size() + " p(c x), the Jacobian c^" + members.length + " times the Haar measure"
-        + " dc / c); " + proof.reason();
+        + group.size() + (location < 0 ? " p(c x)" : " p(g_c x)") + ", the Jacobian c^"
+        + members.length + " times the Haar measure dc / c); " + (location < 0 ? proof.reason()
+            : proof.reason().replace("with mean 0 and value and sd both times c",
+                "whose value less their mean " + mean + " and sd are both times c"));
     return new Update.GroupMove(Update.MoveKind.RESCALE, reason, proof.concave(),
-        new LineDensity(n, members, null, LineDensity.Geometry.RESCALING,
-            moved.size(), toCompile(f, members, replace), smooth(f, members)));
+        LineDensity.rescaling(n, members, location < 0 ? LineDensity.Geometry.RESCALING
+                : LineDensity.Geometry.RESCALING_ABOUT_LOCATION, location, group.size(),
+            moved.size() - group.size(), toCompile(f, members, replace, group),
+            smooth(f, members)));
+  }
+
+  /**
+   * What an effect's prior mean lets a rescaling turn about: -1 for the constant 0, the index of
+   * a real scalar unknown outside the move ({@code effect[k] ~ normal(mean = centre, ...)}: the
+   * effects rescale about it, which stays), -2 for anything else.
+   */
+  private static int location(Facts f, Formula mean, int scale, List<Integer> group) {
+    if (mean instanceof Formula.Constant c && c.value() == 0) {
+      return -1;
+    }
+    if (mean instanceof Formula.Slot slot && slot.index() != scale
+        && !group.contains(slot.index()) && real(f, slot.index())) {
+      return slot.index();
+    }
+    return -2;
   }
 
   /**
@@ -246,8 +279,9 @@ final class MovePatterns {
         + " drawn from c^" + group.size() + " p(g_c x), the Jacobian c^" + (group.size() + 1)
         + " times the Haar measure dc / c); " + proof.reason();
     return new Update.GroupMove(Update.MoveKind.RESCALE_ABOUT_MEAN, reason, proof.concave(),
-        new LineDensity(n, members, null, LineDensity.Geometry.RESCALING_ABOUT_MEAN,
-            moved.size(), toCompile(f, members, replace), smooth(f, members)));
+        LineDensity.rescaling(n, members, LineDensity.Geometry.RESCALING_ABOUT_MEAN, -1,
+            group.size(), moved.size() - group.size(), toCompile(f, members, replace, group),
+            smooth(f, members)));
   }
 
   /**
@@ -333,7 +367,25 @@ final class MovePatterns {
    */
   private static java.util.function.Supplier<List<Term>> toCompile(
       Facts f, int[] members, Map<Integer, Formula> replace) {
-    return () -> new ArrayList<>(movedTerms(f, members, replace));
+    return toCompile(f, members, replace, List.of());
+  }
+
+  /**
+   * The same, without the own terms of {@code scaleFree}: the effects of a rescaling, whose
+   * normal priors are {@code -log c} plus a constant along the line ({@link #scaleFree}). Their
+   * {@code -log c} cancels as many powers of {@code c} of the Jacobian ({@link
+   * LineDensity#rescaling}); left in, the two would be added as large terms of opposite sign near
+   * {@code c = 0} ({@code K / c} in the slope), which rounding turned into slopes off by 60 at
+   * {@code c = 1e-8} on {@code seedlings}, enough for the hull to see a density that is not
+   * log-concave. Left out, an evaluation also sums {@code K} terms fewer.
+   */
+  private static java.util.function.Supplier<List<Term>> toCompile(
+      Facts f, int[] members, Map<Integer, Formula> replace, List<Integer> scaleFree) {
+    java.util.BitSet left = new java.util.BitSet();
+    for (int e : scaleFree) {
+      left.set(f.ownTerm()[e]);
+    }
+    return () -> new ArrayList<>(movedTerms(f, members, replace, left));
   }
 
   /**
@@ -341,6 +393,12 @@ final class MovePatterns {
    * same list on every call, so a line may make it again when it compiles ({@link LineDensity}).
    */
   private static List<Term> movedTerms(Facts f, int[] members, Map<Integer, Formula> replace) {
+    return movedTerms(f, members, replace, new java.util.BitSet());
+  }
+
+  /** The same, without the terms in {@code left}. */
+  private static List<Term> movedTerms(
+      Facts f, int[] members, Map<Integer, Formula> replace, java.util.BitSet left) {
     java.util.BitSet touched = new java.util.BitSet(f.terms().size());
     for (int j : members) {
       touched.set(f.ownTerm()[j]);
@@ -348,6 +406,7 @@ final class MovePatterns {
         touched.set(t);
       }
     }
+    touched.andNot(left);
     // Made when read, one at a time: a line through every row's term would otherwise hold a
     // moved term per row (TermTable).
     List<Term> terms = TermTable.at(f.terms(), touched.stream().toArray());
@@ -453,15 +512,25 @@ final class MovePatterns {
     return new Verdict(true, proof.toString());
   }
 
-  /** {@code c y ~ normal(mean = 0 or c m, sd = c s)}: {@code -log c} plus a constant in c. */
+  /**
+   * {@code c y ~ normal(mean = 0 or c m, sd = c s)}, or {@code m + c y ~ normal(mean = m, sd = c
+   * s)} with {@code m} fixed along the line: {@code -log c} plus a constant in c.
+   */
   private static boolean scaleFree(Term t, int n) {
-    if (!t.familyName().equals("normal") || t.truncated() || t.argument("sd") == null) {
+    if (!t.familyName().equals("normal") || t.truncated() || t.argument("sd") == null
+        || !proportional(t.argument("sd"), n)) {
       return false;
     }
     Formula mean = t.argument("mean");
-    boolean meanScales = mean.reads(n) ? proportional(mean, n)
-        : mean instanceof Formula.Constant c && c.value() == 0;
-    return meanScales && proportional(t.value(), n) && proportional(t.argument("sd"), n);
+    if (mean.reads(n)) {
+      return proportional(mean, n) && proportional(t.value(), n);
+    }
+    if (mean instanceof Formula.Constant c && c.value() == 0) {
+      return proportional(t.value(), n);
+    }
+    return t.value() instanceof Formula.Operation sum && sum.op() == Op.ADD
+        && sum.parts().size() == 2 && sum.parts().get(0).equals(mean)
+        && proportional(sum.parts().get(1), n);
   }
 
   private static boolean proportional(Formula f, int n) {

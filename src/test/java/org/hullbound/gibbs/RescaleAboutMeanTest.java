@@ -53,7 +53,7 @@ class RescaleAboutMeanTest {
   }
 
   /** tau's distribution function by the cumulative trapezoid rule, linear between steps. */
-  private static DoubleUnaryOperator tauDistribution() {
+  static DoubleUnaryOperator tauDistribution() {
     int steps = 16000;
     double top = 80;
     double[] cdf = new double[steps + 1];
@@ -75,7 +75,7 @@ class RescaleAboutMeanTest {
   }
 
   /** The KS p-value of {@code data} against {@code cdf} (commons-math3's exact distribution). */
-  private static double ksPValue(double[] data, DoubleUnaryOperator cdf) {
+  static double ksPValue(double[] data, DoubleUnaryOperator cdf) {
     double[] sorted = data.clone();
     Arrays.sort(sorted);
     double distance = 0;
