@@ -40,12 +40,6 @@ public final class LineDensity {
     /** {@code c x_j} for {@code c = t > 0}. */
     RESCALING,
     /**
-     * For members {@code (a, s, e[1..K])}: {@code a + (1 - c) mean(e)}, {@code c s}, {@code c e},
-     * {@code c = t > 0}; the mean of the base point's {@code e} is held in frame entry {@code n +
-     * 1} ({@link #load}).
-     */
-    RESCALING_ABOUT_MEAN,
-    /**
      * For members {@code (s, e[1..K])} and a location {@code m} that stays: {@code c s}, {@code m
      * + c (e - m)}, {@code c = t > 0}; {@code m} read from the state ({@link #aboutLocation}).
      */
@@ -77,8 +71,7 @@ public final class LineDensity {
   }
 
   /**
-   * A rescaling ({@link Geometry#RESCALING}, {@link Geometry#RESCALING_ABOUT_MEAN} or {@link
-   * Geometry#RESCALING_ABOUT_LOCATION}, about the location in state entry {@code pivot}, which
+   * A rescaling ({@link Geometry#RESCALING}, or {@link Geometry#RESCALING_ABOUT_LOCATION} about the location in state entry {@code pivot}, which
    * the line leaves where it is: {@code (c s, m + c (e - m))}; for a fixed {@code m} a
    * one-parameter group, two steps composing to {@code c1 c2}, whose Jacobian is {@code c^(K +
    * 1)}, as for a rescaling about 0), whose {@code movedTerms} leave out {@code cancelled}
@@ -103,7 +96,6 @@ public final class LineDensity {
   private static double fullPower(Geometry geometry, int size) {
     return switch (geometry) {
       case RESCALING, RESCALING_ABOUT_LOCATION -> size - 1;
-      case RESCALING_ABOUT_MEAN -> size - 2;
       default -> 0;
     };
   }
@@ -156,8 +148,7 @@ public final class LineDensity {
 
   /** True for a rescaling (position {@code c > 0}), false for a translation ({@code x + t w}). */
   public boolean rescales() {
-    return geometry == Geometry.RESCALING || geometry == Geometry.RESCALING_ABOUT_MEAN
-        || geometry == Geometry.RESCALING_ABOUT_LOCATION;
+    return geometry == Geometry.RESCALING || geometry == Geometry.RESCALING_ABOUT_LOCATION;
   }
 
   /**
@@ -180,31 +171,12 @@ public final class LineDensity {
 
   /** The length of the frame that {@link #logDensity} reads. */
   public int frameLength() {
-    return dimension + 1 + switch (geometry) {
-      case LEARNED_TRANSLATION -> members.length;
-      case RESCALING_ABOUT_MEAN -> 1;
-      default -> 0;
-    };
+    return dimension + 1 + (geometry == Geometry.LEARNED_TRANSLATION ? members.length : 0);
   }
 
-  /**
-   * Copies the state (natural values) into {@code frame}: the base point {@code t} starts from;
-   * for a rescaling about the mean, also the mean of the rescaled effects.
-   */
+  /** Copies the state (natural values) into {@code frame}: the base point {@code t} starts from. */
   public void load(double[] state, double[] frame) {
     System.arraycopy(state, 0, frame, 0, dimension);
-    if (geometry == Geometry.RESCALING_ABOUT_MEAN) {
-      frame[dimension + 1] = effectMean(state);
-    }
-  }
-
-  /** The mean of the effects {@code members[2..]} of a rescaling about the mean. */
-  private double effectMean(double[] values) {
-    double sum = 0;
-    for (int k = 2; k < members.length; k++) {
-      sum += values[members[k]];
-    }
-    return sum / (members.length - 2);
   }
 
   /** Writes a learned direction's weights, one per member, into {@code frame}. */
@@ -248,8 +220,6 @@ public final class LineDensity {
       int j = members[k];
       switch (geometry) {
         case RESCALING -> state[j] = frame[j] * t;
-        case RESCALING_ABOUT_MEAN ->
-            state[j] = k == 0 ? frame[j] + (1 - t) * frame[dimension + 1] : frame[j] * t;
         case RESCALING_ABOUT_LOCATION ->
             state[j] = k == 0 ? frame[j] * t : frame[pivot] + t * (frame[j] - frame[pivot]);
         case FIXED_TRANSLATION -> state[j] = frame[j] + t * weights[k];

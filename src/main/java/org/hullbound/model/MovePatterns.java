@@ -22,10 +22,13 @@ import org.hullbound.model.family.SupportKind;
  *       unchanged, as {@code alpha + effect[group[i]]} in a linear predictor does. Only the priors
  *       of {@code a} and the effects move along the line.
  *   <li><b>Rescale</b> (their scale group): a positive scalar {@code s} read only by the priors
- *       {@code e[k] ~ normal(mean = 0, sd = b * s)} of a group of real effects. Along {@code c ->
- *       (c s, c e)} each such prior is {@code -log c} plus a constant, which cancels against {@code
- *       K} of the {@code d - 1 = K} powers of {@code c} that the Jacobian {@code c^d} and Haar
- *       measure {@code dc / c} give.
+ *       {@code e[k] ~ normal(mean = m, sd = b * s)} of a group of real effects, {@code m} the
+ *       constant 0 or a real unknown outside the group. Along {@code c -> (c s, m + c (e - m))}
+ *       each such prior is {@code -log c} plus a constant, which cancels against {@code K} of the
+ *       {@code d - 1 = K} powers of {@code c} that the Jacobian {@code c^d} and Haar measure
+ *       {@code dc / c} give. (A rescaling about the effects' own mean, the shift's lead taking up
+ *       the difference, was tried and left out: per CPU-second it did not pay for its evaluation
+ *       of every row, see docs/fit.md.)
  *   <li><b>Direction block</b>: real scalar (or small vector) unknowns that enter one argument of
  *       the same terms together, not already drawn jointly as a linear-normal block nor effects
  *       of a shift or rescaling (whose ridge that move handles): drawn along directions learned
@@ -66,8 +69,6 @@ final class MovePatterns {
       if (group.size() < 2 || !group.stream().allMatch(j -> real(f, j))) {
         continue;
       }
-      int lead = -1;
-      int scale = -1;
       for (List<Integer> scalar : nodes.values()) {
         if (scalar.size() != 1) {
           continue;
@@ -77,15 +78,7 @@ final class MovePatterns {
             : null;
         if (move != null) {
           moves.add(move);
-          if (((Update.GroupMove) move).kind() == Update.MoveKind.SHIFT) {
-            lead = lead < 0 ? j : lead;
-          } else {
-            scale = scale < 0 ? j : scale;
-          }
         }
-      }
-      if (lead >= 0 && scale >= 0) {
-        moves.add(rescaleAboutMean(f, lead, scale, group));
       }
     }
     boolean[] grouped = new boolean[f.unknowns().size()];
@@ -240,48 +233,6 @@ final class MovePatterns {
       return slot.index();
     }
     return -2;
-  }
-
-  /**
-   * The rescaling of {@code scale} and its effects about the effects' mean, the shift's lead
-   * taking up what the mean would have lost: {@code (a, s, e) -> (a + (1 - c) mean(e), c s, c
-   * e)}. Where the effects offset {@code a}, every linear predictor {@code a + e[k]} becomes
-   * {@code a + mean(e) + c (e[k] - mean(e))}: the spread of the group's levels changes while
-   * their average stays, which the data would otherwise hold still. A one-parameter group (the
-   * mean of {@code c e} is {@code c mean(e)}, so two steps compose to {@code c1 c2}) whose linear
-   * map is triangular with determinant {@code c^(K + 1)}; with the Haar measure {@code dc / c},
-   * {@code c} has density {@code c^K p(g_c x)} (Liu and Sabatti 2000, generalised Gibbs). Along
-   * it every moved unknown is affine in {@code c}, and the {@code K} effect priors give the
-   * {@code -K log c} that cancels {@code c^K}.
-   */
-  private static Update rescaleAboutMean(Facts f, int lead, int scale, List<Integer> group) {
-    int n = f.unknowns().size();
-    List<Integer> scaled = new ArrayList<>(group);
-    scaled.add(0, scale);
-    int[] members = prepend(lead, scaled);
-    Map<Integer, Formula> replace = new LinkedHashMap<>();
-    for (int k = 0; k < members.length; k++) {
-      Formula slot = new Formula.Slot(members[k]);
-      Formula c = new Formula.Slot(n);
-      replace.put(members[k], k == 0
-          ? Formulas.apply(Op.ADD, List.of(slot, Formulas.apply(Op.MULTIPLY, List.of(
-              Formulas.apply(Op.SUBTRACT, List.of(Formula.constant(1), c)),
-              new Formula.Slot(n + 1)))))
-          : Formulas.apply(Op.MULTIPLY, List.of(slot, c)));
-    }
-    List<Term> moved = movedTerms(f, members, replace);
-    Verdict proof = prove(moved, n, members.length - 2);
-    String groupName = f.unknowns().get(group.get(0)).node();
-    String reason = "rescale " + label(f, scale) + " and every " + groupName + " by c > 0 about"
-        + " the mean of the " + groupName + ", " + label(f, lead) + " + (1 - c) times that mean:"
-        + " the levels " + label(f, lead) + " + " + groupName + "[..] spread out or draw in about"
-        + " their average, which stays (generalised Gibbs, Liu and Sabatti 2000, scale group: c"
-        + " drawn from c^" + group.size() + " p(g_c x), the Jacobian c^" + (group.size() + 1)
-        + " times the Haar measure dc / c); " + proof.reason();
-    return new Update.GroupMove(Update.MoveKind.RESCALE_ABOUT_MEAN, reason, proof.concave(),
-        LineDensity.rescaling(n, members, LineDensity.Geometry.RESCALING_ABOUT_MEAN, -1,
-            group.size(), moved.size() - group.size(), toCompile(f, members, replace, group),
-            smooth(f, members)));
   }
 
   /**

@@ -158,13 +158,11 @@ public sealed interface Update {
   enum MoveKind {
     /** An intercept-like unknown up by d, the group effects that offset it down by d. */
     SHIFT("shift"),
-    /** A hierarchical scale and its zero-mean effects multiplied by c > 0. */
-    RESCALE("rescale"),
     /**
-     * A hierarchical scale and its effects multiplied by c > 0 about the effects' mean, which the
-     * intercept-like unknown they offset keeps.
+     * A hierarchical scale multiplied by c > 0, and its effects about their prior mean (0, or an
+     * unknown that stays).
      */
-    RESCALE_ABOUT_MEAN("centred rescale");
+    RESCALE("rescale");
 
     private final String word;
 

@@ -14,7 +14,7 @@ import org.hullbound.model.Update;
 import org.junit.jupiter.api.Test;
 
 /**
- * The shift and the two rescale moves leave a hierarchical normal model's posterior invariant: the
+ * The shift and the rescale move leave a hierarchical normal model's posterior invariant: the
  * educational testing example (Gelman et al., Bayesian Data Analysis, 3rd ed., section 5.5, Table
  * 5.2: eight schools' estimated effects and their standard errors, known), written with the
  * effects offsetting the mean, {@code y[j] ~ normal(mu + effect[j], sigma[j])}, {@code effect[j]
@@ -30,8 +30,9 @@ import org.junit.jupiter.api.Test;
  * rejection of tau on the log scale) and then the two moves; the check is mean and sd of mu and
  * tau within 4 MCSE (four checks, each at about 6e-5, 2.5e-4 together). Broken on purpose with
  * the Jacobian c^d in place of c^(d - 1) (the Haar measure's 1/c left out), the mean of tau came
- * out at 5.11 against 3.29, 74 MCSE away, and the test failed (December 2026); correct, 3.25
- * (2 MCSE), with 0.92 and 0.78 effective draws per sweep for mu and tau.
+ * out at 5.11 against 3.29, 74 MCSE away, and the test failed (December 2026, with a third move,
+ * the rescale about the effects' mean, in the sweep then; it was left out later for its cost);
+ * correct, 3.25 (2 MCSE), with 0.92 and 0.78 effective draws per sweep for mu and tau.
  */
 class GroupMoveFitTest {
   private static final double[] Y = {28, 8, -3, 7, -1, 1, 18, 12};
@@ -109,10 +110,10 @@ class GroupMoveFitTest {
   }
 
   @Test
-  void theShiftAndBothRescaleMovesKeepTheEightSchoolsPosterior() {
+  void theShiftAndTheRescaleMoveKeepTheEightSchoolsPosterior() {
     BoundModel bound = bound();
     List<Update> moves = bound.moves();
-    assertEquals(3, moves.size(), "moves found: " + moves);
+    assertEquals(2, moves.size(), "moves found: " + moves);
     ModelSampler sampler = ModelSampler.withoutBlocks(bound, Map.of());
     Fits.Fit fit = Fits.run(sampler.sampler(), new RunSettings(4, 500, 4000, 1, 5L, 2));
     double[] truth = reference();
@@ -120,9 +121,9 @@ class GroupMoveFitTest {
     int tau = bound.unknown("tau").index();
     assertEquals(List.of(0, 1), List.of(mu, tau));
     fit.assertMomentsWithinFourMcse(truth);
-    assertTrue(fit.reports().get(mu).method().endsWith("+ shift move + centred rescale move"),
+    assertTrue(fit.reports().get(mu).method().endsWith("+ shift move"),
         fit.reports().get(mu).method());
-    assertTrue(fit.reports().get(tau).method().endsWith("+ rescale move + centred rescale move"),
+    assertTrue(fit.reports().get(tau).method().endsWith("+ rescale move"),
         fit.reports().get(tau).method());
   }
 }

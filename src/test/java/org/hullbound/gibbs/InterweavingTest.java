@@ -34,9 +34,9 @@ class InterweavingTest {
     assertEquals(List.of(0, 1, 2, 3, 4),
         firstIndices(ModelSampler.withoutMoves(bound, Map.of()).sampler()));
     GibbsSampler interwoven = ModelSampler.of(bound, Map.of()).sampler();
-    // intercept, the three effects, spread, then the shift and the two rescale moves
+    // intercept, the three effects, spread, then the shift and the rescale move
     assertEquals(List.of(0, 2, 3, 4, spread), firstIndices(interwoven).subList(0, 5));
-    assertEquals(List.of(false, true, true, true),
-        interwoven.rules().subList(4, 8).stream().map(UpdateRule::extra).toList());
+    assertEquals(List.of(false, true, true),
+        interwoven.rules().subList(4, 7).stream().map(UpdateRule::extra).toList());
   }
 }

@@ -38,10 +38,10 @@ class MovePatternsTest {
   }
 
   @Test
-  void aGroupModelGetsAShiftTwoRescalesAndADirectionBlock() {
+  void aGroupModelGetsAShiftARescaleAndADirectionBlock() {
     BoundModel model = bind(CLINICS);
     List<Update> moves = model.moves();
-    assertEquals(4, moves.size(), moves.toString());
+    assertEquals(3, moves.size(), moves.toString());
     Update.GroupMove shift = assertInstanceOf(Update.GroupMove.class, moves.get(0));
     assertEquals(Update.MoveKind.SHIFT, shift.kind());
     assertTrue(shift.logConcave(), shift.reason());
@@ -55,14 +55,7 @@ class MovePatternsTest {
     assertTrue(rescale.reason().contains("the 3 normal priors with mean 0 and value and sd both"
         + " times c are -log c each, which cancels 3 of the 3 log c of the Jacobian"),
         rescale.reason());
-    Update.GroupMove centred = assertInstanceOf(Update.GroupMove.class, moves.get(2));
-    assertEquals(Update.MoveKind.RESCALE_ABOUT_MEAN, centred.kind());
-    assertTrue(centred.logConcave(), centred.reason());
-    assertTrue(centred.reason().contains("c drawn from c^3 p(g_c x), the Jacobian c^4 times the"
-        + " Haar measure dc / c"), centred.reason());
-    assertEquals(List.of(model.unknown("intercept").index(), model.unknown("spread").index(),
-        3, 4, 5), java.util.Arrays.stream(centred.members()).boxed().toList());
-    Update.DirectionBlock block = assertInstanceOf(Update.DirectionBlock.class, moves.get(3));
+    Update.DirectionBlock block = assertInstanceOf(Update.DirectionBlock.class, moves.get(2));
     assertTrue(block.logConcave(), block.reason());
     assertTrue(block.reason().contains("jointly affine in the moved unknowns"), block.reason());
     assertEquals(List.of(model.unknown("intercept").index(), model.unknown("slope").index()),
@@ -89,10 +82,8 @@ class MovePatternsTest {
       for (double t : new double[] {0.3, 0.8, 1.7}) {
         double[] moved = state.clone();
         line.apply(t, moved, frame);
-        // Jacobian times Haar measure dc / c: c^(d - 1) for c x; for the rescale about the
-        // mean, whose linear map is triangular with one unit diagonal entry, c^(d - 2)
-        double jacobian = !line.rescales() ? 0
-            : (line.members().length - (centredRescale(move) ? 2 : 1)) * Math.log(t);
+        // Jacobian times Haar measure dc / c: c^(d - 1) for c x
+        double jacobian = !line.rescales() ? 0 : (line.members().length - 1) * Math.log(t);
         assertEquals(model.logDensity(moved) - model.logDensity(state) + jacobian,
             line.logDensity(t, frame, null) - base, 1e-9, move.reason() + " at " + t);
         // the slope against a central difference
@@ -103,29 +94,6 @@ class MovePatternsTest {
             - line.logDensity(t - h, frame, null)) / (2 * h);
         assertEquals(difference, slope[0], 1e-5 * Math.max(1, Math.abs(difference)));
       }
-    }
-  }
-
-  private static boolean centredRescale(Update move) {
-    return move instanceof Update.GroupMove g && g.kind() == Update.MoveKind.RESCALE_ABOUT_MEAN;
-  }
-
-  @Test
-  void theRescaleAboutTheMeanKeepsEveryGroupLevelsAverage() {
-    BoundModel model = bind(CLINICS);
-    Update.GroupMove centred = groupMove(model, Update.MoveKind.RESCALE_ABOUT_MEAN);
-    LineDensity line = centred.line();
-    double[] state = {-0.4, 0.3, 0.8, 0.5, -0.2, 0.1};
-    double[] frame = new double[line.frameLength()];
-    line.load(state, frame);
-    for (double c : new double[] {0.3, 1.7}) {
-      double[] moved = state.clone();
-      line.apply(c, moved, frame);
-      // intercept + mean(effect) stays; each effect's deviation from the mean times c
-      assertEquals(-0.4 + 0.4 / 3, moved[0] + (moved[3] + moved[4] + moved[5]) / 3, 1e-12);
-      assertEquals(c * (0.5 - 0.4 / 3), moved[3] - (moved[3] + moved[4] + moved[5]) / 3, 1e-12);
-      assertEquals(c * 0.8, moved[2], 1e-12);
-      assertEquals(0.3, moved[1]);
     }
   }
 
@@ -142,6 +110,71 @@ class MovePatternsTest {
         """);
     assertEquals(List.of(), model.moves().stream()
         .filter(m -> m instanceof Update.GroupMove).toList());
+  }
+
+  @Test
+  void effectsAboutAnUnknownMeanRescaleAboutItWithTheJacobianOfARescaling() {
+    BoundModel model = bind("""
+        index group = 1 .. 3
+        index row = 1 .. 4
+        data group_of[row] = [1, 2, 3, 3]
+        data n[row] = [12, 9, 14, 10]
+        data y[row] = [5, 7, 3, 6] ~ binomial(trials = n[row], logit_p = effect[group_of[row]])
+        param centre ~ normal(mean = 0, sd = 2)
+        param spread ~ half-normal(sd = 1)
+        param effect[group] ~ normal(mean = centre, sd = 0.5 * spread)
+        """);
+    Update.GroupMove rescale = groupMove(model, Update.MoveKind.RESCALE);
+    assertTrue(rescale.logConcave(), rescale.reason());
+    assertTrue(rescale.reason().contains("about centre (centre + c (effect[..] - centre))"),
+        rescale.reason());
+    assertTrue(rescale.reason().contains("the 3 normal priors whose value less their mean centre"
+        + " and sd are both times c are -log c each"), rescale.reason());
+    assertEquals(List.of(model.unknown("spread").index(), 2, 3, 4),
+        java.util.Arrays.stream(rescale.members()).boxed().toList());
+    LineDensity line = rescale.line();
+    // the effects' priors are left out with as many powers of c: 4 data terms and spread's prior
+    assertEquals(5, line.termCount());
+    assertEquals(0, line.jacobianPower());
+    double[] state = {0.6, 0.8, 0.1, 1.3, 0.4};
+    double[] frame = new double[line.frameLength()];
+    line.load(state, frame);
+    double base = line.logDensity(1, frame, null);
+    for (double c : new double[] {0.3, 1.7}) {
+      double[] moved = state.clone();
+      line.apply(c, moved, frame);
+      // centre stays, spread and each effect's distance from centre times c
+      assertEquals(0.6, moved[0]);
+      assertEquals(c * 0.8, moved[1], 1e-12);
+      assertEquals(c * (1.3 - 0.6), moved[3] - 0.6, 1e-12);
+      // c^(d - 1) p(g_c x), d = 4: Liu and Sabatti 2000, scale group
+      assertEquals(model.logDensity(moved) - model.logDensity(state) + 3 * Math.log(c),
+          line.logDensity(c, frame, null) - base, 1e-9, "at " + c);
+    }
+    // near c = 0 the slope is the data's and spread's alone, not a difference of K / c terms
+    double[] slope = new double[1];
+    line.logDensity(1e-8, frame, slope);
+    double difference = (line.logDensity(2e-8, frame, null) - line.logDensity(1e-9, frame, null))
+        / 1.9e-8;
+    assertEquals(difference, slope[0], 1e-4 * Math.max(1, Math.abs(difference)));
+  }
+
+  @Test
+  void effectsAboutTheScaleOrAPositiveUnknownGetNoRescale() {
+    for (String mean : new String[] {"spread", "level"}) {
+      BoundModel model = bind("""
+          index group = 1 .. 3
+          index row = 1 .. 3
+          data group_of[row] = [1, 2, 3]
+          data y[row] = [0.5, 1.2, -0.3] ~ normal(mean = effect[group_of[row]], sd = 1)
+          param level ~ half-normal(sd = 1)
+          param spread ~ half-normal(sd = 1)
+          param effect[group] ~ normal(mean = MEAN, sd = spread)
+          """.replace("MEAN", mean));
+      // c (e - m) with m moved too, or m not on the whole line: not the pattern proved
+      assertEquals(List.of(), model.moves().stream()
+          .filter(m -> m instanceof Update.GroupMove).toList(), mean);
+    }
   }
 
   @Test
