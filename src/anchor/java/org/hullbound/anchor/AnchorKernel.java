@@ -44,6 +44,16 @@ public final class AnchorKernel implements ChainKernel {
     target.toNatural(sampler.position(), out);
   }
 
+  /** The step size in use (adapted during the warm-up, fixed after it). */
+  public double stepSize() {
+    return sampler.stepSize();
+  }
+
+  /** Gradient evaluations so far, warm-up included. */
+  public long gradientsSoFar() {
+    return sampler.gradientsSoFar();
+  }
+
   /** The sampler's counts after warm-up. */
   public NoUTurnStatistics statistics() {
     return sampler.statistics();

@@ -335,6 +335,11 @@ public final class NoUTurnSampler {
     return inverseMass.clone();
   }
 
+  /** Gradient evaluations so far, warm-up included (one per leapfrog step). */
+  public long gradientsSoFar() {
+    return gradients;
+  }
+
   /** Counts over the iterations after the warm-up. */
   public NoUTurnStatistics statistics() {
     return new NoUTurnStatistics(keptIterations, keptGradients, keptDivergences, keptDepths,
