@@ -286,10 +286,12 @@ final class AdaptiveRejectionUpdater implements Updater {
     double meanY = sumY / weight;
     double varianceX = sumXX / weight - meanX * meanX;
     double covariance = sumXY / weight - meanX * meanY;
-    if (!(varianceX > 1e-12 * Math.max(1.0, meanX * meanX))) {
-      return centre;
-    }
-    double slope = Math.min(Math.max(covariance / varianceX, 0.0), 1.0);
+    // A value that does not vary predicts nothing: the fading mean of the past modes then. A move
+    // along a line starts every draw at the same position (0, or 1 for a rescaling), and its
+    // mode, relative to a base point that is itself a posterior draw, scatters about a mean: the
+    // last mode alone misses the next by about twice the variance that the mean does.
+    double slope = varianceX > 1e-12 * Math.max(1.0, meanX * meanX)
+        ? Math.min(Math.max(covariance / varianceX, 0.0), 1.0) : 0.0;
     double predicted = meanY + slope * (current - meanX);
     // A prediction far from the last mode is not trusted: keep within three spreads of it.
     return Math.min(Math.max(predicted, centre - 3 * spread), centre + 3 * spread);
