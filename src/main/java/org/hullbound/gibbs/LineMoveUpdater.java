@@ -363,14 +363,34 @@ final class LineMoveUpdater implements Updater {
   @Override
   public String method() {
     String how = rule.logConcave() ? "" : ", fallback";
+    return rule.name() + (switchedDraw() != null ? ", then fallback" : how);
+  }
+
+  /**
+   * The first line draw's switch to the fallback, named as the move's (the moved unknowns' report
+   * says it, so that a move's switch is never silent), else null.
+   */
+  @Override
+  public String switchNote() {
+    Updater switched = switchedDraw();
+    return switched == null ? null : rule.name() + ": " + switched.switchNote();
+  }
+
+  @Override
+  public long switchSweep() {
+    Updater switched = switchedDraw();
+    return switched == null ? 0 : switched.switchSweep();
+  }
+
+  private Updater switchedDraw() {
     if (draws != null) {
       for (Updater draw : draws) {
-        if (draw.switchNote() != null) {
-          how = ", then fallback";
+        if (draw != null && draw.switchNote() != null) {
+          return draw;
         }
       }
     }
-    return rule.name() + how;
+    return null;
   }
 
   /** Line draws made so far (one per direction per sweep). */

@@ -43,22 +43,19 @@ public record UpdateReport(
       }
       for (Updater updater : kernel.updaters()) {
         int[] indices = updater.indices();
-        if (updater.extra()) {
-          // a move's cost is shared by the unknowns it moves; its line draws are not their draws
-          for (int index : indices) {
+        for (int index : indices) {
+          if (updater.extra()) {
+            // a move's cost is shared by the unknowns it moves; its line draws are not their draws
             moves.get(index).add(updater.method());
-            evaluations[index] += updater.evaluations() / indices.length;
             if (updater instanceof LineMoveUpdater block) {
               // after burn-in a direction block may draw its members in place of their own draws
               draws[index] += block.memberDraws();
             }
+          } else {
+            methods.get(index).add(updater.method());
+            draws[index] += updater.draws() / indices.length;
           }
-          continue;
-        }
-        for (int index : indices) {
-          methods.get(index).add(updater.method());
           evaluations[index] += updater.evaluations() / indices.length;
-          draws[index] += updater.draws() / indices.length;
           if (updater.switchNote() != null) {
             notes.get(index).add("chain " + (chain + 1) + " " + updater.switchNote());
             long sweep = updater.switchSweep();
