@@ -108,8 +108,11 @@ class MovePatternsTest {
         param spread ~ half-normal(sd = 1)
         param effect[group] ~ normal(mean = 1, sd = spread)
         """);
-    assertEquals(List.of(), model.moves().stream()
-        .filter(m -> m instanceof Update.GroupMove).toList());
+    assertEquals(List.of(), groupMoves(model));
+  }
+
+  private static List<Update> groupMoves(BoundModel model) {
+    return model.moves().stream().filter(m -> m instanceof Update.GroupMove).toList();
   }
 
   @Test
@@ -172,8 +175,7 @@ class MovePatternsTest {
           param effect[group] ~ normal(mean = MEAN, sd = spread)
           """.replace("MEAN", mean));
       // c (e - m) with m moved too, or m not on the whole line: not the pattern proved
-      assertEquals(List.of(), model.moves().stream()
-          .filter(m -> m instanceof Update.GroupMove).toList(), mean);
+      assertEquals(List.of(), groupMoves(model), mean);
     }
   }
 
