@@ -30,7 +30,16 @@ public final class CheckpointFile {
   /** The file name inside the output folder. */
   public static final String FILE_NAME = "checkpoint.txt";
 
-  private static final String FIRST_LINE = "hullbound checkpoint, format 1";
+  /**
+   * The layout of the updaters' saved words this build writes and reads. Raised whenever an
+   * updater's {@code save()} changes what it writes: 1 until session 6, whose direction blocks
+   * save more words (their conditional Hessian) and whose cheap adaptive rejection path uses random
+   * numbers differently, so a format-1 run could not be continued to the draws it would have made.
+   */
+  static final int FORMAT = 2;
+
+  private static final String FORMAT_PREFIX = "hullbound checkpoint, format ";
+  private static final String FIRST_LINE = FORMAT_PREFIX + FORMAT;
   private static final HexFormat HEX = HexFormat.of();
 
   private CheckpointFile() {}
@@ -126,6 +135,7 @@ public final class CheckpointFile {
 
   /** Parses a checkpoint's text; {@code name} is used in messages. */
   static Checkpoint parse(String name, String text) {
+    refuseOtherFormat(name, text);
     int checkAt = text.lastIndexOf("check: ");
     if (!text.startsWith(FIRST_LINE + "\n") || checkAt < 0 || !text.endsWith("\n")) {
       throw damaged(name, "it does not start with '" + FIRST_LINE + "' or end with a check line");
@@ -194,6 +204,29 @@ public final class CheckpointFile {
     } catch (IllegalArgumentException bad) {
       // NumberFormatException included: say where.
       throw damaged(name, "line " + lines.number + ": " + bad.getMessage());
+    }
+  }
+
+  /**
+   * Refuses a checkpoint of another format by name before anything else is read: its words would
+   * be read by the wrong layout (a direction block's saved flag then reads some count), and even
+   * when they fit, this build's samplers would not make the draws the writing build would have.
+   */
+  private static void refuseOtherFormat(String name, String text) {
+    if (!text.startsWith(FORMAT_PREFIX)) {
+      return; // not a checkpoint at all: the damaged-file message below says so
+    }
+    int end = text.indexOf('\n');
+    String written = text.substring(FORMAT_PREFIX.length(), end < 0 ? text.length() : end);
+    if (written.length() > 20) {
+      written = written.substring(0, 20) + "...";
+    }
+    if (!written.equals(String.valueOf(FORMAT))) {
+      throw new CheckpointException(
+          "the checkpoint " + name + " is in format " + written + ", written by another version of"
+              + " hullbound; this version reads format " + FORMAT + " only (the samplers' saved"
+              + " state differs between them, so that run cannot be continued to the draws it"
+              + " would have made): start a new fit, or resume with the version that wrote it");
     }
   }
 

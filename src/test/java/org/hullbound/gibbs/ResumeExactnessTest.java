@@ -74,8 +74,8 @@ class ResumeExactnessTest {
       };
 
   /** Every kept row of every chain, in the order each chain made them (raw bits). */
-  private static final class Rows implements DrawSink {
-    private final List<List<String>> perChain = new ArrayList<>();
+  static final class Rows implements DrawSink {
+    final List<List<String>> perChain = new ArrayList<>();
 
     Rows(int chains) {
       for (int chain = 0; chain < chains; chain++) {
@@ -97,7 +97,7 @@ class ResumeExactnessTest {
    * The sampler's kernels, each asking every chain to stop after its own {@code stopAfter}-th
    * sweep of this session (0: never): a deterministic stand-in for Ctrl-C.
    */
-  private static KernelFactory stoppingAfter(GibbsSampler sampler, long stopAfter, StopSignal stop) {
+  static KernelFactory stoppingAfter(GibbsSampler sampler, long stopAfter, StopSignal stop) {
     return (chain, rng) -> {
       ResumableKernel inner = sampler.newChain(chain, rng);
       return new ResumableKernel() {

@@ -109,13 +109,35 @@ class CheckpointFileTest {
 
   @Test
   void aFileWithAValidCheckButBadContentSaysWhichLine() {
-    String body = "hullbound checkpoint, format 1\nstatus: paused\n";
+    String body = "hullbound checkpoint, format " + CheckpointFile.FORMAT + "\nstatus: paused\n";
     java.util.zip.CRC32 crc = new java.util.zip.CRC32();
     crc.update(body.getBytes(StandardCharsets.UTF_8));
     String text = body + String.format("check: %08x%n", crc.getValue()).replace("\r", "");
     CheckpointException damaged =
         assertThrows(CheckpointException.class, () -> CheckpointFile.parse("c.txt", text));
     assertTrue(damaged.getMessage().contains("line 2"), damaged.getMessage());
+  }
+
+  /**
+   * A checkpoint of another format (an older build's, or a newer one's) is refused by its format
+   * before its words are read with a layout that is not theirs; the message names both formats.
+   * A whole format-1 file from an older build is refused end to end in {@code cli.OldCheckpointTest}.
+   */
+  @Test
+  void aCheckpointOfAnotherFormatIsRefusedNamingBothFormats() throws Exception {
+    CheckpointFile.write(folder, sample());
+    String current = Files.readString(CheckpointFile.in(folder), StandardCharsets.UTF_8);
+    assertTrue(current.startsWith("hullbound checkpoint, format 2\n"), current);
+    for (String other : List.of("1", "3")) {
+      String text = rechecked(current.replaceFirst("format 2", "format " + other));
+      CheckpointException refused =
+          assertThrows(CheckpointException.class, () -> CheckpointFile.parse("c.txt", text));
+      assertTrue(
+          refused.getMessage().contains("c.txt is in format " + other)
+              && refused.getMessage().contains("reads format 2 only"),
+          refused.getMessage());
+    }
+    assertEquals(sample().chains().size(), CheckpointFile.parse("c.txt", current).chains().size());
   }
 
   /** {@code text} with a check line that fits it, as a hand edit that also fixed the check would. */
