@@ -44,8 +44,12 @@ public final class TangentEnvelopeDraw {
   private final double[] xs = new double[CAPACITY];
   private final double[] hs = new double[CAPACITY];
   private final double[] ss = new double[CAPACITY];
-  /** Piece j spans [ends[j], ends[j + 1]]; ends[0] and ends[k] are the support's ends. */
-  private final double[] ends = new double[CAPACITY + 1];
+  /**
+   * Piece j spans [ends[j], ends[j + 1]]; ends[0] and ends[k] are the support's ends. Package
+   * private, with {@link #build} and {@link #tangent}, so that the property test in this package
+   * reads the pieces drawn from (TangentEnvelopeProperties), not a copy of their arithmetic.
+   */
+  final double[] ends = new double[CAPACITY + 1];
   private final double[] cumulative = new double[CAPACITY];
   private int k;
   private double pendingPoint = Double.NaN;
@@ -147,7 +151,7 @@ public final class TangentEnvelopeDraw {
    * slope at the left end (no falling one at the right) of an unbounded side, slopes that do not
    * fall strictly, neighbouring tangents that do not meet between their abscissae.
    */
-  private double build(double lower, double upper) {
+  double build(double lower, double upper) {
     if (k < 2 || (lower == Double.NEGATIVE_INFINITY && !(ss[0] > 0))
         || (upper == Double.POSITIVE_INFINITY && !(ss[k - 1] < 0))) {
       return Double.NaN;
@@ -191,7 +195,7 @@ public final class TangentEnvelopeDraw {
     return sum;
   }
 
-  private double tangent(int j, double x) {
+  double tangent(int j, double x) {
     return hs[j] + ss[j] * (x - xs[j]);
   }
 
@@ -254,22 +258,6 @@ public final class TangentEnvelopeDraw {
     }
     double run = xs[i + 1] - xs[i];
     return hs[i] + (hs[i + 1] - hs[i]) * ((x - xs[i]) / run);
-  }
-
-  /**
-   * The envelope at {@code x} over the support {@code (lower, upper)}: the tangent of the piece
-   * that holds x, or NaN where the abscissae make no valid envelope. For the property that it
-   * bounds h from above everywhere (TangentEnvelopeProperties).
-   */
-  double envelopeAt(double lower, double upper, double x) {
-    if (Double.isNaN(build(lower, upper))) {
-      return Double.NaN;
-    }
-    int j = 0;
-    while (j < k - 1 && x > ends[j + 1]) {
-      j++;
-    }
-    return tangent(j, x);
   }
 
   /** The abscissae now held, ascending: where the general sampler starts after a hand-over. */

@@ -79,7 +79,7 @@ class TangentEnvelopeProperties {
         continue;
       }
       double h = target.h().applyAsDouble(x);
-      double u = envelope.envelopeAt(target.lower(), target.upper(), x);
+      double u = envelopeAt(envelope, target.lower(), target.upper(), x);
       double l = envelope.squeeze(x);
       assertFalse(Double.isNaN(u), target + ": no envelope from " + offsets);
       double allowance = ROUNDING * (1 + Math.abs(h) + Math.abs(u));
@@ -98,6 +98,24 @@ class TangentEnvelopeProperties {
     return Combinators.combine(
             Arbitraries.doubles().between(0.05, 3), Arbitraries.doubles().between(0.05, 3))
         .as((left, right) -> new double[] {left, right});
+  }
+
+  /**
+   * The envelope the draw samples from, at {@code x}: the tangent of the piece of {@link
+   * TangentEnvelopeDraw#build} that holds x (pieces end where neighbouring tangents meet), or NaN
+   * where the abscissae make no valid envelope.
+   */
+  private static double envelopeAt(TangentEnvelopeDraw envelope, double lower, double upper,
+      double x) {
+    if (Double.isNaN(envelope.build(lower, upper))) {
+      return Double.NaN;
+    }
+    int last = envelope.abscissae().length - 1;
+    int j = 0;
+    while (j < last && x > envelope.ends[j + 1]) {
+      j++;
+    }
+    return envelope.tangent(j, x);
   }
 
   private static void add(TangentEnvelopeDraw envelope, Target target, double x) {
