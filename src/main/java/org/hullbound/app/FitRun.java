@@ -381,8 +381,20 @@ public final class FitRun implements AutoCloseable {
           "the checkpoint in " + resumeFolder + " has other unknowns than this model");
     }
     int updaters = checkpoint.chains().get(0).kernel().updaters().size();
-    if (updaters != sampler.sampler().rules().size()) {
-      // the moves along lines are extra updaters: a run with and one without them differ here
+    List<UpdateRule> rules = sampler.sampler().rules();
+    if (updaters != rules.size()) {
+      // the moves along lines are extra updaters: a run with and one without them differ here;
+      // any other count is another sampler for this model (another version's analysis)
+      int moves = (int) rules.stream().filter(UpdateRule.Move.class::isInstance).count();
+      boolean otherMoves = request.moves() ? updaters == rules.size() - moves
+          : updaters > rules.size();
+      if (!otherMoves) {
+        throw new CheckpointException(
+            "the run in " + resumeFolder + " has " + updaters + " updaters per chain, but this"
+                + " version samples the model with " + rules.size() + ": it was made by another"
+                + " version of hullbound and cannot be continued to the draws it would have"
+                + " made; start a new fit");
+      }
       throw new CheckpointException(
           "the run in " + resumeFolder + " was made " + (request.moves() ? "with --no-moves"
               : "with the moves along lines") + "; resume it " + (request.moves()

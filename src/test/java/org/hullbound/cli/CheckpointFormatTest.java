@@ -12,7 +12,10 @@ import java.util.List;
 import org.hullbound.app.FitRequest;
 import org.hullbound.app.FitRun;
 import org.hullbound.app.ModelInputs;
+import org.hullbound.gibbs.ChainState;
+import org.hullbound.gibbs.KernelState;
 import org.hullbound.gibbs.StopSignal;
+import org.hullbound.gibbs.UpdaterState;
 import org.hullbound.io.Checkpoint;
 import org.hullbound.io.CheckpointFile;
 import org.junit.jupiter.api.Test;
@@ -20,8 +23,9 @@ import org.junit.jupiter.api.io.TempDir;
 
 /**
  * Checkpoints of the {@code clinics} demo, whose direction blocks keep the most state: a checkpoint
- * written by an older build (format 1) is refused with exit 2 by its format, and a run of this
- * build stopped after its directions were fixed resumes to the draws of one run, byte for byte.
+ * written by an older build (format 1) is refused with exit 2 by its format, one whose updaters do
+ * not fit this version's sampler of the model is refused naming the cause, and a run of this build
+ * stopped after its directions were fixed resumes to the draws of one run, byte for byte.
  */
 class CheckpointFormatTest {
   @TempDir Path folder;
@@ -87,6 +91,29 @@ class CheckpointFormatTest {
     Checkpoint checkpoint = CheckpointFile.read(stopped);
     long sweep = checkpoint.chains().get(0).sweep();
     assertTrue(sweep > 100 && sweep < 1600, "stopped after burn-in, before the end: " + sweep);
+
+    // the same checkpoint without its last updater: another version's sampler of the model
+    Path other = folder.resolve("other");
+    Files.createDirectories(other);
+    Files.copy(stopped.resolve("draws.csv"), other.resolve("draws.csv"));
+    List<ChainState> fewer = new ArrayList<>();
+    for (ChainState chain : checkpoint.chains()) {
+      List<UpdaterState> updaters = chain.kernel().updaters();
+      fewer.add(new ChainState(chain.sweep(), chain.draws(), chain.generator(),
+          new KernelState(chain.kernel().values(), updaters.subList(0, updaters.size() - 1))));
+    }
+    CheckpointFile.write(other, new Checkpoint(false, checkpoint.modelFile(),
+        checkpoint.inputHash(), checkpoint.seed(), checkpoint.burnIn(), checkpoint.draws(),
+        checkpoint.thin(), checkpoint.columns(), fewer));
+    CliRun otherVersion = CliRun.of(fit("--resume", other.toString()));
+    assertEquals(2, otherVersion.exit(), otherVersion.toString());
+    assertTrue(otherVersion.errorIsPlain(), otherVersion.toString());
+    assertTrue(otherVersion.err().contains("was made by another version of hullbound"),
+        otherVersion.err());
+    CliRun withoutMoves = CliRun.of(fit("--resume", stopped.toString(), "--no-moves"));
+    assertEquals(2, withoutMoves.exit(), withoutMoves.toString());
+    assertTrue(withoutMoves.err().contains("was made with the moves along lines; resume it"
+        + " without --no-moves"), withoutMoves.err());
 
     CliRun resumed = CliRun.of(fit("--resume", stopped.toString()));
     assertEquals(0, resumed.exit(), resumed.toString());

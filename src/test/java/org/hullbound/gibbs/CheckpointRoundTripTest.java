@@ -195,7 +195,7 @@ class CheckpointRoundTripTest {
     assertEquals(permitted, CLASSES, "the demos reach every kind of updater");
     String all = String.join("; ", METHODS);
     for (String kind :
-        List.of("ARMS", "direction block", "shift move", "centred rescale move", "rescale move",
+        List.of("ARMS", "direction block", "shift move", "rescale move",
             "enumeration", "integer hull")) {
       assertTrue(all.contains(kind), "no demo has a '" + kind + "' updater: " + all);
     }
