@@ -3,15 +3,13 @@ package org.hullbound.cli;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
-import java.io.IOException;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
 import java.util.TreeSet;
-import java.util.stream.Collectors;
-import java.util.stream.Stream;
+import org.hullbound.model.DemoModels;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
@@ -21,34 +19,14 @@ import org.junit.jupiter.api.io.TempDir;
  * the chicks counted) is a broken first impression that no other test would see.
  */
 class DemoModelsFitTest {
-  /** Each demo and its data files, as README and docs/check.md give them. */
-  private static final Map<String, List<String>> DEMOS =
-      Map.ofEntries(
-          Map.entry("clinics", List.of("clinics.csv")),
-          Map.entry("extract", List.of("extract.csv")),
-          Map.entry("fill_weights", List.of("bottles.csv", "shifts.csv")),
-          Map.entry("fleet_faults", List.of()),
-          Map.entry("moth_traps", List.of()),
-          Map.entry("mussels", List.of("mussels.csv")),
-          Map.entry("nests", List.of()),
-          Map.entry("orchard", List.of("orchard.csv")),
-          Map.entry("seedlings", List.of("seedlings.csv")),
-          Map.entry("sensors", List.of("sensors.csv")),
-          Map.entry("weedkiller", List.of()),
-          Map.entry("wells", List.of("wells.csv")));
+  private static final Map<String, List<String>> DEMOS = DemoModels.DATA_FILES;
 
   @TempDir Path folder;
 
   @Test
-  void everyDemoIsListedHere() throws IOException {
-    try (Stream<Path> files = Files.list(Path.of("models"))) {
-      TreeSet<String> demos =
-          files.map(file -> file.getFileName().toString())
-              .filter(name -> name.endsWith(".hbm"))
-              .map(name -> name.substring(0, name.length() - ".hbm".length()))
-              .collect(Collectors.toCollection(TreeSet::new));
-      assertEquals(new TreeSet<>(DEMOS.keySet()), demos, "add a new demo and its data files here");
-    }
+  void everyDemoIsListedHere() {
+    assertEquals(new TreeSet<>(DEMOS.keySet()), DemoModels.inModelsFolder(),
+        "add a new demo and its data files to model.DemoModels");
   }
 
   @Test

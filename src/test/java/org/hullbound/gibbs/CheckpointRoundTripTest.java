@@ -22,8 +22,8 @@ import org.hullbound.io.CsvData;
 import org.hullbound.lang.Parser;
 import org.hullbound.lang.SourceText;
 import org.hullbound.model.BoundModel;
+import org.hullbound.model.DemoModels;
 import org.junit.jupiter.api.AfterAll;
-import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.MethodSource;
@@ -40,26 +40,13 @@ import org.junit.jupiter.params.provider.MethodSource;
  * and every demo, so that a new updater, move or cheap path whose state the file drops or whose
  * future draws depend on something it does not save fails here. The reference is the
  * uninterrupted run itself (the claim is identity); {@link #everyKindOfUpdaterIsCovered} checks
- * that the demos reach every kind of updater and move.
+ * that the demos reach every kind of updater and move. The demos come from {@link DemoModels},
+ * which {@code cli.DemoModelsFitTest} keeps equal to the models folder.
  */
 class CheckpointRoundTripTest {
   private static final int BURN_IN = 40;
 
-  /** Each demo and its data files, as README and docs/check.md give them. */
-  private static final Map<String, List<String>> DEMOS =
-      Map.ofEntries(
-          Map.entry("clinics", List.of("clinics.csv")),
-          Map.entry("extract", List.of("extract.csv")),
-          Map.entry("fill_weights", List.of("bottles.csv", "shifts.csv")),
-          Map.entry("fleet_faults", List.of()),
-          Map.entry("moth_traps", List.of()),
-          Map.entry("mussels", List.of("mussels.csv")),
-          Map.entry("nests", List.of()),
-          Map.entry("orchard", List.of("orchard.csv")),
-          Map.entry("seedlings", List.of("seedlings.csv")),
-          Map.entry("sensors", List.of("sensors.csv")),
-          Map.entry("weedkiller", List.of()),
-          Map.entry("wells", List.of("wells.csv")));
+  private static final Map<String, List<String>> DEMOS = DemoModels.DATA_FILES;
 
   /** The updater methods met in the runs of this class (filled by the parameterised test). */
   private static final Set<String> METHODS = java.util.Collections.synchronizedSet(new TreeSet<>());
@@ -86,17 +73,6 @@ class CheckpointRoundTripTest {
                     modelFile.toString(), Files.readString(modelFile, StandardCharsets.UTF_8))),
             data);
     return ModelSampler.of(bound, Map.of()).sampler().withAdaptation(BURN_IN);
-  }
-
-  @Test
-  void everyDemoIsListedHere() throws IOException {
-    try (Stream<Path> files = Files.list(Path.of("models"))) {
-      TreeSet<String> demos =
-          files.map(f -> f.getFileName().toString()).filter(n -> n.endsWith(".hbm"))
-              .map(n -> n.substring(0, n.length() - ".hbm".length()))
-              .collect(java.util.stream.Collectors.toCollection(TreeSet::new));
-      assertEquals(new TreeSet<>(DEMOS.keySet()), demos, "add a new demo and its data files here");
-    }
   }
 
   /**
