@@ -67,19 +67,14 @@ class CheckpointFormatTest {
   }
 
   /**
-   * One chain (so that the whole draws file compares byte for byte: rows of chains side by side
-   * interleave by timing), stopped at its first progress report after burn-in (a chain reports
-   * every 250 ms of its run, and 1,500 sweeps after burn-in take far longer on any machine), so
-   * the direction blocks have fixed their directions and replaced their members' draws; then
-   * resumed by the command.
+   * Fits {@code clinics} with one chain, 100 sweeps of burn-in and {@code draws} draws into {@code
+   * out}, asking it to stop at the first progress report after burn-in; whether it stopped there.
    */
-  @Test
-  void aRunStoppedAfterItsDirectionsWereFixedResumesToTheDrawsOfOneRun() throws Exception {
-    Path stopped = folder.resolve("stopped");
+  private static boolean stoppedAfterBurnIn(Path out, int draws) {
     FitRequest request =
         new FitRequest(
             new ModelInputs(Path.of("models/clinics.hbm"), List.of(Path.of("models/clinics.csv"))),
-            null, 1, 100, 1500, null, 23L, 1, stopped, null, false, 0.95);
+            null, 1, 100, draws, null, 23L, 1, out, null, false, 0.95);
     StopSignal stop = StopSignal.create();
     try (FitRun run = FitRun.prepare(request)) {
       run.run(progress -> {
@@ -88,9 +83,31 @@ class CheckpointFormatTest {
         }
       }, stop);
     }
+    return stop.isRequested() && Files.exists(CheckpointFile.in(out))
+        && !CheckpointFile.read(out).complete();
+  }
+
+  /**
+   * One chain (so that the whole draws file compares byte for byte: rows of chains side by side
+   * interleave by timing), stopped at its first progress report after burn-in (a chain reports
+   * every 250 ms of its run; 1,500 draws take longer on the machines we know, and a run that ends
+   * first is made again longer), so the direction blocks have fixed their directions and replaced
+   * their members' draws; then resumed by the command.
+   */
+  @Test
+  void aRunStoppedAfterItsDirectionsWereFixedResumesToTheDrawsOfOneRun() throws Exception {
+    // A run too fast to report before its end (a fast machine) leaves no checkpoint: it is made
+    // again four times longer, so that the stop comes after burn-in whatever the speed.
+    int draws = 1500;
+    Path stopped = folder.resolve("stopped-" + draws);
+    while (!stoppedAfterBurnIn(stopped, draws)) {
+      draws *= 4;
+      assertTrue(draws < 2_000_000, "the run always ended before its first progress report");
+      stopped = folder.resolve("stopped-" + draws);
+    }
     Checkpoint checkpoint = CheckpointFile.read(stopped);
     long sweep = checkpoint.chains().get(0).sweep();
-    assertTrue(sweep > 100 && sweep < 1600, "stopped after burn-in, before the end: " + sweep);
+    assertTrue(sweep > 100 && sweep < 100 + draws, "stopped after burn-in, before the end: " + sweep);
 
     // the same checkpoint without its last updater: another version's sampler of the model
     Path other = folder.resolve("other");
@@ -118,10 +135,11 @@ class CheckpointFormatTest {
     CliRun resumed = CliRun.of(fit("--resume", stopped.toString()));
     assertEquals(0, resumed.exit(), resumed.toString());
     Path whole = folder.resolve("whole");
-    CliRun uninterrupted = CliRun.of(fit("--chains", "1", "--burn-in", "100", "--draws", "1500",
+    CliRun uninterrupted = CliRun.of(fit("--chains", "1", "--burn-in", "100", "--draws",
+        String.valueOf(draws),
         "--seed", "23", "--out", whole.toString()));
     assertEquals(0, uninterrupted.exit(), uninterrupted.toString());
-    assertEquals(1 + 1500, Files.readAllLines(stopped.resolve("draws.csv")).size());
+    assertEquals(1 + draws, Files.readAllLines(stopped.resolve("draws.csv")).size());
     assertArrayEquals(
         Files.readAllBytes(whole.resolve("draws.csv")),
         Files.readAllBytes(stopped.resolve("draws.csv")),
