@@ -31,10 +31,12 @@ public final class CheckpointFile {
   public static final String FILE_NAME = "checkpoint.txt";
 
   /**
-   * The layout of the updaters' saved words this build writes and reads. Raised whenever an
-   * updater's {@code save()} changes what it writes: 1 until session 6, whose direction blocks
-   * save more words (their conditional Hessian) and whose cheap adaptive rejection path uses random
-   * numbers differently, so a format-1 run could not be continued to the draws it would have made.
+   * The layout this build writes and reads, raised whenever what an updater's {@code save()} writes,
+   * or the draws that follow a restored state, change. Format 1 was written in two layouts: up to
+   * 11200c3, and by the builds of 3 December 2026 (session 6), whose direction blocks also save
+   * their conditional Hessian and whose cheap adaptive rejection path uses random numbers
+   * otherwise. The file cannot tell them apart, and neither can be continued by this build to the
+   * draws its writer would have made, so both are refused by their format.
    */
   static final int FORMAT = 2;
 
