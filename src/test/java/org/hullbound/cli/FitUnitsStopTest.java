@@ -78,7 +78,8 @@ class FitUnitsStopTest {
     Path units = out.resolve("units.csv");
     long deadline = System.nanoTime() + TimeUnit.SECONDS.toNanos(120);
     while (!(Files.exists(units) && Files.readAllLines(units).size() >= 1 + GatedTasks.OPEN)) {
-      assertTrue(child.isAlive(), "the child is still running: " + Files.readString(folder.resolve("err.txt")));
+      assertTrue(child.isAlive(),
+          "the child is still running: " + Files.readString(folder.resolve("err.txt")));
       assertTrue(System.nanoTime() < deadline, "two units finished within two minutes");
       Thread.sleep(20);
     }

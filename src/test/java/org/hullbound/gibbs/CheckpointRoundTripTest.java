@@ -30,11 +30,11 @@ import org.junit.jupiter.params.provider.MethodSource;
 
 /**
  * Every sampler state of every demo in {@code models/} survives the checkpoint file: a run stopped
- * during burn-in (while the direction blocks measure their Hessian) and again after it (once the direction blocks have fixed their directions and
- * hand their members' draws over), each time written to {@code checkpoint.txt} and read back,
- * resumes to exactly the draws and final updater states of the same run never stopped. The file
- * must give back each chain's state equal to the one saved (values by their bits, every updater's
- * words and note) and write the same text again.
+ * during burn-in (while the direction blocks measure their Hessian) and again after it (once the
+ * direction blocks have fixed their directions and hand their members' draws over), each time
+ * written to {@code checkpoint.txt} and read back, resumes to exactly the draws and final updater
+ * states of the same run never stopped. The file must give back each chain's state equal to the
+ * one saved (values by their bits, every updater's words and note) and write the same text again.
  *
  * <p>{@link ResumeExactnessTest} checks resumption in memory on a few models; this adds the file
  * and every demo, so that a new updater, move or cheap path whose state the file drops or whose
