@@ -11,8 +11,8 @@
 # summary.csv, units.csv and batch.txt, the calibration's ranks.csv).
 set -euo pipefail
 cd "$(dirname "$0")/.."
-mvn -B -q -o -P spark -DskipTests package
-mvn -B -q -o -P spark dependency:build-classpath -Dmdep.outputFile="$PWD/target/spark/classpath.txt" >/dev/null
+mvn -B -q -P spark -DskipTests package
+mvn -B -q -P spark dependency:build-classpath -Dmdep.outputFile="$PWD/target/spark/classpath.txt" >/dev/null
 # Spark's jars only: the profile's class path less hullbound's own libraries and test libraries,
 # which the application jar carries itself (picocli, ejml, commons-csv) or never needs.
 SPARK_CP=$(tr ':' '\n' < target/spark/classpath.txt \
