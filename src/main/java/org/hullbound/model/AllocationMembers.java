@@ -3,8 +3,6 @@ package org.hullbound.model;
 import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.List;
-import java.util.Set;
-import java.util.TreeSet;
 
 /**
  * The member lists of a conditional whose blanket follows an allocation ({@link UnknownIndex}):
@@ -41,8 +39,8 @@ final class AllocationMembers {
   }
 
   private final int termCount;
-  /** Per term: the guards that select it ({@link UnknownIndex#guards}), null if always in. */
-  private final Evaluator[][] guards;
+  /** Per term: the guards that select it ({@link UnknownIndex#guards}), none if always in. */
+  private final Guards guards;
   /** The inputs' slots, ascending, and where each run of consecutive slots starts in them. */
   private final int[] inputs;
   private final int[] runStart;
@@ -54,9 +52,9 @@ final class AllocationMembers {
   private final int[] partTerms;
   private final boolean[] wide;
 
-  private AllocationMembers(Evaluator[][] guards, int[] inputs, List<int[]> guardReaders,
+  private AllocationMembers(int termCount, Guards guards, int[] inputs, List<int[]> guardReaders,
       List<int[]> partReaders, boolean[] wide) {
-    this.termCount = guards.length;
+    this.termCount = termCount;
     this.guards = guards;
     this.inputs = inputs;
     List<Integer> starts = new ArrayList<>();
@@ -91,53 +89,138 @@ final class AllocationMembers {
   /**
    * The member lists of a blanket, or {@code null} when no term is gated (the blanket is fixed).
    *
-   * @param blanket the conditional's terms, in its order, each in the form it is evaluated in
-   *     ({@link #memberForm})
+   * @param termCount how many terms the conditional's blanket has
    * @param slot the conditional's own unknown
    * @param inputs the other unknowns' slots the terms read, ascending
-   * @param guardFormulas per term, its guards ({@link UnknownIndex#guards}) or {@code null}
-   * @param guards the same guards compiled
+   * @param reads per term {@code t}, {@code reads[readStart[t] .. readStart[t + 1])}: the slots its
+   *     form ({@link #memberForm}) reads
+   * @param guardReads the same for the slots its guards read
+   * @param guards every term's guards ({@link UnknownIndex#guards})
    */
-  static AllocationMembers of(List<Term> blanket, int slot, int[] inputs,
-      List<List<Formula>> guardFormulas, Evaluator[][] guards) {
-    boolean any = false;
-    for (Evaluator[] g : guards) {
-      any |= g != null;
-    }
-    if (!any) {
+  static AllocationMembers of(int termCount, int slot, int[] inputs, int[] readStart, int[] reads,
+      int[] guardReadStart, int[] guardReads, Guards guards) {
+    if (!guards.any()) {
       return null;
     }
-    List<List<Integer>> guardReaders = new ArrayList<>();
-    List<List<Integer>> partReaders = new ArrayList<>();
+    List<RowColumn.IntList> guardReaders = new ArrayList<>();
+    List<RowColumn.IntList> partReaders = new ArrayList<>();
     for (int j = 0; j < inputs.length; j++) {
-      guardReaders.add(new ArrayList<>());
-      partReaders.add(new ArrayList<>());
+      guardReaders.add(new RowColumn.IntList());
+      partReaders.add(new RowColumn.IntList());
     }
-    Set<Integer> read = new TreeSet<>();
-    for (int t = 0; t < blanket.size(); t++) {
-      read.clear();
-      Term term = blanket.get(t);
-      term.value().collectSlots(read);
-      for (Formula a : term.arguments()) {
-        a.collectSlots(read);
-      }
-      addReader(read, slot, inputs, partReaders, t);
-      if (guardFormulas.get(t) != null) {
-        read.clear();
-        for (Formula g : guardFormulas.get(t)) {
-          g.collectSlots(read);
-        }
-        addReader(read, slot, inputs, guardReaders, t);
-      }
+    for (int t = 0; t < termCount; t++) {
+      addReader(reads, readStart[t], readStart[t + 1], slot, inputs, partReaders, t);
+      addReader(guardReads, guardReadStart[t], guardReadStart[t + 1], slot, inputs, guardReaders,
+          t);
     }
     boolean[] wide = new boolean[inputs.length];
     List<int[]> parts = new ArrayList<>();
     for (int j = 0; j < inputs.length; j++) {
-      wide[j] = partReaders.get(j).size() > Math.max(1, blanket.size() / WIDE_SHARE);
-      parts.add(wide[j] ? new int[0] : toArray(partReaders.get(j)));
+      wide[j] = partReaders.get(j).size > Math.max(1, termCount / WIDE_SHARE);
+      parts.add(wide[j] ? new int[0] : partReaders.get(j).toArray());
     }
-    return new AllocationMembers(guards, inputs,
-        guardReaders.stream().map(AllocationMembers::toArray).toList(), parts, wide);
+    return new AllocationMembers(termCount, guards, inputs,
+        guardReaders.stream().map(RowColumn.IntList::toArray).toList(), parts, wide);
+  }
+
+  /**
+   * The guards of a blanket's terms: where every guard of a term is {@code [slot = v]} (an
+   * allocation compared with an option, the common case) as pairs of primitive columns, with no
+   * object per term; any other guard (an index that combines unknowns) compiled, per term.
+   */
+  static final class Guards {
+    private final int[] start;
+    private final int[] slots;
+    private final double[] values;
+    /** Per term, its compiled guards when they are not all {@code [slot = v]}; else null. */
+    private final Evaluator[][] compiled;
+    private final boolean any;
+
+    private Guards(int[] start, int[] slots, double[] values, Evaluator[][] compiled, boolean any) {
+      this.start = start;
+      this.slots = slots;
+      this.values = values;
+      this.compiled = compiled;
+      this.any = any;
+    }
+
+    boolean any() {
+      return any;
+    }
+
+    /** Whether term {@code t} has guards (its membership follows an allocation). */
+    boolean gated(int t) {
+      return start[t + 1] > start[t] || compiled != null && compiled[t] != null;
+    }
+
+    /** Whether term {@code t} is selected at the frame's state: one of its guards is 1. */
+    boolean selects(int t, Frame frame) {
+      if (compiled != null && compiled[t] != null) {
+        return AllocationMembers.selects(compiled[t], frame);
+      }
+      double[] state = frame.state;
+      for (int k = start[t]; k < start[t + 1]; k++) {
+        if (Op.EQUAL.binary(state[slots[k]], values[k]) != 0) {
+          return true;
+        }
+      }
+      return false;
+    }
+
+    /** Gathers the guards term by term, in blanket order. */
+    static final class Builder {
+      private final RowColumn.IntList start = new RowColumn.IntList();
+      private final RowColumn.IntList slots = new RowColumn.IntList();
+      private RowColumn.Doubles values = new RowColumn.Doubles();
+      private java.util.Map<Integer, Evaluator[]> compiled;
+      private boolean any;
+      private int terms;
+
+      Builder() {
+        start.add(0);
+      }
+
+      /** Adds the next term's guards ({@link UnknownIndex#guards}: null for none). */
+      void add(List<Formula> found) {
+        if (found != null) {
+          any = true;
+          boolean simple = true;
+          for (Formula g : found) {
+            simple &= g instanceof Formula.Operation o && o.op() == Op.EQUAL
+                && o.parts().get(0) instanceof Formula.Slot
+                && o.parts().get(1) instanceof Formula.Constant;
+          }
+          if (simple) {
+            for (Formula g : found) {
+              List<Formula> parts = ((Formula.Operation) g).parts();
+              slots.add(((Formula.Slot) parts.get(0)).index());
+              values.add(((Formula.Constant) parts.get(1)).value());
+            }
+          } else {
+            if (compiled == null) {
+              compiled = new java.util.HashMap<>();
+            }
+            compiled.put(terms,
+                found.stream().map(f -> Evaluator.compile(f, -1)).toArray(Evaluator[]::new));
+          }
+        }
+        start.add(slots.size);
+        terms++;
+      }
+
+      Guards build() {
+        Evaluator[][] perTerm = null;
+        if (compiled != null) {
+          perTerm = new Evaluator[terms][];
+          for (var e : compiled.entrySet()) {
+            perTerm[e.getKey()] = e.getValue();
+          }
+        }
+        int[] valueStart = start.toArray();
+        double[] held = java.util.Arrays.copyOf(values.values, slots.size);
+        return new Guards(valueStart, slots.toArray(), held, perTerm, any);
+      }
+    }
   }
 
   /**
@@ -200,17 +283,13 @@ final class AllocationMembers {
     return Formulas.apply(o.op(), parts);
   }
 
-  private static void addReader(
-      Set<Integer> read, int slot, int[] inputs, List<List<Integer>> readers, int term) {
-    for (int s : read) {
-      if (s != slot) {
-        readers.get(Arrays.binarySearch(inputs, s)).add(term);
+  private static void addReader(int[] read, int from, int to, int slot, int[] inputs,
+      List<RowColumn.IntList> readers, int term) {
+    for (int k = from; k < to; k++) {
+      if (read[k] != slot) {
+        readers.get(Arrays.binarySearch(inputs, read[k])).add(term);
       }
     }
-  }
-
-  private static int[] toArray(List<Integer> list) {
-    return list.stream().mapToInt(Integer::intValue).toArray();
   }
 
   /** A tracker for one thread's workspace: nothing known until its first synchronisation. */
@@ -233,7 +312,7 @@ final class AllocationMembers {
       if (!ready) {
         Arrays.fill(members, 0);
         for (int t = 0; t < termCount; t++) {
-          if (guards[t] == null || selected(t, frame)) {
+          if (!guards.gated(t) || selected(t, frame)) {
             members[t >>> 6] |= 1L << t;
             preparation.prepare(t);
           }
@@ -308,7 +387,7 @@ final class AllocationMembers {
     }
 
     private boolean selected(int t, Frame frame) {
-      return selects(guards[t], frame);
+      return guards.selects(t, frame);
     }
   }
 

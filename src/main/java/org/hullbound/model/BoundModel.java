@@ -312,11 +312,21 @@ public final class BoundModel {
     checkIndex(index);
     ConditionalDensity c = conditionals.get(index);
     if (c == null) {
-      int[] indexes = new int[dependents[index].length + 1];
-      indexes[0] = ownTerm[index];
-      System.arraycopy(dependents[index], 0, indexes, 1, dependents[index].length);
-      // Made once each for the compiler's passes, which hold an evaluator per term anyway.
-      List<Term> blanket = new ArrayList<>(TermTable.at(terms, indexes));
+      // Each term made when read: the compiler reads each once, keeps its numbers in columns
+      // and drops it, so the blanket is never held as terms.
+      int own = ownTerm[index];
+      int[] rest = dependents[index];
+      List<Term> blanket = new java.util.AbstractList<>() {
+        @Override
+        public Term get(int k) {
+          return terms.get(k == 0 ? own : rest[k - 1]);
+        }
+
+        @Override
+        public int size() {
+          return rest.length + 1;
+        }
+      };
       c = new CompiledConditional(
           unknowns.get(index), blanket, lowerBounds[index], upperBounds[index], cuts[index],
           smooth[index]);

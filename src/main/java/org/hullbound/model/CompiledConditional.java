@@ -51,7 +51,17 @@ import org.hullbound.model.family.Scale;
 final class CompiledConditional implements ConditionalDensity {
   private final Unknown unknown;
   private final Scale scale;
-  private final TermEvaluator[] terms;
+  /** The blanket's terms, made again when read: only the reference path reads them. */
+  private final List<Term> blanket;
+  private final int termCount;
+  /**
+   * The blanket's terms grouped by shape: one shared evaluator per shape, each term a row of its
+   * shape's columns of numbers ({@link Shape}); term {@code i} is row {@code rowOf[i]} of shape
+   * {@code shapeOf[i]}.
+   */
+  private final Shape[] shapes;
+  private final int[] shapeOf;
+  private final int[] rowOf;
   private final boolean[] aritiesUsed;
   private final Evaluator lower;
   private final Evaluator upper;
@@ -65,42 +75,17 @@ final class CompiledConditional implements ConditionalDensity {
   private final boolean smooth;
   /** The other unknowns' slots that the terms read, each once: a draw's inputs. */
   private final int[] inputs;
-  /** Where each term's parts start in a workspace's part arrays. */
-  private final int[] firstPart;
-  private final int partCount;
-  /**
-   * The parts whose {@code a} and {@code b} are linear in the other unknowns with known
-   * coefficients (a predictor over data covariates), kept flat: form {@code 2 part} is {@code
-   * a}, {@code 2 part + 1} is {@code b}, entries {@code formStart[f] .. formStart[f + 1]}.
-   */
-  private final boolean[] linearPart;
-  private final int[] formStart;
-  private final double[] formConstant;
-  private final int[] formSlot;
-  private final double[] formCoefficient;
-  /**
-   * The parts whose linear forms read another unknown, worked out at every draw; the others'
-   * forms are constants (an observed value, a known argument), worked out once per workspace.
-   */
-  private final int[] varyingLinearParts;
-  /** The terms with an affine part whose {@code a} or {@code b} is a tree, not a linear form. */
-  private final int[] treePrepared;
-  /**
-   * Per term: the indicators that guard every place it reads the unknown ({@link
-   * UnknownIndex#guards}), or {@code null} for a term always in the blanket; a draw in which all
-   * are 0 leaves the term out (the allocation selects another element).
-   */
-  private final Evaluator[][] guards;
   private final boolean anyGated;
   /** The member lists of a blanket that follows an allocation, or {@code null}. */
   private final AllocationMembers members;
   /**
-   * The terms in blanket order as runs: a run of consecutive terms that one {@link AffineRows}
-   * loop sums ({@code runRows[r]} not null, {@code runLength[r]} terms from {@code runStart[r]}),
-   * or a single term evaluated alone. Null when a blanket follows an allocation (the active list
-   * decides then).
+   * The terms in blanket order as runs: consecutive rows of one shape that its {@link AffineRows}
+   * loop sums ({@code runRows[r]} not null, {@code runLength[r]} rows of shape {@code
+   * runShape[r]} from row {@code runRow[r]}), or a single term evaluated alone. Null when a blanket
+   * follows an allocation (the active list decides then).
    */
-  private final int[] runStart;
+  private final int[] runShape;
+  private final int[] runRow;
   private final int[] runLength;
   private final AffineRows[] runRows;
   /**
@@ -111,33 +96,86 @@ final class CompiledConditional implements ConditionalDensity {
   private final int[] runKeptFirst;
   private final boolean[] runKeptPerDraw;
   private final int keptCount;
+  /** Each term compiled alone, for the reference path only: made on its first call. */
+  private volatile Reference reference;
   private final ThreadLocal<Workspace> workspaces = ThreadLocal.withInitial(Workspace::new);
 
+  /**
+   * Compiles the conditional of {@code unknown} from its blanket (own term first), reading each
+   * term once: its numbers go to its shape's columns and the term is dropped, so {@code blanket}
+   * may make its terms when read ({@link TermTable}); it is held for the reference path.
+   */
   CompiledConditional(
       Unknown unknown, List<Term> blanket, Formula lower, Formula upper, ArgumentBounds cuts,
       boolean smooth) {
     this.unknown = unknown;
     this.scale = unknown.scale();
+    this.blanket = blanket;
     int slot = unknown.index();
-    this.terms = new TermEvaluator[blanket.size()];
+    this.termCount = blanket.size();
+    this.shapeOf = new int[termCount];
+    this.rowOf = new int[termCount];
+    List<Shape> found = new java.util.ArrayList<>();
+    java.util.Map<Object, Integer> byKey = new java.util.HashMap<>();
+    java.util.BitSet read = new java.util.BitSet();
+    AllocationMembers.Guards.Builder guardsFound = new AllocationMembers.Guards.Builder();
+    RowColumn.IntList readStart = new RowColumn.IntList();
+    RowColumn.IntList reads = new RowColumn.IntList();
+    RowColumn.IntList guardReadStart = new RowColumn.IntList();
+    RowColumn.IntList guardReads = new RowColumn.IntList();
+    readStart.add(0);
+    guardReadStart.add(0);
+    java.util.Set<Integer> termReads = new java.util.TreeSet<>();
     int maxArity = 0;
-    for (Term t : blanket) {
-      maxArity = Math.max(maxArity, t.arguments().size());
+    for (int i = 0; i < termCount; i++) {
+      Term term = blanket.get(i);
+      List<Formula> guards = UnknownIndex.guards(term, slot);
+      guardsFound.add(guards);
+      // A gated term is evaluated only while selected, so in the form it takes then.
+      Term evaluated = AllocationMembers.memberForm(term, guards);
+      maxArity = Math.max(maxArity, evaluated.arguments().size());
+      termReads.clear();
+      term.value().collectSlots(termReads);
+      for (Formula a : term.arguments()) {
+        a.collectSlots(termReads);
+      }
+      termReads.forEach(read::set);
+      termReads.clear();
+      evaluated.value().collectSlots(termReads);
+      for (Formula a : evaluated.arguments()) {
+        a.collectSlots(termReads);
+      }
+      termReads.forEach(reads::add);
+      readStart.add(reads.size);
+      if (guards != null) {
+        termReads.clear();
+        for (Formula g : guards) {
+          g.collectSlots(termReads);
+        }
+        termReads.forEach(guardReads::add);
+      }
+      guardReadStart.add(guardReads.size);
+      TermEvaluator compiled = new TermEvaluator(evaluated, slot, scale);
+      Object key = compiled.shapeKey();
+      Integer known = key == null ? null : byKey.get(key);
+      if (known == null) {
+        known = found.size();
+        found.add(new Shape(compiled.shared()));
+        if (key != null) {
+          byKey.put(key, known);
+        }
+      }
+      shapeOf[i] = known;
+      rowOf[i] = found.get(known).add(compiled.linearForms);
+      compiled.linearForms = null;
+    }
+    this.shapes = found.toArray(new Shape[0]);
+    for (Shape shape : shapes) {
+      shape.finish();
     }
     this.aritiesUsed = new boolean[maxArity + 1];
-    this.guards = new Evaluator[terms.length][];
-    List<List<Formula>> guardFormulas = new java.util.ArrayList<>();
-    List<Term> evaluated = new java.util.ArrayList<>();
-    for (int i = 0; i < terms.length; i++) {
-      List<Formula> found = UnknownIndex.guards(blanket.get(i), slot);
-      guardFormulas.add(found);
-      if (found != null) {
-        guards[i] = found.stream().map(f -> Evaluator.compile(f, -1)).toArray(Evaluator[]::new);
-      }
-      // A gated term is evaluated only while selected, so in the form it takes then.
-      evaluated.add(AllocationMembers.memberForm(blanket.get(i), found));
-      terms[i] = new TermEvaluator(evaluated.get(i), slot, scale);
-      aritiesUsed[blanket.get(i).arguments().size()] = true;
+    for (Shape shape : shapes) {
+      aritiesUsed[shape.term.arity] = true;
     }
     this.lower = Evaluator.compile(lower, -1);
     this.upper = Evaluator.compile(upper, -1);
@@ -148,107 +186,155 @@ final class CompiledConditional implements ConditionalDensity {
     this.constantUpper = upper instanceof Formula.Constant c && cuts.fixed()
         ? toSamplingScale(Math.min(c.value(), cuts.upper(none))) : Double.NaN;
     this.smooth = smooth;
-    java.util.Set<Integer> read = new java.util.TreeSet<>();
-    for (Term t : blanket) {
-      t.value().collectSlots(read);
-      for (Formula a : t.arguments()) {
-        a.collectSlots(read);
-      }
-    }
-    read.remove(slot);
-    this.inputs = read.stream().mapToInt(Integer::intValue).toArray();
-    this.firstPart = new int[terms.length];
-    int parts = 0;
-    for (int i = 0; i < terms.length; i++) {
-      firstPart[i] = parts;
-      parts += 1 + terms[i].arity;
-    }
-    this.partCount = parts;
-    this.linearPart = new boolean[parts];
-    this.formStart = new int[2 * parts + 1];
-    this.formConstant = new double[2 * parts];
-    int entries = 0;
-    for (int i = 0; i < terms.length; i++) {
-      for (int p = 0; p <= terms[i].arity; p++) {
-        for (int side = 0; side < 2; side++) {
-          Formulas.LinearForm form = terms[i].linearForms[2 * p + side];
-          entries += form == null ? 0 : form.slots().length;
-        }
-      }
-    }
-    this.formSlot = new int[entries];
-    this.formCoefficient = new double[entries];
-    int next = 0;
-    for (int i = 0; i < terms.length; i++) {
-      for (int p = 0; p <= terms[i].arity; p++) {
-        int part = firstPart[i] + p;
-        linearPart[part] = terms[i].linearForms[2 * p] != null;
-        for (int side = 0; side < 2; side++) {
-          int f = 2 * part + side;
-          formStart[f] = next;
-          Formulas.LinearForm form = terms[i].linearForms[2 * p + side];
-          if (form != null) {
-            formConstant[f] = form.constant();
-            System.arraycopy(form.slots(), 0, formSlot, next, form.slots().length);
-            System.arraycopy(form.coefficients(), 0, formCoefficient, next, form.slots().length);
-            next += form.slots().length;
-          }
-        }
-      }
-      terms[i].linearForms = null;
-    }
-    formStart[2 * parts] = next;
-    this.varyingLinearParts = java.util.stream.IntStream.range(0, parts)
-        .filter(part -> linearPart[part] && formStart[2 * part + 2] > formStart[2 * part])
-        .toArray();
-    this.treePrepared = java.util.stream.IntStream.range(0, terms.length)
-        .filter(i -> terms[i].preparesTrees()).toArray();
-    this.members = AllocationMembers.of(evaluated, slot, inputs, guardFormulas, guards);
+    read.clear(slot);
+    this.inputs = read.stream().toArray();
+    this.members = AllocationMembers.of(termCount, slot, inputs, readStart.toArray(),
+        reads.toArray(), guardReadStart.toArray(), guardReads.toArray(), guardsFound.build());
     this.anyGated = members != null;
     if (anyGated) {
-      this.runStart = null;
+      this.runShape = null;
+      this.runRow = null;
       this.runLength = null;
       this.runRows = null;
       this.runKeptFirst = null;
       this.runKeptPerDraw = null;
       this.keptCount = 0;
     } else {
-      List<int[]> runs = new java.util.ArrayList<>();
-      for (int i = 0; i < terms.length; i++) {
-        int[] last = runs.isEmpty() ? null : runs.get(runs.size() - 1);
-        if (last != null && terms[i].rows != null && terms[last[0]].joins(terms[i])) {
-          last[1]++;
-        } else {
-          runs.add(new int[] {i, 1});
+      RowColumn.IntList starts = new RowColumn.IntList();
+      for (int i = 0; i < termCount; i++) {
+        boolean joins = i > 0 && shapeOf[i] == shapeOf[i - 1]
+            && shapes[shapeOf[i]].term.rows != null;
+        if (!joins) {
+          starts.add(i);
         }
       }
-      this.runStart = runs.stream().mapToInt(r -> r[0]).toArray();
-      this.runLength = runs.stream().mapToInt(r -> r[1]).toArray();
-      this.runRows = runs.stream().map(r -> terms[r[0]].rows).toArray(AffineRows[]::new);
-      this.runKeptFirst = new int[runRows.length];
-      this.runKeptPerDraw = new boolean[runRows.length];
+      int[] first = starts.toArray();
+      int runs = first.length;
+      this.runShape = new int[runs];
+      this.runRow = new int[runs];
+      this.runLength = new int[runs];
+      this.runRows = new AffineRows[runs];
+      this.runKeptFirst = new int[runs];
+      this.runKeptPerDraw = new boolean[runs];
       int kept = 0;
-      for (int r = 0; r < runRows.length; r++) {
+      for (int r = 0; r < runs; r++) {
+        int i = first[r];
+        runShape[r] = shapeOf[i];
+        runRow[r] = rowOf[i];
+        runLength[r] = (r + 1 < runs ? first[r + 1] : termCount) - i;
+        Shape shape = shapes[shapeOf[i]];
+        runRows[r] = shape.term.rows;
         runKeptFirst[r] = kept;
         if (runRows[r] == null || runRows[r].keptPerRow() == 0) {
           continue;
         }
         kept += runRows[r].keptPerRow() * runLength[r];
-        for (int i = runStart[r]; i < runStart[r] + runLength[r]; i++) {
-          for (int p = 0; p <= terms[i].arity; p++) {
-            int part = firstPart[i] + p;
-            boolean constant = linearPart[part] && formStart[2 * part + 2] == formStart[2 * part];
-            runKeptPerDraw[r] |= p != 1 + terms[i].moving[0] && !constant;
+        runKeptPerDraw[r] = shape.keptPerDraw();
+      }
+      this.keptCount = kept;
+    }
+  }
+
+  /**
+   * The terms of one shape: one evaluator for every term that differs from the others only in
+   * numbers (its data values, the constants and coefficients of its linear forms, the slots those
+   * read), and those numbers per row in primitive columns ({@link RowColumn}), with no object per
+   * row. A term whose parts are not all linear forms in the other unknowns (a tree must be kept)
+   * is a shape of its own, of one row.
+   */
+  private static final class Shape {
+    final TermEvaluator term;
+    final int parts;
+    /** Per form {@code 2 p} (a of part p) and {@code 2 p + 1} (b): its constant, null if none. */
+    final RowColumn.Doubles[] constants;
+    final RowColumn.Ints[][] slots;
+    final RowColumn.Doubles[][] coefficients;
+    int rows;
+
+    Shape(TermEvaluator term) {
+      this.term = term;
+      this.parts = 1 + term.arity;
+      this.constants = new RowColumn.Doubles[2 * parts];
+      this.slots = new RowColumn.Ints[2 * parts][];
+      this.coefficients = new RowColumn.Doubles[2 * parts][];
+    }
+
+    /** Adds a term's linear forms as the next row; returns the row. */
+    int add(Formulas.LinearForm[] forms) {
+      for (int f = 0; f < forms.length; f++) {
+        Formulas.LinearForm form = forms[f];
+        if (form == null) {
+          continue;
+        }
+        if (constants[f] == null) {
+          constants[f] = new RowColumn.Doubles();
+          slots[f] = new RowColumn.Ints[form.slots().length];
+          coefficients[f] = new RowColumn.Doubles[form.slots().length];
+          for (int e = 0; e < slots[f].length; e++) {
+            slots[f][e] = new RowColumn.Ints();
+            coefficients[f][e] = new RowColumn.Doubles();
+          }
+        }
+        constants[f].add(form.constant());
+        for (int e = 0; e < slots[f].length; e++) {
+          slots[f][e].add(form.slots()[e]);
+          coefficients[f][e].add(form.coefficients()[e]);
+        }
+      }
+      return rows++;
+    }
+
+    void finish() {
+      for (int f = 0; f < constants.length; f++) {
+        if (constants[f] != null) {
+          constants[f].finish();
+          for (int e = 0; e < slots[f].length; e++) {
+            slots[f][e].finish();
+            coefficients[f][e].finish();
           }
         }
       }
-      this.keptCount = kept;
+    }
+
+    /** Whether form {@code f} is a linear form that reads another unknown (worked out per draw). */
+    boolean varies(int f) {
+      return constants[f] != null && slots[f].length > 0;
+    }
+
+    /**
+     * Whether the rows' kept numbers must be worked out at each draw: some part but the moving
+     * argument is not a constant linear form.
+     */
+    boolean keptPerDraw() {
+      for (int p = 0; p < parts; p++) {
+        if (p != 1 + term.moving[0]
+            && (constants[2 * p] == null || varies(2 * p) || varies(2 * p + 1))) {
+          return true;
+        }
+      }
+      return false;
+    }
+
+    /** {@code constant + sum of coefficient * state[slot]} of form {@code f} at row {@code r}. */
+    double linearValue(int f, int r, double[] state) {
+      double value = constants[f].at(r);
+      RowColumn.Ints[] s = slots[f];
+      RowColumn.Doubles[] c = coefficients[f];
+      for (int e = 0; e < s.length; e++) {
+        value += c[e].at(r) * state[s[e].at(r)];
+      }
+      return value;
     }
   }
 
   /** Whether some term's blanket membership follows an allocation ({@link UnknownIndex}). */
   boolean dynamicBlanket() {
     return anyGated;
+  }
+
+  /** How many shapes (shared evaluators) the blanket's terms were grouped into. */
+  int shapeCount() {
+    return shapes.length;
   }
 
   /**
@@ -261,27 +347,22 @@ final class CompiledConditional implements ConditionalDensity {
     return workspace.activeCount;
   }
 
-  /** {@code constant + sum of coefficient * state[slot]} of form {@code f}. */
-  private double linearValue(int f, double[] state) {
-    double value = formConstant[f];
-    for (int e = formStart[f]; e < formStart[f + 1]; e++) {
-      value += formCoefficient[e] * state[formSlot[e]];
-    }
-    return value;
-  }
-
   /**
-   * One thread's scratch space: a reused frame, the inputs the parts were worked out at, and each
-   * part's {@code a} and {@code b} ({@code part = a + b x}) for the current draw.
+   * One thread's scratch space: a reused frame, the inputs the parts were worked out at, and per
+   * shape and part the columns its {@code a} and {@code b} ({@code part = a + b x}) are read from
+   * in the current draw: the shape's own column where the form is a constant, a column of this
+   * workspace where it reads another unknown.
    */
   private final class Workspace implements AllocationMembers.Preparation {
     final Frame frame = new Frame(Double.NaN, null, aritiesUsed);
     final double[] inputValues = new double[inputs.length];
-    final double[] intercepts = new double[partCount];
-    final double[] slopes = new double[partCount];
+    final double[][][] intercepts = new double[shapes.length][][];
+    final int[][] interceptStrides = new int[shapes.length][];
+    final double[][][] slopes = new double[shapes.length][][];
+    final int[][] slopeStrides = new int[shapes.length][];
     /** The terms this draw evaluates, {@code active[0 .. activeCount)}, in blanket order. */
-    final int[] active = java.util.stream.IntStream.range(0, terms.length).toArray();
-    int activeCount = terms.length;
+    final int[] active = anyGated ? new int[termCount] : null;
+    int activeCount = termCount;
     /** The running value and slope handed to an {@link AffineRows} loop and back. */
     final double[] sums = new double[2];
     /** The runs' kept numbers ({@link AffineRows#keep}). */
@@ -291,20 +372,42 @@ final class CompiledConditional implements ConditionalDensity {
     final AllocationMembers.Tracker tracker = members == null ? null : members.tracker();
 
     Workspace() {
-      for (int part = 0; part < partCount; part++) {
-        if (linearPart[part]) {
-          intercepts[part] = formConstant[2 * part];
-          slopes[part] = formConstant[2 * part + 1];
+      for (int s = 0; s < shapes.length; s++) {
+        Shape shape = shapes[s];
+        intercepts[s] = new double[shape.parts][];
+        interceptStrides[s] = new int[shape.parts];
+        slopes[s] = new double[shape.parts][];
+        slopeStrides[s] = new int[shape.parts];
+        for (int p = 0; p < shape.parts; p++) {
+          if (shape.constants[2 * p] != null) {
+            column(shape, 2 * p, intercepts[s], interceptStrides[s], p);
+            column(shape, 2 * p + 1, slopes[s], slopeStrides[s], p);
+          } else if (shape.term.affine[p]) {
+            // a and b as trees, worked out per draw (a shape of one row)
+            intercepts[s][p] = new double[1];
+            slopes[s][p] = new double[1];
+          }
         }
       }
       keep(false);
+    }
+
+    private void column(Shape shape, int f, double[][] into, int[] strides, int p) {
+      if (shape.varies(f)) {
+        into[p] = new double[shape.rows];
+        strides[p] = 1;
+      } else {
+        into[p] = shape.constants[f].values;
+        strides[p] = shape.constants[f].stride;
+      }
     }
 
     /** Works out the kept numbers of the runs that keep them once, or of those kept per draw. */
     void keep(boolean perDraw) {
       for (int r = 0; runRows != null && r < runRows.length; r++) {
         if (runRows[r] != null && runRows[r].keptPerRow() > 0 && runKeptPerDraw[r] == perDraw) {
-          runRows[r].keep(intercepts, firstPart[runStart[r]], runLength[r], kept,
+          int s = runShape[r];
+          runRows[r].keep(intercepts[s], interceptStrides[s], runRow[r], runLength[r], kept,
               runKeptFirst[r]);
         }
       }
@@ -322,12 +425,19 @@ final class CompiledConditional implements ConditionalDensity {
         return;
       }
       frame.at(Double.NaN, state);
-      for (int i : treePrepared) {
-        terms[i].prepare(frame, intercepts, slopes, firstPart[i]);
-      }
-      for (int part : varyingLinearParts) {
-        intercepts[part] = linearValue(2 * part, state);
-        slopes[part] = linearValue(2 * part + 1, state);
+      for (int s = 0; s < shapes.length; s++) {
+        Shape shape = shapes[s];
+        if (shape.term.preparesTrees()) {
+          shape.term.prepare(frame, intercepts[s], slopes[s]);
+        }
+        for (int f = 0; f < 2 * shape.parts; f++) {
+          if (shape.varies(f)) {
+            double[] column = (f & 1) == 0 ? intercepts[s][f >> 1] : slopes[s][f >> 1];
+            for (int r = 0; r < shape.rows; r++) {
+              column[r] = shape.linearValue(f, r, state);
+            }
+          }
+        }
       }
       keep(true);
       for (int j = 0; j < inputs.length; j++) {
@@ -339,11 +449,16 @@ final class CompiledConditional implements ConditionalDensity {
     /** Term {@code i}'s prepared parts at the frame's state ({@link AllocationMembers}). */
     @Override
     public void prepare(int i) {
-      terms[i].prepare(frame, intercepts, slopes, firstPart[i]);
-      for (int part = firstPart[i]; part <= firstPart[i] + terms[i].arity; part++) {
-        if (linearPart[part]) {
-          intercepts[part] = linearValue(2 * part, frame.state);
-          slopes[part] = linearValue(2 * part + 1, frame.state);
+      int s = shapeOf[i];
+      int r = rowOf[i];
+      Shape shape = shapes[s];
+      if (shape.term.preparesTrees()) {
+        shape.term.prepare(frame, intercepts[s], slopes[s]);
+      }
+      for (int f = 0; f < 2 * shape.parts; f++) {
+        if (shape.varies(f)) {
+          double[] column = (f & 1) == 0 ? intercepts[s][f >> 1] : slopes[s][f >> 1];
+          column[r] = shape.linearValue(f, r, frame.state);
         }
       }
     }
@@ -357,6 +472,36 @@ final class CompiledConditional implements ConditionalDensity {
       }
       return true;
     }
+
+    /** Term {@code i} at the frame's {@code x} from the prepared parts; slope in the frame. */
+    double eval(int i) {
+      int s = shapeOf[i];
+      return shapes[s].term.eval(frame, intercepts[s], interceptStrides[s], slopes[s],
+          slopeStrides[s], rowOf[i]);
+    }
+  }
+
+  /** Every term compiled alone with its guards: the reference path's terms, nothing shared. */
+  private record Reference(TermEvaluator[] terms, Evaluator[][] guards) {}
+
+  private Reference reference() {
+    Reference r = reference;
+    if (r == null) {
+      TermEvaluator[] terms = new TermEvaluator[termCount];
+      Evaluator[][] guards = new Evaluator[termCount][];
+      for (int i = 0; i < termCount; i++) {
+        Term term = blanket.get(i);
+        List<Formula> found = UnknownIndex.guards(term, unknown.index());
+        if (found != null) {
+          guards[i] = found.stream().map(f -> Evaluator.compile(f, -1)).toArray(Evaluator[]::new);
+        }
+        terms[i] = new TermEvaluator(
+            AllocationMembers.memberForm(term, found), unknown.index(), scale);
+      }
+      r = new Reference(terms, guards);
+      reference = r;
+    }
+    return r;
   }
 
   @Override
@@ -376,7 +521,7 @@ final class CompiledConditional implements ConditionalDensity {
 
   @Override
   public int termCount() {
-    return terms.length;
+    return termCount;
   }
 
   @Override
@@ -410,8 +555,9 @@ final class CompiledConditional implements ConditionalDensity {
   }
 
   /**
-   * The same value and slope with every part evaluated as a compiled tree at this call, nothing
-   * kept from earlier calls: the reference that {@link #logDensity} must equal (to rounding).
+   * The same value and slope with every term compiled alone (made again from the blanket on the
+   * first call) and every part evaluated as a compiled tree at this call, nothing kept from
+   * earlier calls: the reference that {@link #logDensity} must equal (to rounding).
    */
   double logDensityFromScratch(double u, double[] state, double[] slope) {
     return logDensity(u, state, slope, null, false);
@@ -438,19 +584,21 @@ final class CompiledConditional implements ConditionalDensity {
       // The same sums in the same order as the loop below, runs of like terms in one loop each.
       double[] sums = workspace.sums;
       for (int r = 0; r < runRows.length; r++) {
-        int i = runStart[r];
-        TermEvaluator term = terms[i];
+        int s = runShape[r];
+        TermEvaluator term = shapes[s].term;
         if (runRows[r] != null) {
           sums[0] = total;
           sums[1] = dx;
-          runRows[r].accumulate(x, workspace.intercepts, workspace.slopes, firstPart[i],
-              runLength[r], workspace.kept, runKeptFirst[r], sums, frame.args[term.arity],
+          runRows[r].accumulate(x, workspace.intercepts[s], workspace.interceptStrides[s],
+              workspace.slopes[s], workspace.slopeStrides[s], runRow[r], runLength[r],
+              workspace.kept, runKeptFirst[r], sums, frame.args[term.arity],
               frame.gradient[term.arity]);
           total = sums[0];
           dx = sums[1];
           continue;
         }
-        total += term.eval(frame, workspace.intercepts, workspace.slopes, firstPart[i]);
+        total += term.eval(frame, workspace.intercepts[s], workspace.interceptStrides[s],
+            workspace.slopes[s], workspace.slopeStrides[s], runRow[r]);
         if (term.slopeOnSamplingScale) {
           du += frame.slope;
         } else {
@@ -458,15 +606,21 @@ final class CompiledConditional implements ConditionalDensity {
         }
       }
     }
-    int count = workspace == null ? terms.length : runs ? 0 : workspace.activeCount;
+    Reference alone = workspace == null ? reference() : null;
+    int count = workspace == null ? termCount : runs ? 0 : workspace.activeCount;
     for (int j = 0; j < count; j++) {
-      int i = workspace == null ? j : workspace.active[j];
-      TermEvaluator term = terms[i];
-      if (workspace == null && guards[i] != null && !AllocationMembers.selects(guards[i], frame)) {
-        continue;
+      int i = workspace == null || workspace.active == null ? j : workspace.active[j];
+      TermEvaluator term;
+      if (workspace == null) {
+        term = alone.terms[i];
+        if (alone.guards[i] != null && !AllocationMembers.selects(alone.guards[i], frame)) {
+          continue;
+        }
+        total += term.eval(frame);
+      } else {
+        term = shapes[shapeOf[i]].term;
+        total += workspace.eval(i);
       }
-      total += workspace == null ? term.eval(frame)
-          : term.eval(frame, workspace.intercepts, workspace.slopes, firstPart[i]);
       if (term.slopeOnSamplingScale) {
         du += frame.slope;
       } else {
@@ -550,8 +704,9 @@ final class CompiledConditional implements ConditionalDensity {
   /** One term {@code value ~ family(args)} of the blanket, compiled with the own unknown. */
   private static final class TermEvaluator {
     private final Parametrisation family;
-    private final Evaluator value;
-    private final Evaluator[] args;
+    /** The value's and arguments' trees; dropped by {@link #shared} (every part a linear form). */
+    private Evaluator value;
+    private Evaluator[] args;
     private final int[] moving;
     /** The ranges of the moving arguments whose range is bounded, else null. */
     private final ArgumentRange[] ranges;
@@ -559,7 +714,7 @@ final class CompiledConditional implements ConditionalDensity {
     private final boolean normalise;
     private final double lower;
     private final double upper;
-    private final int arity;
+    final int arity;
     /**
      * On the log scale, a term whose only moving argument is {@code c x^q} gives its slope in u
      * directly as {@code q} times the family's slope in the log of that argument, so that a
@@ -574,7 +729,7 @@ final class CompiledConditional implements ConditionalDensity {
     private final Evaluator[] partIntercepts;
     private final Evaluator[] partSlopes;
     /** Per part: whether it is affine in the unknown (worked out once per draw). */
-    private final boolean[] affine;
+    final boolean[] affine;
     /** Whether a moving argument has a bounded range to check at every evaluation. */
     private final boolean checksRanges;
     /**
@@ -655,9 +810,37 @@ final class CompiledConditional implements ConditionalDensity {
           && !slopeOnSamplingScale ? family.affineRows(moving[0]) : null;
     }
 
-    /** Whether {@code next} continues a run of this term's {@link AffineRows} loop. */
-    boolean joins(TermEvaluator next) {
-      return rows != null && next.family == family && next.moving[0] == moving[0];
+    /**
+     * What every term that may share this evaluator has in common, or {@code null} when a part is
+     * not a linear form in the other unknowns (a tree must be kept per term): the family, which
+     * arguments move, the flags of the evaluation, the truncation bounds, and the number of
+     * entries of each linear form. Terms with equal keys differ only in their forms' numbers.
+     */
+    Object shapeKey() {
+      StringBuilder key = new StringBuilder();
+      for (int f = 0; f < linearForms.length; f++) {
+        if (linearForms[f] == null) {
+          return null;
+        }
+        key.append(linearForms[f].slots().length).append(',');
+      }
+      key.append(java.util.Arrays.toString(moving)).append(valueMoves).append(normalise)
+          .append(Double.doubleToRawLongBits(lower)).append(',')
+          .append(Double.doubleToRawLongBits(upper)).append(slopeOnSamplingScale)
+          .append(Double.doubleToRawLongBits(power));
+      return List.of(family, key.toString());
+    }
+
+    /**
+     * This evaluator as the one its shape's terms share: without its own trees when every part is
+     * a linear form (the shape's columns hold the numbers), else as it is (a shape of one row).
+     */
+    TermEvaluator shared() {
+      if (shapeKey() != null) {
+        value = null;
+        args = null;
+      }
+      return this;
     }
 
     /** True when an affine part's {@code a} and {@code b} are trees, not linear forms. */
@@ -672,37 +855,43 @@ final class CompiledConditional implements ConditionalDensity {
 
     /**
      * Works out {@code a} and {@code b} of each affine part at the frame's state that is not a
-     * linear form (those the conditional works out itself).
+     * linear form (those the conditional works out itself), into row 0 of its columns: such a term
+     * is a shape of one row.
      */
-    void prepare(Frame frame, double[] intercepts, double[] slopes, int first) {
+    void prepare(Frame frame, double[][] intercepts, double[][] slopes) {
       for (int p = 0; p <= arity; p++) {
         if (partIntercepts[p] != null) {
-          intercepts[first + p] = partIntercepts[p].eval(frame);
-          slopes[first + p] = partSlopes[p].eval(frame);
+          intercepts[p][0] = partIntercepts[p].eval(frame);
+          slopes[p][0] = partSlopes[p].eval(frame);
         }
       }
     }
 
-    /** Part {@code p} at the frame's {@code x}, its slope left in {@code frame.slope}. */
-    private double part(int p, Frame frame, double[] intercepts, double[] slopes, int first) {
+    /** Part {@code p} of row {@code row} at the frame's {@code x}, its slope in the frame. */
+    private double part(int p, Frame frame, double[][] intercepts, int[] interceptStrides,
+        double[][] slopes, int[] slopeStrides, int row) {
       if (!affine[p]) {
         return p == 0 ? value.eval(frame) : args[p - 1].eval(frame);
       }
-      double a = intercepts[first + p];
-      double b = slopes[first + p];
+      double a = intercepts[p][row * interceptStrides[p]];
+      double b = slopes[p][row * slopeStrides[p]];
       frame.slope = b;
       // A part free of the unknown is its intercept; b * x is never formed, as 0 * inf is NaN.
       return b == 0 ? a : a + b * frame.x;
     }
 
-    /** As {@link #eval(Frame)}, with the affine parts taken from a prepared workspace. */
-    double eval(Frame frame, double[] intercepts, double[] slopes, int first) {
-      double y = part(0, frame, intercepts, slopes, first);
+    /**
+     * As {@link #eval(Frame)} for row {@code row} of its shape, with the affine parts taken from
+     * a prepared workspace's columns.
+     */
+    double eval(Frame frame, double[][] intercepts, int[] interceptStrides, double[][] slopes,
+        int[] slopeStrides, int row) {
+      double y = part(0, frame, intercepts, interceptStrides, slopes, slopeStrides, row);
       double dy = frame.slope;
       double[] a = frame.args[arity];
       double[] da = frame.argSlopes[arity];
       for (int k = 0; k < arity; k++) {
-        a[k] = part(1 + k, frame, intercepts, slopes, first);
+        a[k] = part(1 + k, frame, intercepts, interceptStrides, slopes, slopeStrides, row);
         da[k] = frame.slope;
         if (checksRanges && ranges[k] != null && !ranges[k].contains(a[k])) {
           frame.slope = 0;

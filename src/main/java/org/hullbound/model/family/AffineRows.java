@@ -5,12 +5,14 @@ package org.hullbound.model.family;
  * the fast path of a compiled conditional's likelihood (issue 12), where each term's value and
  * arguments are numbers for the whole draw but for one argument, affine in the unknown {@code x}.
  *
- * <p>Term {@code j} of the run has its parts (the value, then the arguments in the order of
- * {@link Parametrisation#argumentNames()}) at {@code first + j (1 + arity) + p} of the two arrays:
- * part {@code p} is {@code intercepts[..]} when it does not read {@code x}, and {@code
- * intercepts[..] + slopes[..] x} (or the intercept alone where the slope is 0) for the moving
- * argument. The loop is a family's own arithmetic written once for all rows, with no call through
- * an interface a term: what the hand-fused floor of {@code ConditionalBenchmark} does.
+ * <p>Row {@code r} of the run has its parts (the value, then the arguments in the order of {@link
+ * Parametrisation#argumentNames()}) in columns: part {@code p} is {@code intercepts[p][r *
+ * interceptStrides[p]]} when it does not read {@code x}, and that plus {@code slopes[p][r *
+ * slopeStrides[p]] x} (or the intercept alone where the slope is 0) for the moving argument. A
+ * stride is 0 where every row has the same number (one value held), 1 otherwise. The columns
+ * hold primitive numbers per row and no object a row (issue 14), and the loop is a family's own
+ * arithmetic written once for all rows, with no call through an interface a term: what the
+ * hand-fused floor of {@code ConditionalBenchmark} does.
  *
  * <p>Exactness: the sums equal, bit for bit, adding term after term in order {@link
  * Parametrisation#logDensity(double, double[], double[])} to {@code sums[0]} and its gradient in
@@ -28,20 +30,22 @@ public interface AffineRows {
   }
 
   /**
-   * Works out the kept numbers of {@code count} rows (parts as in {@link #accumulate}) into {@code
-   * kept[keptFirst ..]}, {@link #keptPerRow} a row.
+   * Works out the kept numbers of rows {@code from .. from + count - 1} (parts as in {@link
+   * #accumulate}) into {@code kept[keptFirst ..]}, {@link #keptPerRow} a row.
    */
-  default void keep(double[] intercepts, int first, int count, double[] kept, int keptFirst) {}
+  default void keep(double[][] intercepts, int[] interceptStrides, int from, int count,
+      double[] kept, int keptFirst) {}
 
   /**
-   * Adds the run's log-densities to {@code sums[0]} and their slopes in {@code x} to {@code
-   * sums[1]}, in term order.
+   * Adds the log-densities of rows {@code from .. from + count - 1} to {@code sums[0]} and their
+   * slopes in {@code x} to {@code sums[1]}, in row order.
    *
    * @param kept what {@link #keep} wrote for these rows at their present parts (unused when
    *     {@link #keptPerRow} is 0)
    * @param args scratch of the parametrisation's arity, for rows off the fast path
    * @param gradient scratch of length {@code 1 + arity}
    */
-  void accumulate(double x, double[] intercepts, double[] slopes, int first, int count,
-      double[] kept, int keptFirst, double[] sums, double[] args, double[] gradient);
+  void accumulate(double x, double[][] intercepts, int[] interceptStrides, double[][] slopes,
+      int[] slopeStrides, int from, int count, double[] kept, int keptFirst, double[] sums,
+      double[] args, double[] gradient);
 }

@@ -263,13 +263,18 @@ final class Binomial {
       }
 
       @Override
-      public void keep(double[] intercepts, int first, int count, double[] kept, int keptFirst) {
+      public void keep(double[][] intercepts, int[] interceptStrides, int from, int count,
+          double[] kept, int keptFirst) {
         if (!withTrials()) {
           return;
         }
-        for (int j = 0, p = first, q = keptFirst; j < count; j++, p += 3, q += 2) {
-          double y = intercepts[p];
-          double trials = intercepts[p + 1];
+        double[] ys = intercepts[0];
+        double[] trialColumn = intercepts[1];
+        int ys0 = interceptStrides[0];
+        int trials0 = interceptStrides[1];
+        for (int j = 0, r = from, q = keptFirst; j < count; j++, r++, q += 2) {
+          double y = ys[r * ys0];
+          double trials = trialColumn[r * trials0];
           boolean inside = y > 0 && y < trials;
           kept[q] = inside ? SaddlePoint.binomialStirling(y, trials) : Double.NaN;
           kept[q + 1] = inside ? SaddlePoint.binomialSpread(y, trials) : Double.NaN;
@@ -277,19 +282,26 @@ final class Binomial {
       }
 
       @Override
-      public void accumulate(double x, double[] intercepts, double[] slopes, int first,
-          int count, double[] kept, int keptFirst, double[] sums, double[] args,
-          double[] gradient) {
+      public void accumulate(double x, double[][] intercepts, int[] interceptStrides,
+          double[][] slopes, int[] slopeStrides, int from, int count, double[] kept,
+          int keptFirst, double[] sums, double[] args, double[] gradient) {
         boolean withTrials = withTrials();
-        int stride = withTrials ? 3 : 2;
         int moving = 1 + probabilityIndex();
+        double[] ys = intercepts[0];
+        int ys0 = interceptStrides[0];
+        double[] trialColumn = withTrials ? intercepts[1] : null;
+        int trials0 = withTrials ? interceptStrides[1] : 0;
+        double[] as = intercepts[moving];
+        int as0 = interceptStrides[moving];
+        double[] bs = slopes[moving];
+        int bs0 = slopeStrides[moving];
         double total = sums[0];
         double dx = sums[1];
-        for (int j = 0, p = first, q = keptFirst; j < count; j++, p += stride, q += 2) {
-          double y = intercepts[p];
-          double trials = withTrials ? intercepts[p + 1] : 1.0;
-          double b = slopes[p + moving];
-          double eta = b == 0 ? intercepts[p + moving] : intercepts[p + moving] + b * x;
+        for (int j = 0, r = from, q = keptFirst; j < count; j++, r++, q += 2) {
+          double y = ys[r * ys0];
+          double trials = withTrials ? trialColumn[r * trials0] : 1.0;
+          double b = bs[r * bs0];
+          double eta = b == 0 ? as[r * as0] : as[r * as0] + b * x;
           double value = Double.NaN;
           double g = Double.NaN;
           if ((y == 0 || y == trials) && (!withTrials || ArgumentDomain.WHOLE.accepts(trials))) {

@@ -136,9 +136,12 @@ final class Poisson {
       }
 
       @Override
-      public void keep(double[] intercepts, int first, int count, double[] kept, int keptFirst) {
-        for (int j = 0, p = first, q = keptFirst; j < count; j++, p += 2, q += 3) {
-          double y = intercepts[p];
+      public void keep(double[][] intercepts, int[] interceptStrides, int from, int count,
+          double[] kept, int keptFirst) {
+        double[] ys = intercepts[0];
+        int ys0 = interceptStrides[0];
+        for (int j = 0, r = from, q = keptFirst; j < count; j++, r++, q += 3) {
+          double y = ys[r * ys0];
           boolean counted = ArgumentDomain.WHOLE.accepts(y) && y > 0;
           kept[q] = ArgumentDomain.WHOLE.accepts(y) ? Gamma.logGamma(y + 1.0) : Double.NaN;
           kept[q + 1] = counted ? SaddlePoint.stirlingError(y) : Double.NaN;
@@ -147,15 +150,21 @@ final class Poisson {
       }
 
       @Override
-      public void accumulate(double x, double[] intercepts, double[] slopes, int first,
-          int count, double[] kept, int keptFirst, double[] sums, double[] args,
-          double[] gradient) {
+      public void accumulate(double x, double[][] intercepts, int[] interceptStrides,
+          double[][] slopes, int[] slopeStrides, int from, int count, double[] kept,
+          int keptFirst, double[] sums, double[] args, double[] gradient) {
+        double[] ys = intercepts[0];
+        int ys0 = interceptStrides[0];
+        double[] as = intercepts[1];
+        int as0 = interceptStrides[1];
+        double[] bs = slopes[1];
+        int bs0 = slopeStrides[1];
         double total = sums[0];
         double dx = sums[1];
-        for (int j = 0, p = first, q = keptFirst; j < count; j++, p += 2, q += 3) {
-          double y = intercepts[p];
-          double b = slopes[p + 1];
-          double logRate = b == 0 ? intercepts[p + 1] : intercepts[p + 1] + b * x;
+        for (int j = 0, r = from, q = keptFirst; j < count; j++, r++, q += 3) {
+          double y = ys[r * ys0];
+          double b = bs[r * bs0];
+          double logRate = b == 0 ? as[r * as0] : as[r * as0] + b * x;
           double value;
           double g;
           if (ArgumentDomain.WHOLE.accepts(y)) {
