@@ -55,6 +55,8 @@ public final class BoundModel {
   private final Map<String, Integer> nodeCounts;
   private final DerivedQuantities derived;
   private final AtomicReferenceArray<ConditionalDensity> conditionals;
+  /** Per name of allocations: its {@link AllocationRows}, or {@code FALSE} where they differ. */
+  private final Map<String, Object> allocationRows = new java.util.HashMap<>();
   private final List<Binder.CheckFormula> checks;
   /** Value and argument evaluators of every term, compiled on the first joint evaluation. */
   private volatile Evaluator[][] joint;
@@ -307,34 +309,82 @@ public final class BoundModel {
     }
   }
 
-  /** The compiled full conditional of unknown {@code index}, compiled on first use. */
+  /**
+   * The compiled full conditional of unknown {@code index}, compiled on first use: an allocation
+   * ({@link #allocation}) reads its row of its name's shared templates ({@link AllocationRows})
+   * where its name's allocations allow it, every other unknown has its own {@link
+   * CompiledConditional}.
+   */
   public ConditionalDensity conditional(int index) {
     checkIndex(index);
     ConditionalDensity c = conditionals.get(index);
     if (c == null) {
-      // Each term made when read: the compiler reads each once, keeps its numbers in columns
-      // and drops it, so the blanket is never held as terms.
-      int own = ownTerm[index];
-      int[] rest = dependents[index];
-      List<Term> blanket = new java.util.AbstractList<>() {
-        @Override
-        public Term get(int k) {
-          return terms.get(k == 0 ? own : rest[k - 1]);
-        }
-
-        @Override
-        public int size() {
-          return rest.length + 1;
-        }
-      };
-      c = new CompiledConditional(
-          unknowns.get(index), blanket, lowerBounds[index], upperBounds[index], cuts[index],
-          smooth[index]);
+      AllocationRows shared =
+          unknowns.get(index).discrete() && allocation(index) ? allocationRows(index) : null;
+      c = shared != null ? shared.conditional(index) : compiled(index);
       conditionals.compareAndSet(index, null, c);
       c = conditionals.get(index);
     }
     return c;
   }
+
+  /**
+   * The shared templates of the allocations of allocation {@code index}'s name, built on the
+   * first call for any of them; {@code null} when its name's allocations cannot share templates.
+   */
+  private AllocationRows allocationRows(int index) {
+    String node = unknowns.get(index).node();
+    Object known = allocationRows.get(node);
+    if (known == null) {
+      synchronized (allocationRows) {
+        known = allocationRows.get(node);
+        if (known == null) {
+          List<Unknown> members = new ArrayList<>();
+          for (Unknown u : unknowns) {
+            if (u.node().equals(node) && u.discrete() && allocation(u.index())) {
+              members.add(u);
+            }
+          }
+          AllocationRows built = AllocationRows.of(members, this::blanket, s -> new AllocationRows.Facts(
+                  lowerBounds[s], upperBounds[s], cuts[s], smooth[s]));
+          known = built == null ? Boolean.FALSE : built;
+          allocationRows.put(node, known);
+        }
+      }
+    }
+    return known instanceof AllocationRows rows ? rows : null;
+  }
+
+  /**
+   * Unknown {@code index}'s conditional compiled alone, from its blanket, whatever its kind (for
+   * tests: an allocation's shared row must equal it); not cached.
+   */
+  CompiledConditional compiled(int index) {
+    checkIndex(index);
+    return new CompiledConditional(
+        unknowns.get(index), blanket(index), lowerBounds[index], upperBounds[index], cuts[index],
+        smooth[index]);
+  }
+
+  /** Unknown {@code index}'s blanket, own term first, each term made when read. */
+  private List<Term> blanket(int index) {
+    // Each term made when read: the compiler reads each once, keeps its numbers in columns and
+    // drops it, so the blanket is never held as terms.
+    int own = ownTerm[index];
+    int[] rest = dependents[index];
+    return new java.util.AbstractList<>() {
+      @Override
+      public Term get(int k) {
+        return terms.get(k == 0 ? own : rest[k - 1]);
+      }
+
+      @Override
+      public int size() {
+        return rest.length + 1;
+      }
+    };
+  }
+
 
   /** The update chosen for unknown {@code index}, with its reason. */
   public Update update(int index) {

@@ -627,6 +627,16 @@ final class CompiledConditional implements ConditionalDensity {
         dx += frame.slope;
       }
     }
+    return withJacobian(scale, u, x, total, dx, du, slope);
+  }
+
+  /**
+   * The conditional's value and slope on the sampling scale from the terms' sum {@code total} and
+   * its slopes in {@code x} ({@code dx}) and in {@code u} ({@code du}): the log-Jacobian added,
+   * NaN taken as {@code -inf}, the slope 0 where the density is 0.
+   */
+  static double withJacobian(
+      Scale scale, double u, double x, double total, double dx, double du, double[] slope) {
     double logJacobian;
     double dxdu;
     double dLogJacobian;
@@ -702,7 +712,7 @@ final class CompiledConditional implements ConditionalDensity {
   }
 
   /** One term {@code value ~ family(args)} of the blanket, compiled with the own unknown. */
-  private static final class TermEvaluator {
+  static final class TermEvaluator {
     private final Parametrisation family;
     /** The value's and arguments' trees; dropped by {@link #shared} (every part a linear form). */
     private Evaluator value;
@@ -745,13 +755,23 @@ final class CompiledConditional implements ConditionalDensity {
     Formulas.LinearForm[] linearForms;
 
     TermEvaluator(Term term, int slot, Scale scale) {
+      this(term, slot, scale, null);
+    }
+
+    /**
+     * As {@link #TermEvaluator(Term, int, Scale)}, the value's and arguments' leaves replaced as
+     * {@link Evaluator#compile(Formula, int, java.util.function.Function)} does (value first,
+     * then the arguments in order): a template evaluated by {@link #eval(Frame)} at a row.
+     */
+    TermEvaluator(Term term, int slot, Scale scale,
+        java.util.function.Function<Formula, Evaluator> leaves) {
       this.family = term.family();
-      this.value = Evaluator.compile(term.value(), slot);
+      this.value = Evaluator.compile(term.value(), slot, leaves);
       this.arity = term.arguments().size();
       this.args = new Evaluator[arity];
       int movingCount = 0;
       for (int k = 0; k < arity; k++) {
-        args[k] = Evaluator.compile(term.arguments().get(k), slot);
+        args[k] = Evaluator.compile(term.arguments().get(k), slot, leaves);
         movingCount += args[k].fixed() ? 0 : 1;
       }
       this.moving = new int[movingCount];
@@ -901,6 +921,7 @@ final class CompiledConditional implements ConditionalDensity {
       return familyTerms(frame, y, dy, a, da);
     }
 
+    /** The term at the frame's {@code x} and state, every part a tree; slope in the frame. */
     double eval(Frame frame) {
       double y = value.eval(frame);
       double dy = frame.slope;

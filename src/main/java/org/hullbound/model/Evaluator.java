@@ -22,35 +22,51 @@ abstract class Evaluator {
 
   /** Compiles {@code formula}, with slot {@code own} as the variable (-1: none). */
   static Evaluator compile(Formula formula, int own) {
+    return compile(formula, own, null);
+  }
+
+  /**
+   * Compiles {@code formula} as {@link #compile(Formula, int)}, each leaf but the own slot (a
+   * number or another unknown's slot) replaced by what {@code leaves} gives for it where that is
+   * not null. Leaves are asked for in a fixed order, depth first and parts left to right, so that
+   * a caller can number them (a template whose numbers are read per row, {@link #rowNumber}).
+   */
+  static Evaluator compile(
+      Formula formula, int own, java.util.function.Function<Formula, Evaluator> leaves) {
     if (formula instanceof Formula.Constant constant) {
-      return new Constant(constant.value());
+      Evaluator leaf = leaves == null ? null : leaves.apply(formula);
+      return leaf != null ? leaf : new Constant(constant.value());
     }
     if (formula instanceof Formula.Slot slot) {
-      return slot.index() == own ? new Own() : new StateSlot(slot.index());
+      if (slot.index() == own) {
+        return new Own();
+      }
+      Evaluator leaf = leaves == null ? null : leaves.apply(formula);
+      return leaf != null ? leaf : new StateSlot(slot.index());
     }
     Formula.Operation operation = (Formula.Operation) formula;
     List<Formula> parts = operation.parts();
     Op op = operation.op();
     if (op == Op.ADD) {
       if (parts.size() == 2) {
-        return new Add(compile(parts.get(0), own), compile(parts.get(1), own));
+        Evaluator left = compile(parts.get(0), own, leaves);
+        return new Add(left, compile(parts.get(1), own, leaves));
       }
       Evaluator[] terms = new Evaluator[parts.size()];
       for (int i = 0; i < terms.length; i++) {
-        terms[i] = compile(parts.get(i), own);
+        terms[i] = compile(parts.get(i), own, leaves);
       }
       return new Sum(terms);
     }
     if (op.arity() == 1) {
-      return new Unary(op, compile(parts.get(0), own));
+      return new Unary(op, compile(parts.get(0), own, leaves));
     }
+    Evaluator left = compile(parts.get(0), own, leaves);
+    Evaluator right = compile(parts.get(1), own, leaves);
     if (op == Op.MULTIPLY && (isIndicator(parts.get(0)) || isIndicator(parts.get(1)))) {
       boolean leftIndicator = isIndicator(parts.get(0));
-      return new Selected(compile(parts.get(leftIndicator ? 0 : 1), own),
-          compile(parts.get(leftIndicator ? 1 : 0), own));
+      return leftIndicator ? new Selected(left, right) : new Selected(right, left);
     }
-    Evaluator left = compile(parts.get(0), own);
-    Evaluator right = compile(parts.get(1), own);
     switch (op) {
       case SUBTRACT:
         return new Subtract(left, right);
@@ -105,6 +121,44 @@ abstract class Evaluator {
     double eval(Frame frame) {
       frame.slope = 0;
       return value;
+    }
+  }
+
+  /** A number of a template read from its column at the frame's row ({@link Frame#row}). */
+  static Evaluator rowNumber(double[] values) {
+    return new RowNumber(values);
+  }
+
+  /** Another unknown's value, its slot read from a column at the frame's row. */
+  static Evaluator rowSlot(int[] slots) {
+    return new RowSlot(slots);
+  }
+
+  private static final class RowNumber extends Evaluator {
+    private final double[] values;
+
+    RowNumber(double[] values) {
+      this.values = values;
+    }
+
+    @Override
+    double eval(Frame frame) {
+      frame.slope = 0;
+      return values[frame.row];
+    }
+  }
+
+  private static final class RowSlot extends Evaluator {
+    private final int[] slots;
+
+    RowSlot(int[] slots) {
+      this.slots = slots;
+    }
+
+    @Override
+    double eval(Frame frame) {
+      frame.slope = 0;
+      return frame.state[slots[frame.row]];
     }
   }
 

@@ -14,6 +14,8 @@ final class Frame {
   double[] state;
   /** d/dx of the value the last evaluator returned (forward-mode dual number, tangent part). */
   double slope;
+  /** The row a template's per-row leaves read ({@link Evaluator#rowNumber}). */
+  int row;
 
   /** Indexed by arity: argument values, their slopes, the family's gradient, the normaliser's. */
   final double[][] args;

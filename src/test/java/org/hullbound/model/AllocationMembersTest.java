@@ -18,7 +18,9 @@ import org.junit.jupiter.params.provider.MethodSource;
  * steps), every evaluation of every conditional equals the same conditional evaluated from
  * scratch, which finds its blanket from every candidate's guards at that call; and the number of
  * terms a draw evaluates is the own term and the rows the allocation currently selects, counted
- * here from the state.
+ * here from the state. An allocation's conditional as the sampler gets it, its row of the
+ * templates its name's allocations share ({@link AllocationRows}), equals bit for bit its
+ * conditional compiled alone (evaluated term by term, as trees), in value and slope.
  *
  * <p>Tolerance as in {@link CheapEvaluationTest} (same sums, parts grouped differently; Higham,
  * Accuracy and Stability of Numerical Algorithms, 2nd ed., section 4.2). A row left in the wrong
@@ -101,9 +103,11 @@ class AllocationMembersTest {
     double[] state = model.initialState();
     int n = state.length;
     CompiledConditional[] conditionals = new CompiledConditional[n];
+    ConditionalDensity[] sampled = new ConditionalDensity[n];
     boolean anyDynamic = false;
     for (int i = 0; i < n; i++) {
-      conditionals[i] = (CompiledConditional) model.conditional(i);
+      sampled[i] = model.conditional(i);
+      conditionals[i] = sampled[i] instanceof CompiledConditional c ? c : model.compiled(i);
       anyDynamic |= conditionals[i].dynamicBlanket();
     }
     assertTrue(anyDynamic, name + ": some blanket follows an allocation");
@@ -113,6 +117,8 @@ class AllocationMembersTest {
     long moves = 0;
     long countsChecked = 0;
     long jointDifferences = 0;
+    long sharedRows = 0;
+    double[] sharedSlope = new double[1];
     for (int sweep = 0; sweep < SWEEPS; sweep++) {
       for (int i = 0; i < n; i++) {
         CompiledConditional c = conditionals[i];
@@ -128,6 +134,21 @@ class AllocationMembersTest {
         }
         double current = c.logDensity(u, state, slope);
         compared += CheapEvaluationTest.agrees(name, c, u, state, current, slope[0], reference);
+        if (sampled[i] != c) {
+          double row = sampled[i].logDensity(u, state, sharedSlope);
+          double alone = c.logDensityTermByTerm(u, state, slope);
+          assertEquals(Double.doubleToRawLongBits(alone), Double.doubleToRawLongBits(row),
+              name + ": shared row of " + c.unknown().label() + " at " + u);
+          assertEquals(Double.doubleToRawLongBits(slope[0]),
+              Double.doubleToRawLongBits(sharedSlope[0]), name + ": its slope");
+          double away = c.toSamplingScale(c.upperBound(state)) - u;
+          assertEquals(
+              Double.doubleToRawLongBits(c.logDensityTermByTerm(u + away, state, null)),
+              Double.doubleToRawLongBits(sampled[i].logDensity(u + away, state, null)),
+              name + ": shared row of " + c.unknown().label() + " at " + (u + away));
+          sharedRows++;
+          current = c.logDensity(u, state, slope);
+        }
         if (c.dynamicBlanket()) {
           // The component's element: k, or 10 row + col for cell[row, col].
           String label = c.unknown().label();
@@ -154,6 +175,8 @@ class AllocationMembersTest {
     // one allocation for all rows, moved 37 times with this seed; the mixtures hundreds).
     assertTrue(moves >= 20, name + ": allocations moved " + moves + " times");
     assertTrue(countsChecked > 0, name);
+    // Every allocation's conditional is its row of the shared templates in these models.
+    assertTrue(sharedRows > 0, name + ": shared rows compared");
     assertTrue(jointDifferences > SWEEPS, name);
   }
 
@@ -202,8 +225,7 @@ class AllocationMembersTest {
     double[] state = model.initialState();
     int moves = 0;
     for (int i = 0; i < state.length; i++) {
-      CompiledConditional c = (CompiledConditional) model.conditional(i);
-      if (!c.dynamicBlanket()) {
+      if (!(model.conditional(i) instanceof CompiledConditional c) || !c.dynamicBlanket()) {
         continue;
       }
       double u = c.toSamplingScale(state[i]);
@@ -213,7 +235,7 @@ class AllocationMembersTest {
         if (!model.allocation(j)) {
           continue;
         }
-        CompiledConditional a = (CompiledConditional) model.conditional(j);
+        ConditionalDensity a = model.conditional(j);
         double kept = state[j];
         for (double v = a.lowerBound(state); v <= a.upperBound(state); v++) {
           state[j] = v;

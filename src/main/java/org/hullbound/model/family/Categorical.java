@@ -56,6 +56,21 @@ public final class Categorical {
       super(family, SupportKind.CATEGORY, names(categories));
     }
 
+    /**
+     * Equal to the categorical of the same family over as many categories: the binder makes one a
+     * term, and a compiled form shared by many terms ({@code model.AllocationRows}) tells them
+     * alike by this.
+     */
+    @Override
+    public boolean equals(Object other) {
+      return other instanceof ByWeights w && w.family() == family() && w.arity() == arity();
+    }
+
+    @Override
+    public int hashCode() {
+      return 31 * System.identityHashCode(family()) + arity();
+    }
+
     @Override
     String checkJointly(double[] args) {
       double sum = sum(args);
