@@ -321,7 +321,7 @@ public final class BoundModel {
     if (c == null) {
       AllocationRows shared =
           unknowns.get(index).discrete() && allocation(index) ? allocationRows(index) : null;
-      c = shared != null ? shared.conditional(index) : compiled(index);
+      c = shared != null ? shared.conditional(index) : compiled(index, true);
       conditionals.compareAndSet(index, null, c);
       c = conditionals.get(index);
     }
@@ -360,10 +360,18 @@ public final class BoundModel {
    * tests: an allocation's shared row must equal it); not cached.
    */
   CompiledConditional compiled(int index) {
+    return compiled(index, true);
+  }
+
+  /**
+   * Unknown {@code index}'s conditional compiled alone, its terms grouped by shape or, with
+   * {@code grouped} false, one evaluator a term (the reference of the grouped form).
+   */
+  CompiledConditional compiled(int index, boolean grouped) {
     checkIndex(index);
     return new CompiledConditional(
         unknowns.get(index), blanket(index), lowerBounds[index], upperBounds[index], cuts[index],
-        smooth[index]);
+        smooth[index], grouped);
   }
 
   /** Unknown {@code index}'s blanket, own term first, each term made when read. */

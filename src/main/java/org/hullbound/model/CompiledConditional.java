@@ -108,6 +108,17 @@ final class CompiledConditional implements ConditionalDensity {
   CompiledConditional(
       Unknown unknown, List<Term> blanket, Formula lower, Formula upper, ArgumentBounds cuts,
       boolean smooth) {
+    this(unknown, blanket, lower, upper, cuts, smooth, true);
+  }
+
+  /**
+   * As the other constructor; with {@code grouped} false every term is a shape of its own (one
+   * evaluator a term, as before terms were grouped): the reference the grouped form must equal
+   * bit for bit.
+   */
+  CompiledConditional(
+      Unknown unknown, List<Term> blanket, Formula lower, Formula upper, ArgumentBounds cuts,
+      boolean smooth, boolean grouped) {
     this.unknown = unknown;
     this.scale = unknown.scale();
     this.blanket = blanket;
@@ -156,7 +167,7 @@ final class CompiledConditional implements ConditionalDensity {
       }
       guardReadStart.add(guardReads.size);
       TermEvaluator compiled = new TermEvaluator(evaluated, slot, scale);
-      Object key = compiled.shapeKey();
+      Object key = grouped ? compiled.shapeKey() : null;
       Integer known = key == null ? null : byKey.get(key);
       if (known == null) {
         known = found.size();

@@ -32,6 +32,11 @@ import org.junit.jupiter.params.provider.MethodSource;
  * org.hullbound.model.family.AffineRows}: every Bernoulli and binomial term of {@code clinics} and
  * {@code seedlings}, the Poisson terms of a log-linear regression) equal, bit for bit, the same kept parts evaluated a term at a time ({@link
  * CompiledConditional#logDensityTermByTerm}): the loop changes no seeded draw.
+ *
+ * <p>Terms grouped by shape (one evaluator per shape of a statement's rows, their numbers in
+ * primitive columns read by row) equal, bit for bit in value and slope, the same conditional
+ * compiled with one evaluator a term (its workspace holding each term's parts), evaluated a term
+ * at a time: grouping changes no seeded draw either.
  */
 class CheapEvaluationTest {
 
@@ -83,8 +88,10 @@ class CheapEvaluationTest {
     double[] state = model.initialState();
     int n = state.length;
     CompiledConditional[] conditionals = new CompiledConditional[n];
+    CompiledConditional[] oneATerm = new CompiledConditional[n];
     for (int i = 0; i < n; i++) {
       conditionals[i] = (CompiledConditional) model.conditional(i);
+      oneATerm[i] = model.compiled(i, false);
     }
     double[] slope = new double[1];
     double[] reference = new double[1];
@@ -96,8 +103,10 @@ class CheapEvaluationTest {
         double proposal = u + 0.3 * random.nextGaussian();
         double current = c.logDensity(u, state, slope);
         compared += agrees(name, c, u, state, current, slope[0], reference);
+        equalsOneEvaluatorATerm(name, oneATerm[i], u, state, current, slope[0]);
         double next = c.logDensity(proposal, state, slope);
         compared += agrees(name, c, proposal, state, next, slope[0], reference);
+        equalsOneEvaluatorATerm(name, oneATerm[i], proposal, state, next, slope[0]);
         if (Math.log(random.nextDouble()) < next - current) {
           state[i] = c.toNatural(proposal);
         }
@@ -109,6 +118,30 @@ class CheapEvaluationTest {
     if (name.startsWith("clinics") || name.startsWith("seedlings") || name.startsWith("poisson")) {
       assertTrue(inRuns > 0, name + ": no conditional sums its terms in runs");
     }
+    // Power: the rows of a statement share evaluators (clinics: the intercept's and the slope's
+    // 1,200 rows, each effect's 30 or so, in a handful of shapes), so the grouped form was
+    // exercised.
+    long grouped = java.util.Arrays.stream(conditionals)
+        .filter(c -> c.termCount() >= 20 && c.shapeCount() * 10 <= c.termCount()).count();
+    if (name.startsWith("clinics")) {
+      assertTrue(grouped > 0, name + ": no conditional groups its rows");
+    }
+  }
+
+  /**
+   * Asserts that {@code value} and {@code slope}, of a conditional whose terms are grouped by
+   * shape, equal bit for bit those of {@code oneATerm} (the same conditional compiled with an
+   * evaluator a term) evaluated a term at a time.
+   */
+  static void equalsOneEvaluatorATerm(String name, CompiledConditional oneATerm, double u,
+      double[] state, double value, double slope) {
+    double[] reference = new double[1];
+    double alone = oneATerm.logDensityTermByTerm(u, state, reference);
+    String at = name + ", " + oneATerm.unknown().label() + " at u = " + u;
+    assertEquals(Double.doubleToRawLongBits(alone), Double.doubleToRawLongBits(value),
+        () -> "value grouped against an evaluator a term: " + at);
+    assertEquals(Double.doubleToRawLongBits(reference[0]), Double.doubleToRawLongBits(slope),
+        () -> "slope grouped against an evaluator a term: " + at);
   }
 
   /**
@@ -151,6 +184,7 @@ class CheapEvaluationTest {
         "data hatched[nest] = [2, 3, 1, 5, 0, 7] ~ binomial(trials = laid[nest],"
             + " logit_p = a + b * dose[nest])"));
     CompiledConditional a = (CompiledConditional) model.conditional(model.unknown("a").index());
+    CompiledConditional oneATerm = model.compiled(model.unknown("a").index(), false);
     assertTrue(a.summedInRuns(), "the binomial rows of a are summed in a run");
     double[] state = model.initialState();
     double[] slope = new double[1];
@@ -168,6 +202,7 @@ class CheapEvaluationTest {
             "value at draw " + draw + ", u " + u);
         assertEquals(Double.doubleToRawLongBits(other[0]), Double.doubleToRawLongBits(slope[0]),
             "slope at draw " + draw + ", u " + u);
+        equalsOneEvaluatorATerm("kept per draw", oneATerm, u, state, value, slope[0]);
         double scratch = a.logDensityFromScratch(u, state, other);
         assertEquals(scratch, value, 1e-9 * (1 + Math.abs(scratch)), "from scratch");
       }
