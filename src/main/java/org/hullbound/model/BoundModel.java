@@ -56,7 +56,8 @@ public final class BoundModel {
   private final DerivedQuantities derived;
   private final AtomicReferenceArray<ConditionalDensity> conditionals;
   /** Per name of allocations: its {@link AllocationRows}, or {@code FALSE} where they differ. */
-  private final Map<String, Object> allocationRows = new java.util.HashMap<>();
+  private final Map<String, Object> allocationRows =
+      new java.util.concurrent.ConcurrentHashMap<>();
   private final List<Binder.CheckFormula> checks;
   /** Value and argument evaluators of every term, compiled on the first joint evaluation. */
   private volatile Evaluator[][] joint;

@@ -51,7 +51,10 @@ import org.hullbound.model.family.Scale;
 final class CompiledConditional implements ConditionalDensity {
   private final Unknown unknown;
   private final Scale scale;
-  /** The blanket's terms, made again when read: only the reference path reads them. */
+  /**
+   * The blanket's terms, made again when read, for the reference path only; null where the
+   * blanket given was a list of terms held (a line's moved terms), which is not kept.
+   */
   private final List<Term> blanket;
   private final int termCount;
   /**
@@ -102,26 +105,33 @@ final class CompiledConditional implements ConditionalDensity {
 
   /**
    * Compiles the conditional of {@code unknown} from its blanket (own term first), reading each
-   * term once: its numbers go to its shape's columns and the term is dropped, so {@code blanket}
-   * may make its terms when read ({@link TermTable}); it is held for the reference path.
+   * term once: its numbers go to its shape's columns and the term is dropped. The list is not
+   * kept, so {@link #logDensityFromScratch} is not available (a line's moved terms).
    */
   CompiledConditional(
       Unknown unknown, List<Term> blanket, Formula lower, Formula upper, ArgumentBounds cuts,
       boolean smooth) {
-    this(unknown, blanket, lower, upper, cuts, smooth, true);
+    this(unknown, blanket, lower, upper, cuts, smooth, true, false);
   }
 
   /**
-   * As the other constructor; with {@code grouped} false every term is a shape of its own (one
-   * evaluator a term, as before terms were grouped): the reference the grouped form must equal
-   * bit for bit.
+   * As the other constructor, {@code blanket} a list that makes its terms when read ({@link
+   * TermTable}), kept for the reference path; with {@code grouped} false every term is a shape of
+   * its own (one evaluator a term, as before terms were grouped): the reference the grouped form
+   * must equal bit for bit.
    */
   CompiledConditional(
       Unknown unknown, List<Term> blanket, Formula lower, Formula upper, ArgumentBounds cuts,
       boolean smooth, boolean grouped) {
+    this(unknown, blanket, lower, upper, cuts, smooth, grouped, true);
+  }
+
+  private CompiledConditional(
+      Unknown unknown, List<Term> blanket, Formula lower, Formula upper, ArgumentBounds cuts,
+      boolean smooth, boolean grouped, boolean keepBlanket) {
     this.unknown = unknown;
     this.scale = unknown.scale();
-    this.blanket = blanket;
+    this.blanket = keepBlanket ? blanket : null;
     int slot = unknown.index();
     this.termCount = blanket.size();
     this.shapeOf = new int[termCount];
@@ -498,6 +508,9 @@ final class CompiledConditional implements ConditionalDensity {
   private Reference reference() {
     Reference r = reference;
     if (r == null) {
+      if (blanket == null) {
+        throw new IllegalStateException("a conditional compiled from held terms has no reference");
+      }
       TermEvaluator[] terms = new TermEvaluator[termCount];
       Evaluator[][] guards = new Evaluator[termCount][];
       for (int i = 0; i < termCount; i++) {

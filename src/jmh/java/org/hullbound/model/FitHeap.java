@@ -1,0 +1,56 @@
+package org.hullbound.model;
+
+import java.util.List;
+import org.hullbound.io.CsvData;
+import org.hullbound.io.HeapMeasurement;
+
+/**
+ * Heap that {@code fit}'s compiled conditionals hold, in bytes per data row per used column:
+ * reads {@code FILE} for {@code MODEL}, binds it, measures the used heap after full collections
+ * (as {@link CheckHeap}), then compiles every unknown's conditional and evaluates each once on
+ * this thread (so one workspace of each exists, as one chain's thread makes them), and measures
+ * again. The difference is what the conditionals hold; a fit's other chains add one workspace
+ * each (the per-draw parts of the forms that read another unknown: 8 bytes a row and varying
+ * form). The moves' lines, compiled at their first draw, are not included.
+ *
+ * <p>Issue 14: {@code fit} of the 23-million-row clinics file in the default heap needs the
+ * conditionals well under 100 bytes per row per used column.
+ *
+ * <p>{@code java -cp target/benchmarks.jar org.hullbound.model.FitHeap MODEL FILE}
+ */
+public final class FitHeap {
+  private FitHeap() {}
+
+  public static void main(String[] args) throws Exception {
+    HeapMeasurement run = HeapMeasurement.begin(args, FitHeap.class.getName());
+    DataTable table = CsvData.read(run.dataFile(), BoundModel.readsColumn(run.model()));
+    int rows = table.rowCount();
+    int columns = table.heldColumnCount();
+    BoundModel bound = BoundModel.bind(run.model(), List.of(table));
+    table = null;
+    long bound0 = run.held();
+    double[] state = bound.initialState();
+    ConditionalDensity[] conditionals = new ConditionalDensity[state.length];
+    long terms = 0;
+    for (Unknown unknown : bound.unknowns()) {
+      ConditionalDensity c = bound.conditional(unknown.index());
+      c.logDensity(c.toSamplingScale(state[unknown.index()]), state, null);
+      conditionals[unknown.index()] = c;
+      terms += c.termCount();
+    }
+    long compiled = run.held();
+    long held = compiled - bound0;
+    System.out.printf(
+        "%s: %d rows, %d used columns, %d unknowns, %d terms in all conditionals; bound model"
+            + " %.1f MB (%.1f bytes per row per used column); compiled conditionals with one"
+            + " workspace each %.1f MB, %.1f bytes per row per used column, %.1f bytes per"
+            + " term; pools' peaks summed %.1f MB; %.1f s (wall clock, load not controlled)%n",
+        run.dataFile(), rows, columns, state.length, terms, bound0 / 1e6,
+        (double) bound0 / rows / columns, held / 1e6, (double) held / rows / columns,
+        (double) held / terms, HeapMeasurement.peak() / 1e6, run.seconds());
+    // Keeps the model and the conditionals reachable until after the measurement.
+    if (conditionals.length < 0) {
+      System.out.println(bound);
+    }
+  }
+}
