@@ -60,7 +60,8 @@ final class CompiledConditional implements ConditionalDensity {
   /**
    * The blanket's terms grouped by shape: one shared evaluator per shape, each term a row of its
    * shape's columns of numbers ({@link Shape}); term {@code i} is row {@code rowOf[i]} of shape
-   * {@code shapeOf[i]}.
+   * {@code shapeOf[i]}. Those two arrays are kept only where a blanket follows an allocation (its
+   * members are visited by term); a fixed blanket is visited run by run, in order.
    */
   private final Shape[] shapes;
   private final int[] shapeOf;
@@ -82,10 +83,10 @@ final class CompiledConditional implements ConditionalDensity {
   /** The member lists of a blanket that follows an allocation, or {@code null}. */
   private final AllocationMembers members;
   /**
-   * The terms in blanket order as runs: consecutive rows of one shape that its {@link AffineRows}
-   * loop sums ({@code runRows[r]} not null, {@code runLength[r]} rows of shape {@code
-   * runShape[r]} from row {@code runRow[r]}), or a single term evaluated alone. Null when a blanket
-   * follows an allocation (the active list decides then).
+   * The terms in blanket order as runs of consecutive rows of one shape ({@code runLength[r]} rows
+   * of shape {@code runShape[r]} from row {@code runRow[r]}), summed by the shape's {@link
+   * AffineRows} loop where it has one ({@code runRows[r]} not null), else a row at a time. Null
+   * when a blanket follows an allocation (the active list decides then).
    */
   private final int[] runShape;
   private final int[] runRow;
@@ -134,8 +135,8 @@ final class CompiledConditional implements ConditionalDensity {
     this.blanket = keepBlanket ? blanket : null;
     int slot = unknown.index();
     this.termCount = blanket.size();
-    this.shapeOf = new int[termCount];
-    this.rowOf = new int[termCount];
+    int[] shapeOf = new int[termCount];
+    int[] rowOf = new int[termCount];
     List<Shape> found = new java.util.ArrayList<>();
     java.util.Map<Object, Integer> byKey = new java.util.HashMap<>();
     java.util.BitSet read = new java.util.BitSet();
@@ -212,6 +213,8 @@ final class CompiledConditional implements ConditionalDensity {
     this.members = AllocationMembers.of(termCount, slot, inputs, readStart.toArray(),
         reads.toArray(), guardReadStart.toArray(), guardReads.toArray(), guardsFound.build());
     this.anyGated = members != null;
+    this.shapeOf = anyGated ? shapeOf : null;
+    this.rowOf = anyGated ? rowOf : null;
     if (anyGated) {
       this.runShape = null;
       this.runRow = null;
@@ -223,8 +226,7 @@ final class CompiledConditional implements ConditionalDensity {
     } else {
       RowColumn.IntList starts = new RowColumn.IntList();
       for (int i = 0; i < termCount; i++) {
-        boolean joins = i > 0 && shapeOf[i] == shapeOf[i - 1]
-            && shapes[shapeOf[i]].term.rows != null;
+        boolean joins = i > 0 && shapeOf[i] == shapeOf[i - 1];
         if (!joins) {
           starts.add(i);
         }
@@ -603,14 +605,14 @@ final class CompiledConditional implements ConditionalDensity {
     double total = 0;
     double dx = 0;
     double du = 0;
-    boolean runs = inRuns && workspace != null && runRows != null;
+    boolean runs = workspace != null && runRows != null;
     if (runs) {
-      // The same sums in the same order as the loop below, runs of like terms in one loop each.
+      // The same sums in the same order, runs of like terms in one loop each or a term at a time.
       double[] sums = workspace.sums;
       for (int r = 0; r < runRows.length; r++) {
         int s = runShape[r];
         TermEvaluator term = shapes[s].term;
-        if (runRows[r] != null) {
+        if (inRuns && runRows[r] != null) {
           sums[0] = total;
           sums[1] = dx;
           runRows[r].accumulate(x, workspace.intercepts[s], workspace.interceptStrides[s],
@@ -621,19 +623,21 @@ final class CompiledConditional implements ConditionalDensity {
           dx = sums[1];
           continue;
         }
-        total += term.eval(frame, workspace.intercepts[s], workspace.interceptStrides[s],
-            workspace.slopes[s], workspace.slopeStrides[s], runRow[r]);
-        if (term.slopeOnSamplingScale) {
-          du += frame.slope;
-        } else {
-          dx += frame.slope;
+        for (int row = runRow[r]; row < runRow[r] + runLength[r]; row++) {
+          total += term.eval(frame, workspace.intercepts[s], workspace.interceptStrides[s],
+              workspace.slopes[s], workspace.slopeStrides[s], row);
+          if (term.slopeOnSamplingScale) {
+            du += frame.slope;
+          } else {
+            dx += frame.slope;
+          }
         }
       }
     }
     Reference alone = workspace == null ? reference() : null;
     int count = workspace == null ? termCount : runs ? 0 : workspace.activeCount;
     for (int j = 0; j < count; j++) {
-      int i = workspace == null || workspace.active == null ? j : workspace.active[j];
+      int i = workspace == null ? j : workspace.active[j];
       TermEvaluator term;
       if (workspace == null) {
         term = alone.terms[i];
