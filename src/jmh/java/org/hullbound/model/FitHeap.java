@@ -11,7 +11,8 @@ import org.hullbound.io.HeapMeasurement;
  * this thread (so one workspace of each exists, as one chain's thread makes them), and measures
  * again. The difference is what the conditionals hold; a fit's other chains add one workspace
  * each (the per-draw parts of the forms that read another unknown: 8 bytes a row and varying
- * form). The moves' lines, compiled at their first draw, are not included.
+ * form). Then it compiles the moves' lines (each at its first draw in a fit) by evaluating each
+ * once, and measures a third time: what the lines add.
  *
  * <p>Issue 14: {@code fit} of the 23-million-row clinics file in the default heap needs the
  * conditionals well under 100 bytes per row per used column.
@@ -40,16 +41,36 @@ public final class FitHeap {
     }
     long compiled = run.held();
     long held = compiled - bound0;
+    List<LineDensity> lines = new java.util.ArrayList<>();
+    for (Update move : bound.moves()) {
+      LineDensity line = move instanceof Update.GroupMove g ? g.line()
+          : move instanceof Update.DirectionBlock d ? d.line() : null;
+      if (line == null) {
+        continue;
+      }
+      double[] frame = new double[line.frameLength()];
+      line.load(state, frame);
+      if (line.learned()) {
+        double[] direction = new double[line.members().length];
+        direction[0] = 1;
+        line.direct(direction, frame);
+      }
+      line.logDensity(line.identity(), frame, null);
+      lines.add(line);
+    }
+    long withLines = run.held() - compiled;
     System.out.printf(
         "%s: %d rows, %d used columns, %d unknowns, %d terms in all conditionals; bound model"
             + " %.1f MB (%.1f bytes per row per used column); compiled conditionals with one"
             + " workspace each %.1f MB, %.1f bytes per row per used column, %.1f bytes per"
-            + " term; pools' peaks summed %.1f MB; %.1f s (wall clock, load not controlled)%n",
+            + " term; the %d moves' lines %.1f MB, %.1f bytes per row per used column; pools'"
+            + " peaks summed %.1f MB; %.1f s (wall clock, load not controlled)%n",
         run.dataFile(), rows, columns, state.length, terms, bound0 / 1e6,
         (double) bound0 / rows / columns, held / 1e6, (double) held / rows / columns,
-        (double) held / terms, HeapMeasurement.peak() / 1e6, run.seconds());
+        (double) held / terms, lines.size(), withLines / 1e6,
+        (double) withLines / rows / columns, HeapMeasurement.peak() / 1e6, run.seconds());
     // Keeps the model and the conditionals reachable until after the measurement.
-    if (conditionals.length < 0) {
+    if (conditionals.length < lines.size() - 1_000_000) {
       System.out.println(bound);
     }
   }
