@@ -7,10 +7,15 @@ import org.hullbound.model.family.Parametrisation;
 import org.hullbound.model.family.Scale;
 
 /**
- * A full conditional compiled from its Markov blanket: one {@link Evaluator} tree per argument of
- * each term, the family's own log-density (with its normalising constants) per term, the
- * truncation normaliser where the arguments move, and the change of variable to the sampling
- * scale with its log-Jacobian.
+ * A full conditional compiled from its Markov blanket: the family's own log-density (with its
+ * normalising constants) per term, the truncation normaliser where the arguments move, and the
+ * change of variable to the sampling scale with its log-Jacobian.
+ *
+ * <p>Terms grouped by shape (issues 11 and 14): the terms that differ only in numbers (the rows of
+ * a statement: observed values, the constants and coefficients of their linear forms, the slots
+ * those read) share one evaluator, and their numbers sit in primitive columns read by row ({@link
+ * RowColumn}), with no object per row; a term whose parts are not all linear forms keeps its own
+ * {@link Evaluator} trees. The blanket is read once, a term at a time, and each term dropped.
  *
  * <p>Change of variable (any textbook on densities of transformed variables): for {@code x =
  * g(u)} the density of {@code u} is {@code p(g(u)) |g'(u)|}. On the log scale {@code g(u) =
