@@ -207,21 +207,13 @@ final class AllocationRows {
     return new Row(row);
   }
 
-  /** How many allocations share these templates. */
-  int rows() {
-    return slots.length;
-  }
-
   /** The own term and the rows that read the allocation of row {@code row}, as trees. */
   double logDensity(int row, double u, double[] state, double[] slope) {
     Frame frame = frames.get().at(u, state);
     frame.row = row;
     double x = u;
     if (!(x >= supportLower && x <= supportUpper)) {
-      if (slope != null) {
-        slope[0] = 0;
-      }
-      return Double.NEGATIVE_INFINITY;
+      return CompiledConditional.outsideSupport(slope);
     }
     double total = 0;
     double dx = 0;

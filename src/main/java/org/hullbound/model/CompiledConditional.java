@@ -454,18 +454,7 @@ final class CompiledConditional implements ConditionalDensity {
       }
       frame.at(Double.NaN, state);
       for (int s = 0; s < shapes.length; s++) {
-        Shape shape = shapes[s];
-        if (shape.term.preparesTrees()) {
-          shape.term.prepare(frame, intercepts[s], slopes[s]);
-        }
-        for (int f = 0; f < 2 * shape.parts; f++) {
-          if (shape.varies(f)) {
-            double[] column = (f & 1) == 0 ? intercepts[s][f >> 1] : slopes[s][f >> 1];
-            for (int r = 0; r < shape.rows; r++) {
-              column[r] = shape.linearValue(f, r, state);
-            }
-          }
-        }
+        prepare(s, 0, shapes[s].rows);
       }
       keep(true);
       for (int j = 0; j < inputs.length; j++) {
@@ -477,8 +466,14 @@ final class CompiledConditional implements ConditionalDensity {
     /** Term {@code i}'s prepared parts at the frame's state ({@link AllocationMembers}). */
     @Override
     public void prepare(int i) {
-      int s = shapeOf[i];
-      int r = rowOf[i];
+      prepare(shapeOf[i], rowOf[i], rowOf[i] + 1);
+    }
+
+    /**
+     * Works out at the frame's state the parts of rows {@code from .. to - 1} of shape {@code s}
+     * that read another unknown: its trees (a shape of one row) and its varying linear forms.
+     */
+    private void prepare(int s, int from, int to) {
       Shape shape = shapes[s];
       if (shape.term.preparesTrees()) {
         shape.term.prepare(frame, intercepts[s], slopes[s]);
@@ -486,7 +481,9 @@ final class CompiledConditional implements ConditionalDensity {
       for (int f = 0; f < 2 * shape.parts; f++) {
         if (shape.varies(f)) {
           double[] column = (f & 1) == 0 ? intercepts[s][f >> 1] : slopes[s][f >> 1];
-          column[r] = shape.linearValue(f, r, frame.state);
+          for (int r = from; r < to; r++) {
+            column[r] = shape.linearValue(f, r, frame.state);
+          }
         }
       }
     }
@@ -602,10 +599,7 @@ final class CompiledConditional implements ConditionalDensity {
     double lo = lower.eval(frame);
     double hi = upper.eval(frame);
     if (!(x >= lo && x <= hi)) {
-      if (slope != null) {
-        slope[0] = 0;
-      }
-      return Double.NEGATIVE_INFINITY;
+      return outsideSupport(slope);
     }
     double total = 0;
     double dx = 0;
@@ -661,6 +655,14 @@ final class CompiledConditional implements ConditionalDensity {
       }
     }
     return withJacobian(scale, u, x, total, dx, du, slope);
+  }
+
+  /** The value outside the support, {@code -inf}, with a slope of 0. */
+  static double outsideSupport(double[] slope) {
+    if (slope != null) {
+      slope[0] = 0;
+    }
+    return Double.NEGATIVE_INFINITY;
   }
 
   /**

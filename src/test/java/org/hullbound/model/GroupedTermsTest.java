@@ -3,11 +3,7 @@ package org.hullbound.model;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
-import java.lang.reflect.Array;
-import java.lang.reflect.Field;
-import java.lang.reflect.Modifier;
 import java.util.ArrayList;
-import java.util.IdentityHashMap;
 import java.util.List;
 import java.util.Set;
 import org.junit.jupiter.api.Test;
@@ -28,24 +24,11 @@ import org.junit.jupiter.api.Test;
  */
 class GroupedTermsTest {
 
-  private static final String CLINICS = """
-      model clinics
-      index clinic = 1 .. 4
-      index patient
-      data  clinic_of[patient], dose[patient]
-      let   eta[patient] = intercept + slope * dose[patient] + effect[clinic_of[patient]]
-      data  recovered[patient] ~ bernoulli(logit_p = eta[patient])
-      param intercept ~ normal(mean = 0, sd = 2)
-      param slope ~ normal(mean = 0, sd = 1)
-      param spread ~ half-normal(sd = 1)
-      param effect[clinic] ~ normal(mean = 0, sd = spread)
-      """;
-
   @Test
   void aConditionalHoldsTheSameObjectsWhateverItsRows() {
     List<Integer> counts = new ArrayList<>();
     for (int rows : new int[] {500, 5_000}) {
-      BoundModel model = TestModels.bind(CLINICS, rows(rows));
+      BoundModel model = TestModels.bind(TermTableTest.CLINICS, TermTableTest.rows(rows));
       double[] state = model.initialState();
       int total = 0;
       for (String label : List.of("intercept", "slope", "effect[1]", "spread")) {
@@ -90,18 +73,8 @@ class GroupedTermsTest {
     assertEquals(counts.get(0), counts.get(1), "objects held at 500 and at 5,000 shells");
   }
 
-  /** Rows of clinics data: clinic k % 4 + 1, dose k / 10, recovered k % 2. */
-  private static DataTable rows(int count) {
-    String[] lines = new String[count + 1];
-    lines[0] = "clinic_of,dose,recovered";
-    for (int k = 1; k <= count; k++) {
-      lines[k] = (k % 4 + 1) + "," + (k / 10.0) + "," + (k % 2);
-    }
-    return TestModels.table("rows.csv", lines);
-  }
-
   private static Set<Object> newSet() {
-    return java.util.Collections.newSetFromMap(new IdentityHashMap<>());
+    return ReachableObjects.seen();
   }
 
   private static int reachable(Object root) {
@@ -109,46 +82,13 @@ class GroupedTermsTest {
   }
 
   /**
-   * How many objects not in {@code seen} are reachable from {@code root} through the fields of
-   * the project's own classes and arrays (primitive arrays counted, not entered), the bound model
-   * and the JDK's objects (a thread-local's map) neither counted nor entered; adds them to {@code
-   * seen}.
+   * How many of the project's objects and arrays not in {@code seen} are reachable from {@code
+   * root} ({@link ReachableObjects}), the bound model and the JDK's objects (a thread-local's map)
+   * neither counted nor entered; adds them to {@code seen}.
    */
   private static int reachable(Object root, Set<Object> seen) {
-    List<Object> pending = new ArrayList<>();
-    pending.add(root);
-    int count = 0;
-    while (!pending.isEmpty()) {
-      Object o = pending.remove(pending.size() - 1);
-      if (o == null || o instanceof BoundModel || !seen.add(o)) {
-        continue;
-      }
-      Class<?> c = o.getClass();
-      if (c.isArray()) {
-        count++;
-        if (!c.getComponentType().isPrimitive()) {
-          for (int i = 0; i < Array.getLength(o); i++) {
-            pending.add(Array.get(o, i));
-          }
-        }
-      } else if (c.getName().startsWith("org.hullbound.")) {
-        count++;
-        for (Class<?> k = c; k != null && k.getName().startsWith("org.hullbound."); k =
-            k.getSuperclass()) {
-          for (Field f : k.getDeclaredFields()) {
-            if (Modifier.isStatic(f.getModifiers()) || f.getType().isPrimitive()) {
-              continue;
-            }
-            f.setAccessible(true);
-            try {
-              pending.add(f.get(o));
-            } catch (IllegalAccessException e) {
-              throw new AssertionError(e);
-            }
-          }
-        }
-      }
-    }
-    return count;
+    return ReachableObjects.count(root,
+        o -> o.getClass().isArray() || o.getClass().getName().startsWith("org.hullbound."), false,
+        o -> o instanceof BoundModel, seen);
   }
 }

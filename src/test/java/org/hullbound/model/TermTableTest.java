@@ -2,15 +2,7 @@ package org.hullbound.model;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
 
-import java.lang.reflect.Array;
-import java.lang.reflect.Field;
-import java.lang.reflect.Modifier;
-import java.util.ArrayList;
-import java.util.Collection;
-import java.util.IdentityHashMap;
 import java.util.List;
-import java.util.Map;
-import java.util.Set;
 import org.junit.jupiter.api.Test;
 
 /**
@@ -25,7 +17,7 @@ import org.junit.jupiter.api.Test;
 class TermTableTest {
 
   /** The clinics demo's model (models/clinics.hbm), with its analyses and moves. */
-  private static final String CLINICS = """
+  static final String CLINICS = """
       model clinics
       index clinic = 1 .. 4
       index patient
@@ -87,7 +79,7 @@ class TermTableTest {
   }
 
   /** Rows of clinics data: clinic k % 4 + 1, dose k / 10, recovered k % 2. */
-  private static DataTable rows(int count) {
+  static DataTable rows(int count) {
     String[] lines = new String[count + 1];
     lines[0] = "clinic_of,dose,recovered";
     for (int k = 1; k <= count; k++) {
@@ -96,54 +88,8 @@ class TermTableTest {
     return TestModels.table("rows.csv", lines);
   }
 
-  /**
-   * How many instances of {@code type} are reachable from {@code root}: through the fields of the
-   * project's own classes, arrays, and the elements of the JDK's collections and maps (read
-   * through their interfaces; a collection of the project's own, such as a list that makes its
-   * elements when asked, is walked by its fields instead).
-   */
+  /** How many instances of {@code type} are reachable from {@code root} ({@link ReachableObjects}). */
   private static int reachable(Object root, Class<?> type) {
-    Set<Object> seen = java.util.Collections.newSetFromMap(new IdentityHashMap<>());
-    List<Object> pending = new ArrayList<>();
-    pending.add(root);
-    int count = 0;
-    while (!pending.isEmpty()) {
-      Object o = pending.remove(pending.size() - 1);
-      if (o == null || !seen.add(o)) {
-        continue;
-      }
-      Class<?> c = o.getClass();
-      if (type.isInstance(o)) {
-        count++;
-      }
-      if (c.isArray()) {
-        if (!c.getComponentType().isPrimitive()) {
-          for (int i = 0; i < Array.getLength(o); i++) {
-            pending.add(Array.get(o, i));
-          }
-        }
-      } else if (c.getName().startsWith("org.hullbound.")) {
-        for (Class<?> k = c; k != null && k.getName().startsWith("org.hullbound."); k =
-            k.getSuperclass()) {
-          for (Field f : k.getDeclaredFields()) {
-            if (Modifier.isStatic(f.getModifiers()) || f.getType().isPrimitive()) {
-              continue;
-            }
-            f.setAccessible(true);
-            try {
-              pending.add(f.get(o));
-            } catch (IllegalAccessException e) {
-              throw new AssertionError(e);
-            }
-          }
-        }
-      } else if (o instanceof Collection<?> collection) {
-        pending.addAll(collection);
-      } else if (o instanceof Map<?, ?> map) {
-        pending.addAll(map.keySet());
-        pending.addAll(map.values());
-      }
-    }
-    return count;
+    return ReachableObjects.count(root, type::isInstance, true, o -> false, ReachableObjects.seen());
   }
 }
