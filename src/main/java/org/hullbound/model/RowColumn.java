@@ -33,9 +33,13 @@ final class RowColumn {
       size++;
     }
 
-    /** Trims the column, or folds it to one value (stride 0) when every row holds its bits. */
+    /**
+     * Trims the column, or folds it to one value (stride 0) when every row holds its bits; a long
+     * column equal bit for bit to one already made by another conditional is that one ({@link
+     * #shared}).
+     */
     Doubles finish() {
-      values = same ? Arrays.copyOf(values, Math.min(1, size)) : Arrays.copyOf(values, size);
+      values = same ? Arrays.copyOf(values, Math.min(1, size)) : shared(values, size);
       stride = same ? 0 : 1;
       return this;
     }
@@ -43,6 +47,61 @@ final class RowColumn {
     double at(int row) {
       return values[row * stride];
     }
+  }
+
+  /** Columns shorter than this are not looked up in {@link #SHARED}: they cost little anyway. */
+  static final int SHARED_FROM = 1024;
+
+  /**
+   * Long columns made so far, by length and hash of their bits, held weakly: the outcome and a
+   * covariate of a statement appear in the conditional of every unknown its rows read and in every
+   * line that moves them (clinics: the outcome five times, {@code dose} six), each the same numbers
+   * in the same order; one array serves them all, read only.
+   */
+  private static final java.util.Map<Long, java.util.List<java.lang.ref.WeakReference<double[]>>>
+      SHARED = new java.util.HashMap<>();
+
+  /** The first {@code size} values, as an array equal bit for bit to any made before. */
+  static double[] shared(double[] values, int size) {
+    double[] column = Arrays.copyOf(values, size);
+    if (size < SHARED_FROM) {
+      return column;
+    }
+    long hash = size;
+    for (double v : column) {
+      hash = 31 * hash + Double.doubleToRawLongBits(v);
+    }
+    synchronized (SHARED) {
+      java.util.List<java.lang.ref.WeakReference<double[]>> known =
+          SHARED.computeIfAbsent(hash, h -> new java.util.ArrayList<>());
+      known.removeIf(r -> r.get() == null);
+      for (java.lang.ref.WeakReference<double[]> r : known) {
+        double[] other = r.get();
+        if (other != null && sameBits(other, column)) {
+          return other;
+        }
+      }
+      known.add(new java.lang.ref.WeakReference<>(column));
+      if (known.size() == 1 && SHARED.size() % 64 == 0) {
+        SHARED.values().removeIf(list -> {
+          list.removeIf(r -> r.get() == null);
+          return list.isEmpty();
+        });
+      }
+      return column;
+    }
+  }
+
+  private static boolean sameBits(double[] a, double[] b) {
+    if (a.length != b.length) {
+      return false;
+    }
+    for (int i = 0; i < a.length; i++) {
+      if (Double.doubleToRawLongBits(a[i]) != Double.doubleToRawLongBits(b[i])) {
+        return false;
+      }
+    }
+    return true;
   }
 
   /** Ints (slots), as {@link Doubles}. */

@@ -20,7 +20,7 @@ import org.junit.jupiter.api.Test;
  * 500 and at 5,000 rows. Measured with this walk: the four clinics conditionals below held
  * 17,097 objects at 500 rows and 168,972 at 5,000 with an evaluator per term (about 15 a term),
  * 396 at both once grouped; the mixture's conditionals 40,079 and 400,079 (about 80 a shell, most
- * of them an allocation's compiled conditional), 229 at both.
+ * of them an allocation's compiled conditional), 229 and 227 (two long columns shared).
  */
 class GroupedTermsTest {
 
@@ -70,7 +70,10 @@ class GroupedTermsTest {
       }
       counts.add(total);
     }
-    assertEquals(counts.get(0), counts.get(1), "objects held at 500 and at 5,000 shells");
+    // Not more at 5,000: columns of 1,024 rows or more equal between conditionals are one array
+    // (RowColumn.shared), walked once here.
+    assertTrue(counts.get(1) <= counts.get(0),
+        "objects held at 500 and at 5,000 shells: " + counts);
   }
 
   private static Set<Object> newSet() {
