@@ -128,7 +128,7 @@ final class ModelLowering implements ExpressionLowering.Leaves {
    * {@code op} folded over {@code terms[from, to)} as a balanced tree: a chain over 100,000 rows
    * would be 100,000 evaluators deep, a balanced tree is 17.
    */
-  private static Formula pairwise(Op op, List<Formula> terms, int from, int to) {
+  static Formula pairwise(Op op, List<Formula> terms, int from, int to) {
     if (to - from == 1) {
       return terms.get(from);
     }
@@ -303,18 +303,34 @@ final class ModelLowering implements ExpressionLowering.Leaves {
       case PARAM:
         return slot(node.slots[offset]);
       default:
-        Map<String, Integer> letEnv = ElementNames.environment(nodeSets, index);
-        if (replicated != null || node.size > largestCachedLet) {
-          // Not cached: inside a check the checked name's elements are slots, not its data; a
-          // let per data row once binding is over.
-          return resolve(node.letValue, letEnv);
-        }
-        Formula[] cache = letCache.computeIfAbsent(node, k -> new Formula[k.size]);
-        if (cache[offset] == null) {
-          cache[offset] = resolve(node.letValue, letEnv);
-        }
-        return cache[offset];
+        return letElement(node, index);
     }
+  }
+
+  /** The formula of element {@code index} of let {@code node}, cached where it is cached. */
+  Formula letElement(Node node, int[] index) {
+    Map<String, Integer> letEnv = ElementNames.environment(node.indexSets, index);
+    if (!cachesLet(node)) {
+      // Not cached: inside a check the checked name's elements are slots, not its data; a
+      // let per data row once binding is over.
+      return resolve(node.letValue, letEnv);
+    }
+    int offset = node.offset(index);
+    Formula[] cache = letCache.computeIfAbsent(node, k -> new Formula[k.size]);
+    if (cache[offset] == null) {
+      cache[offset] = resolve(node.letValue, letEnv);
+    }
+    return cache[offset];
+  }
+
+  /** Whether the elements of let {@code node} are cached now (see {@link #bound}). */
+  boolean cachesLet(Node node) {
+    return replicated == null && node.size <= largestCachedLet;
+  }
+
+  /** True while a check is resolved, when a data name's elements may be slots ({@link #replicating}). */
+  boolean replicating() {
+    return replicated != null;
   }
 
   /**

@@ -24,6 +24,10 @@ final class TermBinding {
   private final DataBinding data;
   private final ModelLowering lowering;
   private final Map<Node, CensoredRows> censoredRows = new HashMap<>();
+  /** Each node's statement formula, or an empty optional where its rows are lowered one by one. */
+  private final Map<Node, java.util.Optional<StatementFormula>> statements = new HashMap<>();
+  /** How many times a statement's expressions were lowered for one row (a regression count). */
+  private long rowLowerings;
 
   TermBinding(BindingScope scope, DataBinding data, ModelLowering lowering) {
     this.scope = scope;
@@ -41,10 +45,27 @@ final class TermBinding {
    * #term} made of it when binding ({@link TermTable}).
    */
   Term madeAgain(Node node, int e) {
+    StatementFormula statement = statements.computeIfAbsent(node, n -> java.util.Optional.ofNullable(
+        StatementFormula.of(n, scope, data, lowering, censoring(n) != null))).orElse(null);
+    Term term = statement == null ? null : statement.term(e);
+    return term != null ? term : term(node, e, false);
+  }
+
+  /** The term of element {@code e} of {@code node} lowered for that row, unchecked (for tests). */
+  Term lowered(Node node, int e) {
     return term(node, e, false);
   }
 
+  /**
+   * How many terms were made by lowering their statement's expressions for their row, binding's
+   * checked terms included: a statement formula makes a row's term without.
+   */
+  long rowLowerings() {
+    return rowLowerings;
+  }
+
   private Term term(Node node, int e, boolean check) {
+    rowLowerings++;
     int[] index = node.index(e);
     Map<String, Integer> env = ElementNames.environment(node.indexSets, index);
     Parametrisation p = node.parametrisation;

@@ -59,6 +59,36 @@ final class TermTable extends AbstractList<Term> implements RandomAccess {
 
   @Override
   public Term get(int index) {
+    int k = node(index);
+    int e = index - starts[k];
+    if (held[k] != null) {
+      return held[k][e];
+    }
+    synchronized (binding) {
+      return binding.madeAgain(nodes[k], e);
+    }
+  }
+
+  /**
+   * Term {@code index} lowered from its statement's syntax for its row, as binding made it: what
+   * {@link #get} must equal (for tests of {@link StatementFormula}).
+   */
+  Term lowered(int index) {
+    int k = node(index);
+    synchronized (binding) {
+      return binding.lowered(nodes[k], index - starts[k]);
+    }
+  }
+
+  /** How many terms were made by lowering their statement for their row, binding's included. */
+  long rowLowerings() {
+    synchronized (binding) {
+      return binding.rowLowerings();
+    }
+  }
+
+  /** The node of term {@code index}. */
+  private int node(int index) {
     if (index < 0 || index >= size) {
       throw new IndexOutOfBoundsException("index must be in 0 .. " + (size - 1) + ", got " + index);
     }
@@ -68,13 +98,7 @@ final class TermTable extends AbstractList<Term> implements RandomAccess {
     while (starts[k + 1] == index) {
       k++;
     }
-    int e = index - starts[k];
-    if (held[k] != null) {
-      return held[k][e];
-    }
-    synchronized (binding) {
-      return binding.madeAgain(nodes[k], e);
-    }
+    return k;
   }
 
   @Override

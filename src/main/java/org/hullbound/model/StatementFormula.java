@@ -1,0 +1,312 @@
+package org.hullbound.model;
+
+import java.util.ArrayList;
+import java.util.HashMap;
+import java.util.List;
+import java.util.Map;
+import org.hullbound.lang.Expression;
+import org.hullbound.lang.Statement;
+import org.hullbound.model.family.Categorical;
+import org.hullbound.model.family.Parametrisation;
+
+/**
+ * A statement with a distribution lowered once over its index set (docs/data.md, step 1): its
+ * arguments and truncation bounds as formulas whose leaves read a row's index values, data
+ * columns by index formula ({@code dose[patient]}, {@code effect[clinic_of[patient]]}) and
+ * unknowns' slots, with lets inlined and sums expanded.
+ *
+ * <p>Why: a data row's term is made again whenever an analysis reads it ({@link TermTable}), and
+ * lowering the statement's syntax for each row (names looked up, lets resolved, errors checked)
+ * cost most of {@code check} on a file of millions of rows (issue 14). A row's term is now made
+ * from this formula by the same folding ({@link Formulas#apply}) that lowering does, so it equals
+ * the term lowering makes. A row this formula cannot make as lowering would (an index that reads
+ * an unknown or a missing cell, an index outside its set) is answered with {@code null}, and its
+ * term is lowered as before; a statement whose lowering this does not cover (a censored clause, a
+ * vector argument, a name or set lowering would refuse) has no statement formula at all.
+ */
+final class StatementFormula {
+
+  /** A formula of a row, given the row's index values; {@code null} where lowering must decide. */
+  sealed interface RowFormula {
+    Formula at(int[] row);
+  }
+
+  /** A formula that is the same for every row (a number). */
+  private record Fixed(Formula formula) implements RowFormula {
+    @Override
+    public Formula at(int[] row) {
+      return formula;
+    }
+  }
+
+  /** The value of the statement's index set at {@code position}, as lowering reads a set's name. */
+  private record SetValue(int position) implements RowFormula {
+    @Override
+    public Formula at(int[] row) {
+      return Formula.constant(row[position]);
+    }
+  }
+
+  /** The whole value of an index formula, as a let's body reads the set it is indexed by. */
+  private record IndexValue(RowFormula index) implements RowFormula {
+    @Override
+    public Formula at(int[] row) {
+      Formula f = index.at(row);
+      return f instanceof Formula.Constant c ? Formula.constant((int) c.value()) : null;
+    }
+  }
+
+  /** {@code op(parts)}, folded as lowering folds it. */
+  private record Apply(Op op, RowFormula[] parts) implements RowFormula {
+    @Override
+    public Formula at(int[] row) {
+      List<Formula> made = new ArrayList<>(parts.length);
+      for (RowFormula part : parts) {
+        Formula f = part.at(row);
+        if (f == null) {
+          return null;
+        }
+        made.add(f);
+      }
+      return Formulas.apply(op, made);
+    }
+  }
+
+  /** A sum, maximum or minimum over an index set, expanded as lowering expands it. */
+  private record Reduction(Expression.Reduction reduction, RowFormula[] terms)
+      implements RowFormula {
+    @Override
+    public Formula at(int[] row) {
+      List<Formula> made = new ArrayList<>(terms.length);
+      for (RowFormula term : terms) {
+        Formula f = term.at(row);
+        if (f == null) {
+          return null;
+        }
+        made.add(f);
+      }
+      return switch (reduction) {
+        case SUM -> Formulas.apply(Op.ADD, made);
+        case MAX -> ModelLowering.pairwise(Op.MAX, made, 0, made.size());
+        case MIN -> ModelLowering.pairwise(Op.MIN, made, 0, made.size());
+      };
+    }
+  }
+
+  /**
+   * Element {@code indexes} of a data, param or let name: a data value a constant of its cell, a
+   * missing cell or a param its slot, a let its cached formula or its body inlined ({@code body}),
+   * as {@link ModelLowering} decides for that let.
+   */
+  private record Element(
+      Node node, RowFormula[] indexes, Formula.Cells cells, RowFormula body, ModelLowering lowering)
+      implements RowFormula {
+    @Override
+    public Formula at(int[] row) {
+      int[] index = new int[indexes.length];
+      for (int i = 0; i < index.length; i++) {
+        Formula f = indexes[i].at(row);
+        if (!(f instanceof Formula.Constant c)) {
+          return null;
+        }
+        double v = c.value();
+        IndexSet expected = node.indexSets.get(i);
+        if (v != Math.rint(v) || !expected.contains(v)) {
+          return null;
+        }
+        index[i] = (int) v;
+      }
+      int offset = node.offset(index);
+      return switch (node.kind) {
+        case DATA -> {
+          if (node.missing[offset]) {
+            yield node.slots == null ? null : lowering.slot(node.slots[offset]);
+          }
+          yield new Formula.Constant(node.values[offset], cells, offset);
+        }
+        case PARAM -> lowering.slot(node.slots[offset]);
+        case LET -> body != null ? body.at(row) : lowering.letElement(node, index);
+      };
+    }
+  }
+
+  private final Node node;
+  private final Parametrisation family;
+  private final RowFormula[] arguments;
+  private final RowFormula lower;
+  private final RowFormula upper;
+  private final Formula.Cells cells;
+  private final ModelLowering lowering;
+
+  private StatementFormula(Node node, RowFormula[] arguments, RowFormula lower, RowFormula upper,
+      Formula.Cells cells, ModelLowering lowering) {
+    this.node = node;
+    this.lowering = lowering;
+    this.family = node.parametrisation;
+    this.arguments = arguments;
+    this.lower = lower;
+    this.upper = upper;
+    this.cells = cells;
+  }
+
+  /** Raised inside {@link #of} where lowering would refuse or do what this does not cover. */
+  private static final class NotCovered extends RuntimeException {
+    NotCovered() {
+      super(null, null, false, false);
+    }
+  }
+
+  /**
+   * The statement formula of {@code node} (a node with a distribution, bound without error), or
+   * {@code null} when its rows' terms must be lowered one by one.
+   */
+  static StatementFormula of(
+      Node node, BindingScope scope, DataBinding data, ModelLowering lowering, boolean censored) {
+    if (censored || Categorical.takesVector(node.parametrisation)) {
+      return null;
+    }
+    Map<String, RowFormula> env = new HashMap<>();
+    for (int i = 0; i < node.indexSets.size(); i++) {
+      env.put(node.indexSets.get(i).name(), new SetValue(i));
+    }
+    Lowering rows = new Lowering(scope, data, lowering);
+    try {
+      RowFormula[] arguments = new RowFormula[node.argumentExpressions.length];
+      for (int k = 0; k < arguments.length; k++) {
+        arguments[k] = rows.lower(node.argumentExpressions[k], env);
+      }
+      org.hullbound.lang.Truncation within = node.distribution.truncation();
+      RowFormula lower = within == null ? null : rows.lower(within.lower(), env);
+      RowFormula upper = within == null ? null : rows.lower(within.upper(), env);
+      return new StatementFormula(node, arguments, lower, upper,
+          node.kind == Node.Kind.DATA ? data.cells(node) : null, lowering);
+    } catch (NotCovered notCovered) {
+      return null;
+    }
+  }
+
+  /**
+   * The term of row {@code e}, equal to the one lowering makes, or {@code null} when that row
+   * must be lowered (see the class comment).
+   */
+  Term term(int e) {
+    if (lowering.replicating()) {
+      return null;
+    }
+    int[] row = node.index(e);
+    List<Formula> args = new ArrayList<>(arguments.length);
+    for (RowFormula a : arguments) {
+      Formula f = a.at(row);
+      if (f == null) {
+        return null;
+      }
+      args.add(f);
+    }
+    Term.Within within = null;
+    if (lower != null) {
+      Formula l = lower.at(row);
+      Formula u = upper.at(row);
+      if (!(l instanceof Formula.Constant lc) || !(u instanceof Formula.Constant uc)) {
+        return null;
+      }
+      within = new Term.Within(lc.value(), uc.value());
+    }
+    int slot = node.slots[e];
+    Formula value = slot >= 0 ? lowering.slot(slot) : Formula.constant(node.values[e]);
+    return new Term(node.names(), e, slot >= 0 ? null : cells, family, value, args, within, slot,
+        node.position());
+  }
+
+  /** Lowers an expression over a statement's rows, as {@link ModelLowering} lowers it for one. */
+  private record Lowering(BindingScope scope, DataBinding data, ModelLowering lowering) {
+
+    RowFormula lower(Expression e, Map<String, RowFormula> env) {
+      if (e instanceof Expression.Number number) {
+        return new Fixed(Formula.constant(number.value()));
+      }
+      if (e instanceof Expression.Negation negation) {
+        return new Apply(Op.NEGATE, new RowFormula[] {lower(negation.operand(), env)});
+      }
+      if (e instanceof Expression.Binary binary) {
+        Op op =
+            switch (binary.operator()) {
+              case ADD -> Op.ADD;
+              case SUBTRACT -> Op.SUBTRACT;
+              case MULTIPLY -> Op.MULTIPLY;
+              case DIVIDE -> Op.DIVIDE;
+              case POWER -> Op.POWER;
+            };
+        return new Apply(op, new RowFormula[] {lower(binary.left(), env), lower(binary.right(), env)});
+      }
+      if (e instanceof Expression.Call call) {
+        Op op = Op.function(call.function().text());
+        if (op == null || call.arguments().size() != op.arity()) {
+          throw new NotCovered();
+        }
+        RowFormula[] parts = new RowFormula[call.arguments().size()];
+        for (int k = 0; k < parts.length; k++) {
+          parts[k] = lower(call.arguments().get(k), env);
+        }
+        return new Apply(op, parts);
+      }
+      if (e instanceof Expression.Sum sum) {
+        return sum(sum, env);
+      }
+      return name((Expression.Name) e, env);
+    }
+
+    private RowFormula sum(Expression.Sum sum, Map<String, RowFormula> env) {
+      String setName = sum.indexSet().text();
+      IndexSet set = scope.sets.get(setName);
+      if (set == null || env.containsKey(setName)
+          || set.size() == 0 && sum.reduction() != Expression.Reduction.SUM) {
+        throw new NotCovered();
+      }
+      RowFormula[] terms = new RowFormula[set.size()];
+      Map<String, RowFormula> inner = new HashMap<>(env);
+      for (int v = set.lower(); v <= set.upper(); v++) {
+        inner.put(setName, new Fixed(Formula.constant(v)));
+        terms[v - set.lower()] = lower(sum.body(), inner);
+      }
+      return new Reduction(sum.reduction(), terms);
+    }
+
+    private RowFormula name(Expression.Name reference, Map<String, RowFormula> env) {
+      String name = reference.name().text();
+      if (scope.indexStatements.containsKey(name)) {
+        RowFormula value = env.get(name);
+        if (!reference.indexes().isEmpty() || value == null) {
+          throw new NotCovered();
+        }
+        return value;
+      }
+      Node node = scope.nodes.get(name);
+      if (node == null || node.indexSets == null
+          || reference.indexes().size() != node.indexSets.size()) {
+        throw new NotCovered();
+      }
+      RowFormula[] indexes = new RowFormula[node.indexSets.size()];
+      for (int i = 0; i < indexes.length; i++) {
+        Expression indexExpression = reference.indexes().get(i);
+        if (indexExpression instanceof Expression.Name bare
+            && bare.indexes().isEmpty()
+            && scope.indexStatements.containsKey(bare.name().text())
+            && !bare.name().text().equals(node.indexSets.get(i).name())) {
+          throw new NotCovered();
+        }
+        indexes[i] = lower(indexExpression, env);
+      }
+      RowFormula body = null;
+      // a let of a few elements is cached by lowering, whose formulas a row's term then shares
+      if (node.kind == Node.Kind.LET && node.size > ModelLowering.LARGEST_HELD_LET) {
+        Map<String, RowFormula> letEnv = new HashMap<>();
+        for (int i = 0; i < indexes.length; i++) {
+          letEnv.put(node.indexSets.get(i).name(), new IndexValue(indexes[i]));
+        }
+        body = lower(node.letValue, letEnv);
+      }
+      return new Element(node, indexes,
+          node.kind == Node.Kind.DATA ? data.cells(node) : null, body, lowering);
+    }
+  }
+}
