@@ -90,10 +90,14 @@ public final class BoundModel {
       boolean discrete = own.family().discrete();
       boolean imputed = result.imputed().get(s);
       Formula[] support = support(own);
-      cuts[s] = ArgumentBounds.of(s, own, children,
+      // Statements that answer a question for all their rows at once leave their rows out of
+      // that question's pass: each row read would be a term made again (docs/data.md).
+      cuts[s] = ArgumentBounds.of(s, own,
+          unansweredTerms(s, StatementFormula::noBoundedArgument),
           support[0] instanceof Formula.Constant c ? c.value() : Double.NaN,
           support[1] instanceof Formula.Constant c ? c.value() : Double.NaN);
-      boolean smoothTerms = UpdateAnalysis.smooth(s, own, children);
+      boolean smoothTerms =
+          UpdateAnalysis.smooth(s, own, unansweredTerms(s, StatementFormula::smoothForEveryRow));
       UpdateAnalysis.Choice choice =
           UpdateAnalysis.choose(s, own, children, discrete, imputed, cuts[s], smoothTerms);
       updates[s] = choice.update();
@@ -422,8 +426,8 @@ public final class BoundModel {
   /** Whether {@code test} holds for some term that depends on unknown {@code index}. */
   private boolean anyDependent(int index, java.util.function.BiPredicate<Term, Integer> test) {
     checkIndex(index);
-    for (int t : dependents[index]) {
-      if (test.test(terms.get(t), index)) {
+    for (Term t : unansweredTerms(index, StatementFormula::noUnknownIndex)) {
+      if (test.test(t, index)) {
         return true;
       }
     }
@@ -614,6 +618,17 @@ public final class BoundModel {
    */
   private List<Term> dependentTerms(int index) {
     return TermTable.at(terms, dependents[index]);
+  }
+
+  /**
+   * The dependent terms of unknown {@code index} but those of statements that answer {@code
+   * answered} for every row at once (all of them when the terms are not a {@link TermTable}).
+   */
+  private List<Term> unansweredTerms(
+      int index, java.util.function.Predicate<StatementFormula> answered) {
+    int[] left = terms instanceof TermTable table
+        ? table.unanswered(dependents[index], answered) : dependents[index];
+    return TermTable.at(terms, left);
   }
 
   private void checkIndex(int index) {

@@ -137,11 +137,17 @@ final class StatementFormula {
   private final RowFormula upper;
   private final Formula.Cells cells;
   private final ModelLowering lowering;
+  /** Whether every row's term is made here ({@link #term} never answers {@code null}). */
+  private final boolean total;
+  /** The operators of every row's formulas, or {@code null} where a let's formula hides some. */
+  private final java.util.Set<Op> ops;
 
   private StatementFormula(Node node, RowFormula[] arguments, RowFormula lower, RowFormula upper,
-      Formula.Cells cells, ModelLowering lowering) {
+      Formula.Cells cells, ModelLowering lowering, boolean total, java.util.Set<Op> ops) {
     this.node = node;
     this.lowering = lowering;
+    this.total = total;
+    this.ops = ops;
     this.family = node.parametrisation;
     this.arguments = arguments;
     this.lower = lower;
@@ -179,10 +185,50 @@ final class StatementFormula {
       RowFormula lower = within == null ? null : rows.lower(within.lower(), env);
       RowFormula upper = within == null ? null : rows.lower(within.upper(), env);
       return new StatementFormula(node, arguments, lower, upper,
-          node.kind == Node.Kind.DATA ? data.cells(node) : null, lowering);
+          node.kind == Node.Kind.DATA ? data.cells(node) : null, lowering, rows.total,
+          rows.opaque ? null : java.util.Set.copyOf(rows.ops));
     } catch (NotCovered notCovered) {
       return null;
     }
+  }
+
+  /**
+   * Whether no row's term of this statement can have a part that is not smooth (abs, min, max),
+   * an unknown index's indicator, nor a family whose support or kink moves with an argument
+   * (laplace, between its first two arguments): what {@code UpdateAnalysis.smooth} and the
+   * unknown-index questions of {@code BoundModel} look for, answered once for all rows. Folding
+   * only removes operators, so the rows' formulas have no operator that this one lacks.
+   */
+  boolean smoothForEveryRow() {
+    if (!total || ops == null || family.family().name().equals("laplace")
+        || family.support() == org.hullbound.model.family.SupportKind.BETWEEN_FIRST_TWO_ARGUMENTS) {
+      return false;
+    }
+    for (Op op : ops) {
+      if (!op.smooth() || op == Op.EQUAL) {
+        return false;
+      }
+    }
+    return true;
+  }
+
+  /** Whether every row's term has no unknown index (no indicator operator): see above. */
+  boolean noUnknownIndex() {
+    return total && ops != null && !ops.contains(Op.EQUAL);
+  }
+
+  /**
+   * Whether no argument of this statement's family has a bounded range: then no row's term cuts
+   * an unknown's support ({@link ArgumentBounds}). Every row's term has the statement's family
+   * (censored rows and vector arguments have no statement formula).
+   */
+  boolean noBoundedArgument() {
+    for (int k = 0; k < arguments.length; k++) {
+      if (family.argumentRange(k).bounded()) {
+        return false;
+      }
+    }
+    return true;
   }
 
   /**
@@ -218,13 +264,29 @@ final class StatementFormula {
   }
 
   /** Lowers an expression over a statement's rows, as {@link ModelLowering} lowers it for one. */
-  private record Lowering(BindingScope scope, DataBinding data, ModelLowering lowering) {
+  private static final class Lowering {
+    private final BindingScope scope;
+    private final DataBinding data;
+    private final ModelLowering lowering;
+    /** The operators applied anywhere (lets inlined), for the structural answers. */
+    private final java.util.EnumSet<Op> ops = java.util.EnumSet.noneOf(Op.class);
+    /** Whether every index reads data only, so that every row's term is made here. */
+    private boolean total = true;
+    /** Whether a part is a let's formula held by lowering, whose operators are not seen here. */
+    private boolean opaque;
+
+    Lowering(BindingScope scope, DataBinding data, ModelLowering lowering) {
+      this.scope = scope;
+      this.data = data;
+      this.lowering = lowering;
+    }
 
     RowFormula lower(Expression e, Map<String, RowFormula> env) {
       if (e instanceof Expression.Number number) {
         return new Fixed(Formula.constant(number.value()));
       }
       if (e instanceof Expression.Negation negation) {
+        ops.add(Op.NEGATE);
         return new Apply(Op.NEGATE, new RowFormula[] {lower(negation.operand(), env)});
       }
       if (e instanceof Expression.Binary binary) {
@@ -236,6 +298,7 @@ final class StatementFormula {
               case DIVIDE -> Op.DIVIDE;
               case POWER -> Op.POWER;
             };
+        ops.add(op);
         return new Apply(op, new RowFormula[] {lower(binary.left(), env), lower(binary.right(), env)});
       }
       if (e instanceof Expression.Call call) {
@@ -243,6 +306,7 @@ final class StatementFormula {
         if (op == null || call.arguments().size() != op.arity()) {
           throw new NotCovered();
         }
+        ops.add(op);
         RowFormula[] parts = new RowFormula[call.arguments().size()];
         for (int k = 0; k < parts.length; k++) {
           parts[k] = lower(call.arguments().get(k), env);
@@ -262,6 +326,11 @@ final class StatementFormula {
           || set.size() == 0 && sum.reduction() != Expression.Reduction.SUM) {
         throw new NotCovered();
       }
+      ops.add(switch (sum.reduction()) {
+        case SUM -> Op.ADD;
+        case MAX -> Op.MAX;
+        case MIN -> Op.MIN;
+      });
       RowFormula[] terms = new RowFormula[set.size()];
       Map<String, RowFormula> inner = new HashMap<>(env);
       for (int v = set.lower(); v <= set.upper(); v++) {
@@ -295,6 +364,7 @@ final class StatementFormula {
           throw new NotCovered();
         }
         indexes[i] = lower(indexExpression, env);
+        total &= dataOnly(indexes[i]);
       }
       RowFormula body = null;
       // a let of a few elements is cached by lowering, whose formulas a row's term then shares
@@ -305,8 +375,36 @@ final class StatementFormula {
         }
         body = lower(node.letValue, letEnv);
       }
+      opaque |= node.kind == Node.Kind.LET && body == null;
       return new Element(node, indexes,
           node.kind == Node.Kind.DATA ? data.cells(node) : null, body, lowering);
+    }
+
+    /** Whether {@code f} reads data with no missing cell only: a known value at every row. */
+    private static boolean dataOnly(RowFormula f) {
+      if (f instanceof IndexValue value) {
+        return dataOnly(value.index());
+      }
+      if (f instanceof Apply apply) {
+        return java.util.Arrays.stream(apply.parts()).allMatch(Lowering::dataOnly);
+      }
+      if (f instanceof Reduction r) {
+        return java.util.Arrays.stream(r.terms()).allMatch(Lowering::dataOnly);
+      }
+      if (f instanceof Element e) {
+        return e.node().kind == Node.Kind.DATA && !anyMissing(e.node())
+            && java.util.Arrays.stream(e.indexes()).allMatch(Lowering::dataOnly);
+      }
+      return true; // a number or the statement's own index value
+    }
+
+    private static boolean anyMissing(Node node) {
+      for (boolean m : node.missing) {
+        if (m) {
+          return true;
+        }
+      }
+      return false;
     }
   }
 }

@@ -45,10 +45,15 @@ final class TermBinding {
    * #term} made of it when binding ({@link TermTable}).
    */
   Term madeAgain(Node node, int e) {
-    StatementFormula statement = statements.computeIfAbsent(node, n -> java.util.Optional.ofNullable(
-        StatementFormula.of(n, scope, data, lowering, censoring(n) != null))).orElse(null);
+    StatementFormula statement = statement(node);
     Term term = statement == null ? null : statement.term(e);
     return term != null ? term : term(node, e, false);
+  }
+
+  /** The statement formula of {@code node}, or {@code null} where its rows are lowered one by one. */
+  StatementFormula statement(Node node) {
+    return statements.computeIfAbsent(node, n -> java.util.Optional.ofNullable(
+        StatementFormula.of(n, scope, data, lowering, censoring(n) != null))).orElse(null);
   }
 
   /** The term of element {@code e} of {@code node} lowered for that row, unchecked (for tests). */

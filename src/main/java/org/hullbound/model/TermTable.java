@@ -87,6 +87,32 @@ final class TermTable extends AbstractList<Term> implements RandomAccess {
     }
   }
 
+  /**
+   * The indexes among {@code indexes} (increasing) of terms whose statement does not answer
+   * {@code answered} for all its rows at once ({@link StatementFormula}): the terms a pass must
+   * still read one by one. The params' priors are always among them.
+   */
+  int[] unanswered(int[] indexes, java.util.function.Predicate<StatementFormula> answered) {
+    int[] kept = new int[indexes.length];
+    int count = 0;
+    int k = -1;
+    boolean skip = false;
+    for (int index : indexes) {
+      if (k < 0 || index >= starts[k + 1]) {
+        k = node(index);
+        StatementFormula statement;
+        synchronized (binding) {
+          statement = held[k] != null ? null : binding.statement(nodes[k]);
+        }
+        skip = statement != null && answered.test(statement);
+      }
+      if (!skip) {
+        kept[count++] = index;
+      }
+    }
+    return count == indexes.length ? indexes : Arrays.copyOf(kept, count);
+  }
+
   /** The node of term {@code index}. */
   private int node(int index) {
     if (index < 0 || index >= size) {
