@@ -24,8 +24,11 @@ final class ConjugatePairs {
     if (own.truncated()) {
       return null;
     }
-    for (Term t : dependents) {
-      if (t.truncated()) {
+    TermTable.Rows rows = dependents instanceof TermTable.Rows r ? r : null;
+    for (int i = 0; i < dependents.size(); i++) {
+      // a statement says whether its rows are truncated without a row's term being made
+      StatementFormula statement = rows == null ? null : rows.statement(i);
+      if (statement != null ? statement.truncated() : dependents.get(i).truncated()) {
         return null;
       }
     }

@@ -141,6 +141,12 @@ final class StatementFormula {
   private final boolean total;
   /** The operators of every row's formulas, or {@code null} where a let's formula hides some. */
   private final java.util.Set<Op> ops;
+  /**
+   * Per argument, its params' elements (each a param's slot by index formula), when every
+   * argument reads some param and is affine in each of them whatever the row ({@link
+   * #affineInEveryUnknown}); {@code null} otherwise.
+   */
+  private final Element[][] paramLeaves;
 
   private StatementFormula(Node node, RowFormula[] arguments, RowFormula lower, RowFormula upper,
       Formula.Cells cells, ModelLowering lowering, boolean total, java.util.Set<Op> ops) {
@@ -148,6 +154,7 @@ final class StatementFormula {
     this.lowering = lowering;
     this.total = total;
     this.ops = ops;
+    this.paramLeaves = total && ops != null ? paramLeaves(arguments) : null;
     this.family = node.parametrisation;
     this.arguments = arguments;
     this.lower = lower;
@@ -210,6 +217,119 @@ final class StatementFormula {
       }
     }
     return true;
+  }
+
+  /**
+   * Whether, in every row, each argument reads some param and is affine in every unknown it
+   * reads ({@link Formulas#affine}), and no unknown but params is read: then an argument is never
+   * known and the unknowns it reads are its params' elements at that row. The arguments are built
+   * of params' elements and data-only parts by sums, differences, negation, products with a
+   * data-only factor and quotients by a data-only divisor; folding a row's formula keeps that
+   * form, as it only turns data-only parts into constants.
+   */
+  boolean affineInEveryUnknown() {
+    return paramLeaves != null;
+  }
+
+  /** Whether the statement is truncated ({@code within}), and so every row's term. */
+  boolean truncated() {
+    return lower != null;
+  }
+
+  /** The statement's family, every row's ({@link #noBoundedArgument}). */
+  Parametrisation family() {
+    return family;
+  }
+
+  /**
+   * The arguments of row {@code e}'s term that read slot {@code slot}, as bits ({@code 1 << k});
+   * for a statement {@link #affineInEveryUnknown} only. Worked out from the row's indexes alone,
+   * with no term made.
+   */
+  long argumentsReading(int e, int slot) {
+    int[] row = node.index(e);
+    long bits = 0;
+    for (int k = 0; k < paramLeaves.length; k++) {
+      for (Element leaf : paramLeaves[k]) {
+        if (leaf.at(row) instanceof Formula.Slot read && read.index() == slot) {
+          bits |= 1L << k;
+          break;
+        }
+      }
+    }
+    return bits;
+  }
+
+  /** Each argument's param elements if every argument is affine in them (see above), or null. */
+  private static Element[][] paramLeaves(RowFormula[] arguments) {
+    if (arguments.length > 63) {
+      return null;
+    }
+    Element[][] leaves = new Element[arguments.length][];
+    for (int k = 0; k < arguments.length; k++) {
+      List<Element> found = new ArrayList<>();
+      if (!affine(arguments[k], found) || found.isEmpty()) {
+        return null;
+      }
+      leaves[k] = found.toArray(new Element[0]);
+    }
+    return leaves;
+  }
+
+  /**
+   * Whether {@code f} is affine in every param it reads whatever the row (gathering its params'
+   * elements into {@code params}), reading no other unknown.
+   */
+  private static boolean affine(RowFormula f, List<Element> params) {
+    if (f instanceof Element e) {
+      switch (e.node().kind) {
+        case PARAM:
+          params.add(e);
+          return true;
+        case DATA:
+          return !Lowering.anyMissing(e.node());
+        default:
+          return e.body() != null && affine(e.body(), params);
+      }
+    }
+    if (f instanceof Apply a) {
+      RowFormula[] p = a.parts();
+      switch (a.op()) {
+        case ADD:
+        case SUBTRACT:
+        case NEGATE:
+          for (RowFormula part : p) {
+            if (!affine(part, params)) {
+              return false;
+            }
+          }
+          return true;
+        case MULTIPLY:
+          return paramFree(p[0]) ? affine(p[1], params)
+              : paramFree(p[1]) && affine(p[0], params);
+        case DIVIDE:
+          return paramFree(p[1]) && affine(p[0], params);
+        default:
+          return paramFree(f);
+      }
+    }
+    if (f instanceof Reduction r) {
+      if (r.reduction() != Expression.Reduction.SUM) {
+        return paramFree(f);
+      }
+      for (RowFormula term : r.terms()) {
+        if (!affine(term, params)) {
+          return false;
+        }
+      }
+      return true;
+    }
+    return true; // a number or an index value
+  }
+
+  /** Whether {@code f} reads no unknown at any row: data without missing cells and numbers. */
+  private static boolean paramFree(RowFormula f) {
+    return Lowering.dataOnly(f);
   }
 
   /** Whether every row's term has no unknown index (no indicator operator): see above. */
@@ -381,7 +501,7 @@ final class StatementFormula {
     }
 
     /** Whether {@code f} reads data with no missing cell only: a known value at every row. */
-    private static boolean dataOnly(RowFormula f) {
+    static boolean dataOnly(RowFormula f) {
       if (f instanceof IndexValue value) {
         return dataOnly(value.index());
       }
@@ -398,7 +518,7 @@ final class StatementFormula {
       return true; // a number or the statement's own index value
     }
 
-    private static boolean anyMissing(Node node) {
+    static boolean anyMissing(Node node) {
       for (boolean m : node.missing) {
         if (m) {
           return true;

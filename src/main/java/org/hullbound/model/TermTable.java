@@ -113,6 +113,22 @@ final class TermTable extends AbstractList<Term> implements RandomAccess {
     return count == indexes.length ? indexes : Arrays.copyOf(kept, count);
   }
 
+  /** The statement formula term {@code index} is a row of, or {@code null} (a held prior). */
+  StatementFormula statementOf(int index) {
+    int k = node(index);
+    if (held[k] != null) {
+      return null;
+    }
+    synchronized (binding) {
+      return binding.statement(nodes[k]);
+    }
+  }
+
+  /** The row (element) of term {@code index} within its node. */
+  int rowOf(int index) {
+    return index - starts[node(index)];
+  }
+
   /** The node of term {@code index}. */
   private int node(int index) {
     if (index < 0 || index >= size) {
@@ -140,13 +156,35 @@ final class TermTable extends AbstractList<Term> implements RandomAccess {
     return new Selected(terms, indexes);
   }
 
-  private static final class Selected extends AbstractList<Term> implements RandomAccess {
+  /**
+   * A list of terms that can say, for each, the statement formula it is a row of: an analysis may
+   * then answer a row from its statement without making the row's term ({@link StatementFormula}).
+   */
+  interface Rows {
+    /** The statement formula of term {@code k} of the list, or {@code null} (a prior, say). */
+    StatementFormula statement(int k);
+
+    /** The row (element) of term {@code k} within its statement. */
+    int row(int k);
+  }
+
+  private static final class Selected extends AbstractList<Term> implements RandomAccess, Rows {
     private final List<Term> terms;
     private final int[] indexes;
 
     Selected(List<Term> terms, int[] indexes) {
       this.terms = terms;
       this.indexes = indexes;
+    }
+
+    @Override
+    public StatementFormula statement(int k) {
+      return terms instanceof TermTable table ? table.statementOf(indexes[k]) : null;
+    }
+
+    @Override
+    public int row(int k) {
+      return terms instanceof TermTable table ? table.rowOf(indexes[k]) : -1;
     }
 
     @Override

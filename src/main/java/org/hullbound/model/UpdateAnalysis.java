@@ -199,7 +199,32 @@ final class UpdateAnalysis {
               + "not (" + prior.reason() + ")");
     }
     Set<String> pieces = new LinkedHashSet<>();
-    for (Term t : dependents) {
+    TermTable.Rows rows = dependents instanceof TermTable.Rows r ? r : null;
+    java.util.Map<StatementFormula, Object[]> answered = new java.util.HashMap<>();
+    for (int i = 0; i < dependents.size(); i++) {
+      StatementFormula statement = rows == null || scale != Scale.NATURAL ? null
+          : rows.statement(i);
+      if (statement != null && statement.affineInEveryUnknown()) {
+        // answered from the statement, the row only for which argument reads the unknown
+        long reading = statement.argumentsReading(rows.row(i), slot);
+        if (reading == 0) {
+          continue;
+        }
+        if (Long.bitCount(reading) == 1 && !statement.truncated()) {
+          int k = Long.numberOfTrailingZeros(reading);
+          Object[] byArgument = answered.computeIfAbsent(statement,
+              st -> new Object[st.family().argumentNames().size()]);
+          if (byArgument[k] == null) {
+            byArgument[k] = affinePiece(statement.family(), k, where);
+          }
+          if (byArgument[k] instanceof Verdict failed) {
+            return failed;
+          }
+          pieces.add((String) byArgument[k]);
+          continue;
+        }
+      }
+      Term t = dependents.get(i);
       List<Integer> moving = new ArrayList<>();
       for (int k = 0; k < t.arguments().size(); k++) {
         if (t.arguments().get(k).reads(slot)) {
@@ -280,6 +305,32 @@ final class UpdateAnalysis {
       reason.append("; ").append(piece);
     }
     return new Verdict(true, reason.toString());
+  }
+
+  /**
+   * The piece of the natural scale's proof that a term of {@code family} gives when its argument
+   * {@code k} alone reads the unknown, affinely, and no argument is known (a {@link
+   * StatementFormula#affineInEveryUnknown} statement's rows), or the verdict that defeats it: the
+   * same words as the term-by-term rule above.
+   */
+  private static Object affinePiece(
+      org.hullbound.model.family.Parametrisation family, int k, String where) {
+    double[] known = new double[family.argumentNames().size()];
+    java.util.Arrays.fill(known, Double.NaN);
+    String familyName = family.family().name();
+    String argumentName = family.argumentNames().get(k);
+    String link = "affine in the unknown";
+    Curvature c = family.curvatureInArgument(k, Scale.NATURAL, known);
+    if (!c.concave()) {
+      return new Verdict(
+          false,
+          "not provably log-concave" + where + ": " + familyName + " is not concave in "
+              + argumentName + " (" + c.reason() + ")");
+    }
+    if (Censored.isCensored(family)) {
+      return familyName + " terms concave in " + argumentName + " (" + c.reason() + "); " + link;
+    }
+    return familyName + " terms concave in " + argumentName + ", " + link;
   }
 
   /** {@code bernoulli term recovered[3]}: made only for a message, as labels are not held. */
