@@ -45,7 +45,11 @@ public final class Main implements Runnable {
    * unless {@code --debug} was given.
    */
   static int run(String[] args) {
-    CommandLine line = commandLine();
+    return run(commandLine(), args);
+  }
+
+  /** {@link #run(String[])} on {@code line} (a test may give one that fails as it runs). */
+  static int run(CommandLine line, String[] args) {
     try {
       return line.execute(args);
     } catch (OutOfMemoryError e) {

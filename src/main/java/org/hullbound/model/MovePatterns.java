@@ -257,6 +257,27 @@ final class MovePatterns {
         continue;
       }
       for (int t : f.dependents()[j]) {
+        StatementFormula statement =
+            f.terms() instanceof TermTable table ? table.statementOf(t) : null;
+        if (statement != null && statement.affineInEveryUnknown()) {
+          // the slots each argument of the row reads, from its indexes, with no term made
+          int row = ((TermTable) f.terms()).rowOf(t);
+          for (int k = 0; k < statement.family().argumentNames().size(); k++) {
+            int[] slots = statement.argumentSlots(row, k);
+            boolean readsJ = false;
+            for (int slot : slots) {
+              readsJ |= slot == j;
+            }
+            if (readsJ) {
+              for (int other : slots) {
+                if (other != j && candidate[other]) {
+                  root[find(root, other)] = find(root, j);
+                }
+              }
+            }
+          }
+          continue;
+        }
         for (Formula argument : f.terms().get(t).arguments()) {
           if (!argument.reads(j)) {
             continue;

@@ -260,6 +260,19 @@ final class StatementFormula {
     return bits;
   }
 
+  /**
+   * The slots that argument {@code k} of row {@code e}'s term reads, with repeats, for a
+   * statement {@link #affineInEveryUnknown} only (its params' elements are all it reads).
+   */
+  int[] argumentSlots(int e, int k) {
+    int[] row = node.index(e);
+    int[] slots = new int[paramLeaves[k].length];
+    for (int i = 0; i < slots.length; i++) {
+      slots[i] = ((Formula.Slot) paramLeaves[k][i].at(row)).index();
+    }
+    return slots;
+  }
+
   /** Each argument's param elements if every argument is affine in them (see above), or null. */
   private static Element[][] paramLeaves(RowFormula[] arguments) {
     if (arguments.length > 63) {

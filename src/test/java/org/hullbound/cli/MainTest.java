@@ -51,6 +51,40 @@ class MainTest {
         Main.outOfMemory(null));
   }
 
+  /**
+   * An {@link OutOfMemoryError} thrown while a command runs (injected as the command line's
+   * execution, after its arguments are parsed) reaches the user as one line naming that command,
+   * with advice it can follow, exit status 1 and no stack trace: {@code check} of a file too large
+   * for the heap was told to keep fewer draws once (issue 14), an option it does not have.
+   */
+  @Test
+  void anOutOfMemoryErrorWhileACommandRunsIsOneLineFittingThatCommand() {
+    String check = runOutOfMemory("check", "models/clinics.hbm", "--data", "models/clinics.csv");
+    assertEquals("hullbound check: out of memory; give the JVM more, e.g."
+        + " HULLBOUND_JAVA_OPTS=-Xmx8g\n", check);
+    String fit = runOutOfMemory("fit", "models/clinics.hbm", "--data", "models/clinics.csv");
+    assertTrue(fit.startsWith("hullbound fit: out of memory;"), fit);
+    assertTrue(fit.contains("--draws"), fit);
+    assertFalse(fit.contains("at org.") || fit.contains("Exception"), fit);
+  }
+
+  /** What standard error shows when {@code args} run out of memory; the exit status must be 1. */
+  private static String runOutOfMemory(String... args) {
+    CommandLine line = Main.commandLine();
+    line.setExecutionStrategy(parsed -> {
+      throw new OutOfMemoryError("Java heap space");
+    });
+    java.io.PrintStream original = System.err;
+    java.io.ByteArrayOutputStream err = new java.io.ByteArrayOutputStream();
+    try {
+      System.setErr(new java.io.PrintStream(err, true, java.nio.charset.StandardCharsets.UTF_8));
+      assertEquals(1, Main.run(line, args));
+    } finally {
+      System.setErr(original);
+    }
+    return err.toString(java.nio.charset.StandardCharsets.UTF_8);
+  }
+
   /** Every option an out-of-memory message names exists on its command. */
   @Test
   void theOutOfMemoryAdviceNamesOnlyOptionsOfItsCommand() {
