@@ -139,7 +139,23 @@ final class MovePatterns {
           Formulas.apply(Op.MULTIPLY, List.of(Formula.constant(weights[k]),
               new Formula.Slot(n))))));
     }
+    int[] weightOf = new int[n];
+    for (int k = 0; k < members.length; k++) {
+      weightOf[members[k]] = (int) weights[k];
+    }
+    TermTable table = f.terms() instanceof TermTable tt ? tt : null;
     for (int t = readingLead.nextSetBit(0); t >= 0; t = readingLead.nextSetBit(t + 1)) {
+      StatementFormula statement = table == null ? null : table.statementOf(t);
+      if (statement != null && statement.affineInEveryUnknown()) {
+        // answered from the row's indexes where the moved unknowns enter with slope +1 or -1
+        int answer = statement.unchangedWhenShifted(table.rowOf(t), weightOf);
+        if (answer == 0) {
+          return null;
+        }
+        if (answer == 1) {
+          continue;
+        }
+      }
       if (!unchanged(substitute(f.terms().get(t), replace), n)) {
         return null;
       }

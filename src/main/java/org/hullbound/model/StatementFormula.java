@@ -147,6 +147,12 @@ final class StatementFormula {
    * #affineInEveryUnknown}); {@code null} otherwise.
    */
   private final Element[][] paramLeaves;
+  /**
+   * Per argument and param element, +1 or -1 where the element enters the argument through sums,
+   * differences and negations only (a coefficient of exactly +1 or -1 in every row), 0 where a
+   * data factor or divisor is on its way.
+   */
+  private final int[][] paramSigns;
 
   private StatementFormula(Node node, RowFormula[] arguments, RowFormula lower, RowFormula upper,
       Formula.Cells cells, ModelLowering lowering, boolean total, java.util.Set<Op> ops) {
@@ -154,7 +160,9 @@ final class StatementFormula {
     this.lowering = lowering;
     this.total = total;
     this.ops = ops;
-    this.paramLeaves = total && ops != null ? paramLeaves(arguments) : null;
+    int[][] signs = new int[arguments.length][];
+    this.paramLeaves = total && ops != null ? paramLeaves(arguments, signs) : null;
+    this.paramSigns = signs;
     this.family = node.parametrisation;
     this.arguments = arguments;
     this.lower = lower;
@@ -274,54 +282,60 @@ final class StatementFormula {
   }
 
   /** Each argument's param elements if every argument is affine in them (see above), or null. */
-  private static Element[][] paramLeaves(RowFormula[] arguments) {
+  private static Element[][] paramLeaves(RowFormula[] arguments, int[][] signs) {
     if (arguments.length > 63) {
       return null;
     }
     Element[][] leaves = new Element[arguments.length][];
     for (int k = 0; k < arguments.length; k++) {
       List<Element> found = new ArrayList<>();
-      if (!affine(arguments[k], found) || found.isEmpty()) {
+      List<Integer> foundSigns = new ArrayList<>();
+      if (!affine(arguments[k], 1, found, foundSigns) || found.isEmpty()) {
         return null;
       }
       leaves[k] = found.toArray(new Element[0]);
+      signs[k] = foundSigns.stream().mapToInt(Integer::intValue).toArray();
     }
     return leaves;
   }
 
   /**
-   * Whether {@code f} is affine in every param it reads whatever the row (gathering its params'
-   * elements into {@code params}), reading no other unknown.
+   * Whether {@code f} is affine in every param it reads whatever the row, reading no other
+   * unknown; gathers its params' elements into {@code params} with their {@code signs} (see
+   * {@link #paramSigns}; {@code sign} is the way so far).
    */
-  private static boolean affine(RowFormula f, List<Element> params) {
+  private static boolean affine(RowFormula f, int sign, List<Element> params, List<Integer> signs) {
     if (f instanceof Element e) {
       switch (e.node().kind) {
         case PARAM:
           params.add(e);
+          signs.add(sign);
           return true;
         case DATA:
           return !Lowering.anyMissing(e.node());
         default:
-          return e.body() != null && affine(e.body(), params);
+          return e.body() != null && affine(e.body(), sign, params, signs);
       }
     }
     if (f instanceof Apply a) {
       RowFormula[] p = a.parts();
       switch (a.op()) {
         case ADD:
-        case SUBTRACT:
-        case NEGATE:
           for (RowFormula part : p) {
-            if (!affine(part, params)) {
+            if (!affine(part, sign, params, signs)) {
               return false;
             }
           }
           return true;
+        case SUBTRACT:
+          return affine(p[0], sign, params, signs) && affine(p[1], -sign, params, signs);
+        case NEGATE:
+          return affine(p[0], -sign, params, signs);
         case MULTIPLY:
-          return paramFree(p[0]) ? affine(p[1], params)
-              : paramFree(p[1]) && affine(p[0], params);
+          return paramFree(p[0]) ? affine(p[1], 0, params, signs)
+              : paramFree(p[1]) && affine(p[0], 0, params, signs);
         case DIVIDE:
-          return paramFree(p[1]) && affine(p[0], params);
+          return paramFree(p[1]) && affine(p[0], 0, params, signs);
         default:
           return paramFree(f);
       }
@@ -331,13 +345,43 @@ final class StatementFormula {
         return paramFree(f);
       }
       for (RowFormula term : r.terms()) {
-        if (!affine(term, params)) {
+        if (!affine(term, sign, params, signs)) {
           return false;
         }
       }
       return true;
     }
     return true; // a number or an index value
+  }
+
+  /**
+   * Whether row {@code e}'s term is unchanged when each unknown {@code j} moves by {@code
+   * weights[j] * d} (weights of +1 or -1, 0 for unknowns that stay): 1 when every argument that
+   * reads a moved unknown has a slope of exactly 0 in {@code d}, 0 when one has another slope, -1
+   * when this cannot tell (a moved unknown with a data factor on its way; the row's term must be
+   * read). For a statement {@link #affineInEveryUnknown} only. With coefficients of +1 or -1 and
+   * weights of +1 or -1, the slope {@link Formulas#affineParts} folds is a small whole number,
+   * exact whatever the order of its sum.
+   */
+  int unchangedWhenShifted(int e, int[] weights) {
+    int[] row = node.index(e);
+    boolean changed = false;
+    for (int k = 0; k < paramLeaves.length; k++) {
+      int slope = 0;
+      for (int i = 0; i < paramLeaves[k].length; i++) {
+        int slot = ((Formula.Slot) paramLeaves[k][i].at(row)).index();
+        int weight = slot < weights.length ? weights[slot] : 0;
+        if (weight == 0) {
+          continue;
+        }
+        if (paramSigns[k][i] == 0) {
+          return -1;
+        }
+        slope += paramSigns[k][i] * weight;
+      }
+      changed |= slope != 0;
+    }
+    return changed ? 0 : 1;
   }
 
   /** Whether {@code f} reads no unknown at any row: data without missing cells and numbers. */
