@@ -474,11 +474,15 @@ public final class BoundModel {
   public List<Update> moves() {
     List<Update> found = moves;
     if (found == null) {
-      found = List.copyOf(MovePatterns.find(new MovePatterns.Facts(
-          terms, ownTerm, dependents, unknowns, updates, cuts, smooth)));
+      found = List.copyOf(MovePatterns.find(facts()));
       moves = found;
     }
     return found;
+  }
+
+  /** What {@link MovePatterns} reads of this model. */
+  MovePatterns.Facts facts() {
+    return new MovePatterns.Facts(terms, ownTerm, dependents, unknowns, updates, cuts, smooth);
   }
 
   /** Labels of the terms that depend on unknown {@code index} (its blanket without itself). */
@@ -616,6 +620,12 @@ public final class BoundModel {
    * The terms that depend on unknown {@code index}, each made when read: a pass over them holds
    * one at a time, not one per row ({@link TermTable}).
    */
+  /** The dependent terms of unknown {@code index}, each made when read (for the analyses' tests). */
+  List<Term> dependents(int index) {
+    checkIndex(index);
+    return dependentTerms(index);
+  }
+
   private List<Term> dependentTerms(int index) {
     return TermTable.at(terms, dependents[index]);
   }
