@@ -398,7 +398,38 @@ final class MovePatterns {
     // Made when read, one at a time: a line through every row's term would otherwise hold a
     // moved term per row (TermTable).
     List<Term> terms = TermTable.at(f.terms(), touched.stream().toArray());
-    return new java.util.AbstractList<>() {
+    return new Moved(terms, replace);
+  }
+
+  /**
+   * The moved terms of a line, each made when read; a row's statement is its term's ({@link
+   * TermTable.Rows}), so that {@link #prove} may answer the row from it.
+   */
+  private static final class Moved extends java.util.AbstractList<Term>
+      implements TermTable.Rows {
+    private final List<Term> terms;
+    private final Map<Integer, Formula> replace;
+
+    Moved(List<Term> terms, Map<Integer, Formula> replace) {
+      this.terms = terms;
+      this.replace = replace;
+    }
+
+    @Override
+    public StatementFormula statement(int k) {
+      return terms instanceof TermTable.Rows rows ? rows.statement(k) : null;
+    }
+
+    @Override
+    public int row(int k) {
+      return ((TermTable.Rows) terms).row(k);
+    }
+
+    /** Whether slot {@code j} moves along the line. */
+    boolean moves(int j) {
+      return replace.containsKey(j);
+    }
+
       @Override
       public Term get(int k) {
         return substitute(terms.get(k), replace);
@@ -408,7 +439,6 @@ final class MovePatterns {
       public int size() {
         return terms.size();
       }
-    };
   }
 
   private static int find(int[] root, int j) {
@@ -427,7 +457,34 @@ final class MovePatterns {
   private static Verdict prove(List<Term> moved, int n, int scalePowers) {
     Set<String> pieces = new LinkedHashSet<>();
     int scaleFree = 0;
-    for (Term t : moved) {
+    Moved rows = moved instanceof Moved m ? m : null;
+    Map<StatementFormula, Object[]> answered = new java.util.HashMap<>();
+    for (int i = 0; i < moved.size(); i++) {
+      StatementFormula statement = rows == null ? null : rows.statement(i);
+      if (statement != null && statement.affineInEveryUnknown()) {
+        // A data row whose arguments are affine in their params: its value moves with no
+        // unknown (so it is not scale-free), and an argument that reads a moved unknown stays
+        // affine along the line, as every line here moves each unknown affinely in t; the row
+        // says only which arguments move.
+        long reading = statement.argumentsReading(rows.row(i), rows::moves);
+        if (reading == 0) {
+          continue;
+        }
+        if (Long.bitCount(reading) == 1 && !statement.truncated()) {
+          int k = Long.numberOfTrailingZeros(reading);
+          Object[] byArgument = answered.computeIfAbsent(statement,
+              st -> new Object[st.family().argumentNames().size()]);
+          if (byArgument[k] == null) {
+            byArgument[k] = affinePiece(statement.family(), k);
+          }
+          if (byArgument[k] instanceof Verdict failed) {
+            return failed;
+          }
+          pieces.add((String) byArgument[k]);
+          continue;
+        }
+      }
+      Term t = moved.get(i);
       if (scalePowers > 0 && scaleFree(t, n)) {
         scaleFree++;
         continue;
@@ -498,6 +555,25 @@ final class MovePatterns {
               + " concave");
     }
     return new Verdict(true, proof.toString());
+  }
+
+  /**
+   * The piece of a line's proof that a term of {@code family} gives when its argument {@code k}
+   * alone moves, affinely, and no argument is known, or the verdict that defeats it: the words of
+   * the term-by-term rule in {@link #prove}.
+   */
+  private static Object affinePiece(org.hullbound.model.family.Parametrisation family, int k) {
+    double[] known = new double[family.argumentNames().size()];
+    java.util.Arrays.fill(known, Double.NaN);
+    String familyName = family.family().name();
+    String name = family.argumentNames().get(k);
+    Curvature c = family.curvatureInArgument(k, Scale.NATURAL, known);
+    if (!c.concave()) {
+      return new Verdict(false, "not provably log-concave along the line: " + familyName
+          + " is not concave in " + name + " (" + c.reason() + ")");
+    }
+    return familyName + " terms concave in " + name + ", "
+        + "affine along the line (jointly affine in the moved unknowns)";
   }
 
   /**

@@ -255,11 +255,16 @@ final class StatementFormula {
    * with no term made.
    */
   long argumentsReading(int e, int slot) {
+    return argumentsReading(e, read -> read == slot);
+  }
+
+  /** The arguments of row {@code e}'s term that read a slot {@code which} accepts, as bits. */
+  long argumentsReading(int e, java.util.function.IntPredicate which) {
     int[] row = node.index(e);
     long bits = 0;
     for (int k = 0; k < paramLeaves.length; k++) {
       for (Element leaf : paramLeaves[k]) {
-        if (leaf.at(row) instanceof Formula.Slot read && read.index() == slot) {
+        if (leaf.at(row) instanceof Formula.Slot read && which.test(read.index())) {
           bits |= 1L << k;
           break;
         }

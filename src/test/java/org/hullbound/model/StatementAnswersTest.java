@@ -69,6 +69,12 @@ class StatementAnswersTest {
     """,
   };
 
+  /**
+   * More rows than a let may have and still be cached ({@link ModelLowering#LARGEST_HELD_LET}):
+   * a let per row is then part of its statement's formula, as on a large file.
+   */
+  private static final int ROWS = ModelLowering.LARGEST_HELD_LET + 100;
+
   @Test
   void everyUpdateIsChosenAsFromItsTermsOneByOne() {
     for (String text : MODELS) {
@@ -104,7 +110,7 @@ class StatementAnswersTest {
   }
 
   /**
-   * 60 rows of the columns {@code model} reads: groups 1, 2, 3 in turn, h_of the same as g_of on
+   * {@link #ROWS} rows of the columns {@code model} reads: groups 1, 2, 3 in turn, h_of the same as g_of on
    * every third row, x from -1.5 to 1.5, y 0/1 (and within -20 .. 20), z and c counts.
    */
   private static DataTable data(String model) {
@@ -116,7 +122,7 @@ class StatementAnswersTest {
       }
     }
     List<String> lines = new ArrayList<>(List.of(String.join(",", columns)));
-    for (int r = 1; r <= 60; r++) {
+    for (int r = 1; r <= ROWS; r++) {
       List<String> cells = new ArrayList<>();
       for (String name : columns) {
         cells.add(switch (name) {
