@@ -239,6 +239,16 @@ final class StatementFormula {
     return paramLeaves != null;
   }
 
+  /** The names of the statement's elements, every row's term's ({@link Term#names}). */
+  ElementNames names() {
+    return node.names();
+  }
+
+  /** The owner of row {@code e}'s term ({@link Term#owner}): its slot if missing, else -1. */
+  int owner(int e) {
+    return node.slots[e];
+  }
+
   /** Whether the statement is truncated ({@code within}), and so every row's term. */
   boolean truncated() {
     return lower != null;

@@ -76,16 +76,22 @@ public final class TestQuantities {
     Map<String, String> familyOf = new HashMap<>();
     Map<String, Integer> missingOf = new HashMap<>();
     List<Term> all = model.terms();
+    TermTable table = all instanceof TermTable tt ? tt : null;
     for (int t = 0; t < all.size(); t++) {
-      Term term = all.get(t);
-      String name = term.names().name();
-      if (Censored.isCensored(term.family())) {
+      // a row of a statement formula: its name, family and owner without its term made
+      StatementFormula statement = table == null ? null : table.statementOf(t);
+      Term term = statement == null ? all.get(t) : null;
+      String name = term != null ? term.names().name() : statement.names().name();
+      org.hullbound.model.family.Parametrisation family =
+          term != null ? term.family() : statement.family();
+      int owner = term != null ? term.owner() : statement.owner(table.rowOf(t));
+      if (Censored.isCensored(family)) {
         censoredLine.add(name);
       }
-      boolean observed = term.owner() < 0;
-      if (observed || model.unknowns().get(term.owner()).imputed()) {
+      boolean observed = owner < 0;
+      if (observed || model.unknowns().get(owner).imputed()) {
         byNode.computeIfAbsent(name, k -> new IndexList()).add(t);
-        familyOf.putIfAbsent(name, term.familyName());
+        familyOf.putIfAbsent(name, family.family().name());
         missingOf.merge(name, observed ? 0 : 1, Integer::sum);
       }
     }
