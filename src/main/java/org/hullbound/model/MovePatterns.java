@@ -430,15 +430,15 @@ final class MovePatterns {
       return replace.containsKey(j);
     }
 
-      @Override
-      public Term get(int k) {
-        return substitute(terms.get(k), replace);
-      }
+    @Override
+    public Term get(int k) {
+      return substitute(terms.get(k), replace);
+    }
 
-      @Override
-      public int size() {
-        return terms.size();
-      }
+    @Override
+    public int size() {
+      return terms.size();
+    }
   }
 
   private static int find(int[] root, int j) {
