@@ -44,15 +44,8 @@ final class ExpressionLowering {
       return Formulas.apply(Op.NEGATE, List.of(lower(negation.operand(), env)));
     }
     if (e instanceof Expression.Binary binary) {
-      Op op =
-          switch (binary.operator()) {
-            case ADD -> Op.ADD;
-            case SUBTRACT -> Op.SUBTRACT;
-            case MULTIPLY -> Op.MULTIPLY;
-            case DIVIDE -> Op.DIVIDE;
-            case POWER -> Op.POWER;
-          };
-      return Formulas.apply(op, List.of(lower(binary.left(), env), lower(binary.right(), env)));
+      return Formulas.apply(operator(binary),
+          List.of(lower(binary.left(), env), lower(binary.right(), env)));
     }
     if (e instanceof Expression.Call call) {
       return call(call, env);
@@ -61,6 +54,17 @@ final class ExpressionLowering {
       return leaves.sum(sum, env);
     }
     return leaves.name((Expression.Name) e, env);
+  }
+
+  /** The operator of {@code binary}. */
+  static Op operator(Expression.Binary binary) {
+    return switch (binary.operator()) {
+      case ADD -> Op.ADD;
+      case SUBTRACT -> Op.SUBTRACT;
+      case MULTIPLY -> Op.MULTIPLY;
+      case DIVIDE -> Op.DIVIDE;
+      case POWER -> Op.POWER;
+    };
   }
 
   private Formula call(Expression.Call call, Map<String, Integer> env) {

@@ -458,7 +458,7 @@ final class MovePatterns {
     Set<String> pieces = new LinkedHashSet<>();
     int scaleFree = 0;
     Moved rows = moved instanceof Moved m ? m : null;
-    Map<StatementFormula, Object[]> answered = new java.util.HashMap<>();
+    StatementFormula.ArgumentAnswers answered = new StatementFormula.ArgumentAnswers();
     for (int i = 0; i < moved.size(); i++) {
       StatementFormula statement = rows == null ? null : rows.statement(i);
       if (statement != null && statement.affineInEveryUnknown()) {
@@ -466,21 +466,16 @@ final class MovePatterns {
         // unknown (so it is not scale-free), and an argument that reads a moved unknown stays
         // affine along the line, as every line here moves each unknown affinely in t; the row
         // says only which arguments move.
-        long reading = statement.argumentsReading(rows.row(i), rows::moves);
-        if (reading == 0) {
+        int k = statement.movingArgument(rows.row(i), rows::moves);
+        if (k == StatementFormula.NO_ARGUMENT) {
           continue;
         }
-        if (Long.bitCount(reading) == 1 && !statement.truncated()) {
-          int k = Long.numberOfTrailingZeros(reading);
-          Object[] byArgument = answered.computeIfAbsent(statement,
-              st -> new Object[st.family().argumentNames().size()]);
-          if (byArgument[k] == null) {
-            byArgument[k] = affinePiece(statement.family(), k);
-          }
-          if (byArgument[k] instanceof Verdict failed) {
-            return failed;
-          }
-          pieces.add((String) byArgument[k]);
+        Object answer = k < 0 ? null : answered.of(statement, k, MovePatterns::affinePiece);
+        if (answer instanceof Verdict failed) {
+          return failed;
+        }
+        if (answer != null) {
+          pieces.add((String) answer);
           continue;
         }
       }

@@ -268,6 +268,44 @@ final class StatementFormula {
     return argumentsReading(e, read -> read == slot);
   }
 
+  /** {@link #movingArgument}: no argument reads such a slot. */
+  static final int NO_ARGUMENT = -1;
+  /** {@link #movingArgument}: the row's term must be read (two arguments, or truncated). */
+  static final int READ_THE_TERM = -2;
+
+  /**
+   * The one argument of row {@code e}'s term that reads a slot {@code which} accepts, where the
+   * statement alone then answers for the row; {@link #NO_ARGUMENT} or {@link #READ_THE_TERM}
+   * otherwise. For a statement {@link #affineInEveryUnknown} only.
+   */
+  int movingArgument(int e, java.util.function.IntPredicate which) {
+    long reading = argumentsReading(e, which);
+    if (reading == 0) {
+      return NO_ARGUMENT;
+    }
+    return Long.bitCount(reading) == 1 && !truncated() ? Long.numberOfTrailingZeros(reading)
+        : READ_THE_TERM;
+  }
+
+  /**
+   * Answers per (statement, argument), each worked out once in a pass over an unknown's blanket
+   * or a line's moved terms: a piece of a proof, or the verdict that defeats it.
+   */
+  static final class ArgumentAnswers {
+    private final Map<StatementFormula, Object[]> answers = new HashMap<>();
+
+    /** The answer for argument {@code k} of {@code statement}, from {@code answer} once. */
+    Object of(StatementFormula statement, int k,
+        java.util.function.BiFunction<Parametrisation, Integer, Object> answer) {
+      Object[] byArgument = answers.computeIfAbsent(statement,
+          st -> new Object[st.family().argumentNames().size()]);
+      if (byArgument[k] == null) {
+        byArgument[k] = answer.apply(statement.family(), k);
+      }
+      return byArgument[k];
+    }
+  }
+
   /** The arguments of row {@code e}'s term that read a slot {@code which} accepts, as bits. */
   long argumentsReading(int e, java.util.function.IntPredicate which) {
     int[] row = node.index(e);
@@ -482,14 +520,7 @@ final class StatementFormula {
         return new Apply(Op.NEGATE, new RowFormula[] {lower(negation.operand(), env)});
       }
       if (e instanceof Expression.Binary binary) {
-        Op op =
-            switch (binary.operator()) {
-              case ADD -> Op.ADD;
-              case SUBTRACT -> Op.SUBTRACT;
-              case MULTIPLY -> Op.MULTIPLY;
-              case DIVIDE -> Op.DIVIDE;
-              case POWER -> Op.POWER;
-            };
+        Op op = ExpressionLowering.operator(binary);
         ops.add(op);
         return new Apply(op, new RowFormula[] {lower(binary.left(), env), lower(binary.right(), env)});
       }

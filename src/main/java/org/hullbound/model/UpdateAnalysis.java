@@ -200,27 +200,23 @@ final class UpdateAnalysis {
     }
     Set<String> pieces = new LinkedHashSet<>();
     TermTable.Rows rows = dependents instanceof TermTable.Rows r ? r : null;
-    java.util.Map<StatementFormula, Object[]> answered = new java.util.HashMap<>();
+    StatementFormula.ArgumentAnswers answered = new StatementFormula.ArgumentAnswers();
     for (int i = 0; i < dependents.size(); i++) {
       StatementFormula statement = rows == null || scale != Scale.NATURAL ? null
           : rows.statement(i);
       if (statement != null && statement.affineInEveryUnknown()) {
         // answered from the statement, the row only for which argument reads the unknown
-        long reading = statement.argumentsReading(rows.row(i), slot);
-        if (reading == 0) {
+        int k = statement.movingArgument(rows.row(i), read -> read == slot);
+        if (k == StatementFormula.NO_ARGUMENT) {
           continue;
         }
-        if (Long.bitCount(reading) == 1 && !statement.truncated()) {
-          int k = Long.numberOfTrailingZeros(reading);
-          Object[] byArgument = answered.computeIfAbsent(statement,
-              st -> new Object[st.family().argumentNames().size()]);
-          if (byArgument[k] == null) {
-            byArgument[k] = affinePiece(statement.family(), k, where);
-          }
-          if (byArgument[k] instanceof Verdict failed) {
-            return failed;
-          }
-          pieces.add((String) byArgument[k]);
+        Object answer = k < 0 ? null
+            : answered.of(statement, k, (family, a) -> affinePiece(family, a, where));
+        if (answer instanceof Verdict failed) {
+          return failed;
+        }
+        if (answer != null) {
+          pieces.add((String) answer);
           continue;
         }
       }
