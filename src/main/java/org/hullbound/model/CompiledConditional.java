@@ -105,6 +105,11 @@ final class CompiledConditional implements ConditionalDensity {
   private final int[] runKeptFirst;
   private final boolean[] runKeptPerDraw;
   private final int keptCount;
+  /**
+   * Per run: its rows collapsed into groups of one linear predictor ({@link Collapsed}), or null
+   * where its family keeps no sufficient statistics or no two rows share one.
+   */
+  private final Collapsed[] runCollapsed;
   /** Each term compiled alone, for the reference path only: made on its first call. */
   private volatile Reference reference;
   private final ThreadLocal<Workspace> workspaces = ThreadLocal.withInitial(Workspace::new);
@@ -228,6 +233,7 @@ final class CompiledConditional implements ConditionalDensity {
       this.runKeptFirst = null;
       this.runKeptPerDraw = null;
       this.keptCount = 0;
+      this.runCollapsed = null;
     } else {
       RowColumn.IntList starts = new RowColumn.IntList();
       for (int i = 0; i < termCount; i++) {
@@ -244,6 +250,7 @@ final class CompiledConditional implements ConditionalDensity {
       this.runRows = new AffineRows[runs];
       this.runKeptFirst = new int[runs];
       this.runKeptPerDraw = new boolean[runs];
+      this.runCollapsed = new Collapsed[runs];
       int kept = 0;
       for (int r = 0; r < runs; r++) {
         int i = first[r];
@@ -253,6 +260,7 @@ final class CompiledConditional implements ConditionalDensity {
         Shape shape = shapes[shapeOf[i]];
         runRows[r] = shape.term.rows;
         runKeptFirst[r] = kept;
+        runCollapsed[r] = grouped ? Collapsed.of(shape, runRow[r], runLength[r]) : null;
         if (runRows[r] == null || runRows[r].keptPerRow() == 0) {
           continue;
         }
@@ -260,6 +268,107 @@ final class CompiledConditional implements ConditionalDensity {
         runKeptPerDraw[r] = shape.keptPerDraw();
       }
       this.keptCount = kept;
+    }
+  }
+
+  /**
+   * A run's rows collapsed by linear predictor: rows whose moving argument has bit-equal forms
+   * ({@code a} and {@code b} of {@code a + b x}: the same constants, slots and coefficients) have
+   * the same {@code eta} in every state, so those of a family with sufficient statistics ({@link
+   * AffineRows#statisticsPerGroup}) are evaluated once per group, from the group's sums worked
+   * out here once (every other part of the rows is a number fixed for the fit, so the sums never
+   * change: rows whose value or trials read another unknown are never collapsed, nor are
+   * blankets that follow an allocation, which have no runs). The rest of the run's rows are
+   * summed one by one as before, in ranges of consecutive rows. Decided at compile time: a run
+   * with no two rows alike is not collapsed and costs nothing more.
+   *
+   * @param rows per group of two rows or more, the row its linear predictor is read from
+   * @param statistics per group, its {@link AffineRows#statisticsPerGroup} sums
+   * @param aloneFrom first row of each range of rows evaluated alone
+   * @param aloneLength the rows in that range
+   */
+  private record Collapsed(int[] rows, double[] statistics, int[] aloneFrom, int[] aloneLength) {
+    static Collapsed of(Shape shape, int from, int count) {
+      AffineRows family = shape.term.rows;
+      if (family == null || family.statisticsPerGroup() == 0 || count < 2
+          || shape.keptPerDraw()) {
+        return null;
+      }
+      int moving = 1 + shape.term.moving[0];
+      double[][] parts = new double[shape.parts][];
+      int[] strides = new int[shape.parts];
+      for (int p = 0; p < shape.parts; p++) {
+        if (p != moving) {
+          parts[p] = shape.constants[2 * p].values;
+          strides[p] = shape.constants[2 * p].stride;
+        }
+      }
+      // Groups by a hash of the predictor's numbers, rows of one hash compared in full.
+      int[] groupOf = new int[count];
+      RowColumn.IntList firstRow = new RowColumn.IntList();
+      RowColumn.IntList size = new RowColumn.IntList();
+      RowColumn.IntList nextWithHash = new RowColumn.IntList();
+      java.util.Map<Long, Integer> byHash = new java.util.HashMap<>();
+      for (int j = 0; j < count; j++) {
+        int row = from + j;
+        if (!family.groupable(parts, strides, row)) {
+          groupOf[j] = -1;
+          continue;
+        }
+        long hash = shape.predictorHash(moving, row);
+        Integer head = byHash.get(hash);
+        int g = head == null ? -1 : head;
+        while (g >= 0 && !shape.samePredictor(moving, firstRow.values[g], row)) {
+          g = nextWithHash.values[g];
+        }
+        if (g < 0) {
+          g = firstRow.size;
+          firstRow.add(row);
+          size.add(0);
+          nextWithHash.add(head == null ? -1 : head);
+          byHash.put(hash, g);
+        }
+        size.values[g]++;
+        groupOf[j] = g;
+      }
+      int[] index = new int[firstRow.size];
+      int groups = 0;
+      for (int g = 0; g < index.length; g++) {
+        index[g] = size.values[g] >= 2 ? groups++ : -1;
+      }
+      if (groups == 0) {
+        return null;
+      }
+      int per = family.statisticsPerGroup();
+      int[] rows = new int[groups];
+      double[] statistics = new double[groups * per];
+      RowColumn.IntList aloneFrom = new RowColumn.IntList();
+      RowColumn.IntList aloneLength = new RowColumn.IntList();
+      for (int j = 0; j < count; j++) {
+        int row = from + j;
+        int g = groupOf[j] < 0 ? -1 : index[groupOf[j]];
+        if (g >= 0) {
+          rows[g] = firstRow.values[groupOf[j]];
+          family.addToGroup(parts, strides, row, statistics, g * per);
+        } else if (j > 0 && aloneFrom.size > 0
+            && aloneFrom.values[aloneFrom.size - 1] + aloneLength.values[aloneFrom.size - 1]
+                == row) {
+          aloneLength.values[aloneFrom.size - 1]++;
+        } else {
+          aloneFrom.add(row);
+          aloneLength.add(1);
+        }
+      }
+      return new Collapsed(rows, statistics, aloneFrom.toArray(), aloneLength.toArray());
+    }
+
+    /** The evaluations a call makes: one per group and per row alone. */
+    int evaluations() {
+      int alone = 0;
+      for (int length : aloneLength) {
+        alone += length;
+      }
+      return rows.length + alone;
     }
   }
 
@@ -341,6 +450,37 @@ final class CompiledConditional implements ConditionalDensity {
         }
       }
       return false;
+    }
+
+    /** A hash of the bits of part {@code p}'s forms ({@code a} and {@code b}) at row {@code r}. */
+    long predictorHash(int p, int r) {
+      long hash = 17;
+      for (int f = 2 * p; f <= 2 * p + 1; f++) {
+        hash = 31 * hash + Double.doubleToRawLongBits(constants[f].at(r));
+        for (int e = 0; e < slots[f].length; e++) {
+          hash = 31 * hash + slots[f][e].at(r);
+          hash = 31 * hash + Double.doubleToRawLongBits(coefficients[f][e].at(r));
+        }
+      }
+      return hash;
+    }
+
+    /** Whether part {@code p}'s forms hold the same bits at rows {@code r} and {@code t}. */
+    boolean samePredictor(int p, int r, int t) {
+      for (int f = 2 * p; f <= 2 * p + 1; f++) {
+        if (Double.doubleToRawLongBits(constants[f].at(r))
+            != Double.doubleToRawLongBits(constants[f].at(t))) {
+          return false;
+        }
+        for (int e = 0; e < slots[f].length; e++) {
+          if (slots[f][e].at(r) != slots[f][e].at(t)
+              || Double.doubleToRawLongBits(coefficients[f][e].at(r))
+                  != Double.doubleToRawLongBits(coefficients[f][e].at(t))) {
+            return false;
+          }
+        }
+      }
+      return true;
     }
 
     /** {@code constant + sum of coefficient * state[slot]} of form {@code f} at row {@code r}. */
@@ -569,6 +709,24 @@ final class CompiledConditional implements ConditionalDensity {
     return logDensity(u, state, slope, workspace, false);
   }
 
+  /**
+   * The evaluations of terms or groups one call makes where runs are summed: a collapsed run
+   * counts one per group of one linear predictor and one per row alone ({@link Collapsed});
+   * {@link #termCount} when nothing is collapsed.
+   */
+  int evaluationsPerCall() {
+    if (runCollapsed == null) {
+      return termCount;
+    }
+    int total = termCount;
+    for (int r = 0; r < runCollapsed.length; r++) {
+      if (runCollapsed[r] != null && runRows[r] != null) {
+        total += runCollapsed[r].evaluations() - runLength[r];
+      }
+    }
+    return total;
+  }
+
   /** Whether some run of terms is summed by an {@link AffineRows} loop. */
   boolean summedInRuns() {
     if (runRows == null) {
@@ -614,10 +772,27 @@ final class CompiledConditional implements ConditionalDensity {
         if (inRuns && runRows[r] != null) {
           sums[0] = total;
           sums[1] = dx;
-          runRows[r].accumulate(x, workspace.intercepts[s], workspace.interceptStrides[s],
-              workspace.slopes[s], workspace.slopeStrides[s], runRow[r], runLength[r],
-              workspace.kept, runKeptFirst[r], sums, frame.args[term.arity],
-              frame.gradient[term.arity]);
+          Collapsed collapsed = runCollapsed[r];
+          if (collapsed == null) {
+            runRows[r].accumulate(x, workspace.intercepts[s], workspace.interceptStrides[s],
+                workspace.slopes[s], workspace.slopeStrides[s], runRow[r], runLength[r],
+                workspace.kept, runKeptFirst[r], sums, frame.args[term.arity],
+                frame.gradient[term.arity]);
+          } else {
+            // The groups first, then the rows alone: the same terms in another order.
+            runRows[r].accumulateGroups(x, workspace.intercepts[s], workspace.interceptStrides[s],
+                workspace.slopes[s], workspace.slopeStrides[s], collapsed.rows,
+                collapsed.rows.length, collapsed.statistics, sums);
+            int keptPerRow = runRows[r].keptPerRow();
+            for (int k = 0; k < collapsed.aloneFrom.length; k++) {
+              int from = collapsed.aloneFrom[k];
+              runRows[r].accumulate(x, workspace.intercepts[s], workspace.interceptStrides[s],
+                  workspace.slopes[s], workspace.slopeStrides[s], from,
+                  collapsed.aloneLength[k], workspace.kept,
+                  runKeptFirst[r] + (from - runRow[r]) * keptPerRow, sums,
+                  frame.args[term.arity], frame.gradient[term.arity]);
+            }
+          }
           total = sums[0];
           dx = sums[1];
           continue;

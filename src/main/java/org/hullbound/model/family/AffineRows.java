@@ -48,4 +48,44 @@ public interface AffineRows {
   void accumulate(double x, double[][] intercepts, int[] interceptStrides, double[][] slopes,
       int[] slopeStrides, int from, int count, double[] kept, int keptFirst, double[] sums,
       double[] args, double[] gradient);
+
+  /**
+   * How many sufficient statistics a group of rows keeps, or 0 when rows of this family are never
+   * collapsed. Rows of a run whose moving argument is the same affine function of {@code x} for
+   * every state (bit-equal intercept and slope forms: the five trays of a bench in {@code
+   * logit_p = effect[bench]}) have one linear predictor {@code eta}; where the family's
+   * log-density is linear in the response's statistics given {@code eta} (common practice:
+   * sufficient statistics of an exponential family, e.g. {@code sum(y) eta - sum(trials)
+   * softplus(eta)} for the logit binomial), the group is evaluated once from the sums, plus its
+   * rows' constants summed once. The sums change the order of additions, so results move in the
+   * last bits against the rows one by one (equal to a relative 1e-12, not bit for bit).
+   */
+  default int statisticsPerGroup() {
+    return 0;
+  }
+
+  /**
+   * Whether row {@code row} (its parts read as in {@link #accumulate}, every part but the moving
+   * argument a number fixed for the fit) may join a group: inside the family's support and small
+   * enough that the summed form does not lose precision to cancellation.
+   */
+  default boolean groupable(double[][] intercepts, int[] interceptStrides, int row) {
+    return false;
+  }
+
+  /** Adds row {@code row}'s statistics to {@code statistics[at ..]} (zeros for a new group). */
+  default void addToGroup(double[][] intercepts, int[] interceptStrides, int row,
+      double[] statistics, int at) {}
+
+  /**
+   * Adds the log-densities of groups {@code 0 .. count - 1} to {@code sums[0]} and their slopes
+   * in {@code x} to {@code sums[1]}: group {@code g} reads its linear predictor from row {@code
+   * rows[g]} (as {@link #accumulate} does) and its statistics from {@code statistics[g *}
+   * {@link #statisticsPerGroup}{@code ..]}. Allocates nothing.
+   */
+  default void accumulateGroups(double x, double[][] intercepts, int[] interceptStrides,
+      double[][] slopes, int[] slopeStrides, int[] rows, int count, double[] statistics,
+      double[] sums) {
+    throw new UnsupportedOperationException("no groups");
+  }
 }

@@ -2,6 +2,7 @@ package org.hullbound.model.family;
 
 import java.util.List;
 import org.apache.commons.math3.special.Beta;
+import org.apache.commons.math3.special.Gamma;
 
 /**
  * The binomial family {@code (trials, p)} and {@code (trials, logit_p)}, and the Bernoulli family
@@ -15,6 +16,12 @@ import org.apache.commons.math3.special.Beta;
  */
 final class Binomial {
   private Binomial() {}
+
+  /**
+   * Trials up to which rows of one linear predictor are summed as a group: beyond, {@code log
+   * C(trials, y)} and {@code y log p} cancel from hundreds, and each row keeps Loader's form.
+   */
+  static final double GROUPED_TRIALS = 100;
 
   static Family binomial() {
     return SimpleFamily.of("binomial", f -> List.of(
@@ -330,6 +337,71 @@ final class Binomial {
           }
           total += value;
           dx += 0.0 + g * b;
+        }
+        sums[0] = total;
+        sums[1] = dx;
+      }
+
+      /** Sum of the responses, sum of the trials, sum of {@code log C(trials, y)}. */
+      @Override
+      public int statisticsPerGroup() {
+        return 3;
+      }
+
+      @Override
+      public boolean groupable(double[][] intercepts, int[] interceptStrides, int row) {
+        double y = intercepts[0][row * interceptStrides[0]];
+        double trials = withTrials() ? intercepts[1][row * interceptStrides[1]] : 1.0;
+        return ArgumentDomain.WHOLE.accepts(y) && ArgumentDomain.WHOLE.accepts(trials)
+            && y >= 0 && y <= trials && trials <= GROUPED_TRIALS;
+      }
+
+      @Override
+      public void addToGroup(double[][] intercepts, int[] interceptStrides, int row,
+          double[] statistics, int at) {
+        double y = intercepts[0][row * interceptStrides[0]];
+        double trials = withTrials() ? intercepts[1][row * interceptStrides[1]] : 1.0;
+        statistics[at] += y;
+        statistics[at + 1] += trials;
+        if (y > 0 && y < trials) {
+          statistics[at + 2] += Gamma.logGamma(trials + 1) - Gamma.logGamma(y + 1)
+              - Gamma.logGamma(trials - y + 1);
+        }
+      }
+
+      /**
+       * A group's log mass {@code sum(y) log expit(eta) + sum(trials - y) log expit(-eta) + sum
+       * log C(trials, y)}, linear in the sufficient statistics {@code sum(y)}, {@code
+       * sum(trials)} given {@code eta} (common practice: the binomial is an exponential family in
+       * {@code eta}); both logs from one {@code exp(-|eta|)} as {@link #accumulate} does, finite
+       * at any finite {@code eta} (log space, no overflow at 1e4); slope {@code sum(y) -
+       * sum(trials) expit(eta)}.
+       */
+      @Override
+      public void accumulateGroups(double x, double[][] intercepts, int[] interceptStrides,
+          double[][] slopes, int[] slopeStrides, int[] rows, int count, double[] statistics,
+          double[] sums) {
+        int moving = 1 + probabilityIndex();
+        double[] as = intercepts[moving];
+        int as0 = interceptStrides[moving];
+        double[] bs = slopes[moving];
+        int bs0 = slopeStrides[moving];
+        double total = sums[0];
+        double dx = sums[1];
+        for (int g = 0, q = 0; g < count; g++, q += 3) {
+          int r = rows[g];
+          double b = bs[r * bs0];
+          double eta = b == 0 ? as[r * as0] : as[r * as0] + b * x;
+          double sumY = statistics[q];
+          double sumTrials = statistics[q + 1];
+          double failures = sumTrials - sumY;
+          double e = Math.exp(-Math.abs(eta));
+          double value = (sumY == 0 ? 0.0 : sumY * -LogSpace.log1pExp(-eta, e))
+              + (failures == 0 ? 0.0 : failures * -LogSpace.log1pExp(eta, e))
+              + statistics[q + 2];
+          double slope = Math.fma(-sumTrials, LogSpace.invLogit(eta, e), sumY);
+          total += value;
+          dx += 0.0 + slope * b;
         }
         sums[0] = total;
         sums[1] = dx;
