@@ -41,6 +41,9 @@ import org.hullbound.model.family.Scale;
  * argument (the observations of a generalised linear model) are summed by that family's {@link
  * AffineRows} loop over the workspace's arrays rather than a term at a time through the family's
  * interface: the same additions in the same order, so the same bits, without a call a term.
+ * Rows of such a run with bit-equal numbers in their moving argument share one linear predictor
+ * and, where the family has sufficient statistics, are evaluated once per group from sums made at
+ * compile time ({@link Collapsed}): the same density to rounding, the last bits may differ.
  *
  * <p>Blankets that follow an allocation ({@link UnknownIndex}): a term that reads an unknown index
  * ({@code y[i] ~ normal(mean = mu[g[i]], ...)}, lowered to {@code sum of mu[k] [g[i] = k]}) is a

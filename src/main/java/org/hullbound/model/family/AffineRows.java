@@ -17,7 +17,8 @@ package org.hullbound.model.family;
  * <p>Exactness: the sums equal, bit for bit, adding term after term in order {@link
  * Parametrisation#logDensity(double, double[], double[])} to {@code sums[0]} and its gradient in
  * the moving argument times that argument's slope to {@code sums[1]}, as the conditional does a
- * term at a time; so the path a conditional takes never changes a seeded draw.
+ * term at a time; so the path a conditional takes never changes a seeded draw. Groups of rows
+ * with one linear predictor ({@link #accumulateGroups}) are the exception: equal to rounding.
  */
 public interface AffineRows {
   /**
