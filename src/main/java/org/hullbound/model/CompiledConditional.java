@@ -278,14 +278,15 @@ final class CompiledConditional implements ConditionalDensity {
    * A run's rows collapsed by linear predictor: rows whose moving argument has bit-equal forms
    * ({@code a} and {@code b} of {@code a + b x}: the same constants, slots and coefficients) have
    * the same {@code eta} in every state, so those of a family with sufficient statistics ({@link
-   * AffineRows#statisticsPerGroup}) are evaluated once per group, from the group's sums worked
-   * out here once (every other part of the rows is a number fixed for the fit, so the sums never
+   * AffineRows#statisticsPerGroup}) are evaluated once per group (a row with no twin is a group
+   * of one once its run collapses), from the group's sums worked out here once (every other part of the rows is a number fixed for the fit, so the sums never
    * change: rows whose value or trials read another unknown are never collapsed, nor are
-   * blankets that follow an allocation, which have no runs). The rest of the run's rows are
-   * summed one by one as before, in ranges of consecutive rows. Decided at compile time: a run
+   * blankets that follow an allocation, which have no runs). Rows the family does not group (off
+   * its support, counts above its bound) are summed one by one as before, in ranges of
+   * consecutive rows. Decided at compile time: a run
    * with no two rows alike is not collapsed and costs nothing more.
    *
-   * @param rows per group of two rows or more, the row its linear predictor is read from
+   * @param rows per group, the row its linear predictor is read from
    * @param statistics per group, its {@link AffineRows#statisticsPerGroup} sums
    * @param aloneFrom first row of each range of rows evaluated alone
    * @param aloneLength the rows in that range
@@ -334,14 +335,16 @@ final class CompiledConditional implements ConditionalDensity {
         size.values[g]++;
         groupOf[j] = g;
       }
-      int[] index = new int[firstRow.size];
-      int groups = 0;
-      for (int g = 0; g < index.length; g++) {
-        index[g] = size.values[g] >= 2 ? groups++ : -1;
+      boolean repeats = false;
+      for (int g = 0; g < firstRow.size; g++) {
+        repeats |= size.values[g] >= 2;
       }
-      if (groups == 0) {
+      if (!repeats) {
         return null;
       }
+      // Once a run collapses, a row with no twin is a group of one too: one loop over groups
+      // with no call per range of rows alone between them.
+      int groups = firstRow.size;
       int per = family.statisticsPerGroup();
       int[] rows = new int[groups];
       double[] statistics = new double[groups * per];
@@ -349,9 +352,9 @@ final class CompiledConditional implements ConditionalDensity {
       RowColumn.IntList aloneLength = new RowColumn.IntList();
       for (int j = 0; j < count; j++) {
         int row = from + j;
-        int g = groupOf[j] < 0 ? -1 : index[groupOf[j]];
+        int g = groupOf[j];
         if (g >= 0) {
-          rows[g] = firstRow.values[groupOf[j]];
+          rows[g] = firstRow.values[g];
           family.addToGroup(parts, strides, row, statistics, g * per);
         } else if (j > 0 && aloneFrom.size > 0
             && aloneFrom.values[aloneFrom.size - 1] + aloneLength.values[aloneFrom.size - 1]
