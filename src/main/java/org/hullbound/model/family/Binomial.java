@@ -396,8 +396,10 @@ final class Binomial {
           double sumTrials = statistics[q + 1];
           double failures = sumTrials - sumY;
           double e = Math.exp(-Math.abs(eta));
-          double value = (sumY == 0 ? 0.0 : sumY * -LogSpace.log1pExp(-eta, e))
-              + (failures == 0 ? 0.0 : failures * -LogSpace.log1pExp(eta, e))
+          // log(1 + e^-eta) and log(1 + e^eta) share log1p(e): LogSpace.log1pExp(-+eta, e), one log
+          double shared = LogSpace.log1p(e);
+          double value = (sumY == 0 ? 0.0 : sumY * -(eta < 0 ? -eta + shared : shared))
+              + (failures == 0 ? 0.0 : failures * -(eta > 0 ? eta + shared : shared))
               + statistics[q + 2];
           double slope = Math.fma(-sumTrials, LogSpace.invLogit(eta, e), sumY);
           total += value;
