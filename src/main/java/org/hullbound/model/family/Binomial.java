@@ -382,16 +382,13 @@ final class Binomial {
           double[][] slopes, int[] slopeStrides, int[] rows, int count, double[] statistics,
           double[] sums) {
         int moving = 1 + probabilityIndex();
-        double[] as = intercepts[moving];
-        int as0 = interceptStrides[moving];
-        double[] bs = slopes[moving];
-        int bs0 = slopeStrides[moving];
         double total = sums[0];
         double dx = sums[1];
         for (int g = 0, q = 0; g < count; g++, q += 3) {
           int r = rows[g];
-          double b = bs[r * bs0];
-          double eta = b == 0 ? as[r * as0] : as[r * as0] + b * x;
+          double a = intercepts[moving][r * interceptStrides[moving]];
+          double b = slopes[moving][r * slopeStrides[moving]];
+          double eta = b == 0 ? a : a + b * x;
           double sumY = statistics[q];
           double sumTrials = statistics[q + 1];
           double failures = sumTrials - sumY;

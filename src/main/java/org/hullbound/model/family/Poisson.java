@@ -198,16 +198,16 @@ final class Poisson {
         sums[1] = dx;
       }
 
-      /** Sum of the responses, the number of rows, sum of {@code lgamma(y + 1)}. */
-      @Override
-      public int statisticsPerGroup() {
-        return 3;
-      }
-
       @Override
       public boolean groupable(double[][] intercepts, int[] interceptStrides, int row) {
         double y = intercepts[0][row * interceptStrides[0]];
         return ArgumentDomain.WHOLE.accepts(y) && y >= 0 && y <= GROUPED_COUNT;
+      }
+
+      /** Sum of the responses, the number of rows, sum of {@code lgamma(y + 1)}. */
+      @Override
+      public int statisticsPerGroup() {
+        return 3;
       }
 
       @Override
@@ -229,23 +229,20 @@ final class Poisson {
       public void accumulateGroups(double x, double[][] intercepts, int[] interceptStrides,
           double[][] slopes, int[] slopeStrides, int[] rows, int count, double[] statistics,
           double[] sums) {
-        double[] as = intercepts[1];
-        int as0 = interceptStrides[1];
-        double[] bs = slopes[1];
-        int bs0 = slopeStrides[1];
         double total = sums[0];
         double dx = sums[1];
         for (int g = 0, q = 0; g < count; g++, q += 3) {
           int r = rows[g];
-          double b = bs[r * bs0];
-          double logRate = b == 0 ? as[r * as0] : as[r * as0] + b * x;
+          double a = intercepts[1][r * interceptStrides[1]];
+          double b = slopes[1][r * slopeStrides[1]];
+          double logRate = b == 0 ? a : a + b * x;
           double sumY = statistics[q];
-          double rows0 = statistics[q + 1];
+          double rowCount = statistics[q + 1];
           double rate = Math.exp(logRate);
           double value = rate == Double.POSITIVE_INFINITY ? Double.NEGATIVE_INFINITY
-              : (sumY == 0 ? 0.0 : sumY * logRate) - rows0 * rate - statistics[q + 2];
+              : (sumY == 0 ? 0.0 : sumY * logRate) - rowCount * rate - statistics[q + 2];
           total += value;
-          dx += 0.0 + (sumY - rows0 * rate) * b;
+          dx += 0.0 + (sumY - rowCount * rate) * b;
         }
         sums[0] = total;
         sums[1] = dx;
