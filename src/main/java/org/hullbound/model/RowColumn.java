@@ -1,6 +1,11 @@
 package org.hullbound.model;
 
+import java.lang.ref.WeakReference;
+import java.util.ArrayList;
 import java.util.Arrays;
+import java.util.HashMap;
+import java.util.List;
+import java.util.Map;
 
 /**
  * A column of numbers, one per row of a term shape in a compiled conditional (a data value, the
@@ -58,8 +63,7 @@ final class RowColumn {
    * line that moves them (clinics: the outcome five times, {@code dose} six), each the same numbers
    * in the same order; one array serves them all, read only.
    */
-  private static final java.util.Map<Long, java.util.List<java.lang.ref.WeakReference<double[]>>>
-      SHARED = new java.util.HashMap<>();
+  private static final Map<Long, List<WeakReference<double[]>>> SHARED = new HashMap<>();
 
   /** The first {@code size} values, as an array equal bit for bit to any made before. */
   static double[] shared(double[] values, int size) {
@@ -72,16 +76,15 @@ final class RowColumn {
       hash = 31 * hash + Double.doubleToRawLongBits(v);
     }
     synchronized (SHARED) {
-      java.util.List<java.lang.ref.WeakReference<double[]>> known =
-          SHARED.computeIfAbsent(hash, h -> new java.util.ArrayList<>());
+      List<WeakReference<double[]>> known = SHARED.computeIfAbsent(hash, h -> new ArrayList<>());
       known.removeIf(r -> r.get() == null);
-      for (java.lang.ref.WeakReference<double[]> r : known) {
+      for (WeakReference<double[]> r : known) {
         double[] other = r.get();
         if (other != null && sameBits(other, column)) {
           return other;
         }
       }
-      known.add(new java.lang.ref.WeakReference<>(column));
+      known.add(new WeakReference<>(column));
       if (known.size() == 1 && SHARED.size() % 64 == 0) {
         SHARED.values().removeIf(list -> {
           list.removeIf(r -> r.get() == null);
