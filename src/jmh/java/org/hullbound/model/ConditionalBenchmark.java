@@ -18,7 +18,12 @@ import org.openjdk.jmh.annotations.State;
 /**
  * The compiled full conditional of one group effect in a logistic random-effects model against
  * the same conditional written by hand in Java: a normal prior and {@code perGroup} Bernoulli
- * terms with {@code logit_p = alpha + effect[group]}, value and derivative in one call.
+ * terms with {@code logit_p = alpha + offset[obs] + effect[group]}, value and derivative in one
+ * call. With {@code predictors = shared} every offset is 0, so the rows of a group share one
+ * linear predictor and the compiled conditional sums them once by their sufficient statistics
+ * (docs/model-compilation.md, "Rows of one linear predictor, summed once"), which the loops by
+ * hand do not; with {@code predictors = distinct} every row has its own offset, so every side
+ * does the same arithmetic per row and the ratio is the per-term cost that issue 12's goal names.
  *
  * <p>Five scores, each one call (the per-term cost is a score divided by {@code perGroup + 1}):
  *
@@ -53,12 +58,16 @@ public class ConditionalBenchmark {
   @Param({"200", "5000"})
   public int perGroup;
 
+  @Param({"distinct", "shared"})
+  public String predictors;
+
   private ConditionalDensity compiled;
   private double[] state;
   private double[] slope;
   private int alphaSlot;
   private int spreadSlot;
   private double[] ownGroup;
+  private double[] ownOffsets;
   private double[] points;
   private int next;
   /** Per term of the fused loop: intercept, slope of the linear predictor in the unknown, outcome. */
@@ -73,26 +82,30 @@ public class ConditionalBenchmark {
             "\n",
             "index group = 1 .. " + GROUPS,
             "index obs",
-            "data  group_of[obs]",
-            "data  y[obs] ~ bernoulli(logit_p = alpha + effect[group_of[obs]])",
+            "data  group_of[obs], offset[obs]",
+            "data  y[obs] ~ bernoulli(logit_p = alpha + offset[obs] + effect[group_of[obs]])",
             "param alpha ~ normal(mean = 0, sd = 2)",
             "param spread ~ half-normal(sd = 1)",
             "param effect[group] ~ normal(mean = 0, sd = spread)");
     SplittableRandom random = new SplittableRandom(7);
     List<List<String>> rows = new ArrayList<>();
     List<Double> first = new ArrayList<>();
+    List<Double> firstOffsets = new ArrayList<>();
+    boolean distinct = predictors.equals("distinct");
     for (int i = 0; i < perGroup * GROUPS; i++) {
       int group = 1 + i % GROUPS;
       int y = random.nextDouble() < 0.6 ? 1 : 0;
-      rows.add(List.of(Integer.toString(group), Integer.toString(y)));
+      double offset = distinct ? random.nextDouble() - 0.5 : 0.0;
+      rows.add(List.of(Integer.toString(group), Double.toString(offset), Integer.toString(y)));
       if (group == 1) {
         first.add((double) y);
+        firstOffsets.add(offset);
       }
     }
     BoundModel bound =
         BoundModel.bind(
             Parser.parse("bench.hbm", model),
-            List.of(DataTable.of("obs.csv", List.of("group_of", "y"), rows)));
+            List.of(DataTable.of("obs.csv", List.of("group_of", "offset", "y"), rows)));
     Unknown effect = bound.unknown("effect[1]");
     compiled = bound.conditional(effect.index());
     if (compiled.termCount() != perGroup + 1) {
@@ -104,12 +117,15 @@ public class ConditionalBenchmark {
     state[alphaSlot] = 0.3;
     state[spreadSlot] = 0.8;
     ownGroup = first.stream().mapToDouble(Double::doubleValue).toArray();
+    ownOffsets = firstOffsets.stream().mapToDouble(Double::doubleValue).toArray();
     points = new double[] {-1.2, -0.4, 0.1, 0.7, 1.5};
     slope = new double[1];
     fusedIntercepts = new double[ownGroup.length];
     fusedSlopes = new double[ownGroup.length];
     fusedOutcomes = ownGroup.clone();
-    java.util.Arrays.fill(fusedIntercepts, state[alphaSlot]);
+    for (int i = 0; i < ownOffsets.length; i++) {
+      fusedIntercepts[i] = state[alphaSlot] + ownOffsets[i];
+    }
     java.util.Arrays.fill(fusedSlopes, 1.0);
     // Every side compute the same full log-density (constants included) and slope.
     double[] other = new double[1];
@@ -191,8 +207,9 @@ public class ConditionalBenchmark {
     double z = effect / sd;
     double value = -0.5 * z * z - Math.log(sd) - 0.9189385332046728;
     double derivative = -z / sd;
-    for (double y : ownGroup) {
-      double eta = alpha + effect;
+    for (int i = 0; i < ownGroup.length; i++) {
+      double y = ownGroup[i];
+      double eta = alpha + ownOffsets[i] + effect;
       // log expit(eta) = -log1p(exp(-eta)), computed stably on both sides.
       double softplus = eta > 0 ? eta + Math.log1p(Math.exp(-eta)) : Math.log1p(Math.exp(eta));
       value += y * eta - softplus;
