@@ -1,6 +1,13 @@
 package org.hullbound.model;
 
+import java.util.ArrayList;
+import java.util.Arrays;
+import java.util.BitSet;
+import java.util.HashMap;
 import java.util.List;
+import java.util.Map;
+import java.util.Set;
+import java.util.TreeSet;
 import org.hullbound.model.family.AffineRows;
 import org.hullbound.model.family.ArgumentRange;
 import org.hullbound.model.family.Parametrisation;
@@ -150,9 +157,9 @@ final class CompiledConditional implements ConditionalDensity {
     this.termCount = blanket.size();
     int[] shapeOf = new int[termCount];
     int[] rowOf = new int[termCount];
-    List<Shape> found = new java.util.ArrayList<>();
-    java.util.Map<Object, Integer> byKey = new java.util.HashMap<>();
-    java.util.BitSet read = new java.util.BitSet();
+    List<Shape> found = new ArrayList<>();
+    Map<Object, Integer> byKey = new HashMap<>();
+    BitSet read = new BitSet();
     AllocationMembers.Guards.Builder guardsFound = new AllocationMembers.Guards.Builder();
     RowColumn.IntList readStart = new RowColumn.IntList();
     RowColumn.IntList reads = new RowColumn.IntList();
@@ -160,7 +167,7 @@ final class CompiledConditional implements ConditionalDensity {
     RowColumn.IntList guardReads = new RowColumn.IntList();
     readStart.add(0);
     guardReadStart.add(0);
-    java.util.Set<Integer> termReads = new java.util.TreeSet<>();
+    Set<Integer> termReads = new TreeSet<>();
     int maxArity = 0;
     for (int i = 0; i < termCount; i++) {
       Term term = blanket.get(i);
@@ -279,12 +286,12 @@ final class CompiledConditional implements ConditionalDensity {
    * ({@code a} and {@code b} of {@code a + b x}: the same constants, slots and coefficients) have
    * the same {@code eta} in every state, so those of a family with sufficient statistics ({@link
    * AffineRows#statisticsPerGroup}) are evaluated once per group (a row with no twin is a group
-   * of one once its run collapses), from the group's sums worked out here once (every other part of the rows is a number fixed for the fit, so the sums never
-   * change: rows whose value or trials read another unknown are never collapsed, nor are
-   * blankets that follow an allocation, which have no runs). Rows the family does not group (off
-   * its support, counts above its bound) are summed one by one as before, in ranges of
-   * consecutive rows. Decided at compile time: a run
-   * with no two rows alike is not collapsed and costs nothing more.
+   * of one once its run collapses), from the group's sums worked out here once (every other part
+   * of the rows is a number fixed for the fit, so the sums never change: rows whose value or
+   * trials read another unknown are never collapsed, nor are blankets that follow an allocation,
+   * which have no runs). Rows the family does not group (off its support, counts above its bound)
+   * are summed one by one as before, in ranges of consecutive rows. Decided at compile time: a
+   * run with no two rows alike is not collapsed and costs nothing more.
    *
    * @param rows per group, the row its linear predictor is read from
    * @param statistics per group, its {@link AffineRows#statisticsPerGroup} sums
@@ -312,7 +319,7 @@ final class CompiledConditional implements ConditionalDensity {
       RowColumn.IntList firstRow = new RowColumn.IntList();
       RowColumn.IntList size = new RowColumn.IntList();
       RowColumn.IntList nextWithHash = new RowColumn.IntList();
-      java.util.Map<Long, Integer> byHash = new java.util.HashMap<>();
+      Map<Long, Integer> byHash = new HashMap<>();
       for (int j = 0; j < count; j++) {
         int row = from + j;
         if (!family.groupable(parts, strides, row)) {
@@ -346,7 +353,7 @@ final class CompiledConditional implements ConditionalDensity {
       // with no call per range of rows alone between them.
       int groups = firstRow.size;
       int per = family.statisticsPerGroup();
-      int[] rows = new int[groups];
+      int[] rows = firstRow.toArray();
       double[] statistics = new double[groups * per];
       RowColumn.IntList aloneFrom = new RowColumn.IntList();
       RowColumn.IntList aloneLength = new RowColumn.IntList();
@@ -354,7 +361,6 @@ final class CompiledConditional implements ConditionalDensity {
         int row = from + j;
         int g = groupOf[j];
         if (g >= 0) {
-          rows[g] = firstRow.values[g];
           family.addToGroup(parts, strides, row, statistics, g * per);
         } else if (j > 0 && aloneFrom.size > 0
             && aloneFrom.values[aloneFrom.size - 1] + aloneLength.values[aloneFrom.size - 1]
@@ -1060,7 +1066,7 @@ final class CompiledConditional implements ConditionalDensity {
         }
         key.append(linearForms[f].slots().length).append(',');
       }
-      key.append(java.util.Arrays.toString(moving)).append(valueMoves).append(normalise)
+      key.append(Arrays.toString(moving)).append(valueMoves).append(normalise)
           .append(Double.doubleToRawLongBits(lower)).append(',')
           .append(Double.doubleToRawLongBits(upper)).append(slopeOnSamplingScale)
           .append(Double.doubleToRawLongBits(power));
