@@ -71,8 +71,9 @@ public final class LineDensity {
   }
 
   /**
-   * A rescaling ({@link Geometry#RESCALING}, or {@link Geometry#RESCALING_ABOUT_LOCATION} about the location in state entry {@code pivot}, which
-   * the line leaves where it is: {@code (c s, m + c (e - m))}; for a fixed {@code m} a
+   * A rescaling ({@link Geometry#RESCALING}, or {@link Geometry#RESCALING_ABOUT_LOCATION} about
+   * the location in state entry {@code pivot}, which the line leaves where it is: {@code (c s, m
+   * + c (e - m))}; for a fixed {@code m} a
    * one-parameter group, two steps composing to {@code c1 c2}, whose Jacobian is {@code c^(K +
    * 1)}, as for a rescaling about 0), whose {@code movedTerms} leave out {@code cancelled}
    * priors that are {@code -log c} plus a constant along the line: as many powers of {@code c}
