@@ -34,6 +34,7 @@ import org.hullbound.io.CheckpointFile;
 import org.hullbound.io.DrawsWriter;
 import org.hullbound.io.InitialValuesFile;
 import org.hullbound.model.BoundModel;
+import org.hullbound.model.DataSummary;
 import org.hullbound.model.TestQuantities;
 import org.hullbound.model.EmptyCells;
 import org.hullbound.model.Unknown;
@@ -85,12 +86,14 @@ public final class FitRun implements AutoCloseable {
   private final PredictiveOptions predictive;
   /** The test quantities of the predictive checks; null when they were not asked for. */
   private final TestQuantities tests;
+  /** What an out-of-memory message needs to say what helps. */
+  private final HeapExhaustedException.Facts heapFacts;
   private boolean sampled;
 
   private FitRun(
       FitRequest request, BoundModel model, ModelSampler sampler, RunSettings settings,
       Checkpoint checkpoint, FolderLock lock, List<String> notes, PredictiveOptions predictive,
-      TestQuantities tests) {
+      TestQuantities tests, HeapExhaustedException.Facts heapFacts) {
     this.request = request;
     this.model = model;
     this.sampler = sampler;
@@ -100,6 +103,7 @@ public final class FitRun implements AutoCloseable {
     this.notes = notes;
     this.predictive = predictive;
     this.tests = tests;
+    this.heapFacts = heapFacts;
   }
 
   /**
@@ -111,6 +115,7 @@ public final class FitRun implements AutoCloseable {
    * @throws StartingValueException when a starting value is unusable (named with its file)
    * @throws CheckpointException when the run to resume cannot be continued
    * @throws org.hullbound.lang.ModelException when the model or data are wrong
+   * @throws HeapExhaustedException when the heap runs out while reading, binding or compiling
    */
   public static FitRun prepare(FitRequest request) {
     return prepare(request, PredictiveOptions.none(), StartupGuard.create());
@@ -129,13 +134,19 @@ public final class FitRun implements AutoCloseable {
       throw new IllegalArgumentException("predictive and guard must not be null");
     }
     checkOptions(request);
-    BoundModel model = request.inputs().bind();
+    HeapExhaustedException.Facts known =
+        new HeapExhaustedException.Facts(fileBytes(request.inputs().dataFiles()), -1, -1);
+    BoundModel model = HeapExhaustedException.during(
+        HeapExhaustedException.Stage.READING, known, () -> request.inputs().bind());
+    HeapExhaustedException.Facts bound = known.withRows(
+        model.data().stream().mapToLong(DataSummary::rows).sum());
     ModelSampler sampler;
     try {
       Map<String, Double> given =
           request.initFile() == null ? Map.of() : InitialValuesFile.read(request.initFile());
-      sampler = request.moves()
-          ? ModelSampler.of(model, given) : ModelSampler.withoutMoves(model, given);
+      sampler = HeapExhaustedException.during(
+          HeapExhaustedException.Stage.COMPILING, bound, () -> request.moves()
+              ? ModelSampler.of(model, given) : ModelSampler.withoutMoves(model, given));
     } catch (StartingValueException invalid) {
       if (request.initFile() == null) {
         throw invalid;
@@ -194,9 +205,11 @@ public final class FitRun implements AutoCloseable {
       if (request.threads() != null) {
         settings = settings.withThreads(request.threads());
       }
+      long keptDrawBytes = MemoryBudget.of(settings.chains(), settings.draws(),
+          sampler.labels().size() + model.derived().size()).bytes();
       return new FitRun(
           request, model, sampler, settings, checkpoint, lock, List.copyOf(notes), predictive,
-          tests);
+          tests, bound.withKeptDrawBytes(keptDrawBytes));
     } catch (RuntimeException refused) {
       lock.releaseAndRemoveIfEmpty();
       throw refused;
@@ -240,6 +253,7 @@ public final class FitRun implements AutoCloseable {
    * @throws SamplingFailedException when a chain fails; the draws made before are in draws.csv
    * @throws CheckpointException when the draws file of the run to resume does not fit its
    *     checkpoint
+   * @throws HeapExhaustedException when the heap runs out while sampling or summarising
    */
   public FitResult run(ProgressListener listener, StopSignal stop) {
     return run(listener, stop, ProbabilitySection.none());
@@ -255,6 +269,29 @@ public final class FitRun implements AutoCloseable {
       throw new IllegalArgumentException("probabilities must not be null");
     }
     Path folder = folder();
+    Sampled done;
+    try {
+      done = sample(listener, stop, folder);
+    } catch (OutOfMemoryError full) {
+      Path drawsFile = folder.resolve(DrawsWriter.FILE_NAME);
+      throw HeapExhaustedException.of(HeapExhaustedException.Stage.SAMPLING,
+          heapFacts, sampled && Files.exists(drawsFile) ? drawsFile : null, full);
+    }
+    return HeapExhaustedException.during(
+        HeapExhaustedException.Stage.SUMMARISING, heapFacts, () -> {
+          saveCheckpoint(folder, done.outcome());
+          return summarise(done.outcome(), done.store(), done.replicates(), probabilities, folder,
+              done.startedAt(), done.elapsed());
+        });
+  }
+
+  /** What the chains left for the summary. */
+  private record Sampled(
+      RunOutcome outcome, DrawStore store, ReplicatedStatistics replicates,
+      OffsetDateTime startedAt, Duration elapsed) {}
+
+  /** Runs the chains, streaming their draws to the files and the store. */
+  private Sampled sample(ProgressListener listener, StopSignal stop, Path folder) {
     DrawStore store = DrawStore.create(settings.chains(), settings.draws(), columns().size());
     RunOutcome outcome;
     OffsetDateTime startedAt;
@@ -290,14 +327,47 @@ public final class FitRun implements AutoCloseable {
             InMemoryFit.runChains(
                 sampler, settings, both, listener, stop,
                 checkpoint == null ? List.of() : checkpoint.chains());
-      } catch (ChainFailedException failed) {
-        throw new SamplingFailedException(
-            "sampling failed: " + failed.getMessage(), writer.file(), failed);
+      } catch (RuntimeException failed) {
+        OutOfMemoryError full = outOfMemoryIn(failed);
+        if (full != null) {
+          throw HeapExhaustedException.of(
+              HeapExhaustedException.Stage.SAMPLING, heapFacts, writer.file(), full);
+        }
+        if (failed instanceof ChainFailedException) {
+          throw new SamplingFailedException(
+              "sampling failed: " + failed.getMessage(), writer.file(), failed);
+        }
+        throw failed;
       }
     }
     Duration elapsed = Duration.ofNanos(Math.max(0, System.nanoTime() - startNanos));
-    saveCheckpoint(folder, outcome);
-    return summarise(outcome, store, replicates, probabilities, folder, startedAt, elapsed);
+    return new Sampled(outcome, store, replicates, startedAt, elapsed);
+  }
+
+  /**
+   * The out-of-memory error behind {@code failure}, or null: a chain that runs out of heap
+   * fails with it as its cause, and one that runs out between sweeps with it deeper.
+   */
+  private static OutOfMemoryError outOfMemoryIn(Throwable failure) {
+    for (Throwable cause = failure; cause != null; cause = cause.getCause()) {
+      if (cause instanceof OutOfMemoryError full) {
+        return full;
+      }
+    }
+    return null;
+  }
+
+  /** The size of {@code files} in bytes, those that cannot be read left out. */
+  private static long fileBytes(List<Path> files) {
+    long total = 0;
+    for (Path file : files) {
+      try {
+        total += Files.size(file);
+      } catch (IOException | SecurityException unreadable) {
+        // reading it will say what is wrong
+      }
+    }
+    return total;
   }
 
   private static DrawSink both(DrawSink first, DrawSink second) {

@@ -6,6 +6,7 @@ import java.io.UncheckedIOException;
 import java.nio.file.NoSuchFileException;
 import java.util.List;
 import org.hullbound.app.BatchStoppedException;
+import org.hullbound.app.HeapExhaustedException;
 import org.hullbound.app.RunRefusedException;
 import org.hullbound.app.SamplingFailedException;
 import org.hullbound.app.StartupStoppedException;
@@ -60,6 +61,12 @@ public final class ErrorReporting implements CommandLine.IExecutionExceptionHand
       status = USER_ERROR;
     } else if (exception instanceof BatchStoppedException stopped) {
       err.println(command + stopped.getMessage());
+      status = FAILURE;
+    } else if (exception instanceof HeapExhaustedException full) {
+      err.println(Main.outOfMemory(commandLine.getCommandName(), full));
+      if (full.drawsFile() != null) {
+        err.println("  the draws made before it are in " + full.drawsFile());
+      }
       status = FAILURE;
     } else if (exception instanceof SamplingFailedException failed) {
       err.println(command + failed.getMessage());

@@ -105,8 +105,8 @@ public final class FitUnitsCommand implements Callable<Integer> {
   @Override
   public Integer call() {
     // first, so that a signal while the units are read finds the hook (see SignalStop)
-    try (SignalStop signals = SignalStop.install(spec.commandLine().getErr(),
-        "hullbound fit-units: stopped by a signal before any unit began; no file was written")) {
+    try (SignalStop signals = SignalStop.install(spec.commandLine().getErr(), "fit-units",
+        "stopped by a signal before any unit began; no file was written")) {
       return fitUnits(signals);
     }
   }

@@ -1,5 +1,7 @@
 package org.hullbound.cli;
 
+import org.hullbound.app.HeapExhaustedException;
+import org.hullbound.gibbs.MemoryBudget;
 import picocli.CommandLine;
 import picocli.CommandLine.Command;
 
@@ -82,6 +84,40 @@ public final class Main implements Runnable {
     return "hullbound" + (command == null ? "" : " " + command)
         + ": out of memory; give the JVM more, e.g. HULLBOUND_JAVA_OPTS=-Xmx8g"
         + (fewer == null ? "" : ", or " + fewer);
+  }
+
+  /**
+   * The out-of-memory message of a {@code fit} that knew where it was ({@link
+   * HeapExhaustedException}): more heap always, with the launcher's way of giving it; fewer rows
+   * or data columns where the data fill the heap; fewer kept draws only where they are a large
+   * share of it.
+   */
+  static String outOfMemory(String command, HeapExhaustedException full) {
+    long heap = full.heapBytes();
+    long suggested = Math.max(1, (2 * heap + (1L << 30) - 1) >> 30);
+    String moreHeap = "give Java more memory (HULLBOUND_JAVA_OPTS=-Xmx" + suggested + "g ./hullbound "
+        + command + " ...)";
+    String fewerRows = "fit fewer rows or data columns";
+    String rows = full.dataRows() >= 0 ? "its " + full.dataRows() + " data rows"
+        : MemoryBudget.describe(full.dataFileBytes()) + " of data files";
+    String inHeap = " in a Java heap of " + MemoryBudget.describe(heap);
+    String prefix = "hullbound " + command + ": out of memory while ";
+    return switch (full.stage()) {
+      case READING -> prefix + "reading and binding the data (" + rows + ")" + inHeap
+          + ": the data's rows fill it, not the draws; " + moreHeap + " or " + fewerRows;
+      case COMPILING -> prefix + "compiling the model over " + rows + inHeap
+          + ": the data's rows fill it, not the draws; " + moreHeap + " or " + fewerRows;
+      case SAMPLING, SUMMARISING -> {
+        String where = prefix + (full.stage() == HeapExhaustedException.Stage.SAMPLING
+            ? "sampling" : "summarising the draws and writing the report") + inHeap;
+        String draws = MemoryBudget.describe(Math.max(0, full.keptDrawBytes()));
+        yield full.drawsAreACause()
+            ? where + ", of which the kept draws need about " + draws + ": keep fewer draws"
+                + " (--draws, or --thin K to keep every K-th sweep) or " + moreHeap
+            : where + ": the model over " + rows + " fills it (the kept draws need only about "
+                + draws + "); " + moreHeap + " or " + fewerRows;
+      }
+    };
   }
 
   /** The subcommand that ran, or null when parsing did not get that far. */

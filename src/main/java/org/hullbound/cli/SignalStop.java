@@ -10,8 +10,9 @@ import org.hullbound.gibbs.StopSignal;
  * What {@code fit} and {@code fit-units} do on Ctrl-C (SIGINT) or SIGTERM, whenever it comes:
  * before sampling, one line saying nothing was written and an immediate end; while sampling, a
  * stop request to the chains (of every running unit, for a batch) and a bounded wait until the run
- * has written its files and released its folder. The JVM then ends with the signal's own status (130 for SIGINT, 143 for
- * SIGTERM).
+ * has written its files and released its folder ({@link StopDeadline}: two minutes at most, and
+ * no longer once the collector thrashes on a full heap, which ends the wait with one line). The
+ * JVM then ends with the signal's own status (130 for SIGINT, 143 for SIGTERM).
  *
  * <p>A signal before sampling also releases the output folder if the run being prepared has locked
  * it ({@link StartupGuard}): the preparing thread does not get to release it itself.
@@ -21,10 +22,9 @@ import org.hullbound.gibbs.StopSignal;
  * which used to surface as an internal error.
  */
 final class SignalStop implements AutoCloseable {
-  /** How long the hook waits for the files of a stopped run (a large report can take a while). */
-  private static final long WRITE_WAIT_MINUTES = 2;
-
   private final PrintWriter stderr;
+  /** The command's name, as its messages begin. */
+  private final String command;
   /** The line printed when a signal comes before the work begins. */
   private final String beforeWork;
   private final CountDownLatch finished = new CountDownLatch(1);
@@ -36,8 +36,9 @@ final class SignalStop implements AutoCloseable {
   /** Set when a signal came before sampling; guarded by this. */
   private boolean signalled;
 
-  private SignalStop(PrintWriter stderr, String beforeWork) {
+  private SignalStop(PrintWriter stderr, String command, String beforeWork) {
     this.stderr = stderr;
+    this.command = command;
     this.beforeWork = beforeWork;
     this.hook = new Thread(this::onSignal, "hullbound-interrupt");
   }
@@ -45,15 +46,15 @@ final class SignalStop implements AutoCloseable {
   /** Registers {@code fit}'s hook now; when the JVM is already shutting down, one that reports so. */
   static SignalStop install(PrintWriter stderr) {
     return install(
-        stderr, "hullbound fit: stopped by a signal before sampling began; no file was written");
+        stderr, "fit", "stopped by a signal before sampling began; no file was written");
   }
 
   /**
-   * Registers a hook for a command whose work is stopped the same way ({@code fit-units}: every
-   * running unit's chains), which prints {@code beforeWork} when the signal comes first.
+   * Registers a hook for {@code command}, whose work is stopped the same way ({@code fit-units}:
+   * every running unit's chains), which prints {@code beforeWork} when the signal comes first.
    */
-  static SignalStop install(PrintWriter stderr, String beforeWork) {
-    SignalStop stop = new SignalStop(stderr, beforeWork);
+  static SignalStop install(PrintWriter stderr, String command, String beforeWork) {
+    SignalStop stop = new SignalStop(stderr, command, beforeWork);
     try {
       Runtime.getRuntime().addShutdownHook(stop.hook);
     } catch (IllegalStateException shuttingDown) {
@@ -81,7 +82,7 @@ final class SignalStop implements AutoCloseable {
       if (stop == null) {
         if (!signalled) {
           signalled = true;
-          stderr.println(beforeWork);
+          stderr.println("hullbound " + command + ": " + beforeWork);
           stderr.flush();
         }
       }
@@ -94,10 +95,27 @@ final class SignalStop implements AutoCloseable {
     }
     stop.request();
     try {
-      finished.await(WRITE_WAIT_MINUTES, TimeUnit.MINUTES);
+      StopDeadline.Outcome waited = StopDeadline.ofThisJvm().await(finished);
+      if (waited.ending() != StopDeadline.Ending.WRITTEN) {
+        stderr.println(givingUp(command, waited));
+        stderr.flush();
+      }
     } catch (InterruptedException interrupted) {
       Thread.currentThread().interrupt();
     }
+  }
+
+  /** The one line said when the hook ends the JVM before the stopped run wrote its files. */
+  static String givingUp(String command, StopDeadline.Outcome waited) {
+    long seconds = Math.round(waited.waitedNanos() / 1e9);
+    String why = waited.ending() == StopDeadline.Ending.THRASHING
+        ? "the Java heap is full (the collector took " + Math.round(100 * waited.collectorShare())
+            + "% of the last " + TimeUnit.NANOSECONDS.toSeconds(StopDeadline.WINDOW_NANOS)
+            + " s), so the run ends " + seconds + " s after the signal"
+        : "the run ends " + seconds + " s after the signal";
+    return "hullbound " + command + ": " + why + " without waiting longer for its files:"
+        + " draws.csv keeps its whole rows, and a file not yet written is missing, never half"
+        + " written";
   }
 
   /** The guard through which the run being prepared locks its folder. */
