@@ -28,6 +28,10 @@ final class SignalStop implements AutoCloseable {
   /** The line printed when a signal comes before the work begins. */
   private final String beforeWork;
   private final CountDownLatch finished = new CountDownLatch(1);
+  /** The wait for {@link #finished} after a signal, made now: see {@link StopDeadline#await}. */
+  private final StopDeadline deadline = StopDeadline.ofThisJvm();
+  private final StopDeadline.Waiting written =
+      nanos -> finished.await(nanos, TimeUnit.NANOSECONDS);
   private final Thread hook;
   /** The start-up's folder lock, released by a signal before sampling. */
   private final StartupGuard startup = StartupGuard.create();
@@ -41,6 +45,14 @@ final class SignalStop implements AutoCloseable {
     this.command = command;
     this.beforeWork = beforeWork;
     this.hook = new Thread(this::onSignal, "hullbound-interrupt");
+    // once now, on a heap with room, so that the hook's wait loads and links nothing under a
+    // thrashing collector; and the line it may print
+    try {
+      deadline.await(nanos -> true);
+    } catch (InterruptedException interrupted) {
+      Thread.currentThread().interrupt();
+    }
+    givingUp(command, new StopDeadline.Outcome(StopDeadline.Ending.THRASHING, 0, 0.5));
   }
 
   /** Registers {@code fit}'s hook now; when the JVM is already shutting down, one that reports so. */
@@ -95,7 +107,7 @@ final class SignalStop implements AutoCloseable {
     }
     stop.request();
     try {
-      StopDeadline.Outcome waited = StopDeadline.ofThisJvm().await(finished);
+      StopDeadline.Outcome waited = deadline.await(written);
       if (waited.ending() != StopDeadline.Ending.WRITTEN) {
         stderr.println(givingUp(command, waited));
         stderr.flush();
@@ -107,15 +119,18 @@ final class SignalStop implements AutoCloseable {
 
   /** The one line said when the hook ends the JVM before the stopped run wrote its files. */
   static String givingUp(String command, StopDeadline.Outcome waited) {
-    long seconds = Math.round(waited.waitedNanos() / 1e9);
-    String why = waited.ending() == StopDeadline.Ending.THRASHING
-        ? "the Java heap is full (the collector took " + Math.round(100 * waited.collectorShare())
-            + "% of the last " + TimeUnit.NANOSECONDS.toSeconds(StopDeadline.WINDOW_NANOS)
-            + " s), so the run ends " + seconds + " s after the signal"
-        : "the run ends " + seconds + " s after the signal";
-    return "hullbound " + command + ": " + why + " without waiting longer for its files:"
-        + " draws.csv keeps its whole rows, and a file not yet written is missing, never half"
-        + " written";
+    // a StringBuilder, not string concatenation, which links a method on its first use
+    StringBuilder line = new StringBuilder("hullbound ").append(command).append(": ");
+    if (waited.ending() == StopDeadline.Ending.THRASHING) {
+      line.append("the Java heap is full (the collector took ")
+          .append(Math.round(100 * waited.collectorShare())).append("% of the last ")
+          .append(TimeUnit.NANOSECONDS.toSeconds(StopDeadline.WINDOW_NANOS)).append(" s), so ");
+    }
+    return line.append("the run ends ").append(Math.round(waited.waitedNanos() / 1e9))
+        .append(" s after the signal without waiting longer for its files: ")
+        .append(command.equals("fit") ? "draws.csv keeps its" : "the batch's tables keep their")
+        .append(" whole rows, and a file not yet written is missing, never half written")
+        .toString();
   }
 
   /** The guard through which the run being prepared locks its folder. */

@@ -2,9 +2,7 @@ package org.hullbound.cli;
 
 import java.lang.management.GarbageCollectorMXBean;
 import java.lang.management.ManagementFactory;
-import java.util.ArrayDeque;
-import java.util.Iterator;
-import java.util.concurrent.CountDownLatch;
+import java.util.List;
 import java.util.concurrent.TimeUnit;
 import java.util.function.LongSupplier;
 
@@ -34,6 +32,9 @@ final class StopDeadline {
   /** How often the collector's time is read. */
   private static final long POLL_NANOS = TimeUnit.MILLISECONDS.toNanos(100);
 
+  /** Samples held: a window's at the polling rate, four times over (polls are late under load). */
+  private static final int SAMPLES = (int) (4 * WINDOW_NANOS / POLL_NANOS);
+
   /** How a wait ended: the files written, the limit reached, or the collector thrashing. */
   enum Ending {
     WRITTEN,
@@ -62,9 +63,13 @@ final class StopDeadline {
     this.limitNanos = limitNanos;
   }
 
-  /** The JVM's clock and collectors, with the two-minute limit. */
+  /**
+   * The JVM's clock and collectors, with the two-minute limit; made, with the collectors looked
+   * up, before any signal comes.
+   */
   static StopDeadline ofThisJvm() {
-    return new StopDeadline(System::nanoTime, StopDeadline::collectorMillis, LIMIT_NANOS);
+    List<GarbageCollectorMXBean> collectors = ManagementFactory.getGarbageCollectorMXBeans();
+    return new StopDeadline(System::nanoTime, () -> collectorMillis(collectors), LIMIT_NANOS);
   }
 
   /** A deadline on the given clocks (tests). */
@@ -72,60 +77,67 @@ final class StopDeadline {
     return new StopDeadline(wallNanos, collectorMillis, limitNanos);
   }
 
-  /** Waits for {@code written} under this deadline. */
-  Outcome await(CountDownLatch written) throws InterruptedException {
-    return await(nanos -> written.await(nanos, TimeUnit.NANOSECONDS));
-  }
-
-  /** Waits for {@code written} until it is done, the limit passes or the collector thrashes. */
+  /**
+   * Waits for {@code written} until it is done, the limit passes or the collector thrashes.
+   *
+   * <p>Allocates its samples first and makes no object per poll: in a heap that thrashes, every
+   * allocation past the thread's own buffer waits for a collection, and linking a lambda or loading
+   * a class there took seconds (measured: 11 s before the first poll in a 256 MB heap kept full).
+   * The caller makes {@code written} before the signal comes.
+   */
   Outcome await(Waiting written) throws InterruptedException {
+    long[] times = new long[SAMPLES];
+    long[] collected = new long[SAMPLES];
     long start = wallNanos.getAsLong();
-    // (wall nanos, collector millis) samples, oldest first, spanning a little more than a window
-    ArrayDeque<long[]> samples = new ArrayDeque<>();
-    samples.add(new long[] {start, collectorMillis.getAsLong()});
+    times[0] = start;
+    collected[0] = collectorMillis.getAsLong();
+    long newest = 0; // samples oldest .. newest are held, index modulo SAMPLES
+    long oldest = 0;
     while (true) {
       long now = wallNanos.getAsLong();
       long left = limitNanos - (now - start);
+      double share = share(times, collected, oldest, newest);
       if (left <= 0) {
-        return new Outcome(Ending.LIMIT, now - start, share(samples));
+        return new Outcome(Ending.LIMIT, now - start, share);
       }
       if (written.await(Math.min(left, POLL_NANOS))) {
-        return new Outcome(Ending.WRITTEN, wallNanos.getAsLong() - start, share(samples));
+        return new Outcome(Ending.WRITTEN, wallNanos.getAsLong() - start, share);
       }
-      samples.add(new long[] {wallNanos.getAsLong(), collectorMillis.getAsLong()});
-      // keep one sample at least a window old, drop those older than it
-      while (samples.size() > 2) {
-        Iterator<long[]> oldest = samples.iterator();
-        oldest.next();
-        long[] second = oldest.next();
-        if (samples.getLast()[0] - second[0] < WINDOW_NANOS) {
-          break;
-        }
-        samples.removeFirst();
+      newest++;
+      if (newest - oldest >= SAMPLES) {
+        oldest++;
       }
-      double share = share(samples);
+      int at = (int) (newest % SAMPLES);
+      times[at] = wallNanos.getAsLong();
+      collected[at] = collectorMillis.getAsLong();
+      // keep one sample at least a window older than the newest, none older than that one
+      while (oldest + 1 < newest
+          && times[at] - times[(int) ((oldest + 1) % SAMPLES)] >= WINDOW_NANOS) {
+        oldest++;
+      }
+      share = share(times, collected, oldest, newest);
       if (share >= THRASHING_SHARE) {
-        return new Outcome(Ending.THRASHING, samples.getLast()[0] - start, share);
+        return new Outcome(Ending.THRASHING, times[at] - start, share);
       }
     }
   }
 
-  /** The collector's share of the time from the oldest to the newest sample, over a window. */
-  private static double share(ArrayDeque<long[]> samples) {
-    long[] first = samples.getFirst();
-    long[] last = samples.getLast();
-    long wall = last[0] - first[0];
+  /** The collector's share of the time from sample {@code oldest} to {@code newest}, over a window. */
+  private static double share(long[] times, long[] collected, long oldest, long newest) {
+    int first = (int) (oldest % SAMPLES);
+    int last = (int) (newest % SAMPLES);
+    long wall = times[last] - times[first];
     if (wall < WINDOW_NANOS) {
       return Double.NaN;
     }
-    return Math.min(1.0, (last[1] - first[1]) * 1e6 / wall);
+    return Math.min(1.0, (collected[last] - collected[first]) * 1e6 / wall);
   }
 
-  /** The collection time of every collector of this JVM so far, in milliseconds. */
-  private static long collectorMillis() {
+  /** The collection time of {@code collectors} so far, in milliseconds. */
+  private static long collectorMillis(List<GarbageCollectorMXBean> collectors) {
     long total = 0;
-    for (GarbageCollectorMXBean collector : ManagementFactory.getGarbageCollectorMXBeans()) {
-      total += Math.max(0, collector.getCollectionTime());
+    for (int k = 0; k < collectors.size(); k++) {
+      total += Math.max(0, collectors.get(k).getCollectionTime());
     }
     return total;
   }

@@ -26,8 +26,11 @@ import org.junit.jupiter.api.io.TempDir;
  * heap's state is the test's; the fit, its signal hook and its files are the real ones.
  */
 class FitHeapStopTest {
-  /** The bound on the time from SIGTERM to the child's end (the deadline's window is 5 s). */
-  private static final long BOUND_SECONDS = 30;
+  /**
+   * The bound on the time from SIGTERM to the child's end: the deadline's window is 5 s, and the
+   * child ended 7.3 s and 7.9 s after the signal at a load of 8; before the deadline, 37.8 s.
+   */
+  private static final long BOUND_SECONDS = 20;
 
   @TempDir Path folder;
 
