@@ -191,7 +191,8 @@ public final class BatchRun implements AutoCloseable {
       conflicts.add("no --keep-draws");
     }
     if (request.out() != null
-        && !request.out().toAbsolutePath().normalize().equals(folder.toAbsolutePath().normalize())) {
+        && !request.out().toAbsolutePath().normalize()
+            .equals(folder.toAbsolutePath().normalize())) {
       conflicts.add("--out " + folder);
     }
     if (!conflicts.isEmpty()) {
@@ -206,7 +207,8 @@ public final class BatchRun implements AutoCloseable {
             saved.level(), saved.emptyCells(), folder.toString(), saved.keepDraws()));
   }
 
-  private static void conflict(List<String> conflicts, String option, Integer given, Integer saved) {
+  private static void conflict(
+      List<String> conflicts, String option, Integer given, Integer saved) {
     if (given != null && !given.equals(saved)) {
       conflicts.add(option + " " + saved);
     }
@@ -276,7 +278,10 @@ public final class BatchRun implements AutoCloseable {
     return run(engine, progress, stop, FileChannel::write);
   }
 
-  /** {@link #run(TaskEngine, TaskEngine.Progress, StopSignal)} writing its tables through {@code writes}: tests inject a full disk. */
+  /**
+   * {@link #run(TaskEngine, TaskEngine.Progress, StopSignal)} writing its tables through {@code
+   * writes}: tests inject a full disk.
+   */
   BatchResult run(
       TaskEngine engine, TaskEngine.Progress progress, StopSignal stop, RowWrites writes) {
     Path folder = folder();
@@ -304,7 +309,8 @@ public final class BatchRun implements AutoCloseable {
         Files.deleteIfExists(folder.resolve(UNITS_FILE));
         Files.deleteIfExists(folder.resolve(BatchFacts.FILE_NAME));
       } catch (IOException e) {
-        throw new UncheckedIOException("cannot remove the earlier batch in " + folder + ": " + e.getMessage(), e);
+        throw new UncheckedIOException(
+            "cannot remove the earlier batch in " + folder + ": " + e.getMessage(), e);
       }
       if (Files.isDirectory(units)) {
         UnitFit.deleteTree(units);
@@ -403,7 +409,8 @@ public final class BatchRun implements AutoCloseable {
   /** An earlier batch's files in {@code folder}. */
   private static List<String> earlierFiles(Path folder) {
     List<String> found = new ArrayList<>();
-    for (String name : List.of(SUMMARY_FILE, UNITS_FILE, BatchFacts.FILE_NAME, UnitFit.UNITS_FOLDER)) {
+    for (String name
+        : List.of(SUMMARY_FILE, UNITS_FILE, BatchFacts.FILE_NAME, UnitFit.UNITS_FOLDER)) {
       if (Files.exists(folder.resolve(name))) {
         found.add(name);
       }

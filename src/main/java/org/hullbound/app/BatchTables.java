@@ -80,8 +80,10 @@ final class BatchTables implements AutoCloseable {
    * @throws RunRefusedException when a table is missing or is not a batch's
    */
   static Map<String, Written> read(Path folder) {
-    List<List<String>> unitRows = wholeRecords(folder.resolve(BatchRun.UNITS_FILE), BatchRun.UNITS_HEADER);
-    List<List<String>> summaryRows = wholeRecords(folder.resolve(BatchRun.SUMMARY_FILE), SUMMARY_HEADER);
+    List<List<String>> unitRows =
+        wholeRecords(folder.resolve(BatchRun.UNITS_FILE), BatchRun.UNITS_HEADER);
+    List<List<String>> summaryRows =
+        wholeRecords(folder.resolve(BatchRun.SUMMARY_FILE), SUMMARY_HEADER);
     Map<String, Written> written = new LinkedHashMap<>();
     for (List<String> unitRow : unitRows) {
       written.put(unitRow.get(0), new Written(new ArrayList<>(), unitRow));
@@ -219,7 +221,8 @@ final class BatchTables implements AutoCloseable {
       }
     } catch (IOException | UncheckedIOException damaged) {
       throw new RunRefusedException(
-          "cannot resume the batch: " + file + " is not a table of a batch (" + damaged.getMessage() + ")");
+          "cannot resume the batch: " + file + " is not a table of a batch ("
+              + damaged.getMessage() + ")");
     }
     if (records.isEmpty() || !records.get(0).equals(header)) {
       throw new RunRefusedException(

@@ -154,7 +154,8 @@ public final class BatchUnits {
   private static String csv(List<String> header, List<CsvData.TextRow> rows, int dropped) {
     StringBuilder out = new StringBuilder();
     try {
-      CSVPrinter printer = new CSVPrinter(out, CSVFormat.RFC4180.builder().setRecordSeparator("\n").get());
+      CSVPrinter printer =
+          new CSVPrinter(out, CSVFormat.RFC4180.builder().setRecordSeparator("\n").get());
       printer.printRecord(without(header, dropped));
       for (CsvData.TextRow row : rows) {
         printer.printRecord(without(row.cells(), dropped));

@@ -44,7 +44,9 @@ public record DataText(String fileName, String text) implements Serializable {
     return Path.of(fileName).getFileName().toString();
   }
 
-  /** The table, keeping the columns {@code keep} accepts, as {@code CsvData.read} reads the file. */
+  /**
+   * The table, keeping the columns {@code keep} accepts, as {@code CsvData.read} reads the file.
+   */
   public DataTable table(Predicate<String> keep) {
     return CsvData.parse(fileName, text, keep);
   }

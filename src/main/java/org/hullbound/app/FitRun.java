@@ -71,7 +71,10 @@ public final class FitRun implements AutoCloseable {
   /** The replicated data of predictive checks, when asked for ({@link PredictiveOptions}). */
   public static final String REPLICATES_FILE = "replicates.csv";
 
-  /** Files that mark a folder as holding an earlier run; checkpoint files start with {@code checkpoint}. */
+  /**
+   * Files that mark a folder as holding an earlier run; checkpoint files start with {@code
+   * checkpoint}.
+   */
   public static final List<String> OUTPUT_FILES =
       List.of(DrawsWriter.FILE_NAME, SUMMARY_FILE, REPORT_FILE, RunFactsFile.FILE_NAME,
           PredictiveChecks.FILE_NAME, PredictiveChecks.SWEEPS_FILE, REPLICATES_FILE);
@@ -199,7 +202,8 @@ public final class FitRun implements AutoCloseable {
         refuseTooMuchMemory(settings, sampler.labels().size() + model.derived().size(), notes);
       } else {
         settings =
-            settingsOf(request, request.seed() != null ? request.seed() : new SecureRandom().nextLong());
+            settingsOf(request,
+                request.seed() != null ? request.seed() : new SecureRandom().nextLong());
         refuseToReplace(folder, request.overwrite());
       }
       if (request.threads() != null) {
@@ -241,7 +245,9 @@ public final class FitRun implements AutoCloseable {
     return checkpoint != null;
   }
 
-  /** Notes for the user found while preparing (a large share of the heap, a stale lock taken over). */
+  /**
+   * Notes for the user found while preparing (a large share of the heap, a stale lock taken over).
+   */
   public List<String> notes() {
     return notes;
   }
@@ -560,7 +566,10 @@ public final class FitRun implements AutoCloseable {
     }
   }
 
-  /** Refuses to write over an earlier run's files unless {@code overwrite}; a resumed run skips this. */
+  /**
+   * Refuses to write over an earlier run's files unless {@code overwrite}; a resumed run skips
+   * this.
+   */
   private static void refuseToReplace(Path folder, boolean overwrite) {
     List<String> found = earlierRunFiles(folder);
     if (!found.isEmpty() && !overwrite) {
@@ -647,7 +656,8 @@ public final class FitRun implements AutoCloseable {
       String method = update.method() + (unknown.imputed() ? ", imputed" : "");
       UpdateFacts fact;
       if (!update.switches().isEmpty()) {
-        fact = UpdateFacts.switchedToFallback(method, update.evaluationsPerDraw(), update.firstSwitchSweep());
+        fact = UpdateFacts.switchedToFallback(
+            method, update.evaluationsPerDraw(), update.firstSwitchSweep());
         for (String note : update.switches()) {
           switchNotes.add(label + ": " + note);
         }

@@ -188,7 +188,9 @@ public final class FolderLock implements AutoCloseable {
     return missing;
   }
 
-  /** Deletes each folder of {@code folders} (deepest first) that is empty; stops at one that is not. */
+  /**
+   * Deletes each folder of {@code folders} (deepest first) that is empty; stops at one that is not.
+   */
   private static void removeEmpty(List<Path> folders) {
     for (Path p : folders) {
       try {

@@ -66,7 +66,10 @@ public final class InMemoryFit {
         .resume(sampler.sampler().withAdaptation(settings.burnIn()), sink, from);
   }
 
-  /** The unknowns' labels, in state order, then the kept derived quantities' ({@code fit}'s columns). */
+  /**
+   * The unknowns' labels, in state order, then the kept derived quantities' ({@code fit}'s
+   * columns).
+   */
   public List<String> labels() {
     return columns;
   }

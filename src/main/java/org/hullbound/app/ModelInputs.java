@@ -88,7 +88,8 @@ public record ModelInputs(Path modelFile, List<Path> dataFiles, EmptyCells empty
     if (items.size() == 1) {
       return items.get(0);
     }
-    return String.join(", ", items.subList(0, items.size() - 1)) + " and " + items.get(items.size() - 1);
+    return String.join(", ", items.subList(0, items.size() - 1)) + " and "
+        + items.get(items.size() - 1);
   }
 
   /** The model bound to its data. */

@@ -3,9 +3,9 @@ package org.hullbound.app;
 import java.nio.file.Path;
 
 /**
- * Lets a signal stop a run while it starts ({@link FitRun#prepare(FitRequest, PredictiveOptions, StartupGuard)})
- * without leaving its folder locked: the folder lock is taken through this guard, and {@link
- * #stop()} releases it, from whatever thread the signal runs on.
+ * Lets a signal stop a run while it starts ({@link FitRun#prepare(FitRequest, PredictiveOptions,
+ * StartupGuard)}) without leaving its folder locked: the folder lock is taken through this guard,
+ * and {@link #stop()} releases it, from whatever thread the signal runs on.
  *
  * <p>Why here and not in {@link FitRun#close()}: a JVM ending on a signal runs its shutdown hooks
  * and then halts, so the thread that is preparing the run never reaches its {@code finally}; the

@@ -35,7 +35,9 @@ public interface TaskEngine extends AutoCloseable {
     }
   }
 
-  /** Told on the caller's side of each task's result as soon as it is in, with its input's index. */
+  /**
+   * Told on the caller's side of each task's result as soon as it is in, with its input's index.
+   */
   @FunctionalInterface
   interface Finished<R> {
     void accept(int index, R result);

@@ -107,7 +107,8 @@ public final class UnitFit implements TaskEngine.Task<UnitData, UnitOutcome> {
         result = run.run(ProgressListener.none(), stop);
       }
     } catch (IOException io) {
-      return UnitOutcome.failed(unit.name(), seed, "cannot write " + folder + ": " + io.getMessage());
+      return UnitOutcome.failed(
+          unit.name(), seed, "cannot write " + folder + ": " + io.getMessage());
     } catch (RuntimeException failed) {
       return UnitOutcome.failed(unit.name(), seed, message(failed));
     }

@@ -12,7 +12,8 @@ import java.util.List;
  * @param rows the unit's summary.csv records without the header (empty when failed)
  * @param verdict the verdict lines joined by {@code " | "}, or the error when failed
  */
-public record UnitOutcome(String unit, long seed, String status, List<List<String>> rows, String verdict)
+public record UnitOutcome(
+    String unit, long seed, String status, List<List<String>> rows, String verdict)
     implements TaskEngine.Outcome {
   public static final String CONVERGED = "converged";
   public static final String FLAGGED = "flagged";

@@ -42,19 +42,36 @@ public final class CalibrateCommand implements Callable<Integer> {
 
   @Mixin ModelOptions model;
 
-  @Option(names = "--replicates", paramLabel = "N", required = true, description = "Prior draws, each with a simulated data set and a fit.")
+  @Option(
+      names = "--replicates",
+      paramLabel = "N",
+      required = true,
+      description = "Prior draws, each with a simulated data set and a fit.")
   int replicates;
 
-  @Option(names = "--draws", paramLabel = "L", description = "Posterior draws per fit; ranks run 0 .. L (default: ${DEFAULT-VALUE}).")
+  @Option(
+      names = "--draws",
+      paramLabel = "L",
+      description = "Posterior draws per fit; ranks run 0 .. L (default: ${DEFAULT-VALUE}).")
   int draws = CalibrationSettings.DEFAULT_DRAWS;
 
-  @Option(names = "--thin", paramLabel = "K", description = "Sweeps per kept draw (default: ${DEFAULT-VALUE}).")
+  @Option(
+      names = "--thin",
+      paramLabel = "K",
+      description = "Sweeps per kept draw (default: ${DEFAULT-VALUE}).")
   int thin = CalibrationSettings.DEFAULT_THIN;
 
-  @Option(names = "--burn-in", paramLabel = "N", description = "Sweeps discarded per fit (default: ${DEFAULT-VALUE}).")
+  @Option(
+      names = "--burn-in",
+      paramLabel = "N",
+      description = "Sweeps discarded per fit (default: ${DEFAULT-VALUE}).")
   int burnIn = CalibrationSettings.DEFAULT_BURN_IN;
 
-  @Option(names = "--bins", paramLabel = "B", description = "Chi-square bins, a divisor of L + 1 (default: chosen, >= 5 ranks expected per bin).")
+  @Option(
+      names = "--bins",
+      paramLabel = "B",
+      description = "Chi-square bins, a divisor of L + 1 (default: chosen, >= 5 ranks expected per"
+          + " bin).")
   int bins;
 
   @Mixin SeedOption seed;
@@ -68,7 +85,8 @@ public final class CalibrateCommand implements Callable<Integer> {
 
   @Option(
       names = "--overwrite",
-      description = "Replace the files of an earlier calibration in DIR (without it, calibrate refuses to start).")
+      description = "Replace the files of an earlier calibration in DIR (without it, calibrate"
+          + " refuses to start).")
   boolean overwrite;
 
   /** The seed when none is given: calibration repeats exactly unless asked otherwise. */
@@ -82,7 +100,8 @@ public final class CalibrateCommand implements Callable<Integer> {
     PrintWriter stderr = spec.commandLine().getErr();
     CalibrationSettings settings;
     try {
-      settings = new CalibrationSettings(replicates, draws, thin, burnIn, bins, seed.orElse(() -> DEFAULT_SEED));
+      settings = new CalibrationSettings(
+          replicates, draws, thin, burnIn, bins, seed.orElse(() -> DEFAULT_SEED));
       settings.binCount();
     } catch (IllegalArgumentException invalid) {
       int status = ErrorReporting.userError(spec.commandLine(), invalid.getMessage()
@@ -129,7 +148,8 @@ public final class CalibrateCommand implements Callable<Integer> {
     stdout.print(CalibrationText.of(result));
     stdout.println();
     stdout.println("ranks:      " + folder.resolve(CalibrationFiles.RANKS_FILE));
-    stdout.println("histograms: " + (pictures.size() == 1 ? pictures.get(0) : folder.resolve("ranks-*.svg")));
+    stdout.println("histograms: "
+        + (pictures.size() == 1 ? pictures.get(0) : folder.resolve("ranks-*.svg")));
     stdout.flush();
     return result.passes(CalibrationText.LEVEL) ? 0 : ErrorReporting.FAILURE;
   }
@@ -149,7 +169,8 @@ public final class CalibrateCommand implements Callable<Integer> {
           .sorted()
           .toList();
     } catch (IOException e) {
-      throw new UncheckedIOException("cannot list the output folder " + folder + ": " + e.getMessage(), e);
+      throw new UncheckedIOException(
+          "cannot list the output folder " + folder + ": " + e.getMessage(), e);
     }
   }
 

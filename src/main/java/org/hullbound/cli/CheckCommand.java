@@ -178,7 +178,8 @@ public final class CheckCommand implements Callable<Integer> {
   /** What {@code fit --replicate-checks} would compare, per modelled data name. */
   private static void printTestQuantities(TestQuantities tests, PrintWriter out) {
     out.println();
-    out.println("posterior predictive checks (fit --replicate-checks): test quantities per modelled data");
+    out.println(
+        "posterior predictive checks (fit --replicate-checks): test quantities per modelled data");
     if (tests.quantities().isEmpty()) {
       out.println("  none: the model has no observed modelled data");
       return;

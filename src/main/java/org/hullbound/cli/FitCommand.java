@@ -57,10 +57,14 @@ public final class FitCommand implements Callable<Integer> {
   @Option(
       names = "--init",
       paramLabel = "FILE",
-      description = "Starting values: a CSV of name,value rows (natural scale); others start dispersed.")
+      description = "Starting values: a CSV of name,value rows (natural scale); others start"
+          + " dispersed.")
   Path initFile;
 
-  @Option(names = "--threads", paramLabel = "N", description = "Worker threads (default: chains, at most the processors).")
+  @Option(
+      names = "--threads",
+      paramLabel = "N",
+      description = "Worker threads (default: chains, at most the processors).")
   Integer threads;
 
   @Option(names = "--quiet", description = "No progress display.")
@@ -69,12 +73,14 @@ public final class FitCommand implements Callable<Integer> {
   @Option(
       names = "--resume",
       paramLabel = "DIR",
-      description = "Continue the interrupted run whose files are in DIR (its checkpoint.txt): same draws as if never stopped.")
+      description = "Continue the interrupted run whose files are in DIR (its checkpoint.txt):"
+          + " same draws as if never stopped.")
   Path resumeFolder;
 
   @Option(
       names = "--overwrite",
-      description = "Replace the files of an earlier run in DIR (without it, fit refuses to start).")
+      description = "Replace the files of an earlier run in DIR (without it, fit refuses to"
+          + " start).")
   boolean overwrite;
 
   @Mixin LevelOption level;
@@ -83,17 +89,21 @@ public final class FitCommand implements Callable<Integer> {
 
   @Option(
       names = "--replicate-checks",
-      description = "Posterior predictive checks: replicate every modelled data name from each kept sweep and report p-values (DIR/predictive_checks.csv, the report, the terminal).")
+      description = "Posterior predictive checks: replicate every modelled data name from each"
+          + " kept sweep and report p-values (DIR/predictive_checks.csv, the report, the"
+          + " terminal).")
   boolean replicateChecks;
 
   @Option(
       names = "--keep-replicates",
-      description = "With the checks, also write every replicated data set to DIR/replicates.csv (can be far larger than draws.csv).")
+      description = "With the checks, also write every replicated data set to DIR/replicates.csv"
+          + " (can be far larger than draws.csv).")
   boolean keepReplicates;
 
   @Option(
       names = "--no-moves",
-      description = "Leave out the moves along lines that check lists (shift, rescale, direction blocks): one unknown at a time only, for comparisons.")
+      description = "Leave out the moves along lines that check lists (shift, rescale, direction"
+          + " blocks): one unknown at a time only, for comparisons.")
   boolean noMoves;
 
   @CommandLine.Spec CommandLine.Model.CommandSpec spec;

@@ -86,7 +86,8 @@ public final class FitUnitsCommand implements Callable<Integer> {
 
   @Option(
       names = "--overwrite",
-      description = "Replace the files of an earlier batch in DIR (without it, fit-units refuses to start).")
+      description = "Replace the files of an earlier batch in DIR (without it, fit-units refuses"
+          + " to start).")
   boolean overwrite;
 
   @Option(names = "--quiet", description = "No progress display.")

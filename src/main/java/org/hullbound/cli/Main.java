@@ -95,8 +95,8 @@ public final class Main implements Runnable {
   static String outOfMemory(String command, HeapExhaustedException full) {
     long heap = full.heapBytes();
     long suggested = Math.max(1, (2 * heap + (1L << 30) - 1) >> 30);
-    String moreHeap = "give Java more memory (HULLBOUND_JAVA_OPTS=-Xmx" + suggested + "g ./hullbound "
-        + command + " ...)";
+    String moreHeap = "give Java more memory (HULLBOUND_JAVA_OPTS=-Xmx" + suggested
+        + "g ./hullbound " + command + " ...)";
     String fewerRows = "fit fewer rows or data columns";
     String rows = full.dataRows() >= 0 ? "its " + full.dataRows() + " data rows"
         : MemoryBudget.describe(full.dataFileBytes()) + " of data files";

@@ -36,7 +36,9 @@ final class NumberOptions {
     }
   }
 
-  /** A whole number in [lowest, highest]; {@code limit} = highest + 1 = -lowest, exact as a double. */
+  /**
+   * A whole number in [lowest, highest]; {@code limit} = highest + 1 = -lowest, exact as a double.
+   */
   private static long whole(String text, long lowest, long highest, double limit) {
     double value = real(text);
     if (value != Math.rint(value) || Double.isInfinite(value)) {

@@ -34,7 +34,8 @@ public final class ProbabilityOption {
   public static final String FILE_NAME = "probabilities.csv";
 
   private static final Pattern STATEMENT =
-      Pattern.compile("\\s*([A-Za-z_][A-Za-z0-9_.]*)\\s*(?:\\[([^\\]]*)\\])?\\s*([<>])\\s*(\\S+)\\s*");
+      Pattern.compile("\\s*([A-Za-z_][A-Za-z0-9_.]*)\\s*(?:\\[([^\\]]*)\\])?"
+          + "\\s*([<>])\\s*(\\S+)\\s*");
   private static final Pattern RANGE = Pattern.compile("\\s*(\\d+)\\s*\\.\\.\\s*(\\d+)\\s*");
 
   @Option(
@@ -90,7 +91,8 @@ public final class ProbabilityOption {
         long to = Long.parseLong(range.group(2));
         if (from > to || to - from > 1_000_000) {
           throw new RunRefusedException(
-              "--probability '" + text + "': the range " + from + ".." + to + " is empty or too long");
+              "--probability '" + text + "': the range " + from + ".." + to
+                  + " is empty or too long");
         }
         for (long i = from; i <= to; i++) {
           unknowns.add(m.group(1) + "[" + i + "]");
@@ -113,7 +115,8 @@ public final class ProbabilityOption {
   static List<Estimate> estimate(List<Statement> statements, Function<String, double[][]> draws) {
     List<Estimate> estimates = new ArrayList<>();
     for (Statement s : statements) {
-      estimates.add(new Estimate(s, TailShare.of(Draws.of(draws.apply(s.unknown())), s.value(), s.above())));
+      estimates.add(new Estimate(
+          s, TailShare.of(Draws.of(draws.apply(s.unknown())), s.value(), s.above())));
     }
     return estimates;
   }

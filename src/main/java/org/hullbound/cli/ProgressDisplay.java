@@ -105,7 +105,9 @@ final class ProgressDisplay implements ProgressListener {
       rate += chain.sweepsPerSecond();
       drawRate += chain.drawsPerSecond();
       if (chain.inBurnIn()) {
-        cells.append('b').append(chain.burnIn() == 0 ? 100 : chain.sweepsDone() * 100 / chain.burnIn()).append('%');
+        cells.append('b')
+            .append(chain.burnIn() == 0 ? 100 : chain.sweepsDone() * 100 / chain.burnIn())
+            .append('%');
       } else {
         cells.append(chain.drawsDone());
       }
@@ -123,7 +125,8 @@ final class ProgressDisplay implements ProgressListener {
         line.append("  ").append(format(Duration.ofSeconds(seconds))).append(" left");
       }
     }
-    String text = line.length() > MAX_TERMINAL_WIDTH ? line.substring(0, MAX_TERMINAL_WIDTH) : line.toString();
+    String text = line.length() > MAX_TERMINAL_WIDTH
+        ? line.substring(0, MAX_TERMINAL_WIDTH) : line.toString();
     int pad = Math.max(0, lastWidth - text.length());
     err.print('\r' + text + " ".repeat(pad));
     lastWidth = text.length();
@@ -147,7 +150,8 @@ final class ProgressDisplay implements ProgressListener {
       if (progress.inBurnIn()) {
         line.append("burn-in ").append(progress.sweepsDone()).append('/').append(progress.burnIn());
       } else {
-        line.append(progress.drawsDone()).append('/').append(progress.drawsTotal()).append(" draws");
+        line.append(progress.drawsDone()).append('/').append(progress.drawsTotal())
+            .append(" draws");
       }
       line.append(String.format(Locale.ROOT, " %.0f draws/s", progress.drawsPerSecond()));
       if (!progress.finished()) {

@@ -70,7 +70,8 @@ import picocli.CommandLine.Parameters;
             + " checkpoint.txt), without refitting.")
 public final class ReportCommand implements Callable<Integer> {
 
-  private static final Pattern MODEL_NAME = Pattern.compile("(?m)^\\s*model\\s+([A-Za-z_][A-Za-z0-9_]*)");
+  private static final Pattern MODEL_NAME =
+      Pattern.compile("(?m)^\\s*model\\s+([A-Za-z_][A-Za-z0-9_]*)");
 
   @Parameters(index = "0", paramLabel = "DIR", description = "The folder of a fit run.")
   Path folder;
@@ -112,7 +113,8 @@ public final class ReportCommand implements Callable<Integer> {
     Path drawsFile = folder.resolve(DrawsWriter.FILE_NAME);
     if (!Files.isRegularFile(drawsFile)) {
       return userError(
-          stderr, folder + " holds no " + DrawsWriter.FILE_NAME + "; is it the folder of a fit run?");
+          stderr,
+          folder + " holds no " + DrawsWriter.FILE_NAME + "; is it the folder of a fit run?");
     }
     Optional<RunFactsFile.RunFacts> facts;
     Optional<Checkpoint> checkpoint = Optional.empty();

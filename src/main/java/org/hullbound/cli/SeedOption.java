@@ -3,7 +3,9 @@ package org.hullbound.cli;
 import java.util.function.LongSupplier;
 import picocli.CommandLine.Option;
 
-/** {@code --seed}, declared once for every command that draws random numbers, as a picocli mixin. */
+/**
+ * {@code --seed}, declared once for every command that draws random numbers, as a picocli mixin.
+ */
 public final class SeedOption {
 
   @Option(

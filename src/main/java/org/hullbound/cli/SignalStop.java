@@ -55,7 +55,9 @@ final class SignalStop implements AutoCloseable {
     givingUp(command, new StopDeadline.Outcome(StopDeadline.Ending.THRASHING, 0, 0.5));
   }
 
-  /** Registers {@code fit}'s hook now; when the JVM is already shutting down, one that reports so. */
+  /**
+   * Registers {@code fit}'s hook now; when the JVM is already shutting down, one that reports so.
+   */
   static SignalStop install(PrintWriter stderr) {
     return install(
         stderr, "fit", "stopped by a signal before sampling began; no file was written");

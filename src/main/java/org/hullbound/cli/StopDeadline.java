@@ -122,7 +122,9 @@ final class StopDeadline {
     }
   }
 
-  /** The collector's share of the time from sample {@code oldest} to {@code newest}, over a window. */
+  /**
+   * The collector's share of the time from sample {@code oldest} to {@code newest}, over a window.
+   */
   private static double share(long[] times, long[] collected, long oldest, long newest) {
     int first = (int) (oldest % SAMPLES);
     int last = (int) (newest % SAMPLES);

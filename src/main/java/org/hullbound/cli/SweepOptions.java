@@ -16,12 +16,21 @@ public final class SweepOptions {
           + " (default: ${DEFAULT-VALUE}).")
   int chains = RunSettings.DEFAULT_CHAINS;
 
-  @Option(names = "--draws", paramLabel = "N", description = "Kept draws per chain (default: ${DEFAULT-VALUE}).")
+  @Option(
+      names = "--draws",
+      paramLabel = "N",
+      description = "Kept draws per chain (default: ${DEFAULT-VALUE}).")
   int draws = RunSettings.DEFAULT_DRAWS;
 
-  @Option(names = "--burn-in", paramLabel = "N", description = "Sweeps discarded first (default: ${DEFAULT-VALUE}).")
+  @Option(
+      names = "--burn-in",
+      paramLabel = "N",
+      description = "Sweeps discarded first (default: ${DEFAULT-VALUE}).")
   int burnIn = RunSettings.DEFAULT_BURN_IN;
 
-  @Option(names = "--thin", paramLabel = "K", description = "Keep every K-th sweep (default: ${DEFAULT-VALUE}).")
+  @Option(
+      names = "--thin",
+      paramLabel = "K",
+      description = "Keep every K-th sweep (default: ${DEFAULT-VALUE}).")
   int thin = 1;
 }

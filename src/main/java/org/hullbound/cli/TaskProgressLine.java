@@ -34,7 +34,10 @@ final class TaskProgressLine implements TaskEngine.Progress {
     this.start = clock.getAsLong();
   }
 
-  /** A line for {@code command}'s tasks, called {@code noun} (plural), redrawn when {@code terminal}. */
+  /**
+   * A line for {@code command}'s tasks, called {@code noun} (plural), redrawn when {@code
+   * terminal}.
+   */
   static TaskProgressLine of(PrintWriter err, boolean terminal, String command, String noun) {
     return new TaskProgressLine(err, terminal, command, noun, System::nanoTime);
   }

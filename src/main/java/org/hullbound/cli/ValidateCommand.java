@@ -34,13 +34,22 @@ import picocli.CommandLine.Option;
     })
 public final class ValidateCommand implements Callable<Integer> {
 
-  @Option(names = "--case", paramLabel = "NAME", description = "Run only this case; repeat for several (default: all).")
+  @Option(
+      names = "--case",
+      paramLabel = "NAME",
+      description = "Run only this case; repeat for several (default: all).")
   List<String> cases = new ArrayList<>();
 
-  @Option(names = "--draws", paramLabel = "N", description = "Kept draws per chain, at least 100 (default: ${DEFAULT-VALUE}).")
+  @Option(
+      names = "--draws",
+      paramLabel = "N",
+      description = "Kept draws per chain, at least 100 (default: ${DEFAULT-VALUE}).")
   int draws = ValidationSettings.DEFAULT_DRAWS;
 
-  @Option(names = "--burn-in", paramLabel = "N", description = "Sweeps discarded per chain (default: ${DEFAULT-VALUE}).")
+  @Option(
+      names = "--burn-in",
+      paramLabel = "N",
+      description = "Sweeps discarded per chain (default: ${DEFAULT-VALUE}).")
   int burnIn = ValidationSettings.DEFAULT_BURN_IN;
 
   @Mixin SeedOption seed;
@@ -92,14 +101,17 @@ public final class ValidateCommand implements Callable<Integer> {
   static Path defaultSuite() {
     Path code = null;
     try {
-      code = Path.of(ValidateCommand.class.getProtectionDomain().getCodeSource().getLocation().toURI());
+      code = Path.of(
+          ValidateCommand.class.getProtectionDomain().getCodeSource().getLocation().toURI());
     } catch (URISyntaxException | SecurityException | NullPointerException unknownLocation) {
       // No code location (a custom class loader): only the working directory is searched.
     }
     return defaultSuite(Path.of(""), code);
   }
 
-  /** {@link #defaultSuite()} for a working directory and a code location (jar or classes folder). */
+  /**
+   * {@link #defaultSuite()} for a working directory and a code location (jar or classes folder).
+   */
   static Path defaultSuite(Path workingDirectory, Path code) {
     Path here = workingDirectory.resolve(SUITE_FOLDER);
     if (Files.isDirectory(here) || code == null) {

@@ -11,13 +11,15 @@ import java.nio.file.StandardOpenOption;
 import java.util.UUID;
 
 /**
- * Writes a whole file so that readers see either the old content or the new, never half: a temporary
- * file in the same folder, then a rename over the target.
+ * Writes a whole file so that readers see either the old content or the new, never half: a
+ * temporary file in the same folder, then a rename over the target.
  */
 public final class AtomicFiles {
   private AtomicFiles() {}
 
-  /** Replaces {@code target} with {@code text} (UTF-8) atomically, creating its folder if needed. */
+  /**
+   * Replaces {@code target} with {@code text} (UTF-8) atomically, creating its folder if needed.
+   */
   public static void write(Path target, String text) {
     if (target == null || text == null) {
       throw new IllegalArgumentException("target and text must not be null");

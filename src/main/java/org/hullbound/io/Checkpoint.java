@@ -27,7 +27,8 @@ public record Checkpoint(
 
   public Checkpoint {
     if (modelFile == null || inputHash == null || columns == null || chains == null) {
-      throw new IllegalArgumentException("modelFile, inputHash, columns and chains must not be null");
+      throw new IllegalArgumentException(
+          "modelFile, inputHash, columns and chains must not be null");
     }
     if (chains.isEmpty()) {
       throw new IllegalArgumentException("a checkpoint needs at least one chain");

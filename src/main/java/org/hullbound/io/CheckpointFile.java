@@ -31,10 +31,10 @@ public final class CheckpointFile {
   public static final String FILE_NAME = "checkpoint.txt";
 
   /**
-   * The layout this build writes and reads, raised whenever what an updater's {@code save()} writes,
-   * or the draws that follow a restored state, change. Format 1 was written in two layouts: up to
-   * 11200c3, and by the builds of 3 December 2026 (session 6), whose direction blocks also save
-   * their conditional Hessian and whose cheap adaptive rejection path uses random numbers
+   * The layout this build writes and reads, raised whenever what an updater's {@code save()}
+   * writes, or the draws that follow a restored state, change. Format 1 was written in two layouts:
+   * up to 11200c3, and by the builds of 3 December 2026 (session 6), whose direction blocks also
+   * save their conditional Hessian and whose cheap adaptive rejection path uses random numbers
    * otherwise. The file cannot tell them apart, and neither can be continued by this build to the
    * draws its writer would have made, so both are refused by their format.
    */
@@ -173,7 +173,8 @@ public final class CheckpointFile {
         String head = lines.value("chain " + chain);
         String[] parts = head.split(", ");
         if (parts.length != 2 || !parts[0].startsWith("sweep ") || !parts[1].startsWith("draws ")) {
-          throw damaged(name, "line " + lines.number + ": expected 'sweep N, draws N', got " + head);
+          throw damaged(
+              name, "line " + lines.number + ": expected 'sweep N, draws N', got " + head);
         }
         int sweepAt = ("chain " + chain + ": sweep ").length() + 1;
         long sweep = lines.whole(parts[0].substring("sweep ".length()), sweepAt, 0);
@@ -190,7 +191,8 @@ public final class CheckpointFile {
         for (int k = 0; k < updaterCount; k++) {
           long[] words = parseWords(lines.value("updater"));
           String note = lines.value("note");
-          updaters.add(new UpdaterState(words, note.equals("-") ? null : unescape(note.substring(1))));
+          updaters.add(
+              new UpdaterState(words, note.equals("-") ? null : unescape(note.substring(1))));
         }
         if (generator.length != ChainRandom.STATE_LENGTH) {
           throw damaged(name, "chain " + chain + ": the generator needs "
@@ -253,7 +255,8 @@ public final class CheckpointFile {
     long[] words = new long[parts.length];
     for (int k = 0; k < parts.length; k++) {
       if (parts[k].length() != 16) {
-        throw new IllegalArgumentException("expected 16 hexadecimal digits, got '" + parts[k] + "'");
+        throw new IllegalArgumentException(
+            "expected 16 hexadecimal digits, got '" + parts[k] + "'");
       }
       words[k] = HexFormat.fromHexDigitsToLong(parts[k]);
     }

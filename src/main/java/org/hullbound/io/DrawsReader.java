@@ -33,14 +33,14 @@ import org.hullbound.lang.SourcePosition;
  * column and an optional {@code draw} or {@code iteration} column that is not a variable.
  *
  * <p>Diagnostics need complete, numeric draws, so every cell must be a number of the one number
- * grammar ({@link NumberSyntax}, as data cells are read: Java's {@code 22d}, {@code 2.2e1f},
- * {@code 0x1.6p4} are not numbers) or one of {@code NaN}, {@code inf}, {@code -inf} (as {@code
- * fit} writes them); an empty or {@code NA} cell, a ragged row, a repeated column name, a chain
- * label that is not a whole number or a number too large or too small for a double is refused with a {@link ModelException} at {@code
- * file:line:cell}, the problem naming the column. Rows of different chains may interleave (as
- * {@code fit} writes them); within a chain the file order is the draw order. Chains of unequal
- * length (an interrupted run, a foreign file) are cut to the shortest, and {@link
- * DrawsTable#notes()} says so.
+ * grammar ({@link NumberSyntax}, as data cells are read: Java's {@code 22d}, {@code 2.2e1f}, {@code
+ * 0x1.6p4} are not numbers) or one of {@code NaN}, {@code inf}, {@code -inf} (as {@code fit} writes
+ * them); an empty or {@code NA} cell, a ragged row, a repeated column name, a chain label that is
+ * not a whole number or a number too large or too small for a double is refused with a {@link
+ * ModelException} at {@code file:line:cell}, the problem naming the column. Rows of different
+ * chains may interleave (as {@code fit} writes them); within a chain the file order is the draw
+ * order. Chains of unequal length (an interrupted run, a foreign file) are cut to the shortest, and
+ * {@link DrawsTable#notes()} says so.
  */
 public final class DrawsReader {
 

@@ -124,7 +124,8 @@ public final class DrawsWriter implements DrawSink, AutoCloseable {
       }
       throw e instanceof UncheckedIOException unchecked
           ? unchecked
-          : new UncheckedIOException("cannot write " + file + ": " + e.getMessage(), (IOException) e);
+          : new UncheckedIOException(
+              "cannot write " + file + ": " + e.getMessage(), (IOException) e);
     }
   }
 

@@ -155,7 +155,8 @@ public final class TextFiles {
         .onUnmappableCharacter(CodingErrorAction.REPORT);
   }
 
-  private static UncheckedIOException failure(Path file, String what, String why, IOException cause) {
+  private static UncheckedIOException failure(
+      Path file, String what, String why, IOException cause) {
     String message = "cannot read " + what + " " + file + ": " + why;
     return new UncheckedIOException(message, cause != null ? cause : new IOException(message));
   }
