@@ -60,9 +60,9 @@ class PredictiveChecksCalibrationTest {
    * p-value near 1, a count of about 0 below 0.1, rejected with power near 1 (seen on purpose).
    *
    * <p>The mean's p-value is not uniform: it gathers at 1/2, and P(p <= a) <= 2a for every a
-   * (Meng 1994, "Posterior predictive p-values", Annals of Statistics 22, 1142-1160, section 5). Its
-   * count below 0.1 is checked against binomial(200, 0.2), one-sided at level 1e-5. Three checks:
-   * a family-wise false-alarm rate of at most 3e-5.
+   * (Meng 1994, "Posterior predictive p-values", Annals of Statistics 22, 1142-1160, section 5).
+   * Its count below 0.1 is checked against binomial(200, 0.2), one-sided at level 1e-5. Three
+   * checks: a family-wise false-alarm rate of at most 3e-5.
    */
   @Test
   void onDataFromTheModelTheSdPValueIsUniformAndTheMeanPValueNoMoreExtremeThanMengsBound() {

@@ -12,7 +12,8 @@ import org.junit.jupiter.api.io.TempDir;
 
 /**
  * {@code calibrate} runs its replicates on local workers with the same ranks whatever their number;
- * {@code --spark} without the Spark engine on the class path is a usage error that leaves no folder.
+ * {@code --spark} without the Spark engine on the class path is a usage error that leaves no
+ * folder.
  */
 class CalibrateWorkersTest {
   @TempDir Path folder;

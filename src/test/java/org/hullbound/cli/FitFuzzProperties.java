@@ -115,7 +115,10 @@ class FitFuzzProperties {
         usual.list().ofSize(width.size()).map(cells -> String.join(",", cells)));
   }
 
-  /** Files whose rows are mostly {@code validRow}, with odd cells, odd widths and odd headers mixed in. */
+  /**
+   * Files whose rows are mostly {@code validRow}, with odd cells, odd widths and odd headers mixed
+   * in.
+   */
   private static Arbitrary<byte[]> dataFile(
       List<String> columns, Arbitrary<String> usual, Arbitrary<String> validRow) {
     Arbitrary<String> cells = Arbitraries.frequencyOf(
@@ -258,7 +261,9 @@ class FitFuzzProperties {
     }
   }
 
-  /** True when the line would run a valid fit of more than 20 000 sweeps in all: not a fuzz case. */
+  /**
+   * True when the line would run a valid fit of more than 20 000 sweeps in all: not a fuzz case.
+   */
   private static boolean longValidRun(List<String> args) {
     if (!args.get(0).equals("fit")) {
       return false;

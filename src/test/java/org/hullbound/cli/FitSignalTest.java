@@ -34,7 +34,9 @@ class FitSignalTest {
         .start();
   }
 
-  /** SIGTERM to {@code child}: it ends with status 143 and the one line of a stop before sampling. */
+  /**
+   * SIGTERM to {@code child}: it ends with status 143 and the one line of a stop before sampling.
+   */
   private void assertStoppedBeforeSampling(Process child) throws Exception {
     child.destroy(); // SIGTERM
     assertTrue(child.waitFor(30, TimeUnit.SECONDS), "the child ended");

@@ -114,8 +114,8 @@ class MainTest {
     // sampling with few kept draws: the rows fill the heap, fewer draws would not help
     String fewDraws = runOutOfMemory(
         HeapExhaustedException.Stage.SAMPLING, bound.withKeptDrawBytes(heap / 100));
-    assertTrue(fewDraws.startsWith("hullbound fit: out of memory while sampling in a Java heap of "),
-        fewDraws);
+    assertTrue(fewDraws.startsWith(
+        "hullbound fit: out of memory while sampling in a Java heap of "), fewDraws);
     assertTrue(fewDraws.contains(": the model over its 23000000 data rows fills it (the kept"
         + " draws need only about "), fewDraws);
     assertFalse(fewDraws.contains("--draws") || fewDraws.contains("--thin"), fewDraws);

@@ -12,7 +12,9 @@ import java.util.regex.Pattern;
 import javax.xml.parsers.DocumentBuilderFactory;
 import org.w3c.dom.Document;
 
-/** Checks on a {@code report.html} written by {@code fit}: its SVGs are XML, one trace per unknown. */
+/**
+ * Checks on a {@code report.html} written by {@code fit}: its SVGs are XML, one trace per unknown.
+ */
 final class ReportPage {
   private static final Pattern SVG = Pattern.compile("<svg\\b.*?</svg>", Pattern.DOTALL);
   private static final String TRACE = "class=\"plot plot-trace\"";

@@ -121,7 +121,8 @@ class CheckpointFileTest {
   /**
    * A checkpoint of another format (an older build's, or a newer one's) is refused by its format
    * before its words are read with a layout that is not theirs; the message names both formats.
-   * A whole format-1 file from an older build is refused end to end in {@code cli.OldCheckpointTest}.
+   * A whole format-1 file from an older build is refused end to end in {@code
+   * cli.OldCheckpointTest}.
    */
   @Test
   void aCheckpointOfAnotherFormatIsRefusedNamingBothFormats() throws Exception {
@@ -140,7 +141,9 @@ class CheckpointFileTest {
     assertEquals(sample().chains().size(), CheckpointFile.parse("c.txt", current).chains().size());
   }
 
-  /** {@code text} with a check line that fits it, as a hand edit that also fixed the check would. */
+  /**
+   * {@code text} with a check line that fits it, as a hand edit that also fixed the check would.
+   */
   private static String rechecked(String text) {
     String body = text.substring(0, text.lastIndexOf("check: "));
     java.util.zip.CRC32 crc = new java.util.zip.CRC32();
