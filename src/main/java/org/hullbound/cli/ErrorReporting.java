@@ -21,8 +21,9 @@ import picocli.CommandLine;
  * Turns every failure of every command into a message and an exit status, shared by all
  * subcommands: a model or data error prints its positioned rendering and exits 2; a refused run,
  * an unusable starting value, checkpoint, validation case or simulation, or an unreadable file
- * exits 2 with its message; a failed sampling run exits 1 and says where its draws are; anything
- * else exits 1 as an internal error. A stack trace is printed only under {@code --debug}, and then
+ * exits 2 with its message; a failed sampling run exits 1 and says where its draws are; a run
+ * that ran out of heap exits 1 saying where it was and what helps there; anything else exits 1 as
+ * an internal error. A stack trace is printed only under {@code --debug}, and then
  * on every path.
  *
  * <p>Installed once on the top-level command line by {@link Main#commandLine()}, so a new command
