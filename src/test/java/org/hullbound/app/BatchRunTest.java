@@ -48,7 +48,8 @@ class BatchRunTest {
     // Rows of different chains interleave in the order the chains' threads hand them over (the
     // alone fit runs its chains side by side, the batch's unit on one thread), so the rows are
     // compared in chain and draw order: every row, every digit.
-    assertEquals(rowsInChainOrder(alone.resolve("draws.csv")), rowsInChainOrder(kept.resolve("draws.csv")));
+    assertEquals(rowsInChainOrder(alone.resolve("draws.csv")),
+        rowsInChainOrder(kept.resolve("draws.csv")));
     assertArrayEquals(
         Files.readAllBytes(alone.resolve("summary.csv")),
         Files.readAllBytes(kept.resolve("summary.csv")));
@@ -59,8 +60,10 @@ class BatchRunTest {
     Path model = BatchFixture.model(folder);
     Path units = BatchFixture.units(folder, "a", BatchFixture.A, "b", BatchFixture.B);
     List<UnitData> both = BatchUnits.fromFolder(units, List.of());
-    BatchResult one = BatchFixture.run(BatchFixture.request(model, both, folder.resolve("w1"), false), 1);
-    BatchResult two = BatchFixture.run(BatchFixture.request(model, both, folder.resolve("w2"), false), 2);
+    BatchResult one =
+        BatchFixture.run(BatchFixture.request(model, both, folder.resolve("w1"), false), 1);
+    BatchResult two =
+        BatchFixture.run(BatchFixture.request(model, both, folder.resolve("w2"), false), 2);
     assertArrayEquals(Files.readAllBytes(one.summaryFile()), Files.readAllBytes(two.summaryFile()));
     assertArrayEquals(Files.readAllBytes(one.unitsFile()), Files.readAllBytes(two.unitsFile()));
 
@@ -76,7 +79,8 @@ class BatchRunTest {
   void aUnitWithBadDataIsARowWithItsErrorAndTheOthersFinish() throws IOException {
     Path model = BatchFixture.model(folder);
     Path units =
-        BatchFixture.units(folder, "a", BatchFixture.A, "b", BatchFixture.B, "c", BatchFixture.C_BAD);
+        BatchFixture.units(folder, "a", BatchFixture.A, "b", BatchFixture.B, "c",
+            BatchFixture.C_BAD);
     Path out = folder.resolve("batch");
     BatchResult batch =
         BatchFixture.run(
@@ -86,14 +90,16 @@ class BatchRunTest {
     assertEquals(UnitOutcome.FAILED, c.status());
     Path copy = UnitFit.folderOf(out, "c", c.seed()).resolve("y.csv");
     assertEquals(copy + ":3:1: 'seven' in column 'y' is not a number", c.verdict());
-    assertTrue(Files.exists(copy), "a failed unit's folder stays, so that the message's file is there");
+    assertTrue(Files.exists(copy),
+        "a failed unit's folder stays, so that the message's file is there");
     List<String> unitRows = Files.readAllLines(batch.unitsFile());
     assertEquals(4, unitRows.size(), unitRows.toString());
     assertTrue(unitRows.get(3).startsWith("c," + c.seed() + ",failed,"), unitRows.get(3));
     List<String> summary = Files.readAllLines(batch.summaryFile());
     assertEquals(List.of("unit", "unknown"), List.of(summary.get(0).split(",")).subList(0, 2));
     assertEquals(3, summary.size(), "one row for mu in each of a and b: " + summary);
-    assertTrue(summary.get(1).startsWith("a,mu,") && summary.get(2).startsWith("b,mu,"), summary.toString());
+    assertTrue(summary.get(1).startsWith("a,mu,") && summary.get(2).startsWith("b,mu,"),
+        summary.toString());
   }
 
   @Test
@@ -101,16 +107,21 @@ class BatchRunTest {
     Path model = BatchFixture.model(folder);
     Path units = BatchFixture.units(folder, "a", BatchFixture.A, "b", BatchFixture.B);
     Path oneFile =
-        Files.writeString(folder.resolve("all.csv"), "site,y\na,1.2\nb,-0.5\na,0.4\nb,-1.1\na,2.1\nb,0.2\na,1.7\n");
+        Files.writeString(folder.resolve("all.csv"),
+            "site,y\na,1.2\nb,-0.5\na,0.4\nb,-1.1\na,2.1\nb,0.2\na,1.7\n");
     BatchResult byFolder =
         BatchFixture.run(
-            BatchFixture.request(model, BatchUnits.fromFolder(units, List.of()), folder.resolve("f"), false), 2);
+            BatchFixture.request(model, BatchUnits.fromFolder(units, List.of()),
+                folder.resolve("f"), false), 2);
     BatchResult byColumn =
         BatchFixture.run(
-            BatchFixture.request(model, BatchUnits.byColumn(List.of(oneFile), "site"), folder.resolve("c"), false), 2);
+            BatchFixture.request(model, BatchUnits.byColumn(List.of(oneFile), "site"),
+                folder.resolve("c"), false), 2);
     assertEquals(Files.readString(byFolder.unitsFile()), Files.readString(byColumn.unitsFile()));
-    assertArrayEquals(Files.readAllBytes(byFolder.summaryFile()), Files.readAllBytes(byColumn.summaryFile()));
-    assertArrayEquals(Files.readAllBytes(byFolder.unitsFile()), Files.readAllBytes(byColumn.unitsFile()));
+    assertArrayEquals(Files.readAllBytes(byFolder.summaryFile()),
+        Files.readAllBytes(byColumn.summaryFile()));
+    assertArrayEquals(Files.readAllBytes(byFolder.unitsFile()),
+        Files.readAllBytes(byColumn.unitsFile()));
   }
 
   @Test
@@ -118,19 +129,25 @@ class BatchRunTest {
     Path model = BatchFixture.model(folder);
     Path oneFile = Files.writeString(folder.resolve("all.csv"), "site,y\na,1\n,2\n");
     RunRefusedException noColumn =
-        assertThrows(RunRefusedException.class, () -> BatchUnits.byColumn(List.of(oneFile), "region"));
-    assertTrue(noColumn.getMessage().contains("no --data file has a column named 'region'"), noColumn.getMessage());
+        assertThrows(RunRefusedException.class,
+            () -> BatchUnits.byColumn(List.of(oneFile), "region"));
+    assertTrue(noColumn.getMessage().contains("no --data file has a column named 'region'"),
+        noColumn.getMessage());
     RunRefusedException emptyCell =
-        assertThrows(RunRefusedException.class, () -> BatchUnits.byColumn(List.of(oneFile), "site"));
+        assertThrows(RunRefusedException.class,
+            () -> BatchUnits.byColumn(List.of(oneFile), "site"));
     assertTrue(emptyCell.getMessage().startsWith(oneFile + ":3: "), emptyCell.getMessage());
-    assertThrows(RunRefusedException.class, () -> BatchUnits.fromFolder(Files.createDirectories(folder.resolve("empty")), List.of()));
+    assertThrows(RunRefusedException.class,
+        () -> BatchUnits.fromFolder(Files.createDirectories(folder.resolve("empty")), List.of()));
 
     Path units = BatchFixture.units(folder, "a", BatchFixture.A);
     Path out = folder.resolve("batch");
-    BatchFixture.run(BatchFixture.request(model, BatchUnits.fromFolder(units, List.of()), out, false), 1);
+    BatchFixture.run(BatchFixture.request(model, BatchUnits.fromFolder(units, List.of()), out,
+        false), 1);
     RunRefusedException earlier =
         assertThrows(RunRefusedException.class,
-            () -> BatchRun.prepare(BatchFixture.request(model, BatchUnits.fromFolder(units, List.of()), out, false)));
+            () -> BatchRun.prepare(BatchFixture.request(model,
+                BatchUnits.fromFolder(units, List.of()), out, false)));
     assertTrue(earlier.getMessage().contains("holds an earlier batch"), earlier.getMessage());
   }
 

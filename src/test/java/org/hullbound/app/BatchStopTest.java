@@ -90,8 +90,10 @@ class BatchStopTest {
     BatchResult resumed = resume(out);
     assertTrue(resumed.complete());
     assertEquals(whole.outcomes(), resumed.outcomes());
-    assertArrayEquals(Files.readAllBytes(whole.unitsFile()), Files.readAllBytes(resumed.unitsFile()));
-    assertArrayEquals(Files.readAllBytes(whole.summaryFile()), Files.readAllBytes(resumed.summaryFile()));
+    assertArrayEquals(Files.readAllBytes(whole.unitsFile()),
+        Files.readAllBytes(resumed.unitsFile()));
+    assertArrayEquals(Files.readAllBytes(whole.summaryFile()),
+        Files.readAllBytes(resumed.summaryFile()));
   }
 
   @Test
@@ -116,8 +118,10 @@ class BatchStopTest {
           () -> run.run(engine, TaskEngine.Progress.none(), StopSignal.create(), fillsUp));
     }
     assertTrue(full.getMessage().startsWith("cannot write " + out.resolve(BatchRun.SUMMARY_FILE)
-        + ": No space left on device; the 2 of 6 units that finished are kept in " + out), full.getMessage());
-    assertTrue(full.getMessage().endsWith("; --resume " + out + " fits the others"), full.getMessage());
+        + ": No space left on device; the 2 of 6 units that finished are kept in "
+        + out), full.getMessage());
+    assertTrue(full.getMessage().endsWith("; --resume " + out + " fits the others"),
+        full.getMessage());
     BatchResult whole = uninterrupted();
     String summary = Files.readString(out.resolve(BatchRun.SUMMARY_FILE));
     assertTrue(summary.endsWith("\r\n"), "whole rows only: " + summary);
@@ -126,8 +130,10 @@ class BatchStopTest {
     assertTrue(lines(whole.summaryFile()).containsAll(lines(out.resolve(BatchRun.SUMMARY_FILE))));
 
     BatchResult resumed = resume(out);
-    assertArrayEquals(Files.readAllBytes(whole.summaryFile()), Files.readAllBytes(resumed.summaryFile()));
-    assertArrayEquals(Files.readAllBytes(whole.unitsFile()), Files.readAllBytes(resumed.unitsFile()));
+    assertArrayEquals(Files.readAllBytes(whole.summaryFile()),
+        Files.readAllBytes(resumed.summaryFile()));
+    assertArrayEquals(Files.readAllBytes(whole.unitsFile()),
+        Files.readAllBytes(resumed.unitsFile()));
   }
 
   @Test
@@ -150,8 +156,10 @@ class BatchStopTest {
 
     BatchResult resumed = resume(out);
     BatchResult whole = uninterrupted();
-    assertArrayEquals(Files.readAllBytes(whole.summaryFile()), Files.readAllBytes(resumed.summaryFile()));
-    assertArrayEquals(Files.readAllBytes(whole.unitsFile()), Files.readAllBytes(resumed.unitsFile()));
+    assertArrayEquals(Files.readAllBytes(whole.summaryFile()),
+        Files.readAllBytes(resumed.summaryFile()));
+    assertArrayEquals(Files.readAllBytes(whole.unitsFile()),
+        Files.readAllBytes(resumed.unitsFile()));
   }
 
   @Test
@@ -165,10 +173,13 @@ class BatchStopTest {
     List<String> units = lines(whole.unitsFile());
     Files.writeString(out.resolve(BatchRun.SUMMARY_FILE),
         String.join("\r\n", summary.subList(0, 4)) + "\r\n" + summary.get(4).substring(0, 9));
-    Files.writeString(out.resolve(BatchRun.UNITS_FILE), String.join("\r\n", units.subList(0, 3)) + "\r\n");
+    Files.writeString(out.resolve(BatchRun.UNITS_FILE),
+        String.join("\r\n", units.subList(0, 3)) + "\r\n");
     BatchResult resumed = resume(out);
-    assertArrayEquals(Files.readAllBytes(whole.summaryFile()), Files.readAllBytes(resumed.summaryFile()));
-    assertArrayEquals(Files.readAllBytes(whole.unitsFile()), Files.readAllBytes(resumed.unitsFile()));
+    assertArrayEquals(Files.readAllBytes(whole.summaryFile()),
+        Files.readAllBytes(resumed.summaryFile()));
+    assertArrayEquals(Files.readAllBytes(whole.unitsFile()),
+        Files.readAllBytes(resumed.unitsFile()));
   }
 
   @Test
@@ -176,12 +187,14 @@ class BatchStopTest {
     BatchResult whole = uninterrupted();
     Path out = whole.folder();
     RunRefusedException finished =
-        assertThrows(RunRefusedException.class, () -> BatchRun.prepare(request(null).resuming(out)));
+        assertThrows(RunRefusedException.class,
+            () -> BatchRun.prepare(request(null).resuming(out)));
     assertEquals("the batch in " + out + " is finished (every unit has its row in units.csv):"
         + " nothing to resume", finished.getMessage());
 
     List<String> units = lines(whole.unitsFile());
-    Files.writeString(out.resolve(BatchRun.UNITS_FILE), String.join("\r\n", units.subList(0, 3)) + "\r\n");
+    Files.writeString(out.resolve(BatchRun.UNITS_FILE),
+        String.join("\r\n", units.subList(0, 3)) + "\r\n");
     BatchRequest asked = request(null);
     BatchRequest otherDraws =
         new BatchRequest(asked.modelFile(), asked.units(), null, null, 300, null, 12L, null, false,
@@ -196,13 +209,15 @@ class BatchStopTest {
     BatchRequest otherData =
         new BatchRequest(asked.modelFile(), changed, null, null, null, null, null, null, false,
             null, asked.emptyCells(), false, out);
-    RunRefusedException data = assertThrows(RunRefusedException.class, () -> BatchRun.prepare(otherData));
+    RunRefusedException data =
+        assertThrows(RunRefusedException.class, () -> BatchRun.prepare(otherData));
     assertTrue(data.getMessage().startsWith("the model or the units' data changed since the batch in "
         + out + " was stopped"), data.getMessage());
 
     Path empty = Files.createDirectories(folder.resolve("empty"));
     RunRefusedException none =
-        assertThrows(RunRefusedException.class, () -> BatchRun.prepare(request(null).resuming(empty)));
+        assertThrows(RunRefusedException.class,
+            () -> BatchRun.prepare(request(null).resuming(empty)));
     assertTrue(none.getMessage().startsWith("no batch to resume in " + empty), none.getMessage());
     // the refusals left the stopped batch as it was, and resumable
     assertEquals(3, lines(out.resolve(BatchRun.UNITS_FILE)).size());
@@ -214,7 +229,8 @@ class BatchStopTest {
     Path out = folder.resolve("held");
     try (BatchRun first = BatchRun.prepare(request(out))) {
       RunRefusedException inUse =
-          assertThrows(RunRefusedException.class, () -> BatchRun.prepare(request(null).resuming(out)));
+          assertThrows(RunRefusedException.class,
+              () -> BatchRun.prepare(request(null).resuming(out)));
       assertTrue(inUse.getMessage().contains("is in use by another run"), inUse.getMessage());
     }
   }

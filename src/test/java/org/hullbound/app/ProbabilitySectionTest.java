@@ -50,9 +50,11 @@ class ProbabilitySectionTest {
     DrawsTable written = DrawsReader.read(result.drawsFile());
     for (int chain = 0; chain < 2; chain++) {
       assertArrayEquals(written.draws("mu")[chain], seen.get(0)[chain], "mu, chain " + chain);
-      assertArrayEquals(written.draws("doubled")[chain], seen.get(1)[chain], "doubled, chain " + chain);
+      assertArrayEquals(written.draws("doubled")[chain], seen.get(1)[chain],
+          "doubled, chain " + chain);
     }
     String page = Files.readString(result.reportFile());
-    assertTrue(page.contains("mu &gt; 0.123456") || page.contains("mu > 0.123456"), "the table is on the page");
+    assertTrue(page.contains("mu &gt; 0.123456") || page.contains("mu > 0.123456"),
+        "the table is on the page");
   }
 }

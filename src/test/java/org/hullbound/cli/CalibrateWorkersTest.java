@@ -43,7 +43,8 @@ class CalibrateWorkersTest {
   void sparkWithoutTheEngineIsRefusedAndLeavesNoFolder() {
     CliRun spark = calibrate("spark", "--spark");
     assertEquals(2, spark.exit(), spark.toString());
-    assertTrue(spark.err().startsWith("hullbound calibrate: this hullbound has no spark engine"), spark.err());
+    assertTrue(spark.err().startsWith("hullbound calibrate: this hullbound has no spark engine"),
+        spark.err());
     assertFalse(Files.exists(folder.resolve("spark")));
   }
 }

@@ -17,13 +17,15 @@ class CensoredCheckTest {
   void theWellsDemoSaysWhichRuleCoversEachUnknown() {
     CliRun run = CliRun.of("check", "models/wells.hbm", "--data", "models/wells.csv");
     assertEquals(0, run.exit(), run.err());
-    assertTrue(run.out().contains("censored lognormal terms concave in meanlog (a censored term"), run.out());
+    assertTrue(run.out().contains("censored lognormal terms concave in meanlog (a censored term"),
+        run.out());
     assertTrue(run.out().contains("no rule shows a censored lognormal term log-concave in log(sdlog)"),
         run.out());
   }
 
   @Test
-  void reversedLimitsStopWithThePositionOfTheCellAndExitTwo(@TempDir Path folder) throws IOException {
+  void reversedLimitsStopWithThePositionOfTheCellAndExitTwo(@TempDir Path folder)
+      throws IOException {
     Path model = folder.resolve("levels.hbm");
     Files.writeString(model, """
         index sample
@@ -35,7 +37,8 @@ class CensoredCheckTest {
     Files.writeString(data, "level,lo,hi\n,0.5,1.5\n,2.5,2.0\n");
     CliRun run = CliRun.of("check", model.toString(), "--data", data.toString());
     assertEquals(2, run.exit(), run.out());
-    assertTrue(run.err().contains(data + ":3:2: the lower limit 2.5 of 'level[2]' is above its upper limit 2"),
+    assertTrue(run.err().contains(data
+        + ":3:2: the lower limit 2.5 of 'level[2]' is above its upper limit 2"),
         run.err());
     assertFalse(run.err().contains("at org.hullbound"), run.err());
   }
@@ -45,7 +48,8 @@ class CensoredCheckTest {
     CliRun run = CliRun.of("calibrate", "models/wells.hbm", "--data", "models/wells.csv",
         "--replicates", "10", "--draws", "9", "--out", "target/censored-calibration");
     assertEquals(2, run.exit(), run.out());
-    assertTrue(run.err().contains("cannot simulate model wells: 'nitrate' is censored (line 13)"), run.err());
+    assertTrue(run.err().contains("cannot simulate model wells: 'nitrate' is censored (line 13)"),
+        run.err());
   }
 
   @Test

@@ -50,7 +50,8 @@ class CheckpointFormatTest {
    * flag 355, expected 0 or 1").
    */
   @Test
-  void aCheckpointOfAnOlderBuildIsRefusedWithExitTwoNamingItsFormatAndTheOneRead() throws Exception {
+  void aCheckpointOfAnOlderBuildIsRefusedWithExitTwoNamingItsFormatAndTheOneRead()
+      throws Exception {
     Path old = folder.resolve("old");
     Files.createDirectories(old);
     try (InputStream saved =
@@ -107,7 +108,8 @@ class CheckpointFormatTest {
     }
     Checkpoint checkpoint = CheckpointFile.read(stopped);
     long sweep = checkpoint.chains().get(0).sweep();
-    assertTrue(sweep > 100 && sweep < 100 + draws, "stopped after burn-in, before the end: " + sweep);
+    assertTrue(sweep > 100 && sweep < 100 + draws,
+        "stopped after burn-in, before the end: " + sweep);
 
     // the same checkpoint without its last updater: another version's sampler of the model
     Path other = folder.resolve("other");

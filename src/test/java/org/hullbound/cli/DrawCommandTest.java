@@ -52,12 +52,14 @@ class DrawCommandTest {
 
   @Test
   void standardNormalLogDensityGivesStandardNormalDraws() {
-    CliRun run = CliRun.of("draw", "--log-density", "-x^2/2", "-n", "" + DRAWS, "--seed", "20261201");
+    CliRun run =
+        CliRun.of("draw", "--log-density", "-x^2/2", "-n", "" + DRAWS, "--seed", "20261201");
     assertEquals(0, run.exit(), run.err());
     double[] draws = parseDraws(run.out());
     assertEquals(DRAWS, draws.length);
     // Reference: commons-math3 NormalDistribution(0, 1).
-    double p = new KolmogorovSmirnovTest().kolmogorovSmirnovTest(new NormalDistribution(0, 1), draws);
+    double p =
+        new KolmogorovSmirnovTest().kolmogorovSmirnovTest(new NormalDistribution(0, 1), draws);
     assertTrue(p > LEVEL, "KS p-value " + p);
   }
 
@@ -202,7 +204,8 @@ class DrawCommandTest {
     assertEquals(proposals, squeeze + density + byHull + byDensity, err);
     assertTrue(byHull > 0, "this seed has rejections by the hull: " + err);
     long evaluations = counter(err, "density evaluations");
-    assertTrue(err.contains("  density evaluations     " + evaluations + "  (2 for the starting hull + "
+    assertTrue(err.contains("  density evaluations     " + evaluations
+        + "  (2 for the starting hull + "
         + (density + byDensity) + " judged by density; "), err);
     assertEquals(evaluations, 2 + density + byDensity, err);
   }
@@ -240,8 +243,10 @@ class DrawCommandTest {
   @Test
   void badBoundsAreUsageErrors() {
     String[][] cases = {
-      {"--lower", "zero", "hullbound draw: --lower must be a number, inf or -inf: 'zero' is not a number"},
-      {"--upper", "NaN", "hullbound draw: --upper must be a number, inf or -inf: 'NaN' is not a number"},
+      {"--lower", "zero",
+          "hullbound draw: --lower must be a number, inf or -inf: 'zero' is not a number"},
+      {"--upper", "NaN",
+          "hullbound draw: --upper must be a number, inf or -inf: 'NaN' is not a number"},
       {"--lower", "inf", "hullbound draw: --lower must be below inf, got inf"},
       {"--upper", "-inf", "hullbound draw: --upper must be above -inf, got -inf"},
       {"--lower", "1e999", "hullbound draw: --lower must be a number, inf or -inf: '1e999' is too large to represent"},

@@ -136,11 +136,13 @@ class FitFuzzProperties {
             net.jqwik.api.Tuple.of(2, Arbitraries.of(String.join(",", reversed),
                 String.join(",", dropped), String.join(",", extra), String.join(",", doubled),
                 "\uFEFF" + String.join(",", columns), String.join(";", columns), "",
-                String.join(",", columns).toUpperCase(), "\"" + String.join("\",\"", columns) + "\"",
+                String.join(",", columns).toUpperCase(), "\"" + String.join("\",\"",
+                    columns) + "\"",
                 "é," + String.join(",", dropped))));
     Arbitrary<String> row = Arbitraries.frequencyOf(
         net.jqwik.api.Tuple.of(12, validRow),
-        net.jqwik.api.Tuple.of(4, cells.list().ofSize(columns.size()).map(l -> String.join(",", l))),
+        net.jqwik.api.Tuple.of(4,
+            cells.list().ofSize(columns.size()).map(l -> String.join(",", l))),
         net.jqwik.api.Tuple.of(1, cells.list().ofMinSize(0).ofMaxSize(columns.size() + 1)
             .map(list -> String.join(",", list))));
     Arbitrary<String> text = Combinators.combine(
@@ -163,7 +165,8 @@ class FitFuzzProperties {
   // ---------------------------------------------------------------- command lines
 
   @Property(tries = 250, edgeCases = EdgeCasesMode.MIXIN, seed = "20261204")
-  void anyCommandLineEndsCleanlyAndLeavesAnEarlierRunAlone(@ForAll("commandLines") List<String> args) {
+  void anyCommandLineEndsCleanlyAndLeavesAnEarlierRunAlone(
+      @ForAll("commandLines") List<String> args) {
     Assume.that(!longValidRun(args));
     CliRun run = CliRun.of(args.toArray(String[]::new));
     assertCleanEnd(run);

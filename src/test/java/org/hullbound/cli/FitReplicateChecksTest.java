@@ -170,8 +170,10 @@ class FitReplicateChecksTest {
     assertEquals("0.5", by.get("zeros").get(3));
     for (int column : new int[] {5, 6, 7}) {
       assertEquals(by.get("max").get(column), by.get("top").get(column), "max, column " + column);
-      assertEquals(by.get("min").get(column), by.get("bottom").get(column), "min, column " + column);
-      assertEquals(by.get("zero_share").get(column), by.get("zeros").get(column), "zeros, column " + column);
+      assertEquals(by.get("min").get(column), by.get("bottom").get(column),
+          "min, column " + column);
+      assertEquals(by.get("zero_share").get(column), by.get("zeros").get(column),
+          "zeros, column " + column);
     }
   }
 
@@ -204,7 +206,8 @@ class FitReplicateChecksTest {
     Files.delete(out.resolve(PredictiveChecks.SWEEPS_FILE));
     assertEquals(0, CliRun.of("report", out.toString()).exit());
     String older = predictiveSection(Files.readString(out.resolve("report.html")));
-    assertTrue(older.contains("(no histogram: the run folder has no predictive_sweeps.csv)"), older);
+    assertTrue(older.contains("(no histogram: the run folder has no predictive_sweeps.csv)"),
+        older);
   }
 
   private static String predictiveSection(String page) {

@@ -63,7 +63,8 @@ class FitResumeTest {
     Map<String, List<String>> byChain = new LinkedHashMap<>();
     byChain.put("header", List.of(lines.get(0)));
     for (String line : lines.subList(1, lines.size())) {
-      byChain.computeIfAbsent(line.substring(0, line.indexOf(',')), c -> new ArrayList<>()).add(line);
+      byChain.computeIfAbsent(line.substring(0, line.indexOf(',')),
+          c -> new ArrayList<>()).add(line);
     }
     return byChain;
   }
@@ -121,7 +122,8 @@ class FitResumeTest {
     assertTrue(corrupt.errorIsPlain(), corrupt.toString());
 
     // A cut last line (as a crash while writing would leave) is dropped before appending.
-    Files.writeString(draws, "1,99", StandardCharsets.UTF_8, java.nio.file.StandardOpenOption.APPEND);
+    Files.writeString(draws, "1,99", StandardCharsets.UTF_8,
+        java.nio.file.StandardOpenOption.APPEND);
 
     // The stopped run had two threads; the resumed one has one thread for both chains.
     // Predictive checks asked for only now replicate the draws made before the stop as well.

@@ -57,7 +57,8 @@ class FitSafetyTest {
     CliRun replaced = fit(out, "--seed", "2", "--overwrite");
     assertEquals(0, replaced.exit(), replaced.toString());
     assertNotEquals(draws, Files.readString(out.resolve("draws.csv")), "new draws");
-    assertTrue(Files.readString(out.resolve("report.html")).contains(">2<"), "seed 2 in the report");
+    assertTrue(Files.readString(out.resolve("report.html")).contains(">2<"),
+        "seed 2 in the report");
   }
 
   @Test
@@ -139,45 +140,58 @@ class FitSafetyTest {
             f -> List.of("fit", write(f, "broken.hbm", "param mu ~ normal(mean = 0, sd = 1\n")),
             "broken.hbm:1:18:"),
         row("unknown name in the model",
-            f -> List.of("fit", write(f, "unbound.hbm", "model m\nparam mu ~ normal(mean = nu, sd = 1)\n")),
+            f -> List.of("fit",
+                write(f, "unbound.hbm", "model m\nparam mu ~ normal(mean = nu, sd = 1)\n")),
             "unbound.hbm:2:26:", "'nu'"),
         row("model file missing", f -> List.of("fit", f.resolve("none.hbm").toString()),
             "none.hbm", "no such file"),
-        row("model file is a folder", f -> List.of("fit", f.toString()), f -> f.toString(), "folder"),
+        row("model file is a folder", f -> List.of("fit", f.toString()), f -> f.toString(),
+            "folder"),
         row("model file is not UTF-8",
             f -> List.of("fit", writeBytes(f, "bytes.hbm", new byte[] {'m', (byte) 0xC3, '(', 0})),
             "bytes.hbm", "not UTF-8", "byte 2"),
         row("data cell not a number",
-            f -> List.of("fit", MODEL, "--data", write(f, "bad.csv", "planted,bench_of,survived\n22,1,16\n25,x,19\n")),
+            f -> List.of("fit", MODEL, "--data",
+                write(f, "bad.csv", "planted,bench_of,survived\n22,1,16\n25,x,19\n")),
             "bad.csv:3:2:", "'x'"),
         row("ragged data row",
-            f -> List.of("fit", MODEL, "--data", write(f, "ragged.csv", "planted,bench_of,survived\n22,1\n")),
+            f -> List.of("fit", MODEL, "--data",
+                write(f, "ragged.csv", "planted,bench_of,survived\n22,1\n")),
             "ragged.csv:2:"),
         row("data column missing",
             f -> List.of("fit", MODEL, "--data", write(f, "short.csv", "planted,bench_of\n22,1\n")),
             "seedlings.hbm:", "survived"),
-        row("data file missing", f -> List.of("fit", MODEL, "--data", f.resolve("no.csv").toString()),
+        row("data file missing",
+            f -> List.of("fit", MODEL, "--data", f.resolve("no.csv").toString()),
             "no.csv", "no such file"),
         row("data file is a folder", f -> List.of("fit", MODEL, "--data", f.toString()),
             f -> f.toString(), "folder"),
         row("starting value not a number",
-            f -> List.of("fit", MODEL, "--data", DATA, "--init", write(f, "init.csv", "centre,abc\n")),
+            f -> List.of("fit", MODEL, "--data", DATA, "--init",
+                write(f, "init.csv", "centre,abc\n")),
             "init.csv:1:8:"),
         row("starting value names no unknown",
-            f -> List.of("fit", MODEL, "--data", DATA, "--init", write(f, "name.csv", "center,1\n")),
+            f -> List.of("fit", MODEL, "--data", DATA, "--init",
+                write(f, "name.csv", "center,1\n")),
             "name.csv", "'center'"),
         row("starting value outside the support",
-            f -> List.of("fit", MODEL, "--data", DATA, "--init", write(f, "neg.csv", "spread,-1\n")),
+            f -> List.of("fit", MODEL, "--data", DATA, "--init",
+                write(f, "neg.csv", "spread,-1\n")),
             "neg.csv", "spread = -1,", "(0, inf)"),
         row("starting values file missing",
             f -> List.of("fit", MODEL, "--data", DATA, "--init", f.resolve("gone.csv").toString()),
             "gone.csv:1:1:"),
-        row("--chains 0", f -> List.of("fit", MODEL, "--data", DATA, "--chains", "0"), "--chains", "0"),
-        row("--draws -3", f -> List.of("fit", MODEL, "--data", DATA, "--draws", "-3"), "--draws", "-3"),
+        row("--chains 0", f -> List.of("fit", MODEL, "--data", DATA, "--chains", "0"), "--chains",
+            "0"),
+        row("--draws -3", f -> List.of("fit", MODEL, "--data", DATA, "--draws", "-3"), "--draws",
+            "-3"),
         row("--thin 0", f -> List.of("fit", MODEL, "--data", DATA, "--thin", "0"), "--thin", "0"),
-        row("--burn-in -1", f -> List.of("fit", MODEL, "--data", DATA, "--burn-in", "-1"), "--burn-in", "-1"),
-        row("--threads 0", f -> List.of("fit", MODEL, "--data", DATA, "--threads", "0"), "--threads", "0"),
-        row("--draws not a number", f -> List.of("fit", MODEL, "--draws", "many"), "--draws", "'many'"),
+        row("--burn-in -1", f -> List.of("fit", MODEL, "--data", DATA, "--burn-in", "-1"),
+            "--burn-in", "-1"),
+        row("--threads 0", f -> List.of("fit", MODEL, "--data", DATA, "--threads", "0"),
+            "--threads", "0"),
+        row("--draws not a number", f -> List.of("fit", MODEL, "--draws", "many"), "--draws",
+            "'many'"),
         row("--draws beyond an int", f -> List.of("fit", MODEL, "--draws", "99999999999"),
             "--draws", "99999999999"),
         row("sweeps beyond an int",
@@ -198,7 +212,8 @@ class FitSafetyTest {
   }
 
   private static Arguments row(
-      String what, Function<Path, List<String>> args, Function<Path, String> file, String... named) {
+      String what, Function<Path, List<String>> args, Function<Path, String> file,
+      String... named) {
     return Arguments.of(what, args, (Function<Path, List<String>>) f -> {
       List<String> all = new ArrayList<>(List.of(named));
       all.add(file.apply(f));

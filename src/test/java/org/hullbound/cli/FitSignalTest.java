@@ -100,7 +100,8 @@ class FitSignalTest {
   void aConditionalTheHullCannotFollowFailsTheRunInsteadOfHanging() throws Exception {
     // issue 14: the seedlings data with tray 1 planted with 1e15 seeds hung this fit at full CPU
     Path data = folder.resolve("seedlings.csv");
-    List<String> lines = new java.util.ArrayList<>(Files.readAllLines(Path.of("models", "seedlings.csv")));
+    List<String> lines =
+        new java.util.ArrayList<>(Files.readAllLines(Path.of("models", "seedlings.csv")));
     lines.set(1, "1e15,1,16");
     Files.write(data, lines);
     Process child =
@@ -118,7 +119,8 @@ class FitSignalTest {
     assertTrue(first.contains("updating effect[1] (adaptive rejection, then ARMS fallback): the full"
         + " conditional is numerically degenerate for the fallback: adaptive rejection Metropolis"
         + " from current value "), err);
-    assertTrue(first.contains(" on support (-inf, inf) accepted no candidate in 100000 tries"), err);
+    assertTrue(first.contains(" on support (-inf, inf) accepted no candidate in 100000 tries"),
+        err);
     assertTrue(first.contains(" abscissae run from "), err);
     assertEquals(2, err.lines().count(), "one line and where the draws are: " + err);
     assertFalse(err.contains("Exception"), err);

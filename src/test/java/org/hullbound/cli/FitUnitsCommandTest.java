@@ -68,11 +68,13 @@ class FitUnitsCommandTest {
   @Test
   void theProgressLineCountsDoneFailedAndLeftAndEstimatesTheTimeLeft() {
     TaskProgressLine line =
-        TaskProgressLine.of(new PrintWriter(new StringWriter()), false, "fit-units", "units", () -> 0L);
+        TaskProgressLine.of(new PrintWriter(new StringWriter()), false, "fit-units", "units",
+            () -> 0L);
     // 12 units in 30 s: 2.5 s each, so 28 more take 70 s.
     assertEquals("hullbound fit-units: 12 of 40 units done, 1 failed, 28 left, about 1m10s left",
         line.text(12, 1, 40, Duration.ofSeconds(30)));
-    assertEquals("hullbound calibrate: 40 of 40 units done", line.text(40, 0, 40, Duration.ofSeconds(30))
+    assertEquals("hullbound calibrate: 40 of 40 units done",
+        line.text(40, 0, 40, Duration.ofSeconds(30))
         .replace("fit-units", "calibrate"));
   }
 }

@@ -35,7 +35,8 @@ class FitUnitsStopTest {
     StringBuilder text = new StringBuilder("site,y\n");
     for (int site = 0; site < UNITS; site++) {
       for (int k = 0; k < 8; k++) {
-        text.append(String.format("s%02d,%.2f%n", site, 0.1 * site + ((k * 7 + site) % 5 - 2) * 0.4));
+        text.append(String.format("s%02d,%.2f%n", site,
+            0.1 * site + ((k * 7 + site) % 5 - 2) * 0.4));
       }
     }
     return Files.writeString(folder.resolve("all.csv"), text.toString());
@@ -91,7 +92,8 @@ class FitUnitsStopTest {
     String last = lines.get(lines.size() - 1);
     int kept = GatedTasks.OPEN;
     assertEquals(
-        "hullbound fit-units: stopped by a signal; " + kept + " of 12 units finished and are kept in "
+        "hullbound fit-units: stopped by a signal; " + kept
+            + " of 12 units finished and are kept in "
             + out + "; to fit the other " + (UNITS - kept) + ": hullbound fit-units " + model
             + " --unit-column site --data " + data + " --spark --resume " + out,
         last, err);
@@ -108,10 +110,12 @@ class FitUnitsStopTest {
     assertTrue(resumed.err().contains("resuming " + out + ": " + kept + " units finished before, "
         + (UNITS - kept) + " to fit"), resumed.err());
     Path whole = folder.resolve("whole");
-    CliRun uninterrupted = CliRun.of(arguments(model, data, "--out", whole.toString()).toArray(String[]::new));
+    CliRun uninterrupted =
+        CliRun.of(arguments(model, data, "--out", whole.toString()).toArray(String[]::new));
     assertEquals(0, uninterrupted.exit(), uninterrupted.toString());
     for (String file : List.of("summary.csv", "units.csv", "batch.txt")) {
-      assertArrayEquals(Files.readAllBytes(whole.resolve(file)), Files.readAllBytes(out.resolve(file)), file);
+      assertArrayEquals(Files.readAllBytes(whole.resolve(file)),
+          Files.readAllBytes(out.resolve(file)), file);
     }
     assertFalse(Files.exists(out.resolve("units")), "no unit folder left");
   }

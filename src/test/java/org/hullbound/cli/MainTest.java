@@ -173,7 +173,8 @@ class MainTest {
     CommandLine line = Main.commandLine();
     for (String command : line.getSubcommands().keySet()) {
       String message = Main.outOfMemory(command);
-      java.util.regex.Matcher option = java.util.regex.Pattern.compile("--[a-z-]+").matcher(message);
+      java.util.regex.Matcher option =
+          java.util.regex.Pattern.compile("--[a-z-]+").matcher(message);
       while (option.find()) {
         assertTrue(line.getSubcommands().get(command).getCommandSpec().findOption(option.group()) != null,
             command + " has no " + option.group() + ": " + message);

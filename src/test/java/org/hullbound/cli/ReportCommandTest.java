@@ -126,7 +126,8 @@ class ReportCommandTest {
     Files.createDirectories(summary.getParent());
     String header = "unknown,update,evaluations_per_draw,fallback,fallback_sweep\n";
     java.io.StringWriter notes = new java.io.StringWriter();
-    Files.writeString(summary, header + "a,adaptive rejection,2.5,no,\nb,ARMS fallback,7,switched,120\n"
+    Files.writeString(summary,
+        header + "a,adaptive rejection,2.5,no,\nb,ARMS fallback,7,switched,120\n"
         + "c,derived,NaN,no,\n");
     var facts = ReportCommand.updateFacts(summary, new java.io.PrintWriter(notes));
     assertEquals(3, facts.size(), notes.toString());

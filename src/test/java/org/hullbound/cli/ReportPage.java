@@ -45,7 +45,8 @@ final class ReportPage {
       Matcher heading = Pattern.compile("<h3>(.*?)</h3>").matcher(cards[k]);
       assertTrue(heading.find(), "card " + k + " has a heading");
       named.add(heading.group(1));
-      assertEquals(1, cards[k].split(TRACE, -1).length - 1, "one trace in the card of " + heading.group(1));
+      assertEquals(1, cards[k].split(TRACE, -1).length - 1,
+          "one trace in the card of " + heading.group(1));
     }
     assertEquals(unknowns, named);
   }

@@ -53,7 +53,8 @@ class SummarizeProperties {
       assertTrue(run.exit() == 0 || run.exit() == 2, run.toString());
       if (run.exit() == 0) {
         assertTrue(run.out().contains("R-hat"), run.toString());
-        assertTrue(!run.err().contains("Exception") && !run.err().contains("\tat "), run.toString());
+        assertTrue(!run.err().contains("Exception") && !run.err().contains("\tat "),
+            run.toString());
       } else {
         assertTrue(run.errorIsPlain(), run.toString());
         assertEquals("", run.out(), run.toString());
@@ -113,7 +114,8 @@ class SummarizeProperties {
         Arbitraries.of("mu", "tau[1]", "beta[1,2]", "\u00b5", "\u540d\u524d", "x\"y", "a b",
             "\uD83D\uDE00", "chain", "draw", "iteration", "", " ", "\u2003", "sigma");
     Arbitrary<List<String>> header = names.list().ofMinSize(1).ofMaxSize(4);
-    Arbitrary<String> number = Arbitraries.doubles().between(-1e3, 1e3).map(x -> Double.toString(x));
+    Arbitrary<String> number =
+        Arbitraries.doubles().between(-1e3, 1e3).map(x -> Double.toString(x));
     Arbitrary<String> small = Arbitraries.integers().between(0, 4).map(k -> Integer.toString(k));
     Arbitrary<String> cell =
         Arbitraries.frequencyOf(

@@ -22,7 +22,8 @@ class TwoValuedVerdictTest {
   private CliRun fit(String model, String out) throws Exception {
     Path file = folder.resolve(out + ".hbm");
     Files.writeString(file, model);
-    return CliRun.of("fit", file.toString(), "--seed", "7", "--out", folder.resolve(out).toString());
+    return CliRun.of("fit", file.toString(), "--seed", "7", "--out",
+        folder.resolve(out).toString());
   }
 
   private static String fleetFaults() throws Exception {
@@ -33,7 +34,8 @@ class TwoValuedVerdictTest {
   void aChangeYearOfTwoPossibleYearsIsJudgedWithoutTailEss() throws Exception {
     // Years 9 and 10 both hold posterior mass (the demo's posterior mean is about 9.2).
     String twoYears =
-        fleetFaults().replace("whole-uniform(lower = 2, upper = 16)", "whole-uniform(lower = 9, upper = 10)");
+        fleetFaults().replace("whole-uniform(lower = 2, upper = 16)",
+            "whole-uniform(lower = 9, upper = 10)");
     assertFalse(twoYears.equals(fleetFaults()), "the demo's prior line changed");
     CliRun run = fit(twoYears, "two");
     assertEquals(0, run.exit(), run.toString());
@@ -42,7 +44,8 @@ class TwoValuedVerdictTest {
         + " tail-ESS at least 400 (change takes two values only: tail-ESS is not defined there, so"
         + " it is judged on bulk-ESS and R-hat alone), no fallback update."), run.out());
     List<String> summary = Files.readAllLines(folder.resolve("two/summary.csv"));
-    String change = summary.stream().filter(line -> line.startsWith("change,")).findFirst().orElseThrow();
+    String change =
+        summary.stream().filter(line -> line.startsWith("change,")).findFirst().orElseThrow();
     assertTrue(change.contains(",two valued,\"the draws take two values only (9 and 10):"), change);
   }
 

@@ -32,7 +32,8 @@ class ValidateCommandTest {
     Run run = run("validate", "--case", "gamma_poisson", "--draws", "500", "--burn-in", "100");
     assertEquals(0, run.status(), run.out() + run.err());
     assertTrue(run.out().contains("gamma_poisson  [passed]"), run.out());
-    assertTrue(run.out().matches("(?s).*mean\\(lambda\\) +3\\.523810 .*pass +conjugate gamma.*"), run.out());
+    assertTrue(run.out().matches("(?s).*mean\\(lambda\\) +3\\.523810 .*pass +conjugate gamma.*"),
+        run.out());
     // The case's derived quantity (let wait = 1 / lambda) is computed and checked as fit keeps it.
     assertTrue(run.out().matches("(?s).*mean\\(wait\\) +0\\.291667 .*pass +derived.*"), run.out());
     assertTrue(run.out().contains("4 of 4 quantities and 1 of 1 cases passed."), run.out());
@@ -71,11 +72,13 @@ class ValidateCommandTest {
 
   @Test
   void calibrateWritesRanksAndHistogramsAndPasses(@TempDir Path out) throws IOException {
-    Run run = run("calibrate", "validation/gamma_poisson/model.hbm", "--data", "validation/gamma_poisson/calls.csv",
+    Run run = run("calibrate", "validation/gamma_poisson/model.hbm", "--data",
+        "validation/gamma_poisson/calls.csv",
         "--replicates", "60", "--draws", "19", "--thin", "1", "--burn-in", "20", "--seed", "5",
         "--out", out.toString());
     assertEquals(0, run.status(), run.out() + run.err());
-    assertTrue(run.out().contains("Simulation-based calibration of gamma_poisson: 60 replicates"), run.out());
+    assertTrue(run.out().contains("Simulation-based calibration of gamma_poisson: 60 replicates"),
+        run.out());
     assertTrue(run.out().matches("(?s).*lambda +[0-9.]+ +9 .*yes.*"), run.out());
     assertTrue(run.out().contains("Bonferroni"), run.out());
     assertTrue(run.out().contains("so about 1% of them fall below 0.01 by chance"), run.out());
@@ -102,7 +105,8 @@ class ValidateCommandTest {
 
   @Test
   void calibrateRefusesWhatItCannotDo(@TempDir Path dir) throws IOException {
-    Run bins = run("calibrate", "validation/gamma_poisson/model.hbm", "--data", "validation/gamma_poisson/calls.csv",
+    Run bins = run("calibrate", "validation/gamma_poisson/model.hbm", "--data",
+        "validation/gamma_poisson/calls.csv",
         "--replicates", "50", "--draws", "99", "--bins", "7");
     assertEquals(2, bins.status());
     assertTrue(bins.err().contains("--bins must divide draws + 1 = 100"), bins.err());
@@ -120,7 +124,8 @@ class ValidateCommandTest {
             + "param b ~ normal(mean = 0, sd = 1)\n");
     Run covariate = run("calibrate", model.toString(), "--replicates", "20", "--draws", "19");
     assertEquals(2, covariate.status());
-    assertTrue(covariate.err().contains("modelled data [x] also appear in other statements"), covariate.err());
+    assertTrue(covariate.err().contains("modelled data [x] also appear in other statements"),
+        covariate.err());
     Run missing = run("calibrate", "validation/gamma_poisson/model.hbm", "--draws", "19");
     assertEquals(2, missing.status());
     assertTrue(missing.err().contains("--replicates"), missing.err());

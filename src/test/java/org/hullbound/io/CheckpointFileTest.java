@@ -34,7 +34,8 @@ class CheckpointFileTest {
             new UpdaterState(new long[0], "switched at sweep 3: h(x) = -0.5\nsecond line \\ back"));
     List<ChainState> chains = new ArrayList<>();
     chains.add(new ChainState(0, 0, new long[] {1, 2, 3, 4}, new KernelState(values, updaters)));
-    chains.add(new ChainState(250, 100, new long[] {-5, 6, -7, 8}, new KernelState(values, updaters)));
+    chains.add(new ChainState(250, 100, new long[] {-5, 6, -7, 8},
+        new KernelState(values, updaters)));
     return new Checkpoint(
         false, "models/a b.hbm", CheckpointFile.inputHash("model", List.of("x\n1\n")), -42L, 50,
         100, 2, List.of("centre", "X[2,1]", "name \"quoted\""), chains);

@@ -62,7 +62,8 @@ class DrawsReaderTest {
 
   @Test
   void keepsNonFiniteWordsAsFitWritesThemAndExtremeFiniteValues() {
-    DrawsTable table = read("x\nNaN\ninf\n-inf\nInfinity\n1e308\n-1.7976931348623157E308\n4.9e-324\n");
+    DrawsTable table =
+        read("x\nNaN\ninf\n-inf\nInfinity\n1e308\n-1.7976931348623157E308\n4.9e-324\n");
     assertArrayEquals(
         new double[][] {
           {

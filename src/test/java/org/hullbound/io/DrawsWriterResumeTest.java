@@ -30,7 +30,8 @@ class DrawsWriterResumeTest {
     try (DrawsWriter writer =
         DrawsWriter.resume(
             folder, COLUMNS, new int[] {2, 1},
-            (chain, draw, values) -> handed.add(chain + ":" + draw + ":" + values[0] + ":" + values[1]))) {
+            (chain, draw,
+                values) -> handed.add(chain + ":" + draw + ":" + values[0] + ":" + values[1]))) {
       writer.accept(1, 2, new double[] {2.5, -1});
     }
     assertEquals(List.of("0:1:0.5:NaN", "1:1:Infinity:-Infinity", "0:2:1.25:3.0"), handed);
@@ -57,7 +58,8 @@ class DrawsWriterResumeTest {
         assertThrows(
             CheckpointException.class,
             () -> DrawsWriter.resume(folder, COLUMNS, new int[] {2}, (c, d, v) -> {}));
-    assertTrue(fewer.getMessage().contains("has 1 draws of chain 1, the checkpoint 2"), fewer.getMessage());
+    assertTrue(fewer.getMessage().contains("has 1 draws of chain 1, the checkpoint 2"),
+        fewer.getMessage());
     CheckpointException other =
         assertThrows(
             CheckpointException.class,
