@@ -322,7 +322,8 @@ public final class Verdicts {
                   + ": switched to "
                   + facts.update()
                   + (facts.switchSweep() > 0 ? " at sweep " + facts.switchSweep() : " during the run")
-                  + " because adaptive rejection met a conditional that is not log-concave;"
+                  + " because adaptive rejection met a conditional that is not log-concave, or whose"
+                  + " log-density is rounded too coarsely to tell;"
                   + " draws before the switch may come from a wrong envelope, so treat those"
                   + " sweeps as burn-in or run again"));
     }
