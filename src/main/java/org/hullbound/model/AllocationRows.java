@@ -139,9 +139,8 @@ final class AllocationRows {
         || !f.cuts().fixed()) {
       return null;
     }
-    double[] none = new double[0];
-    return new double[] {lo.value(), hi.value(), Math.max(lo.value(), f.cuts().lower(none)),
-        Math.min(hi.value(), f.cuts().upper(none))};
+    return new double[] {lo.value(), hi.value(), f.cuts().constantLower(lo),
+        f.cuts().constantUpper(hi)};
   }
 
   /**

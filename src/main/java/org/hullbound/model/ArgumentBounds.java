@@ -199,6 +199,21 @@ final class ArgumentBounds {
     return moving.length == 0;
   }
 
+  /**
+   * The support's lower end {@code lower} cut by this where both are constants (natural scale),
+   * else NaN: a conditional's bound for every state, asked for before every draw.
+   */
+  double constantLower(Formula lower) {
+    return lower instanceof Formula.Constant c && fixed()
+        ? Math.max(c.value(), lower(new double[0])) : Double.NaN;
+  }
+
+  /** As {@link #constantLower}, for the upper end. */
+  double constantUpper(Formula upper) {
+    return upper instanceof Formula.Constant c && fixed()
+        ? Math.min(c.value(), upper(new double[0])) : Double.NaN;
+  }
+
   /** The lower end of the cut on the natural scale ({@code -inf} when none). */
   double lower(double[] state) {
     return narrowed(state)[0];

@@ -122,6 +122,13 @@ final class CompiledConditional implements ConditionalDensity {
   private final Collapsed[] runCollapsed;
   /** Each term compiled alone, for the reference path only: made on its first call. */
   private volatile Reference reference;
+  /** Whether some shape keeps only the rows its collapsed runs read ({@link #compact}). */
+  private boolean compacted;
+  /** The support's formulas, kept with the blanket for {@link #expanded}. */
+  private final Formula lowerFormula;
+  private final Formula upperFormula;
+  /** This conditional with every row kept, for the term-by-term path: made on its first call. */
+  private volatile CompiledConditional expanded;
   private final ThreadLocal<Workspace> workspaces = ThreadLocal.withInitial(Workspace::new);
 
   /**
@@ -132,7 +139,7 @@ final class CompiledConditional implements ConditionalDensity {
   CompiledConditional(
       Unknown unknown, List<Term> blanket, Formula lower, Formula upper, ArgumentBounds cuts,
       boolean smooth) {
-    this(unknown, blanket, lower, upper, cuts, smooth, true, false);
+    this(unknown, blanket, lower, upper, cuts, smooth, true, false, true);
   }
 
   /**
@@ -144,35 +151,33 @@ final class CompiledConditional implements ConditionalDensity {
   CompiledConditional(
       Unknown unknown, List<Term> blanket, Formula lower, Formula upper, ArgumentBounds cuts,
       boolean smooth, boolean grouped) {
-    this(unknown, blanket, lower, upper, cuts, smooth, grouped, true);
+    this(unknown, blanket, lower, upper, cuts, smooth, grouped, true, true);
   }
 
   private CompiledConditional(
       Unknown unknown, List<Term> blanket, Formula lower, Formula upper, ArgumentBounds cuts,
-      boolean smooth, boolean grouped, boolean keepBlanket) {
+      boolean smooth, boolean grouped, boolean keepBlanket, boolean compactRows) {
     this.unknown = unknown;
     this.scale = unknown.scale();
     this.blanket = keepBlanket ? blanket : null;
+    this.lowerFormula = keepBlanket ? lower : null;
+    this.upperFormula = keepBlanket ? upper : null;
     int slot = unknown.index();
     this.termCount = blanket.size();
-    int[] shapeOf = new int[termCount];
-    int[] rowOf = new int[termCount];
+    // The blanket as runs of consecutive terms of one shape (first term, shape, its first row),
+    // recorded as the terms are read: no array a term unless the blanket follows an allocation.
+    RowColumn.IntList runFirst = new RowColumn.IntList();
+    RowColumn.IntList runShapes = new RowColumn.IntList();
+    RowColumn.IntList runFirstRow = new RowColumn.IntList();
     List<Shape> found = new ArrayList<>();
     Map<Object, Integer> byKey = new HashMap<>();
     BitSet read = new BitSet();
-    AllocationMembers.Guards.Builder guardsFound = new AllocationMembers.Guards.Builder();
-    RowColumn.IntList readStart = new RowColumn.IntList();
-    RowColumn.IntList reads = new RowColumn.IntList();
-    RowColumn.IntList guardReadStart = new RowColumn.IntList();
-    RowColumn.IntList guardReads = new RowColumn.IntList();
-    readStart.add(0);
-    guardReadStart.add(0);
+    MemberReads memberReads = new MemberReads();
     Set<Integer> termReads = new TreeSet<>();
     int maxArity = 0;
     for (int i = 0; i < termCount; i++) {
       Term term = blanket.get(i);
       List<Formula> guards = UnknownIndex.guards(term, slot);
-      guardsFound.add(guards);
       // A gated term is evaluated only while selected, so in the form it takes then.
       Term evaluated = AllocationMembers.memberForm(term, guards);
       maxArity = Math.max(maxArity, evaluated.arguments().size());
@@ -182,21 +187,13 @@ final class CompiledConditional implements ConditionalDensity {
         a.collectSlots(termReads);
       }
       termReads.forEach(read::set);
-      termReads.clear();
-      evaluated.value().collectSlots(termReads);
-      for (Formula a : evaluated.arguments()) {
-        a.collectSlots(termReads);
-      }
-      termReads.forEach(reads::add);
-      readStart.add(reads.size);
-      if (guards != null) {
-        termReads.clear();
-        for (Formula g : guards) {
-          g.collectSlots(termReads);
+      if (guards != null || memberReads.terms > 0) {
+        // From the first gated term on; the terms before it, none gated, read again once.
+        while (memberReads.terms < i) {
+          memberReads.add(blanket.get(memberReads.terms), null, termReads);
         }
-        termReads.forEach(guardReads::add);
+        memberReads.add(evaluated, guards, termReads);
       }
-      guardReadStart.add(guardReads.size);
       TermEvaluator compiled = new TermEvaluator(evaluated, slot, scale);
       Object key = grouped ? compiled.shapeKey() : null;
       Integer known = key == null ? null : byKey.get(key);
@@ -207,8 +204,12 @@ final class CompiledConditional implements ConditionalDensity {
           byKey.put(key, known);
         }
       }
-      shapeOf[i] = known;
-      rowOf[i] = found.get(known).add(compiled.linearForms);
+      int row = found.get(known).add(compiled.linearForms);
+      if (runShapes.size == 0 || runShapes.values[runShapes.size - 1] != known) {
+        runFirst.add(i);
+        runShapes.add(known);
+        runFirstRow.add(row);
+      }
       compiled.linearForms = null;
     }
     this.shapes = found.toArray(new Shape[0]);
@@ -222,20 +223,30 @@ final class CompiledConditional implements ConditionalDensity {
     this.lower = Evaluator.compile(lower, -1);
     this.upper = Evaluator.compile(upper, -1);
     this.cuts = cuts;
-    double[] none = new double[0];
-    this.constantLower = lower instanceof Formula.Constant c && cuts.fixed()
-        ? toSamplingScale(Math.max(c.value(), cuts.lower(none))) : Double.NaN;
-    this.constantUpper = upper instanceof Formula.Constant c && cuts.fixed()
-        ? toSamplingScale(Math.min(c.value(), cuts.upper(none))) : Double.NaN;
+    // NaN stays NaN on every scale: the bound then moves with the state.
+    this.constantLower = toSamplingScale(cuts.constantLower(lower));
+    this.constantUpper = toSamplingScale(cuts.constantUpper(upper));
     this.smooth = smooth;
     read.clear(slot);
     this.inputs = read.stream().toArray();
-    this.members = AllocationMembers.of(termCount, slot, inputs, readStart.toArray(),
-        reads.toArray(), guardReadStart.toArray(), guardReads.toArray(), guardsFound.build());
+    this.members = memberReads.terms == 0 ? null : AllocationMembers.of(termCount, slot, inputs,
+        memberReads.readStart.toArray(), memberReads.reads.toArray(),
+        memberReads.guardReadStart.toArray(), memberReads.guardReads.toArray(),
+        memberReads.guards.build());
     this.anyGated = members != null;
-    this.shapeOf = anyGated ? shapeOf : null;
-    this.rowOf = anyGated ? rowOf : null;
+    int[] first = runFirst.toArray();
+    int runs = first.length;
     if (anyGated) {
+      // Per term its shape and row: its members are visited by term.
+      this.shapeOf = new int[termCount];
+      this.rowOf = new int[termCount];
+      for (int r = 0; r < runs; r++) {
+        int end = r + 1 < runs ? first[r + 1] : termCount;
+        for (int i = first[r]; i < end; i++) {
+          shapeOf[i] = runShapes.values[r];
+          rowOf[i] = runFirstRow.values[r] + i - first[r];
+        }
+      }
       this.runShape = null;
       this.runRow = null;
       this.runLength = null;
@@ -245,15 +256,8 @@ final class CompiledConditional implements ConditionalDensity {
       this.keptCount = 0;
       this.runCollapsed = null;
     } else {
-      RowColumn.IntList starts = new RowColumn.IntList();
-      for (int i = 0; i < termCount; i++) {
-        boolean joins = i > 0 && shapeOf[i] == shapeOf[i - 1];
-        if (!joins) {
-          starts.add(i);
-        }
-      }
-      int[] first = starts.toArray();
-      int runs = first.length;
+      this.shapeOf = null;
+      this.rowOf = null;
       this.runShape = new int[runs];
       this.runRow = new int[runs];
       this.runLength = new int[runs];
@@ -261,23 +265,119 @@ final class CompiledConditional implements ConditionalDensity {
       this.runKeptFirst = new int[runs];
       this.runKeptPerDraw = new boolean[runs];
       this.runCollapsed = new Collapsed[runs];
+      for (int r = 0; r < runs; r++) {
+        runShape[r] = runShapes.values[r];
+        runRow[r] = runFirstRow.values[r];
+        runLength[r] = (r + 1 < runs ? first[r + 1] : termCount) - first[r];
+        Shape shape = shapes[runShape[r]];
+        runRows[r] = shape.term.rows;
+        runCollapsed[r] = grouped ? Collapsed.of(shape, runRow[r], runLength[r]) : null;
+      }
+      if (compactRows) {
+        compact();
+      }
       int kept = 0;
       for (int r = 0; r < runs; r++) {
-        int i = first[r];
-        runShape[r] = shapeOf[i];
-        runRow[r] = rowOf[i];
-        runLength[r] = (r + 1 < runs ? first[r + 1] : termCount) - i;
-        Shape shape = shapes[shapeOf[i]];
-        runRows[r] = shape.term.rows;
         runKeptFirst[r] = kept;
-        runCollapsed[r] = grouped ? Collapsed.of(shape, runRow[r], runLength[r]) : null;
         if (runRows[r] == null || runRows[r].keptPerRow() == 0) {
           continue;
         }
         kept += runRows[r].keptPerRow() * runLength[r];
-        runKeptPerDraw[r] = shape.keptPerDraw();
+        runKeptPerDraw[r] = shapes[runShape[r]].keptPerDraw();
       }
       this.keptCount = kept;
+    }
+  }
+
+  /**
+   * Keeps of each shape with a collapsed run only the rows a call reads (issue 14): of a collapsed
+   * run each group's first row, then its rows alone in order; of its other runs every row. The
+   * runs and groups then index the kept rows, so a fit of millions of rows of few linear
+   * predictors holds (and works out at each draw) a row per group, not per term; the same numbers
+   * are read in the same order, so the same bits. The rows dropped are read again only by {@link
+   * #logDensityTermByTerm}, through {@link #expanded}.
+   */
+  private void compact() {
+    for (int s = 0; s < shapes.length; s++) {
+      boolean collapses = false;
+      for (int r = 0; r < runShape.length; r++) {
+        collapses |= runShape[r] == s && runCollapsed[r] != null;
+      }
+      if (!collapses) {
+        continue;
+      }
+      RowColumn.IntList kept = new RowColumn.IntList();
+      for (int r = 0; r < runShape.length; r++) {
+        if (runShape[r] != s) {
+          continue;
+        }
+        int start = kept.size;
+        Collapsed c = runCollapsed[r];
+        if (c == null) {
+          for (int row = runRow[r]; row < runRow[r] + runLength[r]; row++) {
+            kept.add(row);
+          }
+        } else {
+          int[] rows = new int[c.rows.length];
+          for (int g = 0; g < rows.length; g++) {
+            rows[g] = kept.size;
+            kept.add(c.rows[g]);
+          }
+          int[] aloneFrom = new int[c.aloneFrom.length];
+          for (int k = 0; k < aloneFrom.length; k++) {
+            aloneFrom[k] = kept.size;
+            for (int row = c.aloneFrom[k]; row < c.aloneFrom[k] + c.aloneLength[k]; row++) {
+              kept.add(row);
+            }
+          }
+          runCollapsed[r] = new Collapsed(rows, c.statistics, aloneFrom, c.aloneLength, c.terms);
+        }
+        runRow[r] = start;
+        runLength[r] = kept.size - start;
+      }
+      shapes[s].keepRows(kept.toArray());
+      compacted = true;
+    }
+  }
+
+  /**
+   * What {@link AllocationMembers} reads of each term of a blanket that follows an allocation: the
+   * slots its evaluated form and its guards read, and the guards. Gathered only from the first
+   * gated term on (with the terms before it), so that a fixed blanket of millions of rows builds
+   * no such lists.
+   */
+  private static final class MemberReads {
+    final AllocationMembers.Guards.Builder guards = new AllocationMembers.Guards.Builder();
+    final RowColumn.IntList readStart = new RowColumn.IntList();
+    final RowColumn.IntList reads = new RowColumn.IntList();
+    final RowColumn.IntList guardReadStart = new RowColumn.IntList();
+    final RowColumn.IntList guardReads = new RowColumn.IntList();
+    int terms;
+
+    MemberReads() {
+      readStart.add(0);
+      guardReadStart.add(0);
+    }
+
+    /** Adds the next term, in the form it is evaluated in, with its guards (null for none). */
+    void add(Term evaluated, List<Formula> found, Set<Integer> scratch) {
+      guards.add(found);
+      scratch.clear();
+      evaluated.value().collectSlots(scratch);
+      for (Formula a : evaluated.arguments()) {
+        a.collectSlots(scratch);
+      }
+      scratch.forEach(reads::add);
+      readStart.add(reads.size);
+      if (found != null) {
+        scratch.clear();
+        for (Formula g : found) {
+          g.collectSlots(scratch);
+        }
+        scratch.forEach(guardReads::add);
+      }
+      guardReadStart.add(guardReads.size);
+      terms++;
     }
   }
 
@@ -297,8 +397,10 @@ final class CompiledConditional implements ConditionalDensity {
    * @param statistics per group, its {@link AffineRows#statisticsPerGroup} sums
    * @param aloneFrom first row of each range of rows evaluated alone
    * @param aloneLength the rows in that range
+   * @param terms the run's rows (terms) in all
    */
-  private record Collapsed(int[] rows, double[] statistics, int[] aloneFrom, int[] aloneLength) {
+  private record Collapsed(
+      int[] rows, double[] statistics, int[] aloneFrom, int[] aloneLength, int terms) {
     static Collapsed of(Shape shape, int from, int count) {
       AffineRows family = shape.term.rows;
       if (family == null || family.statisticsPerGroup() == 0 || count < 2
@@ -371,7 +473,7 @@ final class CompiledConditional implements ConditionalDensity {
           aloneLength.add(1);
         }
       }
-      return new Collapsed(rows, statistics, aloneFrom.toArray(), aloneLength.toArray());
+      return new Collapsed(rows, statistics, aloneFrom.toArray(), aloneLength.toArray(), count);
     }
 
     /** The evaluations a call makes: one per group and per row alone. */
@@ -443,6 +545,20 @@ final class CompiledConditional implements ConditionalDensity {
           }
         }
       }
+    }
+
+    /** Keeps rows {@code kept} only, in that order: row {@code k} is then row {@code kept[k]}. */
+    void keepRows(int[] kept) {
+      for (int f = 0; f < constants.length; f++) {
+        if (constants[f] != null) {
+          constants[f] = constants[f].select(kept);
+          for (int e = 0; e < slots[f].length; e++) {
+            slots[f][e] = slots[f][e].select(kept);
+            coefficients[f][e] = coefficients[f][e].select(kept);
+          }
+        }
+      }
+      rows = kept.length;
     }
 
     /** Whether form {@code f} is a linear form that reads another unknown (worked out per draw). */
@@ -713,12 +829,30 @@ final class CompiledConditional implements ConditionalDensity {
 
   /**
    * The same value and slope from the kept parts, every term evaluated alone (no {@link
-   * AffineRows} loop): what the runs must equal bit for bit.
+   * AffineRows} loop): what the runs must equal bit for bit. Where rows were compacted ({@link
+   * #compact}), those of the same conditional compiled with every row kept.
    */
   double logDensityTermByTerm(double u, double[] state, double[] slope) {
+    if (compacted) {
+      return expanded().logDensityTermByTerm(u, state, slope);
+    }
     Workspace workspace = workspaces.get();
     workspace.prepare(state);
     return logDensity(u, state, slope, workspace, false);
+  }
+
+  /** This conditional compiled again from its blanket with every row kept (tests only). */
+  private CompiledConditional expanded() {
+    CompiledConditional c = expanded;
+    if (c == null) {
+      if (blanket == null) {
+        throw new IllegalStateException("a conditional compiled from held terms keeps no rows");
+      }
+      c = new CompiledConditional(unknown, blanket, lowerFormula, upperFormula, cuts, smooth,
+          true, true, false);
+      expanded = c;
+    }
+    return c;
   }
 
   /**
@@ -733,7 +867,7 @@ final class CompiledConditional implements ConditionalDensity {
     int total = termCount;
     for (int r = 0; r < runCollapsed.length; r++) {
       if (runCollapsed[r] != null && runRows[r] != null) {
-        total += runCollapsed[r].evaluations() - runLength[r];
+        total += runCollapsed[r].evaluations() - runCollapsed[r].terms;
       }
     }
     return total;

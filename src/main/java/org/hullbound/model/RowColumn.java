@@ -52,6 +52,21 @@ final class RowColumn {
     double at(int row) {
       return values[row * stride];
     }
+
+    /** The column of rows {@code rows} of this one, in that order, finished. */
+    Doubles select(int[] rows) {
+      Doubles selected = new Doubles();
+      if (stride == 0) {
+        selected.values = values;
+        selected.stride = 0;
+        return selected;
+      }
+      selected.values = new double[rows.length];
+      for (int row : rows) {
+        selected.add(values[row]);
+      }
+      return selected.finish();
+    }
   }
 
   /** Columns shorter than this are not looked up in {@link #SHARED}: they cost little anyway. */
@@ -131,6 +146,21 @@ final class RowColumn {
 
     int at(int row) {
       return values[row * stride];
+    }
+
+    /** The column of rows {@code rows} of this one, in that order, finished. */
+    Ints select(int[] rows) {
+      Ints selected = new Ints();
+      if (stride == 0) {
+        selected.values = values;
+        selected.stride = 0;
+        return selected;
+      }
+      selected.values = new int[rows.length];
+      for (int row : rows) {
+        selected.add(values[row]);
+      }
+      return selected.finish();
     }
   }
 
