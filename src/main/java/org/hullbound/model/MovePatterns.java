@@ -349,10 +349,7 @@ final class MovePatterns {
     return () -> held;
   }
 
-  /**
-   * The moved terms made again when the line compiles, each once for the compiler's passes
-   * (which hold an evaluator per term anyway).
-   */
+  /** The moved terms, made again when the line compiles, each when the compiler reads it. */
   private static java.util.function.Supplier<List<Term>> toCompile(
       Facts f, int[] members, Map<Integer, Formula> replace) {
     return toCompile(f, members, replace, List.of());
@@ -373,7 +370,9 @@ final class MovePatterns {
     for (int e : scaleFree) {
       left.set(f.ownTerm()[e]);
     }
-    return () -> new ArrayList<>(movedTerms(f, members, replace, left));
+    // Made when read, not copied: the compiler reads each term once, and a line through every
+    // row (a rescaling of effects that every row reads) would hold a moved term per row.
+    return () -> movedTerms(f, members, replace, left);
   }
 
   /**

@@ -30,8 +30,14 @@ public final class PriorSimulation {
   private final BoundModel model;
   private final int[] order;
   private final Evaluator[][] ownArguments;
-  private final List<Term> observed;
-  private final Evaluator[][] observedArguments;
+  /**
+   * The observed data elements' terms with their compiled arguments, made on the first {@link
+   * #simulateObservations}: a fit draws its starting values from the priors alone, and a term and
+   * its evaluators per data row would hold hundreds of bytes a row (issue 14).
+   */
+  private volatile Observed observed;
+
+  private record Observed(List<Term> terms, Evaluator[][] arguments) {}
 
   private PriorSimulation(BoundModel model) {
     this.model = model;
@@ -49,17 +55,25 @@ public final class PriorSimulation {
       reads.add(slots);
     }
     this.order = ancestralOrder(reads);
-    List<Term> list = new ArrayList<>();
-    for (Term term : model.terms()) {
-      if (term.owner() < 0) {
-        list.add(term);
+  }
+
+  private Observed observed() {
+    Observed known = observed;
+    if (known == null) {
+      List<Term> list = new ArrayList<>();
+      for (Term term : model.terms()) {
+        if (term.owner() < 0) {
+          list.add(term);
+        }
       }
+      Evaluator[][] arguments = new Evaluator[list.size()][];
+      for (int t = 0; t < list.size(); t++) {
+        arguments[t] = compile(list.get(t).arguments());
+      }
+      known = new Observed(List.copyOf(list), arguments);
+      observed = known;
     }
-    this.observed = List.copyOf(list);
-    this.observedArguments = new Evaluator[observed.size()][];
-    for (int t = 0; t < observed.size(); t++) {
-      observedArguments[t] = compile(observed.get(t).arguments());
-    }
+    return known;
   }
 
   /**
@@ -113,10 +127,11 @@ public final class PriorSimulation {
       throw new IllegalArgumentException("rng must not be null");
     }
     Frame frame = new Frame(Double.NaN, state);
-    List<SimulatedValue> values = new ArrayList<>(observed.size());
-    for (int t = 0; t < observed.size(); t++) {
-      Term term = observed.get(t);
-      double[] args = evaluate(observedArguments[t], frame);
+    Observed all = observed();
+    List<SimulatedValue> values = new ArrayList<>(all.terms().size());
+    for (int t = 0; t < all.terms().size(); t++) {
+      Term term = all.terms().get(t);
+      double[] args = evaluate(all.arguments()[t], frame);
       double y = draw(term, args, rng, "the likelihood of ");
       SourcePosition origin =
           term.value() instanceof Formula.Constant ? term.valueCell() : term.position();
@@ -127,7 +142,7 @@ public final class PriorSimulation {
 
   /** How many observed data elements {@link #simulateObservations} draws. */
   public int observedCount() {
-    return observed.size();
+    return observed().terms().size();
   }
 
   static double draw(Term term, double[] args, RandomGenerator rng, String what) {
