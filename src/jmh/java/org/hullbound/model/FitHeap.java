@@ -10,12 +10,14 @@ import org.hullbound.io.HeapMeasurement;
  * (as {@link CheckHeap}), then compiles every unknown's conditional and evaluates each once on
  * this thread (so one workspace of each exists, as one chain's thread makes them), and measures
  * again. The difference is what the conditionals hold; a fit's other chains add one workspace
- * each (the per-draw parts of the forms that read another unknown: 8 bytes a row and varying
- * form). Then it compiles the moves' lines (each at its first draw in a fit) by evaluating each
- * once, and measures a third time: what the lines add.
+ * each (the per-draw parts of the forms that read another unknown: 8 bytes a row, or a group
+ * where a run's rows are collapsed, and varying form). Then it compiles the moves' lines (each at its first draw in a fit) by evaluating each
+ * once, and measures a third time: what the lines add. Last it builds the sampler around them
+ * ({@code gibbs.ModelSampler}: updaters, starting values) and measures what that adds.
  *
- * <p>Issue 14: {@code fit} of the 23-million-row clinics file in the default heap needs the
- * conditionals well under 100 bytes per row per used column.
+ * <p>Issue 14: {@code fit} of the 23-million-row clinics file in the default heap; the goal is a
+ * fit's live heap once compiled at most what {@code check} holds ({@link CheckHeap}: 18.7 bytes
+ * per row per used column), so conditionals, lines and sampler near nothing per row.
  *
  * <p>{@code java -cp target/benchmarks.jar org.hullbound.model.FitHeap MODEL FILE}
  */
@@ -59,19 +61,26 @@ public final class FitHeap {
       lines.add(line);
     }
     long withLines = run.held() - compiled;
+    // What the sampler adds once built around them: updaters, starting values (which drew from
+    // the priors through a simulation that made a term per observed row before issue 14's fix).
+    org.hullbound.gibbs.ModelSampler sampler =
+        org.hullbound.gibbs.ModelSampler.of(bound, java.util.Map.of());
+    long withSampler = run.held() - compiled - withLines;
     System.out.printf(
         "%s: %d rows, %d used columns, %d unknowns, %d terms in all conditionals; bound model"
             + " %.1f MB (%.1f bytes per row per used column); compiled conditionals with one"
             + " workspace each %.1f MB, %.1f bytes per row per used column, %.1f bytes per"
-            + " term; the %d moves' lines %.1f MB, %.1f bytes per row per used column; pools'"
+            + " term; the %d moves' lines %.1f MB, %.1f bytes per row per used column; the"
+            + " sampler built around them %.1f MB, %.1f bytes per row per used column; pools'"
             + " peaks summed %.1f MB; %.1f s (wall clock, load not controlled)%n",
         run.dataFile(), rows, columns, state.length, terms, bound0 / 1e6,
         (double) bound0 / rows / columns, held / 1e6, (double) held / rows / columns,
         (double) held / terms, lines.size(), withLines / 1e6,
-        (double) withLines / rows / columns, HeapMeasurement.peak() / 1e6, run.seconds());
+        (double) withLines / rows / columns, withSampler / 1e6,
+        (double) withSampler / rows / columns, HeapMeasurement.peak() / 1e6, run.seconds());
     // Keeps the model and the conditionals reachable until after the measurement.
     if (conditionals.length < lines.size() - 1_000_000) {
-      System.out.println(bound);
+      System.out.println(bound + " " + sampler);
     }
   }
 }
