@@ -1,7 +1,6 @@
 package org.hullbound.app;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
-import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.io.BufferedWriter;
 import java.io.IOException;
@@ -9,9 +8,9 @@ import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.List;
 import java.util.SplittableRandom;
-import java.util.concurrent.TimeUnit;
 import org.hullbound.gibbs.RunSettings;
 import org.hullbound.io.CsvData;
+import org.hullbound.io.LimitedHeapChild;
 import org.hullbound.lang.ModelFile;
 import org.hullbound.lang.Parser;
 import org.hullbound.lang.SourceText;
@@ -58,20 +57,11 @@ class FitHeapLimitTest {
   void fitsAHundredThousandRowsInAFortyMegabyteHeap() throws Exception {
     Path file = folder.resolve("clinics.csv");
     write(file);
-    Path output = folder.resolve("child.txt");
-    Process child =
-        new ProcessBuilder(
-                Path.of(System.getProperty("java.home"), "bin", "java").toString(),
-                HEAP, "-XX:+UseSerialGC",
-                "-cp", System.getProperty("java.class.path"), Child.class.getName(),
-                file.toString())
-            .redirectErrorStream(true)
-            .redirectOutput(output.toFile())
-            .start();
-    assertTrue(child.waitFor(300, TimeUnit.SECONDS), "the child finished");
-    String printed = Files.readString(output).trim();
-    assertEquals(0, child.exitValue(), printed);
-    assertEquals("fitted " + ROWS + " rows: 39 unknowns, 4 draws each, all finite", printed);
+    LimitedHeapChild.Result child = LimitedHeapChild.run(
+        HEAP, folder.resolve("child.txt"), 300, Child.class, file.toString());
+    assertEquals(0, child.exitValue(), child.printed());
+    assertEquals("fitted " + ROWS + " rows: 39 unknowns, 4 draws each, all finite",
+        child.printed());
   }
 
   /** Writes clinics-like rows (the layout of {@code io.LargeClinicsFile}) with a fixed seed. */

@@ -1,14 +1,12 @@
 package org.hullbound.io;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
-import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import java.io.BufferedWriter;
 import java.io.IOException;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.SplittableRandom;
-import java.util.concurrent.TimeUnit;
 import org.hullbound.model.DataColumn;
 import org.hullbound.model.DataTable;
 import org.junit.jupiter.api.Test;
@@ -34,18 +32,9 @@ class CsvDataHeapTest {
   void fourHundredThousandRowsLoadInAFortyEightMegabyteHeap() throws Exception {
     Path file = folder.resolve("patients.csv");
     long expected = write(file);
-    Path output = folder.resolve("child.txt");
-    Process child =
-        new ProcessBuilder(
-                Path.of(System.getProperty("java.home"), "bin", "java").toString(),
-                HEAP, "-XX:+UseSerialGC",
-                "-cp", System.getProperty("java.class.path"), Child.class.getName(),
-                file.toString())
-            .redirectErrorStream(true)
-            .redirectOutput(output.toFile())
-            .start();
-    assertTrue(child.waitFor(120, TimeUnit.SECONDS), "the child finished");
-    String printed = Files.readString(output).trim();
+    LimitedHeapChild.Result child = LimitedHeapChild.run(
+        HEAP, folder.resolve("child.txt"), 120, Child.class, file.toString());
+    String printed = child.printed();
     assertEquals(0, child.exitValue(), printed);
     assertEquals(ROWS + " 3 " + expected, printed);
   }
