@@ -217,7 +217,11 @@ final class AllocationMembers {
           }
         }
         int[] valueStart = start.toArray();
-        double[] held = java.util.Arrays.copyOf(values.values, slots.size);
+        values.finish();
+        double[] held = new double[slots.size];
+        for (int k = 0; k < held.length; k++) {
+          held[k] = values.at(k);
+        }
         return new Guards(valueStart, slots.toArray(), held, perTerm, any);
       }
     }

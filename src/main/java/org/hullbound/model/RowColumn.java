@@ -21,7 +21,12 @@ import java.util.Map;
 final class RowColumn {
   private RowColumn() {}
 
-  /** Doubles, grown while rows are added, then {@link #finish}ed. */
+  /**
+   * Doubles, grown while rows are added, then {@link #finish}ed; read by row only once finished. A
+   * column whose rows all hold the first row's bits so far is held as that value and a count while
+   * it grows (a compile of 23 million rows would otherwise hold 8 bytes a row of each constant form
+   * until it finishes).
+   */
   static final class Doubles {
     double[] values = new double[4];
     int stride = 1;
@@ -29,13 +34,23 @@ final class RowColumn {
     private boolean same = true;
 
     void add(double value) {
+      if (same) {
+        // While every row holds the first row's bits, the column is that one value and a count.
+        if (size == 0 || Double.doubleToRawLongBits(value)
+            == Double.doubleToRawLongBits(values[0])) {
+          values[0] = size == 0 ? value : values[0];
+          size++;
+          return;
+        }
+        double first = values[0];
+        values = new double[size + (size >> 1) + 4];
+        Arrays.fill(values, 0, size, first);
+        same = false;
+      }
       if (size == values.length) {
         values = Arrays.copyOf(values, size + (size >> 1) + 4);
       }
-      values[size] = value;
-      same &= size == 0
-          || Double.doubleToRawLongBits(value) == Double.doubleToRawLongBits(values[0]);
-      size++;
+      values[size++] = value;
     }
 
     /**
@@ -61,7 +76,6 @@ final class RowColumn {
         selected.stride = 0;
         return selected;
       }
-      selected.values = new double[rows.length];
       for (int row : rows) {
         selected.add(values[row]);
       }
@@ -130,12 +144,21 @@ final class RowColumn {
     private boolean same = true;
 
     void add(int value) {
+      if (same) {
+        if (size == 0 || value == values[0]) {
+          values[0] = size == 0 ? value : values[0];
+          size++;
+          return;
+        }
+        int first = values[0];
+        values = new int[size + (size >> 1) + 4];
+        Arrays.fill(values, 0, size, first);
+        same = false;
+      }
       if (size == values.length) {
         values = Arrays.copyOf(values, size + (size >> 1) + 4);
       }
-      values[size] = value;
-      same &= size == 0 || value == values[0];
-      size++;
+      values[size++] = value;
     }
 
     Ints finish() {
@@ -156,7 +179,6 @@ final class RowColumn {
         selected.stride = 0;
         return selected;
       }
-      selected.values = new int[rows.length];
       for (int row : rows) {
         selected.add(values[row]);
       }
