@@ -841,8 +841,17 @@ final class CompiledConditional implements ConditionalDensity {
     return logDensity(u, state, slope, workspace, false);
   }
 
+  /** How many rows its shapes hold in all: its terms, or fewer where rows were compacted. */
+  int heldRows() {
+    int rows = 0;
+    for (Shape shape : shapes) {
+      rows += shape.rows;
+    }
+    return rows;
+  }
+
   /** This conditional compiled again from its blanket with every row kept (tests only). */
-  private CompiledConditional expanded() {
+  CompiledConditional expanded() {
     CompiledConditional c = expanded;
     if (c == null) {
       if (blanket == null) {

@@ -62,6 +62,36 @@ class CollapsedRowsTest {
     assertEquals(1 + 1, effect.evaluationsPerCall());
   }
 
+  /**
+   * Issue 14: once its run collapses, a conditional keeps of the run only each group's first row
+   * (its linear predictor) and the rows alone, and reads them in the same order as with every row
+   * kept, so its values are the same bits.
+   */
+  @Test
+  void aCollapsedRunKeepsItsGroupsRowsOnlyAndGivesTheSameBits() {
+    BoundModel model = seedlings(true);
+    CompiledConditional centre = conditional(model, "centre");
+    CompiledConditional everyRow = centre.expanded();
+    assertEquals(1 + 9, centre.heldRows(), "own prior and a row a group");
+    assertEquals(1 + 40, everyRow.heldRows(), "own prior and every tray");
+    double[] state = model.initialState();
+    double[] slope = new double[1];
+    double[] reference = new double[1];
+    RandomGenerator random = RandomGeneratorFactory.of("L64X128MixRandom").create(14L);
+    for (int draw = 0; draw < 200; draw++) {
+      for (int b = 1; b <= 8; b++) {
+        state[model.unknown("effect[" + b + "]").index()] = 2 * random.nextGaussian();
+      }
+      double u = 3 * random.nextGaussian();
+      double value = centre.logDensity(u, state, slope);
+      double expected = everyRow.logDensity(u, state, reference);
+      assertEquals(Double.doubleToRawLongBits(expected), Double.doubleToRawLongBits(value),
+          "value at u = " + u);
+      assertEquals(Double.doubleToRawLongBits(reference[0]), Double.doubleToRawLongBits(slope[0]),
+          "slope at u = " + u);
+    }
+  }
+
   @Test
   void aRowDifferingInOneBitIsNotMerged() {
     CompiledConditional centre = conditional(seedlings(true), "centre");
