@@ -10,6 +10,7 @@ import org.hullbound.model.BoundModel;
  * handle the Gibbs samplers.
  */
 public final class AnchorKernel implements ChainKernel {
+  /** The coordinates (natural and sampling scales); the sampler may move on another target. */
   private final ModelTarget target;
   private final NoUTurnSampler sampler;
 
@@ -24,9 +25,24 @@ public final class AnchorKernel implements ChainKernel {
    */
   public static AnchorKernel of(BoundModel model, double[] start, NoUTurnSampler.Settings settings) {
     ModelTarget target = ModelTarget.of(model);
+    return of(model, target, start, settings);
+  }
+
+  /**
+   * As {@link #of(BoundModel, double[], NoUTurnSampler.Settings)}, the sampler moving on {@code
+   * sampled}: a target on {@link ModelTarget}'s coordinates of {@code model} and equal to it up to
+   * a constant, such as {@link FusedClinicsTarget}.
+   */
+  public static AnchorKernel of(BoundModel model, Target sampled, double[] start,
+      NoUTurnSampler.Settings settings) {
+    ModelTarget coordinates = ModelTarget.of(model);
+    if (sampled.dimension() != coordinates.dimension()) {
+      throw new IllegalArgumentException("the target has " + sampled.dimension()
+          + " coordinates, the model " + coordinates.dimension());
+    }
     double[] natural = start == null ? model.initialState() : start;
-    return new AnchorKernel(
-        target, NoUTurnSampler.of(target, target.toSamplingScale(natural), settings));
+    return new AnchorKernel(coordinates,
+        NoUTurnSampler.of(sampled, coordinates.toSamplingScale(natural), settings));
   }
 
   @Override
