@@ -12,10 +12,10 @@ import org.hullbound.model.family.LogSpace;
 import org.hullbound.model.family.Scale;
 
 /**
- * The posterior of the {@code clinics} model ({@code models/clinics.hbm} and its grown twin) written
- * out by hand: the joint log-density and its gradient in one pass over primitive arrays, what a
- * practitioner's dedicated gradient (reverse mode over the joint, or these lines written out) costs,
- * against {@link ModelTarget}'s vector of full conditionals. Same coordinates as {@link
+ * The posterior of the {@code clinics} model ({@code models/clinics.hbm} and its grown twin)
+ * written out by hand: the joint log-density and its gradient in one pass over primitive arrays,
+ * what a practitioner's dedicated gradient (reverse mode over the joint, or these lines written
+ * out) costs, against {@link ModelTarget}'s vector of full conditionals. Same coordinates as {@link
  * ModelTarget} (the model's unknown order; the spread on the log scale with its Jacobian {@code u},
  * the rest as they are) and the same value up to one additive constant (the normalising constants
  * of the priors left out here), so that the No-U-Turn sampler moves on the same density on either.
@@ -49,7 +49,7 @@ public final class FusedClinicsTarget implements Target {
   private final int spread;
   /** The coordinate of each clinic's effect, clinic 0-based. */
   private final int[] effectOf;
-  /** Groups sorted by clinic: clinic {@code c}'s groups are {@code [clinicStart[c], clinicStart[c + 1])}. */
+  /** Groups sorted by clinic: clinic {@code c}'s are {@code clinicStart[c]} to {@code [c + 1]}. */
   private final int[] clinicStart;
   private final double[] dose;
   private final double[] successes;

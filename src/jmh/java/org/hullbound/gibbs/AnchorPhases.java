@@ -29,7 +29,17 @@ import org.hullbound.model.BoundModel;
  *
  * <p>Arguments (all optional): model ({@code clinics-grown} or a demo name), the anchor's warm-up
  * iterations (150, the shortest with its full schedule of windows) and kept iterations (200),
- * hullbound's burn-in (100) and kept sweeps (400).
+ * hullbound's burn-in (100) and kept sweeps (400), and the anchor's target: {@code model} (the
+ * default, {@code org.hullbound.anchor.ModelTarget}) or {@code fused} ({@code
+ * org.hullbound.anchor.FusedClinicsTarget}, the same density with a practitioner's one-pass
+ * gradient; {@code clinics} and {@code clinics-grown} only), such as
+ *
+ * <pre>
+ * java -cp target/benchmarks.jar org.hullbound.gibbs.AnchorPhases \
+ *     clinics-grown 150 200 100 400 fused
+ * </pre>
+ *
+ * Both targets start from the same state with the same random stream.
  */
 public final class AnchorPhases {
   private AnchorPhases() {}
@@ -40,13 +50,21 @@ public final class AnchorPhases {
     int iterations = args.length > 2 ? Integer.parseInt(args[2]) : 200;
     int burnIn = args.length > 3 ? Integer.parseInt(args[3]) : 100;
     int sweeps = args.length > 4 ? Integer.parseInt(args[4]) : 400;
-    BoundModel bound = model.equals("clinics-grown") ? GrownClinics.load() : DemoModel.load(model);
+    String target = args.length > 5 ? args[5] : "model";
+    LoadedModel loaded = LoadedModel.load(model);
+    BoundModel bound = loaded.bound();
     ModelSampler gibbs = ModelSampler.of(bound, Map.of());
     List<String> labels = gibbs.labels();
 
     RandomGenerator rng = ChainSeeds.split(20261201L, 2)[1];
-    AnchorKernel anchor = AnchorKernel.of(bound, bound.initialState(),
-        NoUTurnSampler.Settings.of(warmup));
+    NoUTurnSampler.Settings settings = NoUTurnSampler.Settings.of(warmup);
+    AnchorKernel anchor = switch (target) {
+      case "model" -> AnchorKernel.of(bound, bound.initialState(), settings);
+      case "fused" ->
+          AnchorKernel.of(bound, loaded.fusedClinics(), bound.initialState(), settings);
+      default -> throw new IllegalArgumentException("target must be model or fused, got " + target);
+    };
+    System.out.printf(Locale.ROOT, "anchor target: %s%n", target);
     double start = cpuSeconds();
     long gradients = 0;
     for (int k = 1; k <= warmup; k++) {
@@ -60,7 +78,8 @@ public final class AnchorPhases {
         gradients = now;
       }
     }
-    Phase anchorPhase = sample("no-u-turn", anchor, rng, cpuSeconds() - start, iterations, labels);
+    String name = target.equals("fused") ? "no-u-turn-fused" : "no-u-turn";
+    Phase anchorPhase = sample(name, anchor, rng, cpuSeconds() - start, iterations, labels);
     System.out.printf(Locale.ROOT, "anchor after warm-up: gradients per iteration %.2f, mean depth"
             + " %.2f, divergent iterations %d, step size %.4g%n",
         anchor.statistics().gradientsPerIteration(), anchor.statistics().meanDepth(),

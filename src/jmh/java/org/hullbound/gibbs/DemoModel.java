@@ -9,6 +9,7 @@ import org.hullbound.io.CsvData;
 import org.hullbound.lang.Parser;
 import org.hullbound.lang.SourceText;
 import org.hullbound.model.BoundModel;
+import org.hullbound.model.DataTable;
 
 /**
  * A bundled demo model bound to its data, for the Gibbs benchmarks: {@code models/NAME.hbm} with
@@ -18,10 +19,21 @@ final class DemoModel {
   private DemoModel() {}
 
   static BoundModel load(String name) throws IOException {
-    Path folder = Path.of(System.getProperty("hullbound.models", "models"));
-    String text = Files.readString(folder.resolve(name + ".hbm"), StandardCharsets.UTF_8);
-    return BoundModel.bind(
-        Parser.parse(SourceText.of(name + ".hbm", text)),
-        List.of(CsvData.read(folder.resolve(name + ".csv"))));
+    return load(name, data(name));
+  }
+
+  /** {@code models/NAME.hbm} bound to {@code data} (the table of {@link #data}). */
+  static BoundModel load(String name, DataTable data) throws IOException {
+    String text = Files.readString(folder().resolve(name + ".hbm"), StandardCharsets.UTF_8);
+    return BoundModel.bind(Parser.parse(SourceText.of(name + ".hbm", text)), List.of(data));
+  }
+
+  /** {@code models/NAME.csv}. */
+  static DataTable data(String name) {
+    return CsvData.read(folder().resolve(name + ".csv"));
+  }
+
+  private static Path folder() {
+    return Path.of(System.getProperty("hullbound.models", "models"));
   }
 }

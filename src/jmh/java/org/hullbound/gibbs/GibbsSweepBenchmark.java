@@ -44,9 +44,11 @@ import org.openjdk.jmh.annotations.TearDown;
  * products, effective draws per CPU-second. Gibbs runs add the density evaluations per
  * conditional draw; the No-U-Turn sampler its gradients per iteration, divergent iterations, step
  * size and what one gradient costs in passes over the model's terms (the joint's value plus every
- * conditional, {@code org.hullbound.anchor.ModelTarget}). Run from the project folder: {@code java
- * -jar target/benchmarks.jar GibbsSweepBenchmark -f 1 -wi 3 -i 5 -w 5s -r 5s}; the grown model
- * needs longer iterations for the anchor (docs/fit.md).
+ * conditional, {@code org.hullbound.anchor.ModelTarget}). {@code -p sampler=no-u-turn-fused} (not
+ * in the default list; {@code clinics} and {@code clinics-grown} only) runs the anchor on the
+ * hand-fused target, {@code org.hullbound.anchor.FusedClinicsTarget}. Run from the project
+ * folder: {@code java -jar target/benchmarks.jar GibbsSweepBenchmark -f 1 -wi 3 -i 5 -w 5s -r
+ * 5s}; the grown model needs longer iterations for the anchor (docs/fit.md).
  */
 @State(Scope.Thread)
 @BenchmarkMode(Mode.Throughput)
@@ -80,7 +82,8 @@ public class GibbsSweepBenchmark {
   @Setup(Level.Trial)
   public void setUp() throws IOException {
     boolean grown = this.model.equals("clinics-grown");
-    bound = grown ? GrownClinics.load() : DemoModel.load(this.model);
+    LoadedModel loaded = LoadedModel.load(this.model);
+    bound = loaded.bound();
     int shorter = grown ? 10 : 1;
     int burnIn = BURN_IN / shorter;
     ModelSampler gibbs = ModelSampler.of(bound, Map.of());
@@ -103,6 +106,11 @@ public class GibbsSweepBenchmark {
       case "no-u-turn" -> {
         burnIn = Integer.getInteger("hullbound.anchorWarmup", grown ? 150 : BURN_IN);
         kernel = AnchorKernel.of(bound, start, NoUTurnSampler.Settings.of(burnIn));
+      }
+      case "no-u-turn-fused" -> {
+        burnIn = Integer.getInteger("hullbound.anchorWarmup", grown ? 150 : BURN_IN);
+        kernel = AnchorKernel.of(bound, loaded.fusedClinics(), start,
+            NoUTurnSampler.Settings.of(burnIn));
       }
       default ->
           throw new IllegalArgumentException("sampler must be one of the @Param values, got " + sampler);
@@ -186,12 +194,15 @@ public class GibbsSweepBenchmark {
       for (int i = 0; i < labels.size(); i++) {
         conditionalTerms += bound.conditional(i).termCount();
       }
+      String price = sampler.equals("no-u-turn-fused")
+          ? "each gradient one fused pass over (clinic, dose) groups"
+          : String.format(Locale.ROOT, "terms per gradient %.2f passes over the joint",
+              (double) (bound.termCount() + conditionalTerms) / bound.termCount());
       return String.format(Locale.ROOT,
           "gradients per iteration %.2f; mean depth %.2f; divergent iterations %d; step size %.4g;"
-              + " terms per gradient %.2f passes over the joint",
+              + " %s",
           statistics.gradientsPerIteration(), statistics.meanDepth(), statistics.divergences(),
-          statistics.stepSize(),
-          (double) (bound.termCount() + conditionalTerms) / bound.termCount());
+          statistics.stepSize(), price);
     }
     if (kernel instanceof GibbsKernel gibbs) {
       long evaluations = 0;

@@ -64,10 +64,18 @@ public final class GrownClinics {
 
   /** The grown model bound to its data. */
   static BoundModel load() throws IOException {
-    return BoundModel.bind(
-        Parser.parse(SourceText.of("clinics_grown.hbm", model())),
-        List.of(DataTable.of("clinics_grown.csv", List.of("clinic_of", "dose", "recovered"),
-            rows())));
+    return load(data());
+  }
+
+  /** The grown model bound to {@code data} (the table of {@link #data}). */
+  static BoundModel load(DataTable data) throws IOException {
+    return BoundModel.bind(Parser.parse(SourceText.of("clinics_grown.hbm", model())),
+        List.of(data));
+  }
+
+  /** The data rows as a table. */
+  static DataTable data() {
+    return DataTable.of("clinics_grown.csv", List.of("clinic_of", "dose", "recovered"), rows());
   }
 
   public static void main(String[] args) throws IOException {
