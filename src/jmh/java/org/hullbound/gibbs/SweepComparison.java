@@ -16,15 +16,17 @@ import org.apache.commons.csv.CSVRecord;
 /**
  * The rows {@link GibbsSweepBenchmark} appended to {@code target/sweep-comparison.csv}, printed
  * side by side per model: each sampler's effective draws per CPU-second of the weakest unknown
- * (and of the named one), and hullbound's ratios to the No-U-Turn anchor, to random-walk Metropolis
- * within Gibbs and to itself without moves, the figures issue 12's goals are judged by. Runs of
- * one pair repeated (both parameter orders) are shown together, in file order.
+ * (and of the named one), and hullbound's ratios to the No-U-Turn anchor (on the model's target
+ * and, where run, on the hand-fused one), to random-walk Metropolis within Gibbs and to itself
+ * without moves, the figures issue 12's goals are judged by. Runs of one pair repeated (both
+ * parameter orders) are shown together, in file order.
  *
  * <p>{@code java -cp target/benchmarks.jar org.hullbound.gibbs.SweepComparison [FILE]}.
  */
 public final class SweepComparison {
   private static final List<String> SAMPLERS = List.of(
-      "hullbound", "hullbound-no-moves", "slice", "random-walk-metropolis", "no-u-turn");
+      "hullbound", "hullbound-no-moves", "slice", "random-walk-metropolis", "no-u-turn",
+      "no-u-turn-fused");
 
   private SweepComparison() {}
 
@@ -53,7 +55,8 @@ public final class SweepComparison {
           System.out.println(line);
         }
       }
-      for (String baseline : List.of("no-u-turn", "random-walk-metropolis", "hullbound-no-moves")) {
+      for (String baseline : List.of("no-u-turn", "no-u-turn-fused", "random-walk-metropolis",
+          "hullbound-no-moves")) {
         if (runs.containsKey("hullbound") && runs.containsKey(baseline)) {
           StringBuilder line = new StringBuilder(
               String.format(Locale.ROOT, "  hullbound / %-22s", baseline));
