@@ -33,7 +33,9 @@ import org.openjdk.jmh.annotations.Warmup;
  * (the cost does not depend on it).
  *
  * <p>Run: {@code mvn -B -o -P bench -DskipTests package && java -jar target/benchmarks.jar
- * AnchorGradient} (one fork, 3 warm-up and 5 measured iterations of 1 s: about 40 s).
+ * AnchorGradient} (one fork, 3 warm-up and 5 measured iterations of 1 s: about 40 s); add {@code
+ * -prof gc} for the bytes allocated per gradient ({@code gc.alloc.rate.norm}), a figure the load
+ * of the machine does not change.
  */
 @State(Scope.Thread)
 @BenchmarkMode(Mode.AverageTime)
