@@ -64,6 +64,14 @@ import org.hullbound.model.family.Scale;
  * constants, as a conditional log-density may (the samplers compare values within one draw only).
  */
 final class CompiledConditional implements ConditionalDensity {
+  /**
+   * The largest {@code |a|} and {@code |b x|} whose exponentials a factored group multiplies
+   * ({@link Collapsed}): {@code exp(+-700)} are normal doubles, and the product taken (of the
+   * sign that makes the exponent {@code -|eta|}) cannot overflow; where it underflows {@code
+   * exp(-|eta|)} is below 1e-300 and its loss of bits costs no absolute accuracy.
+   */
+  static final double FACTORED_EXPONENT = 700;
+
   private final Unknown unknown;
   private final Scale scale;
   /**
@@ -330,7 +338,8 @@ final class CompiledConditional implements ConditionalDensity {
               kept.add(row);
             }
           }
-          runCollapsed[r] = new Collapsed(rows, c.statistics, aloneFrom, c.aloneLength, c.terms);
+          runCollapsed[r] = new Collapsed(rows, c.statistics, aloneFrom, c.aloneLength, c.classOf,
+              c.classGroup, c.terms);
         }
         runRow[r] = start;
         runLength[r] = kept.size - start;
@@ -393,14 +402,25 @@ final class CompiledConditional implements ConditionalDensity {
    * are summed one by one as before, in ranges of consecutive rows. Decided at compile time: a
    * run with no two rows alike is not collapsed and costs nothing more.
    *
+   * <p>Groups of a family that factors its exponential ({@link AffineRows#factorsGroups}) are
+   * also sorted into classes of one slope: groups whose {@code b} form has the same numbers have
+   * the same {@code b} in every state (every patient's {@code slope} of {@code intercept + slope
+   * dose + effect[clinic]} in an effect's conditional; one class per dose in a line along the
+   * intercept and slope), so {@code exp(-+(a + b x)) = exp(-+a) exp(-+b x)} needs {@code exp(a)}
+   * once per group and draw ({@link Workspace#factorGroups}) and {@code exp(b x)} once per class
+   * and evaluation, not an exponential per group and evaluation. Only where there are at most
+   * half as many classes as groups.
+   *
    * @param rows per group, the row its linear predictor is read from
    * @param statistics per group, its {@link AffineRows#statisticsPerGroup} sums
    * @param aloneFrom first row of each range of rows evaluated alone
    * @param aloneLength the rows in that range
+   * @param classOf per group, its class of one slope; null where the exponential is not factored
+   * @param classGroup per class, a group of it (whose row its {@code b} is read from)
    * @param terms the run's rows (terms) in all
    */
-  private record Collapsed(
-      int[] rows, double[] statistics, int[] aloneFrom, int[] aloneLength, int terms) {
+  private record Collapsed(int[] rows, double[] statistics, int[] aloneFrom, int[] aloneLength,
+      int[] classOf, int[] classGroup, int terms) {
     static Collapsed of(Shape shape, int from, int count) {
       AffineRows family = shape.term.rows;
       if (family == null || family.statisticsPerGroup() == 0 || count < 2
@@ -428,10 +448,10 @@ final class CompiledConditional implements ConditionalDensity {
           groupOf[j] = -1;
           continue;
         }
-        long hash = shape.predictorHash(moving, row);
+        long hash = shape.formsHash(2 * moving, 2 * moving + 1, row);
         Integer head = byHash.get(hash);
         int g = head == null ? -1 : head;
-        while (g >= 0 && !shape.samePredictor(moving, firstRow.values[g], row)) {
+        while (g >= 0 && !shape.sameForms(2 * moving, 2 * moving + 1, firstRow.values[g], row)) {
           g = nextWithHash.values[g];
         }
         if (g < 0) {
@@ -473,7 +493,37 @@ final class CompiledConditional implements ConditionalDensity {
           aloneLength.add(1);
         }
       }
-      return new Collapsed(rows, statistics, aloneFrom.toArray(), aloneLength.toArray(), count);
+      int[] classOf = null;
+      int[] classGroup = null;
+      if (family.factorsGroups()) {
+        classOf = new int[groups];
+        RowColumn.IntList firstGroup = new RowColumn.IntList();
+        RowColumn.IntList nextInClass = new RowColumn.IntList();
+        Map<Long, Integer> classByHash = new HashMap<>();
+        int f = 2 * moving + 1;
+        for (int g = 0; g < groups; g++) {
+          long hash = shape.formsHash(f, f, rows[g]);
+          Integer head = classByHash.get(hash);
+          int k = head == null ? -1 : head;
+          while (k >= 0 && !shape.sameForms(f, f, rows[firstGroup.values[k]], rows[g])) {
+            k = nextInClass.values[k];
+          }
+          if (k < 0) {
+            k = firstGroup.size;
+            firstGroup.add(g);
+            nextInClass.add(head == null ? -1 : head);
+            classByHash.put(hash, k);
+          }
+          classOf[g] = k;
+        }
+        classGroup = firstGroup.toArray();
+        if (2 * classGroup.length > groups) {
+          classOf = null;
+          classGroup = null;
+        }
+      }
+      return new Collapsed(rows, statistics, aloneFrom.toArray(), aloneLength.toArray(), classOf,
+          classGroup, count);
     }
 
     /** The evaluations a call makes: one per group and per row alone. */
@@ -580,10 +630,13 @@ final class CompiledConditional implements ConditionalDensity {
       return false;
     }
 
-    /** A hash of the bits of part {@code p}'s forms ({@code a} and {@code b}) at row {@code r}. */
-    long predictorHash(int p, int r) {
+    /**
+     * A hash of the bits of forms {@code first .. last} at row {@code r} (part {@code p}'s {@code
+     * a} and {@code b} are forms {@code 2 p} and {@code 2 p + 1}).
+     */
+    long formsHash(int first, int last, int r) {
       long hash = 17;
-      for (int f = 2 * p; f <= 2 * p + 1; f++) {
+      for (int f = first; f <= last; f++) {
         hash = 31 * hash + Double.doubleToRawLongBits(constants[f].at(r));
         for (int e = 0; e < slots[f].length; e++) {
           hash = 31 * hash + slots[f][e].at(r);
@@ -593,9 +646,9 @@ final class CompiledConditional implements ConditionalDensity {
       return hash;
     }
 
-    /** Whether part {@code p}'s forms hold the same bits at rows {@code r} and {@code t}. */
-    boolean samePredictor(int p, int r, int t) {
-      for (int f = 2 * p; f <= 2 * p + 1; f++) {
+    /** Whether forms {@code first .. last} hold the same bits at rows {@code r} and {@code t}. */
+    boolean sameForms(int first, int last, int r, int t) {
+      for (int f = first; f <= last; f++) {
         if (Double.doubleToRawLongBits(constants[f].at(r))
             != Double.doubleToRawLongBits(constants[f].at(t))) {
           return false;
@@ -611,15 +664,34 @@ final class CompiledConditional implements ConditionalDensity {
       return true;
     }
 
-    /** {@code constant + sum of coefficient * state[slot]} of form {@code f} at row {@code r}. */
-    double linearValue(int f, int r, double[] state) {
-      double value = constants[f].at(r);
-      RowColumn.Ints[] s = slots[f];
-      RowColumn.Doubles[] c = coefficients[f];
-      for (int e = 0; e < s.length; e++) {
-        value += c[e].at(r) * state[s[e].at(r)];
+    /**
+     * {@code constant + sum of coefficient * state[slot]} of form {@code f} at rows {@code from ..
+     * to - 1} into {@code column[from .. to - 1]}, one pass per entry of the form over the rows
+     * rather than one call a row: the same additions in the same order in each row, so the same
+     * bits, with an entry that reads one slot in every row (the {@code intercept} of every
+     * patient) read once.
+     */
+    void linearValues(int f, int from, int to, double[] state, double[] column) {
+      double[] constant = constants[f].values;
+      int constantStride = constants[f].stride;
+      for (int r = from; r < to; r++) {
+        column[r] = constant[r * constantStride];
       }
-      return value;
+      for (int e = 0; e < slots[f].length; e++) {
+        double[] coefficient = coefficients[f][e].values;
+        int coefficientStride = coefficients[f][e].stride;
+        int[] slot = slots[f][e].values;
+        if (slots[f][e].stride == 0) {
+          double value = state[slot[0]];
+          for (int r = from; r < to; r++) {
+            column[r] += coefficient[r * coefficientStride] * value;
+          }
+        } else {
+          for (int r = from; r < to; r++) {
+            column[r] += coefficient[r * coefficientStride] * state[slot[r]];
+          }
+        }
+      }
     }
   }
 
@@ -663,6 +735,17 @@ final class CompiledConditional implements ConditionalDensity {
     final double[] sums = new double[2];
     /** The runs' kept numbers ({@link AffineRows#keep}). */
     final double[] kept = new double[keptCount];
+    /**
+     * Per run whose groups factor their exponential (else null): {@code exp(a)} and {@code
+     * exp(-a)} of each group's intercept at this draw's state, and {@code exp(b x)}, {@code
+     * exp(-b x)} and {@code b} of each class at the evaluation's {@code x}; whether this draw's intercepts all
+     * lie within {@link #FACTORED_EXPONENT} (else the run is evaluated unfactored).
+     */
+    final double[][] groupExponentials =
+        runCollapsed == null ? null : new double[runCollapsed.length][];
+    final double[][] classExponentials =
+        runCollapsed == null ? null : new double[runCollapsed.length][];
+    final boolean[] factored = runCollapsed == null ? null : new boolean[runCollapsed.length];
     boolean ready;
     /** The members of a blanket that follows an allocation, kept up to date, or null. */
     final AllocationMembers.Tracker tracker = members == null ? null : members.tracker();
@@ -686,6 +769,73 @@ final class CompiledConditional implements ConditionalDensity {
         }
       }
       keep(false);
+      for (int r = 0; runCollapsed != null && r < runCollapsed.length; r++) {
+        if (runCollapsed[r] != null && runCollapsed[r].classOf != null) {
+          groupExponentials[r] = new double[2 * runCollapsed[r].rows.length];
+          classExponentials[r] = new double[3 * runCollapsed[r].classGroup.length];
+        }
+      }
+    }
+
+    /**
+     * {@code exp(a)} and {@code exp(-a)} of each group's intercept {@code a} in the runs that
+     * factor their groups' exponential, at the state just prepared: one exponential and one
+     * division per group and draw. A run with an intercept beyond {@link #FACTORED_EXPONENT} is
+     * evaluated unfactored in this draw (its factors could overflow or lose their bits).
+     */
+    void factorGroups() {
+      for (int r = 0; groupExponentials != null && r < groupExponentials.length; r++) {
+        double[] exponentials = groupExponentials[r];
+        if (exponentials == null) {
+          continue;
+        }
+        int s = runShape[r];
+        int moving = 1 + shapes[s].term.moving[0];
+        double[] as = intercepts[s][moving];
+        int as0 = interceptStrides[s][moving];
+        int[] rows = runCollapsed[r].rows;
+        boolean inside = true;
+        for (int g = 0; g < rows.length; g++) {
+          double a = as[rows[g] * as0];
+          inside &= Math.abs(a) <= FACTORED_EXPONENT;
+          double up = Math.exp(a);
+          exponentials[2 * g] = up;
+          exponentials[2 * g + 1] = 1.0 / up;
+        }
+        factored[r] = inside;
+      }
+    }
+
+    /**
+     * {@code exp(b x)}, {@code exp(-b x)} and {@code b} of each slope class of run {@code r} at
+     * {@code x};
+     * false (the run then evaluated unfactored) where some {@code |b x|} exceeds {@link
+     * #FACTORED_EXPONENT} or the draw's intercepts did.
+     */
+    boolean factorClasses(int r, double x) {
+      if (!factored[r]) {
+        return false;
+      }
+      int s = runShape[r];
+      int moving = 1 + shapes[s].term.moving[0];
+      double[] bs = slopes[s][moving];
+      int bs0 = slopeStrides[s][moving];
+      int[] rows = runCollapsed[r].rows;
+      int[] classGroup = runCollapsed[r].classGroup;
+      double[] exponentials = classExponentials[r];
+      for (int k = 0; k < classGroup.length; k++) {
+        double b = bs[rows[classGroup[k]] * bs0];
+        // a part free of the unknown has b x = 0, never 0 * inf
+        double bx = b == 0 ? 0.0 : b * x;
+        if (!(Math.abs(bx) <= FACTORED_EXPONENT)) {
+          return false;
+        }
+        double up = Math.exp(bx);
+        exponentials[3 * k] = up;
+        exponentials[3 * k + 1] = 1.0 / up;
+        exponentials[3 * k + 2] = b;
+      }
+      return true;
     }
 
     private void column(Shape shape, int f, double[][] into, int[] strides, int p) {
@@ -725,6 +875,7 @@ final class CompiledConditional implements ConditionalDensity {
         prepare(s, 0, shapes[s].rows);
       }
       keep(true);
+      factorGroups();
       for (int j = 0; j < inputs.length; j++) {
         inputValues[j] = state[inputs[j]];
       }
@@ -749,9 +900,7 @@ final class CompiledConditional implements ConditionalDensity {
       for (int f = 0; f < 2 * shape.parts; f++) {
         if (shape.varies(f)) {
           double[] column = (f & 1) == 0 ? intercepts[s][f >> 1] : slopes[s][f >> 1];
-          for (int r = from; r < to; r++) {
-            column[r] = shape.linearValue(f, r, frame.state);
-          }
+          shape.linearValues(f, from, to, frame.state, column);
         }
       }
     }
@@ -935,9 +1084,17 @@ final class CompiledConditional implements ConditionalDensity {
                 frame.gradient[term.arity]);
           } else {
             // The groups first, then the rows alone: the same terms in another order.
-            runRows[r].accumulateGroups(x, workspace.intercepts[s], workspace.interceptStrides[s],
-                workspace.slopes[s], workspace.slopeStrides[s], collapsed.rows,
-                collapsed.rows.length, collapsed.statistics, sums);
+            if (collapsed.classOf != null && workspace.factorClasses(r, x)) {
+              runRows[r].accumulateFactoredGroups(x, workspace.intercepts[s],
+                  workspace.interceptStrides[s], workspace.slopes[s], workspace.slopeStrides[s],
+                  collapsed.rows, collapsed.rows.length, collapsed.statistics,
+                  workspace.groupExponentials[r], collapsed.classOf,
+                  workspace.classExponentials[r], sums);
+            } else {
+              runRows[r].accumulateGroups(x, workspace.intercepts[s],
+                  workspace.interceptStrides[s], workspace.slopes[s], workspace.slopeStrides[s],
+                  collapsed.rows, collapsed.rows.length, collapsed.statistics, sums);
+            }
             int keptPerRow = runRows[r].keptPerRow();
             for (int k = 0; k < collapsed.aloneFrom.length; k++) {
               int from = collapsed.aloneFrom[k];

@@ -238,4 +238,12 @@ public final class LineDensity {
   public int termCount() {
     return termCount;
   }
+
+  /**
+   * The evaluations of terms or groups of one linear predictor one call makes ({@link
+   * CompiledConditional#evaluationsPerCall}); compiles the line if it was not yet.
+   */
+  int evaluationsPerCall() {
+    return compiled().evaluationsPerCall();
+  }
 }

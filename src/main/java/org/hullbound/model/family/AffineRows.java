@@ -89,4 +89,30 @@ public interface AffineRows {
       double[] sums) {
     throw new UnsupportedOperationException("no groups");
   }
+
+  /**
+   * Whether {@link #accumulateFactoredGroups} may stand for {@link #accumulateGroups}: the family's
+   * group needs no transcendental of {@code eta} but {@code exp(-|eta|)} (or {@code exp(eta)}) and
+   * what follows from it by arithmetic and one log.
+   */
+  default boolean factorsGroups() {
+    return false;
+  }
+
+  /**
+   * As {@link #accumulateGroups}, with each group's exponential taken as a product of factors
+   * worked out by the caller: {@code exp(a)} and {@code exp(-a)} of group {@code g}'s intercept at
+   * {@code groupExponentials[2 g]}, {@code [2 g + 1]} (once per draw), {@code exp(b x)}, {@code
+   * exp(-b x)} and {@code b} itself of its class {@code k = classOf[g]} at {@code
+   * classExponentials[3 k .. 3 k + 2]} (once per call; every group of a class has that {@code b},
+   * which is read from there rather than from the slopes' column), each exponent at most 700 in
+   * size; so {@code exp(-|eta|)} is {@code exp(-a) exp(-b x)} where {@code eta > 0}, else {@code
+   * exp(a) exp(b x)}: within a few ulps of the exact, with no exponential per group. Equal to
+   * {@link #accumulateGroups} to rounding.
+   */
+  default void accumulateFactoredGroups(double x, double[][] intercepts, int[] interceptStrides,
+      double[][] slopes, int[] slopeStrides, int[] rows, int count, double[] statistics,
+      double[] groupExponentials, int[] classOf, double[] classExponentials, double[] sums) {
+    throw new UnsupportedOperationException("no factored groups");
+  }
 }
