@@ -1031,6 +1031,20 @@ final class CompiledConditional implements ConditionalDensity {
     return total;
   }
 
+  /**
+   * The classes of one slope over the runs whose groups factor their exponential ({@link
+   * Collapsed}); 0 where none does.
+   */
+  int slopeClasses() {
+    int classes = 0;
+    for (int r = 0; runCollapsed != null && r < runCollapsed.length; r++) {
+      if (runCollapsed[r] != null && runCollapsed[r].classGroup != null) {
+        classes += runCollapsed[r].classGroup.length;
+      }
+    }
+    return classes;
+  }
+
   /** Whether some run of terms is summed by an {@link AffineRows} loop. */
   boolean summedInRuns() {
     if (runRows == null) {

@@ -178,6 +178,55 @@ class CollapsedRowsTest {
     }
   }
 
+  /**
+   * Groups of one slope form share {@code exp(b x)} (one class per dose here) and take {@code
+   * exp(a)} once per draw: the factored exponential must agree with the rows one by one as the
+   * unfactored one does, also where an intercept or {@code b x} lies beyond 700 (evaluated
+   * unfactored then) and right at it.
+   */
+  @Test
+  void groupsOfOneSlopeFactorTheirExponential() {
+    StringBuilder ys = new StringBuilder();
+    StringBuilder sites = new StringBuilder();
+    StringBuilder doses = new StringBuilder();
+    RandomGenerator data = RandomGeneratorFactory.of("L64X128MixRandom").create(5L);
+    for (int i = 0; i < 300; i++) {
+      String sep = i == 0 ? "" : ", ";
+      ys.append(sep).append(data.nextInt(2));
+      sites.append(sep).append(1 + data.nextInt(10));
+      doses.append(sep).append(data.nextInt(3) * 0.5);
+    }
+    BoundModel model = bind(String.join("\n",
+        "index site = 1 .. 10",
+        "index i = 1 .. 300",
+        "data site_of[i] = [" + sites + "]",
+        "data dose[i] = [" + doses + "]",
+        "param slope ~ normal(mean = 0, sd = 2)",
+        "param effect[site] ~ normal(mean = 0, sd = 2)",
+        "data y[i] = [" + ys + "] ~ bernoulli(logit_p = effect[site_of[i]] + slope * dose[i])"));
+    CompiledConditional slope = conditional(model, "slope");
+    assertEquals(1 + 30, slope.evaluationsPerCall(), "own prior, one group a (site, dose)");
+    assertEquals(3, slope.slopeClasses(), "one class a dose");
+    CompiledConditional effect = conditional(model, "effect[4]");
+    assertEquals(1, effect.slopeClasses(), "every row's coefficient of effect[4] is 1");
+    double[] state = model.initialState();
+    RandomGenerator random = RandomGeneratorFactory.of("L64X128MixRandom").create(13L);
+    int compared = 0;
+    for (int draw = 0; draw < 100; draw++) {
+      double scale = draw % 4 == 3 ? 800 : draw % 4 == 2 ? 100 : 3;
+      for (int k = 1; k <= 10; k++) {
+        state[model.unknown("effect[" + k + "]").index()] = scale * random.nextGaussian();
+      }
+      state[model.unknown("slope").index()] = 3 * random.nextGaussian();
+      for (double u : new double[] {random.nextGaussian() * 4, 700, 1400, -1400.5, 1e4,
+          random.nextGaussian() * 600}) {
+        compared += agree(slope, u, state);
+        compared += agree(effect, u, state);
+      }
+    }
+    assertEquals(1200, compared);
+  }
+
   /** Value and slope of {@code c} at {@code u} against its terms one by one; returns 1. */
   private static int agree(CompiledConditional c, double u, double[] state) {
     double[] slope = new double[1];
