@@ -91,8 +91,8 @@ final class AdaptiveRejectionUpdater implements Updater {
   AdaptiveRejectionUpdater(UpdateRule.AdaptiveRejection rule, long adaptationSweeps) {
     this.adaptationSweeps = adaptationSweeps;
     this.index = rule.index();
-    this.conditional = rule.conditional();
-    this.smooth = rule.conditional().smooth();
+    this.conditional = rule.conditional().forOneChain();
+    this.smooth = conditional.smooth();
     this.reason = rule.reason();
   }
 

@@ -323,6 +323,12 @@ public final class ModelSampler {
       public boolean discrete() {
         return discrete;
       }
+
+      @Override
+      public ScalarConditional forOneChain() {
+        ConditionalDensity own = density.forOneChain();
+        return own == density ? this : adapt(own);
+      }
     };
   }
 

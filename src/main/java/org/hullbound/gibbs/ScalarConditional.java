@@ -47,4 +47,12 @@ public interface ScalarConditional {
   default boolean discrete() {
     return false;
   }
+
+  /**
+   * This conditional for one chain's updater (the model's {@link
+   * org.hullbound.model.ConditionalDensity#forOneChain}): the same values; this itself by default.
+   */
+  default ScalarConditional forOneChain() {
+    return this;
+  }
 }

@@ -551,6 +551,16 @@ final class CompiledConditional implements ConditionalDensity {
     final RowColumn.Ints[][] slots;
     final RowColumn.Doubles[][] coefficients;
     int rows;
+    /**
+     * Set by {@link #finish}, read at the start of every draw instead of the evaluator and the
+     * columns themselves (a draw of one of 3,600 effects otherwise touches each object anew): the
+     * forms that read another unknown ({@link #varies}), whether the term keeps trees of {@code a}
+     * and {@code b} ({@link TermEvaluator#preparesTrees}), and the part that moves ({@code 1 +} the
+     * moving argument, or -1 where none or several do).
+     */
+    int[] varyingForms;
+    boolean preparesTrees;
+    int movingPart;
 
     Shape(TermEvaluator term) {
       this.term = term;
@@ -586,6 +596,7 @@ final class CompiledConditional implements ConditionalDensity {
     }
 
     void finish() {
+      RowColumn.IntList varying = new RowColumn.IntList();
       for (int f = 0; f < constants.length; f++) {
         if (constants[f] != null) {
           constants[f].finish();
@@ -594,7 +605,13 @@ final class CompiledConditional implements ConditionalDensity {
             coefficients[f][e].finish();
           }
         }
+        if (varies(f)) {
+          varying.add(f);
+        }
       }
+      varyingForms = varying.toArray();
+      preparesTrees = term.preparesTrees();
+      movingPart = term.moving.length == 1 ? 1 + term.moving[0] : -1;
     }
 
     /** Keeps rows {@code kept} only, in that order: row {@code k} is then row {@code kept[k]}. */
@@ -790,7 +807,7 @@ final class CompiledConditional implements ConditionalDensity {
           continue;
         }
         int s = runShape[r];
-        int moving = 1 + shapes[s].term.moving[0];
+        int moving = shapes[s].movingPart;
         double[] as = intercepts[s][moving];
         int as0 = interceptStrides[s][moving];
         int[] rows = runCollapsed[r].rows;
@@ -817,7 +834,7 @@ final class CompiledConditional implements ConditionalDensity {
         return false;
       }
       int s = runShape[r];
-      int moving = 1 + shapes[s].term.moving[0];
+      int moving = shapes[s].movingPart;
       double[] bs = slopes[s][moving];
       int bs0 = slopeStrides[s][moving];
       int[] rows = runCollapsed[r].rows;
@@ -894,14 +911,12 @@ final class CompiledConditional implements ConditionalDensity {
      */
     private void prepare(int s, int from, int to) {
       Shape shape = shapes[s];
-      if (shape.term.preparesTrees()) {
+      if (shape.preparesTrees) {
         shape.term.prepare(frame, intercepts[s], slopes[s]);
       }
-      for (int f = 0; f < 2 * shape.parts; f++) {
-        if (shape.varies(f)) {
-          double[] column = (f & 1) == 0 ? intercepts[s][f >> 1] : slopes[s][f >> 1];
-          shape.linearValues(f, from, to, frame.state, column);
-        }
+      for (int f : shape.varyingForms) {
+        double[] column = (f & 1) == 0 ? intercepts[s][f >> 1] : slopes[s][f >> 1];
+        shape.linearValues(f, from, to, frame.state, column);
       }
     }
 
@@ -974,6 +989,76 @@ final class CompiledConditional implements ConditionalDensity {
     Workspace workspace = workspaces.get();
     workspace.prepare(state);
     return logDensity(u, state, slope, workspace, true);
+  }
+
+  /**
+   * A view with a workspace of its own, made on its first evaluation (see the interface), for a
+   * conditional of at most {@value #ONE_CHAIN_TERMS} terms; a larger one stays with the thread's:
+   * its evaluations dwarf the lookup, and a workspace per chain rather than per worker thread
+   * (more chains than processors) would hold more of its per-row columns.
+   */
+  @Override
+  public ConditionalDensity forOneChain() {
+    return termCount > ONE_CHAIN_TERMS ? this : new OneChain();
+  }
+
+  /** The most terms a conditional has for {@link #forOneChain} to give it a workspace per chain. */
+  static final int ONE_CHAIN_TERMS = 1024;
+
+  /** This conditional with its own workspace in place of the thread's: the same arithmetic. */
+  private final class OneChain implements ConditionalDensity {
+    private Workspace workspace;
+
+    @Override
+    public double logDensity(double u, double[] state, double[] slope) {
+      Workspace own = workspace;
+      if (own == null) {
+        own = new Workspace();
+        workspace = own;
+      }
+      own.prepare(state);
+      return CompiledConditional.this.logDensity(u, state, slope, own, true);
+    }
+
+    @Override
+    public Unknown unknown() {
+      return unknown;
+    }
+
+    @Override
+    public Scale scale() {
+      return scale;
+    }
+
+    @Override
+    public double toNatural(double u) {
+      return CompiledConditional.this.toNatural(u);
+    }
+
+    @Override
+    public double toSamplingScale(double v) {
+      return CompiledConditional.this.toSamplingScale(v);
+    }
+
+    @Override
+    public double lowerBound(double[] state) {
+      return CompiledConditional.this.lowerBound(state);
+    }
+
+    @Override
+    public double upperBound(double[] state) {
+      return CompiledConditional.this.upperBound(state);
+    }
+
+    @Override
+    public boolean smooth() {
+      return smooth;
+    }
+
+    @Override
+    public int termCount() {
+      return termCount;
+    }
   }
 
   /**

@@ -50,4 +50,15 @@ public interface ConditionalDensity {
 
   /** How many likelihood and prior terms the conditional sums (its Markov blanket's size). */
   int termCount();
+
+  /**
+   * This conditional for the updater of one chain: the same values, bit for bit, from scratch
+   * space of its own rather than its thread's, so that a draw need not look that up (a sweep of
+   * grown {@code clinics} draws 3,600 conditionals, each once). Not for two threads at once: a
+   * chain's updates run one after another (on whichever thread), which is all it needs; this
+   * conditional itself where it keeps no scratch space.
+   */
+  default ConditionalDensity forOneChain() {
+    return this;
+  }
 }
