@@ -75,9 +75,10 @@ final class Binder {
     Slots slots = allocateSlots(scope, terms);
     lowering.readUnknownIndexes(new UnknownRanges(scope, terms));
     // Lets are checked even when nothing uses them, so a fault in one never hides.
-    DerivedQuantities derived = new LetBinding(scope, lowering).bind();
+    DerivedQuantities derived = new LetBinding(scope, data, lowering).bind();
     List<Node> withTerms = new ArrayList<>();
     Dependents dependents = new Dependents(slots.labels().size());
+    StatementFormula.RowCheck rowCheck = new StatementFormula.RowCheck();
     int termCount = 0;
     int[] ownTerm = new int[slots.labels().size()];
     Arrays.fill(ownTerm, -1);
@@ -91,14 +92,24 @@ final class Binder {
         continue;
       }
       withTerms.add(node);
-      // Every term is made and checked here once, and then dropped: the model makes a data
-      // row's term again when asked (TermTable), as holding one per row would not scale.
+      // Every row is checked here once, from its statement's formula in numbers where it has
+      // one (no term made; a row with a fault is lowered, which names it), else by making its
+      // term and dropping it: the model makes a data row's term again when asked (TermTable),
+      // as holding one per row would not scale.
       for (int e = 0; e < node.size; e++) {
-        Term term = terms.term(node, e);
-        if (term.owner() >= 0) {
-          ownTerm[term.owner()] = termCount;
+        if (terms.checkedFromStatement(node, e, rowCheck)) {
+          int owner = node.slots[e];
+          if (owner >= 0) {
+            ownTerm[owner] = termCount;
+          }
+          dependents.add(termCount, rowCheck.slots(), rowCheck.slotCount(), owner);
+        } else {
+          Term term = terms.term(node, e);
+          if (term.owner() >= 0) {
+            ownTerm[term.owner()] = termCount;
+          }
+          dependents.add(termCount, term);
         }
-        dependents.add(termCount, term);
         termCount++;
       }
     }

@@ -29,11 +29,14 @@ final class Dependents {
   private final int[] first;
   private final int[] sizes;
   private final Set<Integer> read = new LinkedHashSet<>();
+  /** Per slot, 1 + the last term added to its list by {@link #add(int, int[], int, int)}. */
+  private final int[] lastAdded;
 
   Dependents(int slots) {
     lists = new int[slots][];
     first = new int[slots];
     sizes = new int[slots];
+    lastAdded = new int[slots];
   }
 
   /** Adds term {@code index} to the list of every slot it reads but its owner. */
@@ -45,6 +48,22 @@ final class Dependents {
     }
     for (int s : read) {
       if (s != term.owner()) {
+        append(s, index);
+      }
+    }
+  }
+
+  /**
+   * Adds term {@code index}, whose arguments read {@code slots[0 .. count)} (with repeats) and
+   * whose value is its owner's slot or data, to the list of every slot it reads but {@code
+   * owner}: the same lists as {@link #add(int, Term)} makes of its term, with no term made.
+   */
+  void add(int index, int[] slots, int count, int owner) {
+    for (int i = 0; i < count; i++) {
+      int s = slots[i];
+      // a slot read twice is listed once
+      if (s != owner && lastAdded[s] != index + 1) {
+        lastAdded[s] = index + 1;
         append(s, index);
       }
     }

@@ -15,26 +15,57 @@ import org.hullbound.lang.Statement;
  */
 final class LetBinding {
   private final BindingScope scope;
+  private final DataBinding data;
   private final ModelLowering lowering;
 
-  LetBinding(BindingScope scope, ModelLowering lowering) {
+  LetBinding(BindingScope scope, DataBinding data, ModelLowering lowering) {
     this.scope = scope;
+    this.data = data;
     this.lowering = lowering;
   }
 
   /** Resolves every let and chooses the ones kept with the draws. */
   DerivedQuantities bind() {
     DerivedQuantities.Builder derived = new DerivedQuantities.Builder();
+    StatementFormula.RowCheck check = new StatementFormula.RowCheck();
     for (Node node : scope.nodes.values()) {
-      if (node.kind == Node.Kind.LET) {
-        List<Formula> values = new ArrayList<>(node.size);
-        for (int e = 0; e < node.size; e++) {
-          values.add(lowering.name(referenceTo(node, e), Map.of()));
-        }
-        chooseKept(node, values, derived);
+      if (node.kind != Node.Kind.LET) {
+        continue;
       }
+      StatementFormula.RowFormula rows = perRow(node);
+      if (rows != null) {
+        // checked from its body lowered once; an element with a fault is lowered, naming it
+        for (int e = 0; e < node.size; e++) {
+          if (!StatementFormula.letRowFine(node, rows, e, check)) {
+            lowering.name(referenceTo(node, e), Map.of());
+          }
+        }
+        chooseKept(node, null, derived);
+        continue;
+      }
+      List<Formula> values = new ArrayList<>(node.size);
+      for (int e = 0; e < node.size; e++) {
+        values.add(lowering.name(referenceTo(node, e), Map.of()));
+      }
+      chooseKept(node, values, derived);
     }
     return derived.build();
+  }
+
+  /**
+   * The body of a let per data row lowered once over its rows, or {@code null} where its elements
+   * are resolved one by one: a let of few elements (lowering caches them, and other formulas
+   * share them), one marked {@code keep} (its elements' formulas go with the draws), one whose
+   * body {@link StatementFormula#letRows} does not cover. The choice of derived quantities reads
+   * no element's formula for the others: they are hidden, or vectors not kept by default.
+   */
+  private StatementFormula.RowFormula perRow(Node node) {
+    if (node.size <= ModelLowering.LARGEST_HELD_LET
+        || ((Statement.Let) node.statement).keeping() == Statement.Keeping.KEEP
+        || node.target.indexSets().isEmpty()) {
+      return null;
+    }
+    return StatementFormula.letRows(node, scope, data, lowering);
   }
 
   /** Whether let {@code node}'s values go with the draws (see {@link DerivedQuantities}). */

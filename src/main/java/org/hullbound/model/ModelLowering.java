@@ -35,6 +35,8 @@ final class ModelLowering implements ExpressionLowering.Leaves {
   private UnknownRanges unknownRanges;
   /** Lets with more elements than this are not cached once binding is over ({@link #bound}). */
   private int largestCachedLet = Integer.MAX_VALUE;
+  /** How many let elements were lowered from the let's syntax ({@link #letLowerings}). */
+  private long letLowerings;
 
   /** A let of more elements than this is one per data row, whose formulas are not held. */
   static final int LARGEST_HELD_LET = 4096;
@@ -313,14 +315,21 @@ final class ModelLowering implements ExpressionLowering.Leaves {
     if (!cachesLet(node)) {
       // Not cached: inside a check the checked name's elements are slots, not its data; a
       // let per data row once binding is over.
+      letLowerings++;
       return resolve(node.letValue, letEnv);
     }
     int offset = node.offset(index);
     Formula[] cache = letCache.computeIfAbsent(node, k -> new Formula[k.size]);
     if (cache[offset] == null) {
+      letLowerings++;
       cache[offset] = resolve(node.letValue, letEnv);
     }
     return cache[offset];
+  }
+
+  /** How many let elements were lowered from the let's syntax (a regression count). */
+  long letLowerings() {
+    return letLowerings;
   }
 
   /** Whether the elements of let {@code node} are cached now (see {@link #bound}). */

@@ -457,6 +457,7 @@ final class MovePatterns {
     Set<String> pieces = new LinkedHashSet<>();
     int scaleFree = 0;
     Moved rows = moved instanceof Moved m ? m : null;
+    java.util.function.IntPredicate moves = rows == null ? null : rows::moves;
     StatementFormula.ArgumentAnswers answered = new StatementFormula.ArgumentAnswers();
     for (int i = 0; i < moved.size(); i++) {
       StatementFormula statement = rows == null ? null : rows.statement(i);
@@ -465,7 +466,7 @@ final class MovePatterns {
         // unknown (so it is not scale-free), and an argument that reads a moved unknown stays
         // affine along the line, as every line here moves each unknown affinely in t; the row
         // says only which arguments move.
-        int k = statement.movingArgument(rows.row(i), rows::moves);
+        int k = statement.movingArgument(rows.row(i), moves);
         if (k == StatementFormula.NO_ARGUMENT) {
           continue;
         }

@@ -29,6 +29,94 @@ final class StatementFormula {
   /** A formula of a row, given the row's index values; {@code null} where lowering must decide. */
   sealed interface RowFormula {
     Formula at(int[] row);
+
+    /**
+     * The row's value of this formula as folding makes it ({@link Formulas#apply}: the same
+     * operations in the same order, so the same bits), with no formula made; each unknown it
+     * reads goes to {@code check} ({@link RowCheck#read}), and then the value means nothing. A
+     * row that {@link #at} would answer with {@code null} or lowering would refuse (an index not
+     * whole or outside its set, an index that reads an unknown) sets {@link RowCheck#fault}, and
+     * nothing is read after a fault, as lowering stops at the first.
+     */
+    double value(int[] row, RowCheck check);
+  }
+
+  /**
+   * What a numeric pass over a row found ({@link RowFormula#value}): a fault that only lowering
+   * can name, whether an unknown was read and which slots (with repeats). One per pass over a
+   * statement's rows, reused from row to row, so that checking a row makes no object.
+   */
+  static final class RowCheck {
+    boolean fault;
+    boolean unknown;
+    private int[] slots = new int[8];
+    private int slotCount;
+    /** The row's index values, filled by {@link #rowOf}. */
+    private int[] row = new int[1];
+    /** Per argument, its value where known, else {@code NaN}: as binding's {@code known}. */
+    double[] known = new double[0];
+    /** Per argument, whether it reads no unknown (a constant once folded). */
+    boolean[] isKnown = new boolean[0];
+    boolean allKnown;
+    double lower;
+    double upper;
+
+    /** Unknown {@code slot} is read. */
+    void read(int slot) {
+      unknown = true;
+      if (slotCount == slots.length) {
+        slots = java.util.Arrays.copyOf(slots, 2 * slots.length);
+      }
+      slots[slotCount++] = slot;
+    }
+
+    /** The slots read since {@link #start}, with repeats, in {@code slots()[0 .. slotCount())}. */
+    int[] slots() {
+      return slots;
+    }
+
+    int slotCount() {
+      return slotCount;
+    }
+
+    /** Starts a row of {@code arguments} arguments. */
+    void start(int arguments) {
+      fault = false;
+      unknown = false;
+      slotCount = 0;
+      if (known.length != arguments) {
+        known = new double[arguments];
+        isKnown = new boolean[arguments];
+      }
+    }
+
+    /** The index values of element {@code e} of {@code node}, in a buffer reused by the pass. */
+    int[] rowOf(Node node, int e) {
+      List<IndexSet> sets = node.indexSets;
+      if (row.length != sets.size()) {
+        row = new int[sets.size()];
+      }
+      int offset = e;
+      for (int i = row.length - 1; i >= 0; i--) {
+        IndexSet set = sets.get(i);
+        row[i] = set.lower() + offset % set.size();
+        offset /= set.size();
+      }
+      return row;
+    }
+
+    /**
+     * {@code f}'s value at {@code row} where it must be known (an index, a truncation bound):
+     * an unknown read there is a fault, and {@link #unknown} is left as it was.
+     */
+    double knownValue(RowFormula f, int[] row) {
+      boolean before = unknown;
+      unknown = false;
+      double v = f.value(row, this);
+      fault |= unknown;
+      unknown = before;
+      return v;
+    }
   }
 
   /** A formula that is the same for every row (a number). */
@@ -36,6 +124,11 @@ final class StatementFormula {
     @Override
     public Formula at(int[] row) {
       return formula;
+    }
+
+    @Override
+    public double value(int[] row, RowCheck check) {
+      return ((Formula.Constant) formula).value();
     }
   }
 
@@ -45,6 +138,11 @@ final class StatementFormula {
     public Formula at(int[] row) {
       return Formula.constant(row[position]);
     }
+
+    @Override
+    public double value(int[] row, RowCheck check) {
+      return row[position];
+    }
   }
 
   /** The whole value of an index formula, as a let's body reads the set it is indexed by. */
@@ -53,6 +151,11 @@ final class StatementFormula {
     public Formula at(int[] row) {
       Formula f = index.at(row);
       return f instanceof Formula.Constant c ? Formula.constant((int) c.value()) : null;
+    }
+
+    @Override
+    public double value(int[] row, RowCheck check) {
+      return (int) check.knownValue(index, row);
     }
   }
 
@@ -69,6 +172,20 @@ final class StatementFormula {
         made.add(f);
       }
       return Formulas.apply(op, made);
+    }
+
+    @Override
+    public double value(int[] row, RowCheck check) {
+      if (op == Op.ADD) {
+        // Formulas.apply sums a sum's known parts from 0, in order
+        double sum = 0;
+        for (RowFormula part : parts) {
+          sum += part.value(row, check);
+        }
+        return sum;
+      }
+      double a = parts[0].value(row, check);
+      return parts.length == 1 ? op.unary(a) : op.binary(a, parts[1].value(row, check));
     }
   }
 
@@ -90,6 +207,31 @@ final class StatementFormula {
         case MAX -> ModelLowering.pairwise(Op.MAX, made, 0, made.size());
         case MIN -> ModelLowering.pairwise(Op.MIN, made, 0, made.size());
       };
+    }
+
+    @Override
+    public double value(int[] row, RowCheck check) {
+      return switch (reduction) {
+        case SUM -> {
+          double sum = 0;
+          for (RowFormula term : terms) {
+            sum += term.value(row, check);
+          }
+          yield sum;
+        }
+        case MAX -> pairwise(Op.MAX, row, check, 0, terms.length);
+        case MIN -> pairwise(Op.MIN, row, check, 0, terms.length);
+      };
+    }
+
+    /** {@link ModelLowering#pairwise}'s balanced tree, in numbers. */
+    private double pairwise(Op op, int[] row, RowCheck check, int from, int to) {
+      if (to - from == 1) {
+        return terms[from].value(row, check);
+      }
+      int middle = (from + to) >>> 1;
+      double a = pairwise(op, row, check, from, middle);
+      return op.binary(a, pairwise(op, row, check, middle, to));
     }
   }
 
@@ -127,6 +269,78 @@ final class StatementFormula {
         case PARAM -> lowering.slot(node.slots[offset]);
         case LET -> body != null ? body.at(row) : lowering.letElement(node, index);
       };
+    }
+
+    @Override
+    public double value(int[] row, RowCheck check) {
+      if (check.fault) {
+        return Double.NaN;
+      }
+      int offset = 0;
+      for (int i = 0; i < indexes.length; i++) {
+        double v = check.knownValue(indexes[i], row);
+        IndexSet expected = node.indexSets.get(i);
+        if (check.fault || v != Math.rint(v) || !expected.contains(v)) {
+          check.fault = true;
+          return Double.NaN;
+        }
+        offset = offset * expected.size() + ((int) v - expected.lower());
+      }
+      switch (node.kind) {
+        case DATA:
+          if (!node.missing[offset]) {
+            return node.values[offset];
+          }
+          if (node.slots == null || node.slots[offset] < 0) {
+            check.fault = true;
+          } else {
+            check.read(node.slots[offset]);
+          }
+          return Double.NaN;
+        case PARAM:
+          check.read(node.slots[offset]);
+          return Double.NaN;
+        default:
+          if (body != null) {
+            return body.value(row, check);
+          }
+          // a let of few elements, cached by lowering: its formula, made once for all rows
+          int[] index = new int[indexes.length];
+          for (int i = 0; i < index.length; i++) {
+            index[i] = (int) indexes[i].value(row, check);
+          }
+          Formula f = lowering.letElement(node, index);
+          readSlots(f, check);
+          return f instanceof Formula.Constant c ? c.value() : Double.NaN;
+      }
+    }
+
+    /**
+     * The slot of this param element at {@code row}, in numbers, or -1 where its indexes have a
+     * fault there ({@link #at} would answer {@code null}).
+     */
+    int slotAt(int[] row, RowCheck check) {
+      check.fault = false;
+      int offset = 0;
+      for (int i = 0; i < indexes.length; i++) {
+        double v = check.knownValue(indexes[i], row);
+        IndexSet expected = node.indexSets.get(i);
+        if (check.fault || v != Math.rint(v) || !expected.contains(v)) {
+          return -1;
+        }
+        offset = offset * expected.size() + ((int) v - expected.lower());
+      }
+      return node.slots[offset];
+    }
+
+    private static void readSlots(Formula f, RowCheck check) {
+      if (f instanceof Formula.Slot slot) {
+        check.read(slot.index());
+      } else if (f instanceof Formula.Operation operation) {
+        for (Formula part : operation.parts()) {
+          readSlots(part, check);
+        }
+      }
     }
   }
 
@@ -293,12 +507,19 @@ final class StatementFormula {
    */
   static final class ArgumentAnswers {
     private final Map<StatementFormula, Object[]> answers = new HashMap<>();
+    /** The last statement asked and its answers: a pass asks for one statement's rows in a run. */
+    private StatementFormula last;
+    private Object[] lastAnswers;
 
     /** The answer for argument {@code k} of {@code statement}, from {@code answer} once. */
     Object of(StatementFormula statement, int k,
         java.util.function.BiFunction<Parametrisation, Integer, Object> answer) {
-      Object[] byArgument = answers.computeIfAbsent(statement,
-          st -> new Object[st.family().argumentNames().size()]);
+      if (statement != last) {
+        last = statement;
+        lastAnswers = answers.computeIfAbsent(statement,
+            st -> new Object[st.family().argumentNames().size()]);
+      }
+      Object[] byArgument = lastAnswers;
       if (byArgument[k] == null) {
         byArgument[k] = answer.apply(statement.family(), k);
       }
@@ -306,13 +527,19 @@ final class StatementFormula {
     }
   }
 
-  /** The arguments of row {@code e}'s term that read a slot {@code which} accepts, as bits. */
+  /**
+   * The arguments of row {@code e}'s term that read a slot {@code which} accepts, as bits. Read
+   * from the row's index values in numbers ({@link Element#slotAt}): a pass over millions of rows
+   * makes no object per row.
+   */
   long argumentsReading(int e, java.util.function.IntPredicate which) {
-    int[] row = node.index(e);
+    RowCheck check = SCRATCH.get();
+    int[] row = check.rowOf(node, e);
     long bits = 0;
     for (int k = 0; k < paramLeaves.length; k++) {
       for (Element leaf : paramLeaves[k]) {
-        if (leaf.at(row) instanceof Formula.Slot read && which.test(read.index())) {
+        int read = leaf.slotAt(row, check);
+        if (read >= 0 && which.test(read)) {
           bits |= 1L << k;
           break;
         }
@@ -321,15 +548,19 @@ final class StatementFormula {
     return bits;
   }
 
+  /** Each thread's buffers for the passes of the analyses over rows ({@link #argumentsReading}). */
+  private static final ThreadLocal<RowCheck> SCRATCH = ThreadLocal.withInitial(RowCheck::new);
+
   /**
    * The slots that argument {@code k} of row {@code e}'s term reads, with repeats, for a
    * statement {@link #affineInEveryUnknown} only (its params' elements are all it reads).
    */
   int[] argumentSlots(int e, int k) {
-    int[] row = node.index(e);
+    RowCheck check = SCRATCH.get();
+    int[] row = check.rowOf(node, e);
     int[] slots = new int[paramLeaves[k].length];
     for (int i = 0; i < slots.length; i++) {
-      slots[i] = ((Formula.Slot) paramLeaves[k][i].at(row)).index();
+      slots[i] = paramLeaves[k][i].slotAt(row, check);
     }
     return slots;
   }
@@ -417,13 +648,14 @@ final class StatementFormula {
    * exact whatever the order of its sum.
    */
   int unchangedWhenShifted(int e, int[] weights) {
-    int[] row = node.index(e);
+    RowCheck check = SCRATCH.get();
+    int[] row = check.rowOf(node, e);
     boolean changed = false;
     for (int k = 0; k < paramLeaves.length; k++) {
       int slope = 0;
       for (int i = 0; i < paramLeaves[k].length; i++) {
-        int slot = ((Formula.Slot) paramLeaves[k][i].at(row)).index();
-        int weight = slot < weights.length ? weights[slot] : 0;
+        int slot = paramLeaves[k][i].slotAt(row, check);
+        int weight = slot >= 0 && slot < weights.length ? weights[slot] : 0;
         if (weight == 0) {
           continue;
         }
@@ -459,6 +691,76 @@ final class StatementFormula {
       }
     }
     return true;
+  }
+
+  /**
+   * Whether binding may check this statement's rows from it ({@link #evaluateRow}) instead of
+   * lowering each: every row's term is made here, and no {@code check} is being bound.
+   */
+  boolean checksRows() {
+    return total && !lowering.replicating();
+  }
+
+  /**
+   * Row {@code e}'s arguments and truncation bounds in numbers, as its term would hold them once
+   * folded ({@link RowFormula#value}), into {@code check}: {@link RowCheck#known} and {@link
+   * RowCheck#isKnown} per argument, {@link RowCheck#allKnown}, the bounds, and the slots the
+   * arguments read. {@code false} at a fault that lowering the row would name (an index, an
+   * unknown bound); the row must then be lowered for its message.
+   */
+  boolean evaluateRow(int e, RowCheck check) {
+    check.start(arguments.length);
+    int[] row = check.rowOf(node, e);
+    boolean allKnown = true;
+    for (int k = 0; k < arguments.length; k++) {
+      check.unknown = false;
+      double v = arguments[k].value(row, check);
+      if (check.fault) {
+        return false;
+      }
+      boolean known = !check.unknown;
+      check.isKnown[k] = known;
+      check.known[k] = known ? v : Double.NaN;
+      allKnown &= known;
+    }
+    check.allKnown = allKnown;
+    if (lower != null) {
+      check.lower = check.knownValue(lower, row);
+      check.upper = check.knownValue(upper, row);
+    }
+    return !check.fault;
+  }
+
+  /**
+   * The body of let {@code node} (of more than {@link ModelLowering#LARGEST_HELD_LET} elements)
+   * lowered once over its index set, so that binding checks each element by numbers ({@link
+   * #letRowFine}) rather than lowering it; {@code null} where its elements must be lowered one
+   * by one (an index that may read an unknown, a form this does not cover).
+   */
+  static RowFormula letRows(
+      Node node, BindingScope scope, DataBinding data, ModelLowering lowering) {
+    Map<String, RowFormula> env = new HashMap<>();
+    for (int i = 0; i < node.indexSets.size(); i++) {
+      env.put(node.indexSets.get(i).name(), new SetValue(i));
+    }
+    Lowering rows = new Lowering(scope, data, lowering);
+    try {
+      RowFormula body = rows.lower(node.letValue, env);
+      return rows.total ? body : null;
+    } catch (NotCovered notCovered) {
+      return null;
+    }
+  }
+
+  /**
+   * Whether element {@code e} of let {@code node}, whose body is {@code body} ({@link #letRows}),
+   * resolves without a fault: its indexes whole and in their sets. Where not, lowering it names
+   * the fault.
+   */
+  static boolean letRowFine(Node node, RowFormula body, int e, RowCheck check) {
+    check.start(0);
+    body.value(check.rowOf(node, e), check);
+    return !check.fault;
   }
 
   /**

@@ -69,6 +69,45 @@ final class TermBinding {
     return rowLowerings;
   }
 
+  /** How many let elements lowering resolved from the let's syntax, binding's included. */
+  long letLowerings() {
+    return lowering.letLowerings();
+  }
+
+  /**
+   * Whether row {@code e} of {@code node} passes every check {@link #term} makes, worked out from
+   * its statement formula in numbers, with no formula or term made ({@link
+   * StatementFormula#evaluateRow}); the slots its arguments read are then in {@code check}. {@code
+   * false} where the statement cannot say (no statement formula) or the row has a fault: its term
+   * must then be made by {@link #term}, which names the fault as binding always did.
+   */
+  boolean checkedFromStatement(Node node, int e, StatementFormula.RowCheck check) {
+    StatementFormula statement = statement(node);
+    if (statement == null || !statement.checksRows() || !statement.evaluateRow(e, check)) {
+      return false;
+    }
+    Parametrisation p = node.parametrisation;
+    double[] known = check.known;
+    for (int k = 0; k < known.length; k++) {
+      if (check.isKnown[k] && p.checkArgument(k, known[k]) != null) {
+        return false;
+      }
+    }
+    if (check.allKnown && p.checkArguments(known) != null) {
+      return false;
+    }
+    boolean truncated = statement.truncated();
+    if (truncated && !(check.lower < check.upper)) {
+      return false;
+    }
+    if (node.slots[e] < 0) {
+      double y = node.values[e];
+      return outsideSupport(y, p, known, check.allKnown) == null
+          && (!truncated || y >= check.lower && y <= check.upper);
+    }
+    return true;
+  }
+
   private Term term(Node node, int e, boolean check) {
     rowLowerings++;
     int[] index = node.index(e);

@@ -27,6 +27,8 @@ final class TermTable extends AbstractList<Term> implements RandomAccess {
   private final Term[][] held;
   private final TermBinding binding;
   private final int size;
+  /** Each node's statement formula once asked, {@link #NO_STATEMENT} where it has none. */
+  private final java.util.concurrent.atomic.AtomicReferenceArray<Object> statements;
 
   private TermTable(Node[] nodes, int[] starts, Term[][] held, TermBinding binding) {
     this.nodes = nodes;
@@ -34,6 +36,7 @@ final class TermTable extends AbstractList<Term> implements RandomAccess {
     this.held = held;
     this.binding = binding;
     this.size = starts[nodes.length];
+    this.statements = new java.util.concurrent.atomic.AtomicReferenceArray<>(nodes.length);
   }
 
   /**
@@ -87,6 +90,13 @@ final class TermTable extends AbstractList<Term> implements RandomAccess {
     }
   }
 
+  /** How many let elements were lowered one by one from their let's syntax, binding's included. */
+  long letLowerings() {
+    synchronized (binding) {
+      return binding.letLowerings();
+    }
+  }
+
   /**
    * The indexes among {@code indexes} (increasing) of terms whose statement does not answer
    * {@code answered} for all its rows at once ({@link StatementFormula}): the terms a pass must
@@ -100,10 +110,7 @@ final class TermTable extends AbstractList<Term> implements RandomAccess {
     for (int index : indexes) {
       if (k < 0 || index >= starts[k + 1]) {
         k = node(index);
-        StatementFormula statement;
-        synchronized (binding) {
-          statement = held[k] != null ? null : binding.statement(nodes[k]);
-        }
+        StatementFormula statement = statementOfNode(k);
         skip = statement != null && answered.test(statement);
       }
       if (!skip) {
@@ -115,14 +122,27 @@ final class TermTable extends AbstractList<Term> implements RandomAccess {
 
   /** The statement formula term {@code index} is a row of, or {@code null} (a held prior). */
   StatementFormula statementOf(int index) {
-    int k = node(index);
-    if (held[k] != null) {
-      return null;
-    }
-    synchronized (binding) {
-      return binding.statement(nodes[k]);
-    }
+    return statementOfNode(node(index));
   }
+
+  /**
+   * The statement formula of node {@code k}, or {@code null}; looked up under the lock once per
+   * node and then read without it, as the analyses ask for every row of millions.
+   */
+  private StatementFormula statementOfNode(int k) {
+    Object found = statements.get(k);
+    if (found == null) {
+      synchronized (binding) {
+        StatementFormula made = held[k] != null ? null : binding.statement(nodes[k]);
+        found = made == null ? NO_STATEMENT : made;
+      }
+      statements.set(k, found);
+    }
+    return found == NO_STATEMENT ? null : (StatementFormula) found;
+  }
+
+  /** In {@link #statements}: the node has no statement formula. */
+  private static final Object NO_STATEMENT = new Object();
 
   /** The row (element) of term {@code index} within its node. */
   int rowOf(int index) {

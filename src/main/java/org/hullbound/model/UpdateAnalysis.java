@@ -201,17 +201,20 @@ final class UpdateAnalysis {
     Set<String> pieces = new LinkedHashSet<>();
     TermTable.Rows rows = dependents instanceof TermTable.Rows r ? r : null;
     StatementFormula.ArgumentAnswers answered = new StatementFormula.ArgumentAnswers();
+    java.util.function.IntPredicate unknown = read -> read == slot;
+    java.util.function.BiFunction<org.hullbound.model.family.Parametrisation, Integer, Object>
+        affinePieceHere = (family, a) -> affinePiece(family, a, where);
     for (int i = 0; i < dependents.size(); i++) {
       StatementFormula statement = rows == null || scale != Scale.NATURAL ? null
           : rows.statement(i);
       if (statement != null && statement.affineInEveryUnknown()) {
         // answered from the statement, the row only for which argument reads the unknown
-        int k = statement.movingArgument(rows.row(i), read -> read == slot);
+        int k = statement.movingArgument(rows.row(i), unknown);
         if (k == StatementFormula.NO_ARGUMENT) {
           continue;
         }
         Object answer = k < 0 ? null
-            : answered.of(statement, k, (family, a) -> affinePiece(family, a, where));
+            : answered.of(statement, k, affinePieceHere);
         if (answer instanceof Verdict failed) {
           return failed;
         }

@@ -83,7 +83,44 @@ class StatementFormulaTest {
     for (int i = 0; i < terms.size(); i++) {
       assertEquals(terms.lowered(i), terms.get(i), name + ", term " + i);
     }
+    assertDependentsReadFromTheTerms(name, bound);
     return terms.size();
+  }
+
+  /**
+   * Binding gathers each unknown's dependents and own term while it checks the rows, from the
+   * statements' formulas in numbers where it can (no term made): they are those the terms say,
+   * each term listed once under every slot its value or arguments read but its owner.
+   */
+  private static void assertDependentsReadFromTheTerms(String name, BoundModel bound) {
+    MovePatterns.Facts facts = bound.facts();
+    List<Term> terms = bound.terms();
+    int slots = facts.dependents().length;
+    List<List<Integer>> expected = new ArrayList<>();
+    int[] own = new int[slots];
+    java.util.Arrays.fill(own, -1);
+    for (int s = 0; s < slots; s++) {
+      expected.add(new ArrayList<>());
+    }
+    for (int t = 0; t < terms.size(); t++) {
+      Term term = terms.get(t);
+      java.util.Set<Integer> read = new java.util.TreeSet<>();
+      term.value().collectSlots(read);
+      term.arguments().forEach(a -> a.collectSlots(read));
+      for (int s : read) {
+        if (s != term.owner()) {
+          expected.get(s).add(t);
+        }
+      }
+      if (term.owner() >= 0) {
+        own[term.owner()] = t;
+      }
+    }
+    for (int s = 0; s < slots; s++) {
+      assertEquals(expected.get(s),
+          java.util.Arrays.stream(facts.dependents()[s]).boxed().toList(), name + ", slot " + s);
+    }
+    assertEquals(java.util.Arrays.toString(own), java.util.Arrays.toString(facts.ownTerm()), name);
   }
 
   private static List<DataTable> dataOf(Path model) throws IOException {
