@@ -96,8 +96,9 @@ final class Binder {
       // one (no term made; a row with a fault is lowered, which names it), else by making its
       // term and dropping it: the model makes a data row's term again when asked (TermTable),
       // as holding one per row would not scale.
+      StatementFormula statement = terms.checkingStatement(node);
       for (int e = 0; e < node.size; e++) {
-        if (terms.checkedFromStatement(node, e, rowCheck)) {
+        if (terms.checkedFromStatement(node, statement, e, rowCheck)) {
           int owner = node.slots[e];
           if (owner >= 0) {
             ownTerm[owner] = termCount;

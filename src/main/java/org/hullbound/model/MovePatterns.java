@@ -268,6 +268,7 @@ final class MovePatterns {
       }
     }
     Set<Integer> read = new LinkedHashSet<>();
+    int[] slots = new int[4];
     for (int j = 0; j < n; j++) {
       if (!candidate[j]) {
         continue;
@@ -279,13 +280,15 @@ final class MovePatterns {
           // the slots each argument of the row reads, from its indexes, with no term made
           int row = ((TermTable) f.terms()).rowOf(t);
           for (int k = 0; k < statement.family().argumentNames().size(); k++) {
-            int[] slots = statement.argumentSlots(row, k);
+            slots = statement.argumentSlots(row, k, slots);
+            int count = statement.argumentSlotCount(k);
             boolean readsJ = false;
-            for (int slot : slots) {
-              readsJ |= slot == j;
+            for (int i = 0; i < count; i++) {
+              readsJ |= slots[i] == j;
             }
             if (readsJ) {
-              for (int other : slots) {
+              for (int i = 0; i < count; i++) {
+                int other = slots[i];
                 if (other != j && candidate[other]) {
                   root[find(root, other)] = find(root, j);
                 }

@@ -96,6 +96,11 @@ final class StatementFormula {
       if (row.length != sets.size()) {
         row = new int[sets.size()];
       }
+      if (row.length == 1) {
+        // a statement per data row: its element is its row
+        row[0] = sets.get(0).lower() + e;
+        return row;
+      }
       int offset = e;
       for (int i = row.length - 1; i >= 0; i--) {
         IndexSet set = sets.get(i);
@@ -556,13 +561,30 @@ final class StatementFormula {
    * statement {@link #affineInEveryUnknown} only (its params' elements are all it reads).
    */
   int[] argumentSlots(int e, int k) {
+    return argumentSlots(e, k, new int[paramLeaves[k].length]);
+  }
+
+  /**
+   * {@link #argumentSlots(int, int)} into {@code slots} when it is long enough (a pass over rows
+   * then makes no array per row), else into a new array; the slots fill its first {@link
+   * #argumentSlotCount} entries.
+   */
+  int[] argumentSlots(int e, int k, int[] slots) {
+    int count = paramLeaves[k].length;
+    if (slots.length < count) {
+      slots = new int[count];
+    }
     RowCheck check = SCRATCH.get();
     int[] row = check.rowOf(node, e);
-    int[] slots = new int[paramLeaves[k].length];
-    for (int i = 0; i < slots.length; i++) {
+    for (int i = 0; i < count; i++) {
       slots[i] = paramLeaves[k][i].slotAt(row, check);
     }
     return slots;
+  }
+
+  /** How many slots argument {@code k} of every row reads, with repeats ({@link #argumentSlots}). */
+  int argumentSlotCount(int k) {
+    return paramLeaves[k].length;
   }
 
   /** Each argument's param elements if every argument is affine in them (see above), or null. */

@@ -75,15 +75,25 @@ final class TermBinding {
   }
 
   /**
-   * Whether row {@code e} of {@code node} passes every check {@link #term} makes, worked out from
+   * The statement formula from which binding checks the rows of {@code node} ({@link
+   * #checkedFromStatement}), or {@code null} where each row's term is made to check it.
+   */
+  StatementFormula checkingStatement(Node node) {
+    StatementFormula statement = statement(node);
+    return statement != null && statement.checksRows() ? statement : null;
+  }
+
+  /**
+   * Whether row {@code e} of {@code node} ({@code statement} its {@link #checkingStatement})
+   * passes every check {@link #term} makes, worked out from
    * its statement formula in numbers, with no formula or term made ({@link
    * StatementFormula#evaluateRow}); the slots its arguments read are then in {@code check}. {@code
    * false} where the statement cannot say (no statement formula) or the row has a fault: its term
    * must then be made by {@link #term}, which names the fault as binding always did.
    */
-  boolean checkedFromStatement(Node node, int e, StatementFormula.RowCheck check) {
-    StatementFormula statement = statement(node);
-    if (statement == null || !statement.checksRows() || !statement.evaluateRow(e, check)) {
+  boolean checkedFromStatement(
+      Node node, StatementFormula statement, int e, StatementFormula.RowCheck check) {
+    if (statement == null || !statement.evaluateRow(e, check)) {
       return false;
     }
     Parametrisation p = node.parametrisation;

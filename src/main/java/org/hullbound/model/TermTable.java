@@ -151,6 +151,11 @@ final class TermTable extends AbstractList<Term> implements RandomAccess {
 
   /** The node of term {@code index}. */
   private int node(int index) {
+    NodeRange range = lastRange;
+    if (index >= range.start() && index < range.end()) {
+      // a pass reads a node's rows one after the other: no search for each
+      return range.node();
+    }
     if (index < 0 || index >= size) {
       throw new IndexOutOfBoundsException("index must be in 0 .. " + (size - 1) + ", got " + index);
     }
@@ -160,8 +165,15 @@ final class TermTable extends AbstractList<Term> implements RandomAccess {
     while (starts[k + 1] == index) {
       k++;
     }
+    lastRange = new NodeRange(k, starts[k], starts[k + 1]);
     return k;
   }
+
+  /** The terms {@code start .. end - 1} of node {@code node}: the last one {@link #node} found. */
+  private record NodeRange(int node, int start, int end) {}
+
+  /** Read and replaced by any thread: a range is immutable, and any one of them is right. */
+  private volatile NodeRange lastRange = new NodeRange(-1, 0, 0);
 
   @Override
   public int size() {
