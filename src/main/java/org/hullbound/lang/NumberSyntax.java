@@ -103,12 +103,12 @@ public final class NumberSyntax {
     if (text.startsWith("inf", start) && text.length() == start + 3) {
       return start == 0 ? Double.POSITIVE_INFINITY : Double.NEGATIVE_INFINITY;
     }
-    if (start == text.length() || literalEnd(text, start) != text.length()) {
-      throw new InvalidNumberException(text, "is not a number", "write a number as " + FORMS);
-    }
     double plain = plainDecimal(text, start);
     if (plain == plain) {
       return plain;
+    }
+    if (start == text.length() || literalEnd(text, start) != text.length()) {
+      throw new InvalidNumberException(text, "is not a number", "write a number as " + FORMS);
     }
     // The grammar is a subset of Java's, so parseDouble reads it exactly (correctly rounded).
     double value = Double.parseDouble(text);
@@ -126,9 +126,9 @@ public final class NumberSyntax {
   }
 
   /**
-   * The value of a literal without exponent ({@code text} from {@code start}, already checked to
-   * be one) whose digits, point removed, make a whole number below 2^53 with at most 22 after
-   * the point: that number and the power of ten are then exact doubles, and their quotient,
+   * The value of {@code text} from {@code start} where it is a literal without exponent (digits
+   * with at most one point, at least one digit) whose digits, point removed, make a whole number
+   * below 2^53 with at most 22 after the point: that number and the power of ten are then exact doubles, and their quotient,
    * rounded once by the division, is the correctly rounded value of the decimal (Clinger 1990,
    * "How to read floating point numbers accurately", the fast path), the same bits as {@link
    * Double#parseDouble}. {@code NaN} for any other literal, which parseDouble reads. Why: data
@@ -138,9 +138,15 @@ public final class NumberSyntax {
   private static double plainDecimal(String text, int start) {
     long digits = 0;
     int afterPoint = -1;
+    if (start + (text.indexOf('.') >= 0 ? 1 : 0) >= text.length()) {
+      return Double.NaN; // no digit: not a literal
+    }
     for (int i = start; i < text.length(); i++) {
       char c = text.charAt(i);
       if (c == '.') {
+        if (afterPoint >= 0) {
+          return Double.NaN; // a second point: not a literal
+        }
         afterPoint = 0;
         continue;
       }

@@ -412,9 +412,20 @@ final class MovePatterns {
     private final List<Term> terms;
     private final Map<Integer, Formula> replace;
 
+    /** Per slot, whether it moves (the keys of {@code replace}), read for every row's leaves. */
+    private final boolean[] moving;
+
     Moved(List<Term> terms, Map<Integer, Formula> replace) {
       this.terms = terms;
       this.replace = replace;
+      int largest = -1;
+      for (int j : replace.keySet()) {
+        largest = Math.max(largest, j);
+      }
+      this.moving = new boolean[largest + 1];
+      for (int j : replace.keySet()) {
+        moving[j] = true;
+      }
     }
 
     @Override
@@ -429,7 +440,7 @@ final class MovePatterns {
 
     /** Whether slot {@code j} moves along the line. */
     boolean moves(int j) {
-      return replace.containsKey(j);
+      return j >= 0 && j < moving.length && moving[j];
     }
 
     @Override

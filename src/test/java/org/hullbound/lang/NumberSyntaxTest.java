@@ -75,7 +75,8 @@ class NumberSyntaxTest {
   @ParameterizedTest
   @ValueSource(strings = {
     "22d", "2.2e1f", "0x1.6p4", "22D", "1F", "NaN", "Infinity", "-Infinity", "+1", "1e", "1e+",
-    ".", "-", "", " 1", "1 ", "1_000", "1,5", "--1", "1..2", "e3", "0x10", "1.2.3", "-inf2", "INF"
+    ".", "-", "", " 1", "1 ", "1_000", "1,5", "--1", "1..2", "e3", "0x10", "1.2.3", "-inf2", "INF",
+    "-.", "..", "5..", "-1.5.", "1-2"
   })
   void refusesEverythingElse(String text) {
     NumberSyntax.InvalidNumberException e =
