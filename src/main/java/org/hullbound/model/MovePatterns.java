@@ -472,6 +472,9 @@ final class MovePatterns {
     int scaleFree = 0;
     Moved rows = moved instanceof Moved m ? m : null;
     java.util.function.IntPredicate moves = rows == null ? null : rows::moves;
+    StatementFormula lastStatement = null;
+    int onlyArgument = StatementFormula.READ_THE_TERM;
+    Object lastPiece = null;
     StatementFormula.ArgumentAnswers answered = new StatementFormula.ArgumentAnswers();
     for (int i = 0; i < moved.size(); i++) {
       StatementFormula statement = rows == null ? null : rows.statement(i);
@@ -480,7 +483,14 @@ final class MovePatterns {
         // unknown (so it is not scale-free), and an argument that reads a moved unknown stays
         // affine along the line, as every line here moves each unknown affinely in t; the row
         // says only which arguments move.
-        int k = statement.movingArgument(rows.row(i), moves);
+        // every row here reads a moved unknown, through its arguments where its value is data:
+        // one argument alone that can read one is then the row's, with no row looked at
+        if (statement != lastStatement) {
+          lastStatement = statement;
+          onlyArgument = statement.everyRowObserved() ? statement.onlyArgumentReading(moves)
+              : StatementFormula.READ_THE_TERM;
+        }
+        int k = onlyArgument >= 0 ? onlyArgument : statement.movingArgument(rows.row(i), moves);
         if (k == StatementFormula.NO_ARGUMENT) {
           continue;
         }
@@ -489,7 +499,10 @@ final class MovePatterns {
           return failed;
         }
         if (answer != null) {
-          pieces.add((String) answer);
+          if (answer != lastPiece) {
+            pieces.add((String) answer);
+            lastPiece = answer;
+          }
           continue;
         }
       }

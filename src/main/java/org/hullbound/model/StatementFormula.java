@@ -507,6 +507,54 @@ final class StatementFormula {
   }
 
   /**
+   * The one argument through which any row of this statement can read a slot {@code which}
+   * accepts, worked out once from the params its arguments' leaves name (every element of each):
+   * a row that reads such a slot through its arguments then reads it there alone, and {@link
+   * #movingArgument} is that argument for it, with no row looked at. {@link #READ_THE_TERM} where
+   * the rows must be looked at: several arguments or none may read one, the statement is
+   * truncated, or a param has too many elements to look through. For a statement {@link
+   * #affineInEveryUnknown} only.
+   */
+  int onlyArgumentReading(java.util.function.IntPredicate which) {
+    if (truncated()) {
+      return READ_THE_TERM;
+    }
+    int found = READ_THE_TERM;
+    for (int k = 0; k < paramLeaves.length; k++) {
+      boolean may = false;
+      for (Element leaf : paramLeaves[k]) {
+        Node param = leaf.node();
+        if (param.size > ModelLowering.LARGEST_HELD_LET) {
+          return READ_THE_TERM;
+        }
+        for (int i = 0; i < param.size && !may; i++) {
+          may = which.test(param.slots[i]);
+        }
+      }
+      if (may) {
+        if (found != READ_THE_TERM) {
+          return READ_THE_TERM;
+        }
+        found = k;
+      }
+    }
+    return found;
+  }
+
+  /** Whether no row's value is an unknown: data with no missing cell, each row observed. */
+  boolean everyRowObserved() {
+    Boolean observed = everyRowObserved;
+    if (observed == null) {
+      observed = node.kind == Node.Kind.DATA && !Lowering.anyMissing(node);
+      everyRowObserved = observed;
+    }
+    return observed;
+  }
+
+  /** {@link #everyRowObserved}, once worked out (a look at every row's missing flag). */
+  private Boolean everyRowObserved;
+
+  /**
    * Answers per (statement, argument), each worked out once in a pass over an unknown's blanket
    * or a line's moved terms: a piece of a proof, or the verdict that defeats it.
    */

@@ -204,12 +204,20 @@ final class UpdateAnalysis {
     java.util.function.IntPredicate unknown = read -> read == slot;
     java.util.function.BiFunction<org.hullbound.model.family.Parametrisation, Integer, Object>
         affinePieceHere = (family, a) -> affinePiece(family, a, where);
+    StatementFormula lastStatement = null;
+    int onlyArgument = StatementFormula.READ_THE_TERM;
+    Object lastPiece = null;
     for (int i = 0; i < dependents.size(); i++) {
       StatementFormula statement = rows == null || scale != Scale.NATURAL ? null
           : rows.statement(i);
       if (statement != null && statement.affineInEveryUnknown()) {
-        // answered from the statement, the row only for which argument reads the unknown
-        int k = statement.movingArgument(rows.row(i), unknown);
+        // answered from the statement, the row only for which argument reads the unknown, and
+        // not even that where one argument alone can read it (a dependent row reads it there)
+        if (statement != lastStatement) {
+          lastStatement = statement;
+          onlyArgument = statement.onlyArgumentReading(unknown);
+        }
+        int k = onlyArgument >= 0 ? onlyArgument : statement.movingArgument(rows.row(i), unknown);
         if (k == StatementFormula.NO_ARGUMENT) {
           continue;
         }
@@ -219,7 +227,10 @@ final class UpdateAnalysis {
           return failed;
         }
         if (answer != null) {
-          pieces.add((String) answer);
+          if (answer != lastPiece) {
+            pieces.add((String) answer);
+            lastPiece = answer;
+          }
           continue;
         }
       }

@@ -57,6 +57,17 @@ class StatementAnswersTest {
     param centre ~ normal(mean = 0, sd = 2)
     param effect[g] ~ normal(mean = 0, sd = 1)
     """,
+    // truncated rows whose every argument reads a param (so the statement answers for them)
+    """
+    model truncated_spread
+    index g = 1 .. 3
+    index row
+    data  g_of[row]
+    data  y[row] ~ normal(mean = intercept + effect[g_of[row]], sd = sigma) within -20 .. 20
+    param intercept ~ normal(mean = 0, sd = 2)
+    param sigma ~ half-normal(sd = 1)
+    param effect[g] ~ normal(mean = 0, sd = 1)
+    """,
     // the same unknown twice in one row (g_of = h_of on some rows), a non-affine link
     """
     model twice
