@@ -31,18 +31,7 @@ class RowChecksTest {
   private static final int BAD = 4_321;
 
   /** The clinics demo (models/clinics.hbm): its predictor a let per row. */
-  private static final String CLINICS = """
-      model clinics
-      index clinic = 1 .. 4
-      index patient
-      data  clinic_of[patient], dose[patient]
-      let   eta[patient] = intercept + slope * dose[patient] + effect[clinic_of[patient]]
-      data  recovered[patient] ~ bernoulli(logit_p = eta[patient])
-      param intercept ~ normal(mean = 0, sd = 2)
-      param slope ~ normal(mean = 0, sd = 1)
-      param spread ~ half-normal(sd = 1)
-      param effect[clinic] ~ normal(mean = 0, sd = spread)
-      """;
+  private static final String CLINICS = TermTableTest.CLINICS;
 
   /** The same with the predictor written in the likelihood: each row's indexes read there. */
   private static final String CLINICS_INLINE = """
