@@ -11,7 +11,9 @@ import org.hullbound.lang.Statement;
 /**
  * The let phase of binding: every element of every {@code let} resolved (so that a fault in one
  * is reported even when nothing reads it) and the choice of which go with the draws as derived
- * quantities ({@link DerivedQuantities}).
+ * quantities ({@link DerivedQuantities}). A let per data row is checked from its body lowered
+ * once, element by element in numbers, and only an element with a fault is lowered, for its
+ * message: resolving each element made a formula tree per row (issue 14).
  */
 final class LetBinding {
   private final BindingScope scope;

@@ -85,11 +85,11 @@ final class TermBinding {
 
   /**
    * Whether row {@code e} of {@code node} ({@code statement} its {@link #checkingStatement})
-   * passes every check {@link #term} makes, worked out from
-   * its statement formula in numbers, with no formula or term made ({@link
-   * StatementFormula#evaluateRow}); the slots its arguments read are then in {@code check}. {@code
-   * false} where the statement cannot say (no statement formula) or the row has a fault: its term
-   * must then be made by {@link #term}, which names the fault as binding always did.
+   * passes every check {@link #term} makes, worked out from its statement formula in numbers,
+   * with no formula or term made ({@link StatementFormula#evaluateRow}); the slots its arguments
+   * read are then in {@code check}. {@code false} where the statement cannot say (no statement
+   * formula) or the row has a fault: its term must then be made by {@link #term}, which names
+   * the fault as binding always did.
    */
   boolean checkedFromStatement(
       Node node, StatementFormula statement, int e, StatementFormula.RowCheck check) {
