@@ -438,6 +438,11 @@ final class MovePatterns {
       return ((TermTable.Rows) terms).row(k);
     }
 
+    @Override
+    public int runEnd(int k) {
+      return terms instanceof TermTable.Rows rows ? rows.runEnd(k) : k + 1;
+    }
+
     /** Whether slot {@code j} moves along the line. */
     boolean moves(int j) {
       return j >= 0 && j < moving.length && moving[j];
@@ -502,6 +507,10 @@ final class MovePatterns {
           if (answer != lastPiece) {
             pieces.add((String) answer);
             lastPiece = answer;
+          }
+          if (onlyArgument >= 0) {
+            // the statement's answer holds for each of its rows here: past them at once
+            i = rows.runEnd(i) - 1;
           }
           continue;
         }

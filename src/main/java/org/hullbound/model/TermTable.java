@@ -144,6 +144,11 @@ final class TermTable extends AbstractList<Term> implements RandomAccess {
   /** In {@link #statements}: the node has no statement formula. */
   private static final Object NO_STATEMENT = new Object();
 
+  /** The index after the last term of the node of term {@code index}. */
+  int nodeEnd(int index) {
+    return starts[node(index) + 1];
+  }
+
   /** The row (element) of term {@code index} within its node. */
   int rowOf(int index) {
     return index - starts[node(index)];
@@ -198,6 +203,14 @@ final class TermTable extends AbstractList<Term> implements RandomAccess {
 
     /** The row (element) of term {@code k} within its statement. */
     int row(int k);
+
+    /**
+     * The end (exclusive) of the run of terms from {@code k} on that are rows of the same node
+     * as term {@code k}: a pass that answers them all from their statement skips to it.
+     */
+    default int runEnd(int k) {
+      return k + 1;
+    }
   }
 
   private static final class Selected extends AbstractList<Term> implements RandomAccess, Rows {
@@ -217,6 +230,17 @@ final class TermTable extends AbstractList<Term> implements RandomAccess {
     @Override
     public int row(int k) {
       return terms instanceof TermTable table ? table.rowOf(indexes[k]) : -1;
+    }
+
+    @Override
+    public int runEnd(int k) {
+      if (!(terms instanceof TermTable table)) {
+        return k + 1;
+      }
+      // the indexes increase: the first one past the node's last term ends the run
+      int end = table.nodeEnd(indexes[k]);
+      int found = Arrays.binarySearch(indexes, k + 1, indexes.length, end);
+      return found >= 0 ? found : -found - 1;
     }
 
     @Override

@@ -231,6 +231,10 @@ final class UpdateAnalysis {
             pieces.add((String) answer);
             lastPiece = answer;
           }
+          if (onlyArgument >= 0) {
+            // the statement's answer holds for each of its rows here: past them at once
+            i = rows.runEnd(i) - 1;
+          }
           continue;
         }
       }
